@@ -1,0 +1,445 @@
+"""Beam actions: supports, loads, and an exact direct-stiffness solution of a prismatic beam.
+
+The member is a straight Euler-Bernoulli beam of constant EI. Positions x run from the
+left end of the member (the tip of a left overhang, where there is one). Loads are
+positive downward (gravity). Results: upward reactions positive; sagging moment
+positive; shear V(x) = sum of upward forces left of x; deflection positive downward.
+
+Every load either acts at a node (point loads) or is uniform over whole elements (line
+and area loads, with nodes at their ends), so the stiffness solution with consistent
+load vectors is exact at the nodes, and shear, moment (by statics inside each element)
+and deflection (Hermite shape functions plus the uniform-load particular solution
+q L^4 xi^2 (1 - xi)^2 / 24 EI) are exact everywhere.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass
+
+import numpy as np
+
+from core.errors import Problem, ProjectError
+
+CASES = ("D", "L", "Lr", "S", "W")
+SUPPORTS = ("simple", "cantilever", "fixed-fixed", "propped")
+LOAD_TYPES = ("area", "line", "point")
+
+
+@dataclass(frozen=True)
+class Load:
+    """One load of one case. SI units; positive downward.
+
+    Attributes:
+        case: "D", "L", "Lr", "S" or "W" (ASCE 7 symbols).
+        type: "area" (value x tributary width), "line" or "point".
+        value: Pa for area, N/m for line, N for point loads.
+        tributary_width: m, area loads only.
+        start: m from the member's left end; None for the whole member.
+        end: m; None for the whole member.
+        at: m, point loads only.
+    """
+
+    case: str
+    type: str
+    value: float
+    tributary_width: float | None = None
+    start: float | None = None
+    end: float | None = None
+    at: float | None = None
+
+    @property
+    def line_value(self) -> float:
+        """Line load intensity, N/m (area loads times their tributary width)."""
+        if self.type == "area":
+            return self.value * (self.tributary_width or 0.0)
+        return self.value
+
+
+@dataclass(frozen=True)
+class BeamLayout:
+    """Spans and supports of the member.
+
+    Attributes:
+        spans: span lengths left to right, m.
+        supports: "simple" (several spans: continuous over pinned supports),
+            "cantilever" (fixed left, free right), "fixed-fixed", "propped"
+            (fixed left, pinned right).
+        overhang_left: m, simple/continuous only.
+        overhang_right: m, simple/continuous only.
+    """
+
+    spans: tuple[float, ...]
+    supports: str = "simple"
+    overhang_left: float = 0.0
+    overhang_right: float = 0.0
+
+    @property
+    def length(self) -> float:
+        """Total member length, m."""
+        return self.overhang_left + sum(self.spans) + self.overhang_right
+
+    def support_positions(self) -> tuple[float, ...]:
+        """x of every support, m."""
+        if self.supports == "cantilever":
+            return (0.0,)
+        xs = [self.overhang_left]
+        for s in self.spans:
+            xs.append(xs[-1] + s)
+        return tuple(xs)
+
+    def support_kinds(self) -> tuple[str, ...]:
+        """'pin' or 'fixed' for each support."""
+        n = len(self.support_positions())
+        if self.supports == "cantilever":
+            return ("fixed",)
+        if self.supports == "fixed-fixed":
+            return ("fixed", "fixed")
+        if self.supports == "propped":
+            return ("fixed", "pin")
+        return ("pin",) * n
+
+    def regions(self) -> list[tuple[str, float, float]]:
+        """Named parts of the member: overhangs and spans, (name, x0, x1)."""
+        out = []
+        if self.supports == "cantilever":
+            return [("cantilever", 0.0, self.spans[0])]
+        x = 0.0
+        if self.overhang_left > 0:
+            out.append(("left overhang", 0.0, self.overhang_left))
+        x = self.overhang_left
+        for i, s in enumerate(self.spans):
+            out.append((f"span {i + 1}", x, x + s))
+            x += s
+        if self.overhang_right > 0:
+            out.append(("right overhang", x, x + self.overhang_right))
+        return out
+
+
+def validate_layout(layout: BeamLayout, path: str = "beam") -> list[Problem]:
+    """Named problems of spans, supports and overhangs."""
+    problems = []
+    if not layout.spans:
+        problems.append(Problem(f"{path}.spans", "needs at least one span"))
+    for i, s in enumerate(layout.spans):
+        if not np.isfinite(s) or s <= 0:
+            problems.append(Problem(f"{path}.spans[{i}]", "must be greater than zero"))
+    if layout.supports not in SUPPORTS:
+        problems.append(Problem(f"{path}.supports", f'"{layout.supports}" is not one of '
+                                + ", ".join(SUPPORTS)))
+    elif layout.supports != "simple" and len(layout.spans) != 1:
+        problems.append(Problem(f"{path}.supports", f'"{layout.supports}" needs exactly one '
+                                f"span, not {len(layout.spans)}; several spans are "
+                                'continuous over pinned supports ("simple")'))
+    for side in ("overhang_left", "overhang_right"):
+        v = getattr(layout, side)
+        if not np.isfinite(v) or v < 0:
+            problems.append(Problem(f"{path}.{side}", "must be zero or more"))
+        elif v > 0 and layout.supports != "simple":
+            problems.append(Problem(f"{path}.{side}", "overhangs are only for simple or "
+                                    "continuous spans"))
+    return problems
+
+
+def validate_load(load: Load, length: float, path: str) -> list[Problem]:
+    """Named problems of one load on a member of ``length``."""
+    problems = []
+    tol = 1e-9 * max(length, 1.0)
+    if load.case not in CASES:
+        problems.append(Problem(f"{path}.case", f'"{load.case}" is not a load case; use one '
+                                "of " + ", ".join(CASES)))
+    if load.type not in LOAD_TYPES:
+        problems.append(Problem(f"{path}.type", f'"{load.type}" is not one of '
+                                + ", ".join(LOAD_TYPES)))
+        return problems
+    if not np.isfinite(load.value):
+        problems.append(Problem(f"{path}.value", "is not a finite number"))
+    if load.type == "point":
+        if load.at is None:
+            problems.append(Problem(f"{path}.at", "is missing (where the point load acts)"))
+        elif not -tol <= load.at <= length + tol:
+            problems.append(Problem(f"{path}.at", f"is outside the member (0 to {length:.4g} m)"))
+    else:
+        if load.type == "area" and (load.tributary_width is None or load.tributary_width <= 0):
+            problems.append(Problem(f"{path}.tributary_width", "must be greater than zero"))
+        start = 0.0 if load.start is None else load.start
+        end = length if load.end is None else load.end
+        if not -tol <= start <= length + tol:
+            problems.append(Problem(f"{path}.from", f"is outside the member (0 to {length:.4g} m)"))
+        if not -tol <= end <= length + tol:
+            problems.append(Problem(f"{path}.to", f"is outside the member (0 to {length:.4g} m)"))
+        if end <= start:
+            problems.append(Problem(f"{path}.to", "must be greater than from"))
+    return problems
+
+
+@dataclass(frozen=True, eq=False)
+class CaseSolution:
+    """Exact solution of one load (or load set) for EI = 1.
+
+    Per element e from ``nodes[e]`` to ``nodes[e+1]``: V(x) = V0 + q x and
+    M(x) = M0 + V0 x + q x^2 / 2 (x local, q upward positive), deflection (downward
+    positive) = -(Hermite(v1, t1, v2, t2) + q L^4 xi^2 (1 - xi)^2 / 24) / EI.
+    """
+
+    V0: np.ndarray
+    M0: np.ndarray
+    q: np.ndarray
+    u: np.ndarray
+    reactions: np.ndarray
+    reaction_moments: np.ndarray
+
+    def scaled(self, factor: float) -> CaseSolution:
+        """Return this solution times ``factor`` (the beam is linear)."""
+        return CaseSolution(self.V0 * factor, self.M0 * factor, self.q * factor,
+                            self.u * factor, self.reactions * factor,
+                            self.reaction_moments * factor)
+
+    def __add__(self, other: CaseSolution) -> CaseSolution:
+        return CaseSolution(self.V0 + other.V0, self.M0 + other.M0, self.q + other.q,
+                            self.u + other.u, self.reactions + other.reactions,
+                            self.reaction_moments + other.reaction_moments)
+
+
+class BeamModel:
+    """Mesh and stiffness of a member for a given layout and set of load positions.
+
+    Build once per layout and set of loads; solve any load for EI = 1 and scale.
+    """
+
+    def __init__(self, layout: BeamLayout, loads: tuple[Load, ...] | list[Load]):
+        problems = validate_layout(layout)
+        if problems:
+            raise ProjectError(problems)
+        self.layout = layout
+        L = layout.length
+        pts = {0.0, L, *layout.support_positions()}
+        for ld in loads:
+            if ld.type == "point" and ld.at is not None:
+                pts.add(min(max(ld.at, 0.0), L))
+            else:
+                pts.add(0.0 if ld.start is None else min(max(ld.start, 0.0), L))
+                pts.add(L if ld.end is None else min(max(ld.end, 0.0), L))
+        nodes = np.array(sorted(pts))
+        keep = np.concatenate([[True], np.diff(nodes) > 1e-9 * max(L, 1.0)])
+        self.nodes = nodes[keep]
+        self.nodes[-1] = L
+        self.lengths = np.diff(self.nodes)
+        n_dof = 2 * self.nodes.size
+        K = np.zeros((n_dof, n_dof))
+        for e, le in enumerate(self.lengths):
+            K[2 * e : 2 * e + 4, 2 * e : 2 * e + 4] += _element_stiffness(le)
+        self.K = K
+        fixed = []
+        self.support_nodes = []
+        for xs, kind in zip(layout.support_positions(), layout.support_kinds(), strict=True):
+            node = int(np.argmin(np.abs(self.nodes - xs)))
+            self.support_nodes.append(node)
+            fixed.append(2 * node)
+            if kind == "fixed":
+                fixed.append(2 * node + 1)
+        self.fixed = np.array(sorted(fixed))
+        self.free = np.setdiff1d(np.arange(n_dof), self.fixed)
+        self._factor = np.linalg.cholesky(K[np.ix_(self.free, self.free)])
+
+    def node_index(self, x: float) -> int:
+        """Index of the node nearest to ``x``."""
+        return int(np.argmin(np.abs(self.nodes - x)))
+
+    def solve(self, loads: list[Load] | tuple[Load, ...], extra_line: float = 0.0) -> CaseSolution:
+        """Solve for the given loads (downward positive) with EI = 1.
+
+        Args:
+            loads: loads of one case (or any set).
+            extra_line: a uniform downward line load over the whole member, N/m
+                (self-weight).
+        """
+        n_el = self.lengths.size
+        q_el = np.full(n_el, -float(extra_line))  # upward positive
+        F = np.zeros(2 * self.nodes.size)
+        mids = (self.nodes[:-1] + self.nodes[1:]) / 2
+        L = self.layout.length
+        for ld in loads:
+            if ld.type == "point":
+                F[2 * self.node_index(float(ld.at or 0.0))] -= ld.value
+            else:
+                a = 0.0 if ld.start is None else ld.start
+                b = L if ld.end is None else ld.end
+                q_el[(mids > a) & (mids < b)] -= ld.line_value
+        le = self.lengths
+        Fe = np.zeros_like(F)
+        np.add.at(Fe, 2 * np.arange(n_el), q_el * le / 2)
+        np.add.at(Fe, 2 * np.arange(n_el) + 1, q_el * le**2 / 12)
+        np.add.at(Fe, 2 * np.arange(n_el) + 2, q_el * le / 2)
+        np.add.at(Fe, 2 * np.arange(n_el) + 3, -q_el * le**2 / 12)
+        total = F + Fe
+        u = np.zeros_like(F)
+        rhs = total[self.free]
+        y = np.linalg.solve(self._factor, rhs)
+        u[self.free] = np.linalg.solve(self._factor.T, y)
+        R = self.K @ u - total
+        reactions = np.array([R[2 * n] for n in self.support_nodes])
+        kinds = self.layout.support_kinds()
+        reaction_moments = np.array([
+            R[2 * n + 1] if k == "fixed" else 0.0
+            for n, k in zip(self.support_nodes, kinds, strict=True)
+        ])
+        # element end forces -> V0, M0 at each element's left end
+        V0 = np.empty(n_el)
+        M0 = np.empty(n_el)
+        for e in range(n_el):
+            ue = u[2 * e : 2 * e + 4]
+            f = _element_stiffness(le[e]) @ ue - np.array(
+                [q_el[e] * le[e] / 2, q_el[e] * le[e] ** 2 / 12,
+                 q_el[e] * le[e] / 2, -q_el[e] * le[e] ** 2 / 12])
+            V0[e] = f[0]
+            M0[e] = -f[1]
+        return CaseSolution(V0, M0, q_el, u, reactions, reaction_moments)
+
+
+def _element_stiffness(le: float) -> np.ndarray:
+    """Euler-Bernoulli beam element stiffness for EI = 1, dofs (v1, t1, v2, t2)."""
+    l2 = le * le
+    return np.array([
+        [12, 6 * le, -12, 6 * le],
+        [6 * le, 4 * l2, -6 * le, 2 * l2],
+        [-12, -6 * le, 12, -6 * le],
+        [6 * le, 2 * l2, -6 * le, 4 * l2],
+    ]) / (l2 * le)
+
+
+@dataclass(frozen=True)
+class Extremes:
+    """Extreme actions of one solution (SI). Deflection positive downward."""
+
+    M_max: float
+    x_M_max: float
+    M_min: float
+    x_M_min: float
+    V_max_abs: float
+    x_V_max_abs: float
+    deflection_max_abs: float
+    x_deflection_max: float
+    deflection_by_region: tuple[tuple[str, float, float], ...]
+
+
+def element_polynomials(model: BeamModel, sol: CaseSolution, EI: float) -> list[dict[str, np.ndarray]]:
+    """Per element, polynomial coefficients (numpy order, highest first, local x) of
+    V, M and downward deflection."""
+    out = []
+    for e, le in enumerate(model.lengths):
+        v1, t1, v2, t2 = sol.u[2 * e : 2 * e + 4]
+        q = sol.q[e]
+        # Hermite cubic in local x
+        a0 = v1
+        a1 = t1
+        a2 = (3 * (v2 - v1) / le - 2 * t1 - t2) / le
+        a3 = (2 * (v1 - v2) / le + t1 + t2) / le**2
+        # particular q x^2 (L - x)^2 / 24 = q/24 (x^4 - 2 L x^3 + L^2 x^2)
+        p = q / 24
+        w_up = np.array([p, a3 - 2 * le * p, a2 + le * le * p, a1, a0])
+        out.append({
+            "V": np.array([q, sol.V0[e]]),
+            "M": np.array([q / 2, sol.V0[e], sol.M0[e]]),
+            "w": -w_up / EI,
+        })
+    return out
+
+
+def extremes(model: BeamModel, sol: CaseSolution, EI: float) -> Extremes:
+    """True extrema of M, |V| and deflection, found from each element's polynomials."""
+    polys = element_polynomials(model, sol, EI)
+    best = {"Mmax": (-np.inf, 0.0), "Mmin": (np.inf, 0.0), "V": (-1.0, 0.0), "w": (-1.0, 0.0)}
+    region_defl: dict[str, tuple[float, float]] = {}
+    regions = model.layout.regions()
+    for e, le in enumerate(model.lengths):
+        x0 = model.nodes[e]
+        P = polys[e]
+        cand_m = [0.0, le]
+        if P["M"][0] != 0:
+            xr = -P["M"][1] / (2 * P["M"][0])
+            if 0 < xr < le:
+                cand_m.append(xr)
+        for xl in cand_m:
+            m = float(np.polyval(P["M"], xl))
+            if m > best["Mmax"][0]:
+                best["Mmax"] = (m, x0 + xl)
+            if m < best["Mmin"][0]:
+                best["Mmin"] = (m, x0 + xl)
+        for xl in (0.0, le):
+            v = abs(float(np.polyval(P["V"], xl)))
+            if v > best["V"][0] + 1e-12 * max(v, 1.0):
+                best["V"] = (v, x0 + xl)
+        cand_w = [0.0, le]
+        dw = np.polyder(P["w"])
+        dw = np.trim_zeros(dw, "f")
+        if dw.size > 1:
+            for r in np.roots(dw):
+                if abs(r.imag) < 1e-9 * le and 0 < r.real < le:
+                    cand_w.append(float(r.real))
+        mid = x0 + le / 2
+        name = next((n for n, a, b in regions if a <= mid <= b), "member")
+        for xl in cand_w:
+            w = float(np.polyval(P["w"], xl))
+            if abs(w) > best["w"][0]:
+                best["w"] = (abs(w), x0 + xl)
+            cur = region_defl.get(name)
+            if cur is None or abs(w) > abs(cur[0]):
+                region_defl[name] = (w, x0 + xl)
+    by_region = tuple((n, *region_defl[n]) for n, _, _ in regions if n in region_defl)
+    w_abs, x_w = best["w"]
+    return Extremes(
+        M_max=best["Mmax"][0], x_M_max=best["Mmax"][1],
+        M_min=best["Mmin"][0], x_M_min=best["Mmin"][1],
+        V_max_abs=best["V"][0], x_V_max_abs=best["V"][1],
+        deflection_max_abs=w_abs, x_deflection_max=x_w,
+        deflection_by_region=by_region,
+    )
+
+
+@dataclass(frozen=True, eq=False)
+class Diagram:
+    """Shear, moment and downward deflection sampled along the member (SI).
+
+    Stations include every node from both sides (shear jumps at point loads) and the
+    element extrema of moment and deflection.
+    """
+
+    x: np.ndarray
+    V: np.ndarray
+    M: np.ndarray
+    deflection: np.ndarray
+
+
+def diagram(model: BeamModel, sol: CaseSolution, EI: float, per_element: int = 24) -> Diagram:
+    """Sample V, M and deflection along the member (load-aware stations)."""
+    polys = element_polynomials(model, sol, EI)
+    xs, vs, ms, ws = [], [], [], []
+    for e, le in enumerate(model.lengths):
+        P = polys[e]
+        local = list(np.linspace(0.0, le, per_element + 1))
+        if P["M"][0] != 0:
+            xr = -P["M"][1] / (2 * P["M"][0])
+            if 0 < xr < le:
+                local.append(float(xr))
+        dw = np.trim_zeros(np.polyder(P["w"]), "f")
+        if dw.size > 1:
+            for r in np.roots(dw):
+                if abs(r.imag) < 1e-9 * le and 0 < r.real < le:
+                    local.append(float(r.real))
+        loc = np.array(sorted(local))
+        xs.append(model.nodes[e] + loc)
+        vs.append(np.polyval(P["V"], loc))
+        ms.append(np.polyval(P["M"], loc))
+        ws.append(np.polyval(P["w"], loc))
+    return Diagram(np.concatenate(xs), np.concatenate(vs), np.concatenate(ms), np.concatenate(ws))
+
+
+def combine(solutions: Mapping[str, CaseSolution], factors: Mapping[str, float]) -> CaseSolution | None:
+    """Linear combination of case solutions; None when no case is present."""
+    out: CaseSolution | None = None
+    for case, f in factors.items():
+        if case in solutions and f != 0:
+            s = solutions[case].scaled(f)
+            out = s if out is None else out + s
+    return out
