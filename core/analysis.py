@@ -42,6 +42,7 @@ class CombinationResult:
     long_term: Extremes | None
     short_term_rest: Extremes | None
     total: Extremes
+    total_solution: CaseSolution
     M_governing: float
     M_sustained: float
 
@@ -140,7 +141,8 @@ def analyse_beam(project: Project, section: Section, design: DesignSpec) -> Beam
             m_sus = long_ext.M_max if abs(long_ext.M_max) >= abs(long_ext.M_min) else (
                 long_ext.M_min)
         results.append(CombinationResult(combo, duration_of(combo, basis), sol, ext, sus_f,
-                                         long_ext, rest_ext, total, m_gov, m_sus))
+                                         long_ext, rest_ext, total, total_sol, m_gov,
+                                         m_sus))
     if not results:
         raise ProjectError(Problem("beam.combinations", "no combination has a load case that "
                                    "the beam carries"))

@@ -388,6 +388,10 @@ def extremes(model: BeamModel, sol: CaseSolution, EI: float) -> Extremes:
                 region_defl[name] = (w, x0 + xl)
     by_region = tuple((n, *region_defl[n]) for n, _, _ in regions if n in region_defl)
     w_abs, x_w = best["w"]
+    scale = max(abs(best["Mmax"][0]), abs(best["Mmin"][0]), 1e-300)
+    for key in ("Mmax", "Mmin"):
+        if abs(best[key][0]) < 1e-9 * scale:
+            best[key] = (0.0, best[key][1])
     return Extremes(
         M_max=best["Mmax"][0], x_M_max=best["Mmax"][1],
         M_min=best["Mmin"][0], x_M_min=best["Mmin"][1],

@@ -15,12 +15,15 @@ TEMPERATURES = ("normal", "up-to-125F", "up-to-150F")
 
 @dataclass(frozen=True)
 class Connector:
-    """A connector for the interfaces of stacked plies: screw or bolt, allowable load per
-    connector (N) as the user gives it (already adjusted)."""
+    """A connector for the interfaces of stacked plies: screw, nail or bolt, with the
+    allowable (US) or design (EU) lateral load per connector in N, as the user gives it
+    (already adjusted); None: the spacing check is not made. ``spacing`` in m; None: the
+    tool picks the largest stock spacing that works."""
 
     type: str = "screw"
-    allowable: float = 1112.0  # 250 lbf: invented demo default, the user sets their own
+    allowable: float | None = None
     rows: int = 1
+    spacing: float | None = None
 
 
 @dataclass(frozen=True)
@@ -32,11 +35,17 @@ class Bolt:
         Fyb: bolt bending yield strength, Pa (45,000 psi typical, from memory of NDS
             Table 12.3.3 footnote).
         rows: bolts across the depth at each bolt location.
+        fu: bolt tensile strength for EN 1995-1-1 (8.30), Pa (grade 4.6: 400 MPa,
+            EN 1993-1-8 Table 3.1, from memory).
+        spacing: spacing of bolt locations along the member, m; None: the tool picks the
+            largest stock spacing that works.
     """
 
     diameter: float = 0.0127
     Fyb: float = 310.26e6
     rows: int = 2
+    fu: float = 400e6
+    spacing: float | None = None
 
 
 @dataclass(frozen=True)

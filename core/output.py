@@ -232,7 +232,7 @@ def check_text(a: Analysis, moment: float | None = None, shear: float | None = N
     if a.beam is not None:
         lines.extend(beam_text(a.beam, u))
     if a.checks:
-        from core.checks_output import checks_text
+        from core.checks.text import checks_text
 
         lines.extend(checks_text(a.checks, u))
     if a.warnings:

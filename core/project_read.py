@@ -366,36 +366,51 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
             problems.append(Problem(f"{path}.connector", "must be an object"))
         else:
             for key in c:
-                if key not in ("type", "allowable", "rows"):
+                if key not in ("type", "allowable", "rows", "spacing"):
                     problems.append(Problem(f"{path}.connector.{key}", "is not a known key"))
             typ = c.get("type", "screw")
             if typ not in ("screw", "bolt", "nail"):
                 problems.append(Problem(f"{path}.connector.type", "must be screw, bolt or nail"))
-            allow = _quantity(c.get("allowable", ""), "force", f"{path}.connector.allowable",
-                              problems)
+            allow = None
+            if "allowable" in c:
+                allow = _quantity(c["allowable"], "force", f"{path}.connector.allowable",
+                                  problems)
+                if allow is not None and allow <= 0:
+                    problems.append(Problem(f"{path}.connector.allowable", "must be greater "
+                                            "than zero"))
+            spacing = None
+            if "spacing" in c:
+                spacing = _quantity(c["spacing"], "length", f"{path}.connector.spacing",
+                                    problems)
+                if spacing is not None and spacing <= 0:
+                    problems.append(Problem(f"{path}.connector.spacing", "must be greater "
+                                            "than zero"))
             rows = _number(c.get("rows", 1), f"{path}.connector.rows", problems, 1, 20)
-            if allow is not None and allow <= 0:
-                problems.append(Problem(f"{path}.connector.allowable", "must be greater than "
-                                        "zero"))
-            if allow is not None and rows is not None:
-                kw["connector"] = Connector(str(typ), allow, int(rows))
+            if rows is not None:
+                kw["connector"] = Connector(str(typ), allow, int(rows), spacing)
     if "bolt" in raw:
         b = raw["bolt"]
         if not isinstance(b, dict):
             problems.append(Problem(f"{path}.bolt", "must be an object"))
         else:
             for key in b:
-                if key not in ("diameter", "Fyb", "rows"):
+                if key not in ("diameter", "Fyb", "rows", "fu", "spacing"):
                     problems.append(Problem(f"{path}.bolt.{key}", "is not a known key"))
             dia = _quantity(b.get("diameter", "1/2 in"), "length", f"{path}.bolt.diameter",
                             problems)
             fyb = _quantity(b.get("Fyb", "45000 psi"), "stress", f"{path}.bolt.Fyb", problems)
+            fu = _quantity(b.get("fu", "400 MPa"), "stress", f"{path}.bolt.fu", problems)
             rows = _number(b.get("rows", 2), f"{path}.bolt.rows", problems, 1, 20)
-            if dia is not None and fyb is not None and rows is not None:
+            bsp = None
+            if "spacing" in b:
+                bsp = _quantity(b["spacing"], "length", f"{path}.bolt.spacing", problems)
+                if bsp is not None and bsp <= 0:
+                    problems.append(Problem(f"{path}.bolt.spacing", "must be greater than zero"))
+            if dia is not None and fyb is not None and rows is not None and fu is not None:
                 if dia <= 0:
                     problems.append(Problem(f"{path}.bolt.diameter", "must be greater than "
                                             "zero"))
-                kw["bolt"] = Bolt(dia, fyb, int(rows))
+                kw["bolt"] = Bolt(dia, fyb, int(rows), fu, bsp)
     if len(problems) > before:
         return None
     return DesignSpec(**kw)

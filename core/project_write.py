@@ -109,10 +109,17 @@ def write_design(d: DesignSpec, system: str) -> dict[str, Any]:
     if d.overrides:
         out["overrides"] = {k: dict(v) for k, v in d.overrides.items()}
     if d.connector != Connector():
-        out["connector"] = {"type": d.connector.type,
-                            "allowable": exact_text(d.connector.allowable, "force", system),
-                            "rows": d.connector.rows}
+        c: dict[str, Any] = {"type": d.connector.type, "rows": d.connector.rows}
+        if d.connector.allowable is not None:
+            c["allowable"] = exact_text(d.connector.allowable, "force", system)
+        if d.connector.spacing is not None:
+            c["spacing"] = exact_text(d.connector.spacing, "length", system)
+        out["connector"] = c
     if d.bolt != Bolt():
-        out["bolt"] = {"diameter": exact_text(d.bolt.diameter, "length", system),
-                       "Fyb": exact_text(d.bolt.Fyb, "stress", system), "rows": d.bolt.rows}
+        b: dict[str, Any] = {"diameter": exact_text(d.bolt.diameter, "length", system),
+                             "Fyb": exact_text(d.bolt.Fyb, "stress", system),
+                             "rows": d.bolt.rows, "fu": exact_text(d.bolt.fu, "stress", system)}
+        if d.bolt.spacing is not None:
+            b["spacing"] = exact_text(d.bolt.spacing, "length", system)
+        out["bolt"] = b
     return out

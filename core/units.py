@@ -279,16 +279,21 @@ _SI_TEXT = {"length": "m", "span": "m", "force": "N", "stress": "Pa", "modulus":
 
 
 def exact_text(value: float, kind: str, system: str) -> str:
-    """A quantity string in the file unit of ``system`` that parses back to exactly
-    ``value`` (falls back to SI with all digits where no short form does)."""
-    unit, factor = FILE_UNITS[system][kind]
+    """A quantity string in a file unit of ``system`` that parses back to exactly
+    ``value`` (tries the usual unit, then the other length unit, then SI with all
+    digits)."""
     dimension = "length" if kind == "span" else kind
-    number = value * factor
-    for digits in (6, 9, 12, 15, 17):
-        text = f"{number:.{digits}g} {unit}"
-        try:
-            if _parse_cached(text, dimension) == value:
-                return text
-        except UnitError:
-            break
+    candidates = [FILE_UNITS[system][kind]]
+    if dimension == "length":
+        other = "span" if kind == "length" else "length"
+        candidates.append(FILE_UNITS[system][other])
+    for unit, factor in candidates:
+        number = value * factor
+        for digits in (6, 9, 12, 15, 17):
+            text = f"{number:.{digits}g} {unit}"
+            try:
+                if _parse_cached(text, dimension) == value:
+                    return text
+            except UnitError:
+                break
     return f"{value!r} {_SI_TEXT[kind]}"

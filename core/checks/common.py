@@ -1,0 +1,155 @@
+"""Parts shared by both design bases: demands from the section and beam, deflection
+checks, joint layout of side-by-side plies, and stock fastener spacings."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from core.analysis import BeamResult, CombinationResult
+from core.beam import CaseSolution, extremes
+from core.checks import Check
+from core.section import Section
+
+#: Stock spacings tried for fasteners, largest first, at most 24 in / 600 mm (common
+#: practice: the 16 in and 24 in framing modules and their fractions; metric equivalents).
+STOCK_SPACINGS_US = tuple(x * 0.0254 for x in (24, 16, 12, 8, 6, 4, 3, 2))
+STOCK_SPACINGS_SI = tuple(x / 1000 for x in (600, 400, 300, 200, 150, 100, 75, 50))
+
+
+def bending_demand(section: Section, combo: CombinationResult, i: int) -> tuple[float, float]:
+    """Largest |stress| at ply i's extreme fibres under the combination's extreme
+    moments, and where it occurs. Returns (Pa, x)."""
+    ext = combo.extremes
+    best = (0.0, ext.x_M_max)
+    for m, x in ((ext.M_max, ext.x_M_max), (ext.M_min, ext.x_M_min)):
+        top, bot = section.ply_extreme_stresses(m)
+        s = max(abs(float(top[i])), abs(float(bot[i])))
+        if s > best[0]:
+            best = (s, x)
+    return best
+
+
+def unit_shear_stress(section: Section) -> np.ndarray:
+    """Largest shear stress in each ply for V = 1 N (Pa per N)."""
+    lo = float(section.y_bottom.min())
+    hi = float(section.y_top.max())
+    ys = np.unique(np.concatenate([np.linspace(lo, hi, 161), section.y_bottom, section.y_top,
+                                   [section.neutral_axis_y]]))
+    tau = np.abs(section.shear_stress(1.0, ys))
+    return np.asarray(np.nan_to_num(np.nanmax(np.where(np.isfinite(tau), tau, 0.0), axis=1)))
+
+
+def region_span(name: str, x0: float, x1: float) -> float:
+    """The length a deflection limit is applied to: the span, or twice an overhang or
+    cantilever (common practice)."""
+    length = x1 - x0
+    return 2 * length if ("overhang" in name or name == "cantilever") else length
+
+
+def deflection_checks(check_id: str, label: str, solution: CaseSolution, beam: BeamResult,
+                      EI: float, limit: float, sources: dict[str, str],
+                      notes: tuple[str, ...] = ()) -> list[Check]:
+    """One check per span and overhang: |deflection| against region length / limit."""
+    ext = extremes(beam.model, solution, EI)
+    regions = {n: (a, b) for n, a, b in beam.model.layout.regions()}
+    out = []
+    for name, w, x in ext.deflection_by_region:
+        a, b = regions[name]
+        span = region_span(name, a, b)
+        out.append(Check(
+            id=check_id, ply=None, combination=label, demand=abs(w), capacity=span / limit,
+            quantity="deflection", reference=("L", span),
+            partial_factors={"limit": limit}, sources={**sources, "L": "span length; twice "
+                                                       "the length for an overhang "
+                                                       "(common practice)"},
+            equation=f"delta <= L / {limit:g}", location=name, x=x, notes=notes))
+    return out
+
+
+@dataclass(frozen=True)
+class Joint:
+    """A steel ply bolted to timber plies beside it (a flitch or side-plate joint).
+
+    Attributes:
+        steel: index of the steel ply.
+        timbers: indices of the timber plies touching its vertical faces.
+        steel_is_main: True where timber lies on both sides (wood-steel-wood, double
+            shear); False where the steel is on one face (single shear).
+    """
+
+    steel: int
+    timbers: tuple[int, ...]
+    steel_is_main: bool
+
+
+def side_by_side_joints(section: Section) -> list[Joint]:
+    """Find steel plies with timber plies against their vertical faces."""
+    joints = []
+    size = section.depth
+    tol = size * 1e-7
+    for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):
+        if mat.kind != "steel" or section.area[i] <= 0:
+            continue
+        left = right = None
+        for j, (other, om) in enumerate(zip(section.plies, section.materials, strict=True)):
+            if om.kind != "timber" or section.area[j] <= 0:
+                continue
+            overlap = min(ply.top, other.top) - max(ply.y, other.y)
+            if overlap <= tol:
+                continue
+            if abs(other.x + other.width - ply.x) <= tol:
+                left = j
+            elif abs(ply.x + ply.width - other.x) <= tol:
+                right = j
+        timbers = tuple(j for j in (left, right) if j is not None)
+        if timbers:
+            joints.append(Joint(i, timbers, len(timbers) == 2))
+    return joints
+
+
+def plate_share(section: Section, i: int) -> float:
+    """Share of the load carried by ply i in proportion to its bending stiffness about the
+    common neutral axis, E_i I_i,na / EI (common practice for flitch beams)."""
+    return float(section.E[i] * section.I_na[i] / section.EI)
+
+
+def bearing_plies(section: Section) -> list[int]:
+    """Timber plies that reach the bottom of the section (those that bear)."""
+    bottom = float(section.y_bottom.min())
+    tol = section.depth * 1e-7
+    return [i for i, m in enumerate(section.materials)
+            if m.kind == "timber" and section.area[i] > 0
+            and abs(float(section.y_bottom[i]) - bottom) <= tol]
+
+
+def steel_at_bottom(section: Section) -> list[int]:
+    """Steel plies that reach the bottom of the section (and so the supports)."""
+    bottom = float(section.y_bottom.min())
+    tol = section.depth * 1e-7
+    return [i for i, m in enumerate(section.materials)
+            if m.kind == "steel" and abs(float(section.y_bottom[i]) - bottom) <= tol]
+
+
+def pick_spacing(required_per_length: float, per_location: float, user: float | None,
+                 stock: tuple[float, ...], minimum: float) -> float:
+    """The user's spacing, or the largest stock spacing (not below ``minimum``) at which
+    ``per_location`` capacity carries ``required_per_length`` (N/m); the smallest
+    allowed stock spacing where none does."""
+    if user is not None:
+        return user
+    allowed = [s for s in stock if s >= minimum] or [stock[-1]]
+    for s in allowed:
+        if per_location / s >= required_per_length:
+            return s
+    return allowed[-1]
+
+
+EDGE_END_REMINDERS = (
+    "Bolts: edge distance at least 4D from the loaded (top) edge and 1.5D from the "
+    "unloaded edge; end distance at least 4D (7D for full value in parallel-to-grain "
+    "loading); spacing between rows at least 2.5D; holes 1/32 to 1/16 in oversize "
+    "(NDS 12.5.1, from memory). Stagger bolts so that no two share a growth-ring line.",
+    "Point loads must reach the plate through bolts near where they act.",
+)

@@ -1,0 +1,125 @@
+"""Laterally loaded bolts: NDS 2018 12.3.1 yield limit equations and EN 1995-1-1 8.2.3
+(Johansen) steel-to-timber equations, both from memory.
+
+Lengths in m, stresses in Pa, forces in N (the yield limit equations are dimensionally
+consistent; only the empirical dowel bearing strengths need their own units).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+PSI = 6894.757293168361
+INCH = 0.0254
+
+
+@dataclass(frozen=True)
+class YieldModes:
+    """Values of every yield mode, N; ``governing`` names the lowest."""
+
+    modes: dict[str, float]
+
+    @property
+    def governing(self) -> str:
+        """The mode with the lowest value."""
+        return min(self.modes, key=lambda k: self.modes[k])
+
+    @property
+    def value(self) -> float:
+        """The lowest value, N."""
+        return self.modes[self.governing]
+
+
+def Fe_parallel(G: float) -> float:
+    """NDS 2018 Table 12.3.3 footnote: Fe_parallel = 11200 G psi (D >= 1/4 in). Pa."""
+    return 11200.0 * G * PSI
+
+
+def Fe_perpendicular(G: float, D: float) -> float:
+    """NDS 2018 Table 12.3.3 footnote: Fe_perp = 6100 G^1.45 / sqrt(D) psi, D in in. Pa."""
+    return 6100.0 * G**1.45 / math.sqrt(D / INCH) * PSI
+
+
+def Fe_steel(Fu: float) -> float:
+    """Dowel bearing strength of a steel member, Fe = 1.5 Fu (NDS 2018 Table 12.3.3
+    footnote for hot-rolled steel, from memory). Pa."""
+    return 1.5 * Fu
+
+
+def K_theta(theta_deg: float) -> float:
+    """NDS 2018 Table 12.3.1B: K_theta = 1 + 0.25 (theta / 90)."""
+    return 1.0 + 0.25 * (theta_deg / 90.0)
+
+
+def R_d(mode: str, theta_deg: float) -> float:
+    """NDS 2018 Table 12.3.1B reduction term for 1/4 in <= D <= 1 in: modes Im, Is 4 K_theta;
+    II 3.6 K_theta; IIIm, IIIs, IV 3.2 K_theta."""
+    k = K_theta(theta_deg)
+    return {"Im": 4.0, "Is": 4.0, "II": 3.6}.get(mode, 3.2) * k
+
+
+def nds_single_shear(D: float, lm: float, Fem: float, ls: float, Fes: float, Fyb: float,
+                     theta_deg: float) -> YieldModes:
+    """NDS 2018 Table 12.3.1A single-shear yield limit equations (from memory)."""
+    Re = Fem / Fes
+    Rt = lm / ls
+    k1 = (math.sqrt(Re + 2 * Re**2 * (1 + Rt + Rt**2) + Rt**2 * Re**3) - Re * (1 + Rt)) / (
+        1 + Re)
+    k2 = -1 + math.sqrt(2 * (1 + Re) + 2 * Fyb * (1 + 2 * Re) * D**2 / (3 * Fem * lm**2))
+    k3 = -1 + math.sqrt(2 * (1 + Re) / Re + 2 * Fyb * (2 + Re) * D**2 / (3 * Fem * ls**2))
+    return YieldModes({
+        "Im": D * lm * Fem / R_d("Im", theta_deg),
+        "Is": D * ls * Fes / R_d("Is", theta_deg),
+        "II": k1 * D * ls * Fes / R_d("II", theta_deg),
+        "IIIm": k2 * D * lm * Fem / ((1 + 2 * Re) * R_d("IIIm", theta_deg)),
+        "IIIs": k3 * D * ls * Fem / ((2 + Re) * R_d("IIIs", theta_deg)),
+        "IV": D**2 / R_d("IV", theta_deg) * math.sqrt(2 * Fem * Fyb / (3 * (1 + Re))),
+    })
+
+
+def nds_double_shear(D: float, lm: float, Fem: float, ls: float, Fes: float, Fyb: float,
+                     theta_deg: float) -> YieldModes:
+    """NDS 2018 Table 12.3.1A double-shear yield limit equations (from memory): modes Im,
+    Is, IIIs and IV; ls is the thinner side member."""
+    Re = Fem / Fes
+    k3 = -1 + math.sqrt(2 * (1 + Re) / Re + 2 * Fyb * (2 + Re) * D**2 / (3 * Fem * ls**2))
+    return YieldModes({
+        "Im": D * lm * Fem / R_d("Im", theta_deg),
+        "Is": 2 * D * ls * Fes / R_d("Is", theta_deg),
+        "IIIs": 2 * k3 * D * ls * Fem / ((2 + Re) * R_d("IIIs", theta_deg)),
+        "IV": 2 * D**2 / R_d("IV", theta_deg) * math.sqrt(2 * Fem * Fyb / (3 * (1 + Re))),
+    })
+
+
+def en_f_h_k(rho_k: float, d: float, alpha_deg: float) -> float:
+    """EN 1995-1-1 (8.32), (8.31), (8.33) embedment strength of bolts in softwood:
+    f_h,0,k = 0.082 (1 - 0.01 d) rho_k, f_h,alpha = f_h,0 / (k90 sin^2 + cos^2),
+    k90 = 1.35 + 0.015 d (d in mm, rho_k in kg/m3, result N/mm2). Returns Pa."""
+    dm = d * 1000.0
+    f0 = 0.082 * (1 - 0.01 * dm) * rho_k
+    k90 = 1.35 + 0.015 * dm
+    a = math.radians(alpha_deg)
+    return f0 / (k90 * math.sin(a) ** 2 + math.cos(a) ** 2) * 1e6
+
+
+def en_M_y(fu: float, d: float) -> float:
+    """EN 1995-1-1 (8.30) yield moment of a bolt: M_y,Rk = 0.3 f_u,k d^2.6 (N mm, d mm).
+    Returns N m."""
+    return 0.3 * (fu / 1e6) * (d * 1000.0) ** 2.6 / 1000.0
+
+
+def en_steel_centre(f_h: float, t1: float, d: float, M_y: float) -> YieldModes:
+    """EN 1995-1-1 (8.11) steel plate as the central member of a double-shear joint, per
+    shear plane, rope effect left out (conservative): modes f, g, h. N."""
+    return YieldModes({
+        "f": f_h * t1 * d,
+        "g": f_h * t1 * d * (math.sqrt(2 + 4 * M_y / (f_h * d * t1**2)) - 1),
+        "h": 2.3 * math.sqrt(M_y * f_h * d),
+    })
+
+
+def en_thin_steel_single(f_h: float, t1: float, d: float, M_y: float) -> YieldModes:
+    """EN 1995-1-1 (8.9) thin steel plate in single shear, rope effect left out: modes
+    a, b. N."""
+    return YieldModes({"a": 0.4 * f_h * t1 * d, "b": 1.15 * math.sqrt(2 * M_y * f_h * d)})

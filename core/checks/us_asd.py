@@ -1,0 +1,345 @@
+"""US allowable stress design: timber per NDS 2018, steel plates per AISC 360-16.
+
+Adjusted design values (NDS Table 4.3.1, from memory):
+F'b = Fb C_D C_M C_t C_L C_F C_i C_r (glulam: C_V in place of C_F, the lesser of C_L
+and C_V); F'v = Fv C_D C_M C_t C_i; F'c_perp = Fc_perp C_M C_t C_i C_b;
+E'min = Emin C_M C_t C_i. Bolts: Z' = Z C_D C_M C_t C_g C_Delta (NDS Table 11.3.1).
+"""
+
+from __future__ import annotations
+
+import math
+
+from core.analysis import BeamResult
+from core.caution import CAUTION
+from core.checks import Check, capacity_from
+from core.checks import nds
+from core.checks.common import (
+    EDGE_END_REMINDERS,
+    STOCK_SPACINGS_SI,
+    STOCK_SPACINGS_US,
+    bearing_plies,
+    bending_demand,
+    deflection_checks,
+    pick_spacing,
+    plate_share,
+    side_by_side_joints,
+    steel_at_bottom,
+    unit_shear_stress,
+)
+from core.checks.dowels import Fe_perpendicular, Fe_steel, nds_double_shear, nds_single_shear
+from core.design import DesignSpec
+from core.errors import Problem
+from core.project import Project
+from core.section import Section
+from core.units import fmt
+
+S_TABLE = "NDS 2018 Table 2.3.2 (from memory)"
+S_CM = "NDS Supplement Table 4A/5A wet service factors (from memory)"
+S_CT = "NDS 2018 Table 2.3.3 (from memory)"
+S_CI = "NDS 2018 Table 4.3.8 (from memory)"
+S_CR = "NDS 2018 4.3.9 (user's declaration)"
+S_CF = "NDS Supplement Table 4A size factors (from memory)"
+
+
+def _apply_overrides(factors: dict[str, float], sources: dict[str, str], design: DesignSpec,
+                     ply: str) -> None:
+    for sym, v in design.overrides.get(ply, {}).items():
+        if sym in factors:
+            factors[sym] = v
+            sources[sym] = "user override"
+
+
+def us_checks(project: Project, section: Section, beam: BeamResult,
+              design: DesignSpec) -> tuple[tuple[Check, ...], list[Problem]]:
+    """Every US-ASD check of the project."""
+    checks: list[Check] = []
+    warnings: list[Problem] = []
+    wet, temp = design.wet_service, design.temperature
+    combos = beam.combinations
+    tau_unit = unit_shear_stress(section)
+    member_width = max(p.x + p.width for p in section.plies) - min(p.x for p in section.plies)
+    for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):
+        if section.area[i] <= 0:
+            continue
+        if mat.kind == "timber":
+            Fb, Fv, Emin = mat.value("Fb"), mat.value("Fv"), mat.value("Emin")
+            if Fb is None or Fv is None:
+                warnings.append(Problem(f"plies[{i}].material", f'"{mat.id}" has no NDS '
+                                        "reference values (Fb, Fv); its timber checks are "
+                                        "skipped on the US basis"))
+                continue
+            cf = nds.C_F(ply.height, mat.product, mat.size_adjusted)
+            base = {"C_M": nds.C_M("Fb", mat.product, wet, Fb * cf),
+                    "C_t": nds.C_t("Fb", temp, wet),
+                    "C_i": nds.C_i("Fb", design.incised),
+                    "C_r": nds.C_r(design.repetitive_member, mat.product)}
+            src = {"Fb": mat.source_of("Fb"), "C_D": S_TABLE, "C_M": S_CM, "C_t": S_CT,
+                   "C_i": S_CI, "C_r": S_CR}
+            if mat.product == "glulam":
+                size_sym, size_val = "C_V", nds.C_V(beam.model.layout.length, ply.height,
+                                                    ply.width)
+                src["C_V"] = "NDS 2018 5.3.6 (from memory)"
+            else:
+                size_sym, size_val = "C_F", cf
+                src["C_F"] = S_CF if mat.product == "sawn" else (
+                    "NDS 2018 4.3.6.2 / typical LVL size factor (from memory)")
+            c_l = 1.0
+            notes: list[str] = []
+            if design.compression_edge_braced:
+                src["C_L"] = "compression edge braced (user's declaration), NDS 3.3.3"
+            else:
+                lu = design.unbraced_length or beam.model.layout.length
+                Emin_adj = (Emin or mat.E * 0.36) * nds.C_M("Emin", mat.product, wet) * \
+                    nds.C_t("Emin", temp, wet) * nds.C_i("Emin", design.incised)
+                fb_star = Fb * nds.C_D("ten-years") * math.prod(base.values()) * size_val
+                c_l = nds.C_L(fb_star, Emin_adj, ply.height, member_width, lu)
+                src["C_L"] = ("NDS 2018 3.3.3, l_e per Table 3.3.3 (uniform load), b = whole "
+                              "member width (plies bolted together), from memory")
+                notes.append(f"C_L from unbraced length {lu:.3f} m")
+            for combo in combos:
+                if combo.combination.limit_state not in ("ASD", "custom"):
+                    continue
+                f = {"C_D": nds.C_D(combo.duration), **base}
+                if mat.product == "glulam":
+                    f["C_V" if size_val <= c_l else "C_L"] = min(size_val, c_l)
+                else:
+                    f["C_L"] = c_l
+                    f[size_sym] = size_val
+                s = dict(src)
+                _apply_overrides(f, s, design, ply.name)
+                demand, x = bending_demand(section, combo, i)
+                checks.append(Check("bending", ply.name, combo.name, demand,
+                                    capacity_from(Fb, f), "stress", ("Fb", Fb), f, {}, s,
+                                    "f_b = n M c / I_t <= F'b = Fb x factors", "", x,
+                                    tuple(notes)))
+                fv = {"C_D": nds.C_D(combo.duration), "C_M": nds.C_M("Fv", mat.product, wet),
+                      "C_t": nds.C_t("Fv", temp, wet), "C_i": nds.C_i("Fv", design.incised)}
+                sv = {"Fv": mat.source_of("Fv"), "C_D": S_TABLE, "C_M": S_CM, "C_t": S_CT,
+                      "C_i": S_CI}
+                _apply_overrides(fv, sv, design, ply.name)
+                checks.append(Check(
+                    "shear", ply.name, combo.name, float(tau_unit[i]) * combo.extremes.V_max_abs,
+                    capacity_from(Fv, fv), "stress", ("Fv", Fv), fv, {}, sv,
+                    "f_v = V n Q / (I_t b) <= F'v = Fv x factors", "", combo.extremes.x_V_max_abs,
+                    ("Shear taken at the largest |V|, loads within d of supports included "
+                     "(conservative; NDS 3.4.3.1 permits leaving them out).",)))
+        elif mat.kind == "steel":
+            checks.extend(_steel_checks(i, section, beam, design, tau_unit))
+        else:
+            warnings.append(Problem(f"plies[{i}].material", f'"{mat.id}" is neither timber nor '
+                                    "steel: its stresses are reported but not checked"))
+    checks.extend(_bearing(project, section, beam, design, warnings))
+    checks.extend(_deflections(beam, section, design))
+    checks.extend(_bolts(section, beam, design, project.display_units))
+    checks.extend(_connectors(section, beam, design, project.display_units, warnings))
+    return tuple(checks), warnings
+
+
+def _steel_checks(i: int, section: Section, beam: BeamResult, design: DesignSpec,
+                  tau_unit: object) -> list[Check]:
+    ply, mat = section.plies[i], section.materials[i]
+    Fy = mat.value("Fy")
+    if Fy is None:
+        return []
+    out = []
+    if design.steel_rule == "AISC-F11":
+        f: dict[str, float] = {"Z/S": 1.5}
+        g = {"Omega_b": 1.67}
+        src = {"Fy": mat.source_of("Fy"), "Z/S": "rectangle, Mn = Fy Z <= 1.6 Fy S, AISC 360-16 "
+               "F11.1 (from memory)", "Omega_b": "AISC 360-16 F1 (from memory)"}
+        eq = "f_b = n M c / I_t <= Fy (Z/S) / Omega_b"
+    else:
+        f, g = {"F_b/F_y": 0.6}, {}
+        src = {"Fy": mat.source_of("Fy"), "F_b/F_y": "traditional allowable 0.6 Fy for plates "
+               "braced by the timbers (common practice)"}
+        eq = "f_b = n M c / I_t <= 0.6 Fy"
+    h, t = max(ply.height, ply.width), min(ply.height, ply.width)
+    kv_limit = 1.10 * math.sqrt(5.34 * mat.E / Fy)
+    cv1 = 1.0 if h / t <= kv_limit else kv_limit / (h / t)
+    fv = {"0.6": 0.6, "C_v1": cv1}
+    gv = {"Omega_v": 1.67}
+    sv = {"Fy": mat.source_of("Fy"), "0.6": "AISC 360-16 G2.1 (from memory)",
+          "C_v1": "AISC 360-16 G2.1(b), k_v = 5.34 (from memory)",
+          "Omega_v": "AISC 360-16 G1 (from memory)"}
+    for combo in beam.combinations:
+        demand, x = bending_demand(section, combo, i)
+        out.append(Check("bending", ply.name, combo.name, demand, capacity_from(Fy, f, g),
+                         "stress", ("Fy", Fy), f, g, src, eq, "", x,
+                         ("Plate assumed braced against lateral buckling by the timbers.",)))
+        out.append(Check("shear", ply.name, combo.name,
+                         float(tau_unit[i]) * combo.extremes.V_max_abs,  # type: ignore[index]
+                         capacity_from(Fy, fv, gv), "stress", ("Fy", Fy), fv, gv, sv,
+                         "f_v (peak) <= 0.6 Fy C_v1 / Omega_v", "", combo.extremes.x_V_max_abs,
+                         ("Peak shear stress compared with the average-stress rule "
+                          "(conservative).",)))
+    return out
+
+
+def _bearing(project: Project, section: Section, beam: BeamResult, design: DesignSpec,
+             warnings: list[Problem]) -> list[Check]:
+    lb = beam.spec.bearing_length
+    if lb is None:
+        return []
+    plies = bearing_plies(section)
+    steel = steel_at_bottom(section)
+    if steel and not design.steel_bears:
+        names = ", ".join(section.plies[i].name for i in steel)
+        warnings.append(Problem("beam.bearing_length", f"steel ply {names} reaches the supports "
+                                "but has no bearing data; the timber bearing check assumes the "
+                                "timber carries the whole reaction"))
+    cand = [(i, section.materials[i].value("Fc_perp")) for i in plies]
+    cand = [(i, v) for i, v in cand if v is not None]
+    if not cand:
+        return []
+    area = sum(section.plies[i].width for i, _ in cand) * lb
+    i_min, fcp = min(cand, key=lambda t: t[1])
+    mat = section.materials[i_min]
+    names = " + ".join(section.plies[i].name for i, _ in cand)
+    layout = beam.model.layout
+    L = layout.length
+    out = []
+    for k, xs in enumerate(layout.support_positions()):
+        worst = max(beam.combinations, key=lambda c: float(c.solution.reactions[k]))
+        R = float(worst.solution.reactions[k])
+        at_end = xs <= 1e-9 or xs >= L - 1e-9
+        f = {"C_M": nds.C_M("Fc_perp", mat.product, design.wet_service),
+             "C_t": nds.C_t("Fc_perp", design.temperature, design.wet_service),
+             "C_i": nds.C_i("Fc_perp", design.incised), "C_b": nds.C_b(lb, at_end)}
+        s = {"Fc_perp": mat.source_of("Fc_perp"), "C_M": S_CM, "C_t": S_CT, "C_i": S_CI,
+             "C_b": "NDS 2018 3.10.4 (from memory)"}
+        _apply_overrides(f, s, design, section.plies[i_min].name)
+        out.append(Check("bearing", names, worst.name, max(R, 0.0) / area,
+                         capacity_from(fcp, f), "stress", ("Fc_perp", fcp), f, {}, s,
+                         "f_c_perp = R / (sum b x l_b) <= F'c_perp", f"support {k + 1}", xs,
+                         ("Bearing area: timber plies at the bottom of the section times the "
+                          "bearing length.",)))
+    return out
+
+
+def _deflections(beam: BeamResult, section: Section, design: DesignSpec) -> list[Check]:
+    live, total, long_term = design.deflection_limits()
+    src = {"limit": "IBC 2018 Table 1604.3 (from memory) or the user's choice"}
+    out: list[Check] = []
+    EI = section.EI
+    for case in ("L", "Lr", "S", "W"):
+        if case in beam.cases:
+            out += deflection_checks("deflection-live", case, beam.cases[case], beam, EI, live,
+                                     src, ("Immediate deflection under the variable case "
+                                           "alone.",))
+    for combo in beam.combinations:
+        out += deflection_checks("deflection-total", combo.name, combo.solution, beam, EI,
+                                 total, src, ("Immediate deflection of the whole combination.",))
+        out += deflection_checks(
+            "deflection-long-term", combo.name, combo.total_solution, beam, EI, long_term,
+            {**src, "K_cr": "NDS 2018 3.5.2 (from memory)"},
+            (f"K_cr = {beam.creep_factor:g}: sustained part on the section with timber moduli "
+             "divided by K_cr, plus the short-term part.",))
+    return out
+
+
+def _bolts(section: Section, beam: BeamResult, design: DesignSpec, system: str) -> list[Check]:
+    joints = side_by_side_joints(section)
+    if not joints:
+        return []
+    bolt = design.bolt
+    D = bolt.diameter
+    L = beam.model.layout.length
+    stock = STOCK_SPACINGS_US if system == "US" else STOCK_SPACINGS_SI
+    out = []
+    for jt in joints:
+        steel = section.plies[jt.steel]
+        smat = section.materials[jt.steel]
+        Fu = smat.value("Fu")
+        timbers = [j for j in jt.timbers if section.materials[j].value("G") is not None]
+        if Fu is None or not timbers:
+            continue
+        G = min(section.materials[j].value("G") or 0.5 for j in timbers)
+        Fe_w = Fe_perpendicular(G, D)
+        Fe_s = Fe_steel(Fu)
+        thick = [_available_thickness(section, j) for j in timbers]
+        if jt.steel_is_main:
+            modes = nds_double_shear(D, steel.width, Fe_s, min(thick), Fe_w, bolt.Fyb, 90.0)
+            kind = "double shear, wood-steel-wood"
+        else:
+            modes = nds_single_shear(D, thick[0], Fe_w, steel.width, Fe_s, bolt.Fyb, 90.0)
+            kind = "single shear, steel on one face"
+        Z = modes.value
+        share = plate_share(section, jt.steel)
+        wood = section.materials[timbers[0]]
+        base = {"C_M": 0.7 if design.wet_service else 1.0,
+                "C_t": 1.0 if design.temperature == "normal" else (
+                    (0.7 if design.wet_service else 0.8) if design.temperature == "up-to-125F"
+                    else (0.5 if design.wet_service else 0.7)),
+                "C_g": 1.0, "C_Delta": 1.0}
+        worst_need = max(sum(float(r) for r in c.solution.reactions) * share /
+                         nds.C_D(c.duration) for c in beam.combinations)
+        s = pick_spacing(worst_need / L, bolt.rows * Z * math.prod(base.values()),
+                         bolt.spacing, stock, 4 * D)
+        n_loc = max(2, math.floor(L / s + 1e-9))
+        mode_text = ", ".join(f"{m} {v:.0f} N" for m, v in modes.modes.items())
+        for combo in beam.combinations:
+            W = sum(float(r) for r in combo.solution.reactions)
+            per_bolt = abs(W) * share / (n_loc * bolt.rows)
+            f = {"C_D": nds.C_D(combo.duration), **base}
+            src = {"Z": f"NDS 2018 12.3.1 yield limit equations, {kind}; G = {G:g} "
+                   f"({wood.source_of('G')}); Fyb from the user; Fe steel = 1.5 Fu "
+                   "(from memory)",
+                   "C_D": S_TABLE, "C_M": "NDS 2018 Table 11.3.3 (from memory)",
+                   "C_t": "NDS 2018 Table 11.3.4 (from memory)",
+                   "C_g": "group action taken as 1.0 (bolts staggered, few per row)",
+                   "C_Delta": "full edge, end and spacing distances assumed (see notes)"}
+            out.append(Check(
+                "bolts", steel.name, combo.name, per_bolt, capacity_from(Z, f), "force",
+                ("Z", Z), f, {}, src,
+                "load per bolt = W x (E_p I_p / EI) / (bolt locations x rows) <= Z'",
+                f"one bolt location every {fmt(s, 'length', system, 3)} ({n_loc} locations, "
+                f"{bolt.rows} per location)", None,
+                (f"Yield modes: {mode_text}; governing mode {modes.governing}.",
+                 f"Plate's share of the load E_p I_p / EI = {share:.3f}.",
+                 *EDGE_END_REMINDERS, CAUTION)))
+    return out
+
+
+def _available_thickness(section: Section, j: int) -> float:
+    """A timber's thickness available to one plate: half where plates are on both of its
+    faces (NDS 12.3.7 multiple shear, each plane taking half the member, from memory)."""
+    joints = side_by_side_joints(section)
+    count = sum(1 for jt in joints if j in jt.timbers)
+    width = section.plies[j].width
+    return width / 2 if count >= 2 else width
+
+
+def _connectors(section: Section, beam: BeamResult, design: DesignSpec, system: str,
+                warnings: list[Problem]) -> list[Check]:
+    if not section.interfaces:
+        return []
+    conn = design.connector
+    combos = [c for c in beam.combinations
+              if c.combination.limit_state in ("ASD", "ULS", "custom")] or list(beam.combinations)
+    V = max(c.extremes.V_max_abs for c in combos)
+    worst = max(combos, key=lambda c: c.extremes.V_max_abs)
+    stock = STOCK_SPACINGS_US if system == "US" else STOCK_SPACINGS_SI
+    out = []
+    for itf, q in section.interface_shear_flows(V):
+        if conn.allowable is None:
+            warnings.append(Problem("design.connector.allowable", "not given: the interface "
+                                    f"at y = {fmt(itf.y, 'length', system)} carries a shear "
+                                    f"flow of {fmt(float(q), 'shear_flow', system)} at the "
+                                    "largest shear; give the connector's allowable load to get "
+                                    "a spacing"))
+            continue
+        per_loc = conn.allowable * conn.rows
+        s = pick_spacing(float(q), per_loc, conn.spacing, stock, 0.0)
+        demand = float(q) * s / conn.rows
+        names = "; ".join(f"{section.plies[a].name} / {section.plies[b].name}"
+                          for a, b in itf.pairs)
+        out.append(Check(
+            "connectors", names, worst.name, demand, conn.allowable, "force",
+            ("allowable per connector", conn.allowable), {}, {},
+            {"allowable per connector": "the user's connector value (already adjusted)"},
+            "load per connector = q s / rows = (V Q / I_t) s / rows <= allowable",
+            f"one {conn.type} every {fmt(s, 'length', system, 3)} ({conn.rows} per row) "
+            "along the region of highest shear", itf.y,
+            (f"Shear flow q = {float(q):.1f} N/m at |V| = {V:.1f} N; Q = {itf.Q:.4e} m^3.",)))
+    return out
