@@ -38,6 +38,7 @@ class Load:
         start: m from the member's left end; None for the whole member.
         end: m; None for the whole member.
         at: m, point loads only.
+
     """
 
     case: str
@@ -67,6 +68,7 @@ class BeamLayout:
             (fixed left, pinned right).
         overhang_left: m, simple/continuous only.
         overhang_right: m, simple/continuous only.
+
     """
 
     spans: tuple[float, ...]
@@ -80,7 +82,7 @@ class BeamLayout:
         return self.overhang_left + sum(self.spans) + self.overhang_right
 
     def support_positions(self) -> tuple[float, ...]:
-        """x of every support, m."""
+        """X of every support, m."""
         if self.supports == "cantilever":
             return (0.0,)
         xs = [self.overhang_left]
@@ -253,6 +255,7 @@ class BeamModel:
             loads: loads of one case (or any set).
             extra_line: a uniform downward line load over the whole member, N/m
                 (self-weight).
+
         """
         n_el = self.lengths.size
         q_el = np.full(n_el, -float(extra_line))  # upward positive
@@ -323,9 +326,11 @@ class Extremes:
     deflection_by_region: tuple[tuple[str, float, float], ...]
 
 
-def element_polynomials(model: BeamModel, sol: CaseSolution, EI: float) -> list[dict[str, np.ndarray]]:
+def element_polynomials(model: BeamModel, sol: CaseSolution,
+                        EI: float) -> list[dict[str, np.ndarray]]:
     """Per element, polynomial coefficients (numpy order, highest first, local x) of
-    V, M and downward deflection."""
+    V, M and downward deflection.
+    """
     out = []
     for e, le in enumerate(model.lengths):
         v1, t1, v2, t2 = sol.u[2 * e : 2 * e + 4]
@@ -439,7 +444,8 @@ def diagram(model: BeamModel, sol: CaseSolution, EI: float, per_element: int = 2
     return Diagram(np.concatenate(xs), np.concatenate(vs), np.concatenate(ms), np.concatenate(ws))
 
 
-def combine(solutions: Mapping[str, CaseSolution], factors: Mapping[str, float]) -> CaseSolution | None:
+def combine(solutions: Mapping[str, CaseSolution],
+            factors: Mapping[str, float]) -> CaseSolution | None:
     """Linear combination of case solutions; None when no case is present."""
     out: CaseSolution | None = None
     for case, f in factors.items():

@@ -79,7 +79,7 @@ def main(argv: list[str] | None = None) -> int:
     if args.command == "gui":
         from app.main import run_gui
 
-        return run_gui(args.file or str(DEMO), args.screenshot)
+        return int(run_gui(args.file or str(DEMO), args.screenshot))
     parser.print_help()
     return 2
 

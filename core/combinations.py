@@ -38,6 +38,7 @@ class Combination:
         duration: load-duration class (None: from the shortest case in it).
         limit_state: "ASD" (US: strength and deflection), "ULS", "SLS-characteristic" or
             "SLS-quasi-permanent" (EU).
+
     """
 
     name: str
@@ -75,7 +76,7 @@ def asd_combinations(present: Iterable[str]) -> tuple[Combination, ...]:
     raw: list[dict[str, float]] = [{"D": 1.0}]
     if "L" in have:
         raw.append({"D": 1.0, "L": 1.0})
-    roof = [c for c in ("Lr", "S") if c in have]
+    roof: list[str] = [c for c in ("Lr", "S") if c in have]
     for r in roof:
         raw.append({"D": 1.0, r: 1.0})
     if "L" in have:
@@ -84,10 +85,11 @@ def asd_combinations(present: Iterable[str]) -> tuple[Combination, ...]:
     if "W" in have:
         raw.append({"D": 1.0, "W": 0.6})
         if "L" in have or roof:
-            for r in roof or [None]:
+            roof_or_none: list[str | None] = list(roof) or [None]
+            for roof_case in roof_or_none:
                 f = {"D": 1.0, "L": 0.75 if "L" in have else 0.0, "W": 0.45}
-                if r:
-                    f[r] = 0.75
+                if roof_case:
+                    f[roof_case] = 0.75
                 raw.append({k: v for k, v in f.items() if v})
         raw.append({"D": 0.6, "W": 0.6})
     seen: set[str] = set()

@@ -18,7 +18,8 @@ class Connector:
     """A connector for the interfaces of stacked plies: screw, nail or bolt, with the
     allowable (US) or design (EU) lateral load per connector in N, as the user gives it
     (already adjusted); None: the spacing check is not made. ``spacing`` in m; None: the
-    tool picks the largest stock spacing that works."""
+    tool picks the largest stock spacing that works.
+    """
 
     type: str = "screw"
     allowable: float | None = None
@@ -39,6 +40,7 @@ class Bolt:
             EN 1993-1-8 Table 3.1, from memory).
         spacing: spacing of bolt locations along the member, m; None: the tool picks the
             largest stock spacing that works.
+
     """
 
     diameter: float = 0.0127
@@ -72,6 +74,7 @@ class DesignSpec:
         connector: for the interfaces of stacked plies.
         bolt: for flitch (side-by-side) plies.
         steel_bears: True where steel plies bear on the supports (their own seats).
+
     """
 
     basis: str = "US-ASD"
@@ -102,7 +105,8 @@ class DesignSpec:
     def deflection_limits(self) -> tuple[float, float, float]:
         """(live, total, long-term) span ratios with the basis's defaults: US L/360 live and
         L/240 total (IBC 2018 Table 1604.3, floors, from memory); EU L/300 (common
-        practice; national annexes vary)."""
+        practice; national annexes vary).
+        """
         if self.us:
             live = self.live_limit or 360.0
             total = self.total_limit or 240.0

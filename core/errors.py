@@ -12,6 +12,7 @@ class Problem:
     Attributes:
         path: where it is, e.g. ``plies[2].height`` (empty for the whole project).
         message: what is wrong, in plain words.
+
     """
 
     path: str

@@ -36,6 +36,7 @@ class Ply:
         y: lower left corner, m.
         width: horizontal size, m.
         height: vertical size, m.
+
     """
 
     name: str
@@ -122,6 +123,7 @@ class PolygonMoments:
         first_y: integral of y dA, m^3.
         second_y: integral of y^2 dA, m^4.
         first_x: integral of x dA, m^3.
+
     """
 
     area: float

@@ -62,6 +62,7 @@ class Material:
         size_adjusted: True where tabulated values already include size (NDS Table 4B).
         sources: per-value sources where they differ from ``source``.
         notes: free text shown with the record.
+
     """
 
     id: str

@@ -227,8 +227,9 @@ def check_text(a: Analysis, moment: float | None = None, shear: float | None = N
         for itf, q in s.interface_shear_flows(shear):
             lines.append(f"  interface at y = {fmt(itf.y, 'length', u)}: shear flow "
                          f"{fmt(q, 'shear_flow', u)}")
-        for row in _shear_by_ply(s, shear):
-            lines.append(f"  {row['name']:<18} max shear stress {fmt(row['tau_max'], 'stress', u)}")
+        for shear_row in _shear_by_ply(s, shear):
+            lines.append(f"  {shear_row['name']:<18} max shear stress "
+                         f"{fmt(shear_row['tau_max'], 'stress', u)}")
     if a.beam is not None:
         lines.extend(beam_text(a.beam, u))
     if a.checks:

@@ -43,6 +43,7 @@ class BeamSpec:
         bearing_length: m, for the bearing check (None: not checked).
         combinations: "ASD", "EN1990" or an explicit tuple.
         sustained_live_fraction: part of L that is sustained (creep), 0 to 1.
+
     """
 
     layout: BeamLayout

@@ -74,6 +74,7 @@ class Interface:
         length: total contact length at this height, m.
         Q: transformed first moment (reference-material units) of the part that the
             contacts hold on, about the neutral axis, m^3 (magnitude).
+
     """
 
     y: float
@@ -168,7 +169,8 @@ class Section:
 
     def ply_extreme_stresses(self, moment: float | np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         """Stress at each ply's highest and lowest fibre. With an array of moments, the
-        result has shape (plies, moments)."""
+        result has shape (plies, moments).
+        """
         m = np.asarray(moment, dtype=float)
         k = -m / self.EI
         top = np.multiply.outer(self.E * (self.y_top - self.neutral_axis_y), k)
@@ -183,7 +185,8 @@ class Section:
 
     def first_moment_above(self, y: np.ndarray | float) -> np.ndarray:
         """Transformed first moment Q_t(y) of everything above each cut, about the
-        neutral axis, m^3 (reference-material units)."""
+        neutral axis, m^3 (reference-material units).
+        """
         cuts = np.atleast_1d(np.asarray(y, dtype=float))
         total = np.zeros_like(cuts)
         for i, prof in enumerate(self.profiles):
@@ -262,6 +265,7 @@ def analyse(
 
     Raises:
         ProjectError: no plies, bad dimensions, unknown materials, or no stiffness left.
+
     """
     plies = tuple(plies)
     problems: list[Problem] = []

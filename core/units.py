@@ -55,7 +55,7 @@ def registry() -> Any:
     """Return the shared pint registry (built once, on first use)."""
     import pint
 
-    ureg = pint.UnitRegistry(cache_folder=":auto:")
+    ureg: Any = pint.UnitRegistry(cache_folder=":auto:")
     for line in _EXTRA_DEFINITIONS:
         try:
             ureg.define(line)
@@ -102,6 +102,8 @@ def _normalise(text: str) -> str:
 def _parse_cached(text: str, dimension: str) -> float:
     if _NUMBER_ONLY.match(text):
         raise UnitError("has no unit")
+    if not any(ch.isdigit() for ch in text):
+        raise UnitError("has no number")
     ureg = registry()
     expr = _normalise(text)
     try:
@@ -129,6 +131,7 @@ def parse(text: Any, dimension: str, field: str) -> float:
 
     Raises:
         UnitError: with a message that names ``field`` and says what is wrong.
+
     """
     if isinstance(text, bool) or not isinstance(text, str):
         raise UnitError(
@@ -142,6 +145,8 @@ def parse(text: Any, dimension: str, field: str) -> float:
         reason = str(exc)
         if reason == "has no unit":
             return _raise(f'{field}: "{text}" has no unit; expected {DIMENSION_WORDS[dimension]}')
+        if reason == "has no number":
+            return _raise(f'{field}: "{text}" has no number; expected {DIMENSION_WORDS[dimension]}')
         if reason.startswith("is not "):
             return _raise(f'{field}: "{text}" {reason}')
         return _raise(f'{field}: "{text}" is not {DIMENSION_WORDS[dimension]} ({reason})')
@@ -281,7 +286,8 @@ _SI_TEXT = {"length": "m", "span": "m", "force": "N", "stress": "Pa", "modulus":
 def exact_text(value: float, kind: str, system: str) -> str:
     """A quantity string in a file unit of ``system`` that parses back to exactly
     ``value`` (tries the usual unit, then the other length unit, then SI with all
-    digits)."""
+    digits).
+    """
     dimension = "length" if kind == "span" else kind
     candidates = [FILE_UNITS[system][kind]]
     if dimension == "length":

@@ -41,6 +41,7 @@ class Check:
         equation: the check written out in symbols.
         location: where along the member (text) and x, m.
         notes: reminders and assumptions specific to this check.
+
     """
 
     id: str
@@ -87,7 +88,7 @@ class Check:
 
 def capacity_from(reference: float, factors: Mapping[str, float],
                   partial: Mapping[str, float] | None = None) -> float:
-    """reference x prod(factors) / prod(partial factors)."""
+    """Reference x prod(factors) / prod(partial factors)."""
     value = reference
     for f in factors.values():
         value *= f

@@ -1,5 +1,6 @@
 """Parts shared by both design bases: demands from the section and beam, deflection
-checks, joint layout of side-by-side plies, and stock fastener spacings."""
+checks, joint layout of side-by-side plies, and stock fastener spacings.
+"""
 
 from __future__ import annotations
 
@@ -20,7 +21,8 @@ STOCK_SPACINGS_SI = tuple(x / 1000 for x in (600, 400, 300, 200, 150, 100, 75, 5
 
 def bending_demand(section: Section, combo: CombinationResult, i: int) -> tuple[float, float]:
     """Largest |stress| at ply i's extreme fibres under the combination's extreme
-    moments, and where it occurs. Returns (Pa, x)."""
+    moments, and where it occurs. Returns (Pa, x).
+    """
     ext = combo.extremes
     best = (0.0, ext.x_M_max)
     for m, x in ((ext.M_max, ext.x_M_max), (ext.M_min, ext.x_M_min)):
@@ -43,7 +45,8 @@ def unit_shear_stress(section: Section) -> np.ndarray:
 
 def region_span(name: str, x0: float, x1: float) -> float:
     """The length a deflection limit is applied to: the span, or twice an overhang or
-    cantilever (common practice)."""
+    cantilever (common practice).
+    """
     length = x1 - x0
     return 2 * length if ("overhang" in name or name == "cantilever") else length
 
@@ -77,6 +80,7 @@ class Joint:
         timbers: indices of the timber plies touching its vertical faces.
         steel_is_main: True where timber lies on both sides (wood-steel-wood, double
             shear); False where the steel is on one face (single shear).
+
     """
 
     steel: int
@@ -111,7 +115,8 @@ def side_by_side_joints(section: Section) -> list[Joint]:
 
 def plate_share(section: Section, i: int) -> float:
     """Share of the load carried by ply i in proportion to its bending stiffness about the
-    common neutral axis, E_i I_i,na / EI (common practice for flitch beams)."""
+    common neutral axis, E_i I_i,na / EI (common practice for flitch beams).
+    """
     return float(section.E[i] * section.I_na[i] / section.EI)
 
 
@@ -136,7 +141,8 @@ def pick_spacing(required_per_length: float, per_location: float, user: float | 
                  stock: tuple[float, ...], minimum: float) -> float:
     """The user's spacing, or the largest stock spacing (not below ``minimum``) at which
     ``per_location`` capacity carries ``required_per_length`` (N/m); the smallest
-    allowed stock spacing where none does."""
+    allowed stock spacing where none does.
+    """
     if user is not None:
         return user
     allowed = [s for s in stock if s >= minimum] or [stock[-1]]

@@ -23,7 +23,7 @@ class YieldModes:
     @property
     def governing(self) -> str:
         """The mode with the lowest value."""
-        return min(self.modes, key=lambda k: self.modes[k])
+        return min(self.modes, key=self.modes.__getitem__)
 
     @property
     def value(self) -> float:
@@ -38,12 +38,13 @@ def Fe_parallel(G: float) -> float:
 
 def Fe_perpendicular(G: float, D: float) -> float:
     """NDS 2018 Table 12.3.3 footnote: Fe_perp = 6100 G^1.45 / sqrt(D) psi, D in in. Pa."""
-    return 6100.0 * G**1.45 / math.sqrt(D / INCH) * PSI
+    return float(6100.0 * G**1.45 / math.sqrt(D / INCH) * PSI)
 
 
 def Fe_steel(Fu: float) -> float:
     """Dowel bearing strength of a steel member, Fe = 1.5 Fu (NDS 2018 Table 12.3.3
-    footnote for hot-rolled steel, from memory). Pa."""
+    footnote for hot-rolled steel, from memory). Pa.
+    """
     return 1.5 * Fu
 
 
@@ -54,7 +55,8 @@ def K_theta(theta_deg: float) -> float:
 
 def R_d(mode: str, theta_deg: float) -> float:
     """NDS 2018 Table 12.3.1B reduction term for 1/4 in <= D <= 1 in: modes Im, Is 4 K_theta;
-    II 3.6 K_theta; IIIm, IIIs, IV 3.2 K_theta."""
+    II 3.6 K_theta; IIIm, IIIs, IV 3.2 K_theta.
+    """
     k = K_theta(theta_deg)
     return {"Im": 4.0, "Is": 4.0, "II": 3.6}.get(mode, 3.2) * k
 
@@ -81,7 +83,8 @@ def nds_single_shear(D: float, lm: float, Fem: float, ls: float, Fes: float, Fyb
 def nds_double_shear(D: float, lm: float, Fem: float, ls: float, Fes: float, Fyb: float,
                      theta_deg: float) -> YieldModes:
     """NDS 2018 Table 12.3.1A double-shear yield limit equations (from memory): modes Im,
-    Is, IIIs and IV; ls is the thinner side member."""
+    Is, IIIs and IV; ls is the thinner side member.
+    """
     Re = Fem / Fes
     k3 = -1 + math.sqrt(2 * (1 + Re) / Re + 2 * Fyb * (2 + Re) * D**2 / (3 * Fem * ls**2))
     return YieldModes({
@@ -95,23 +98,26 @@ def nds_double_shear(D: float, lm: float, Fem: float, ls: float, Fes: float, Fyb
 def en_f_h_k(rho_k: float, d: float, alpha_deg: float) -> float:
     """EN 1995-1-1 (8.32), (8.31), (8.33) embedment strength of bolts in softwood:
     f_h,0,k = 0.082 (1 - 0.01 d) rho_k, f_h,alpha = f_h,0 / (k90 sin^2 + cos^2),
-    k90 = 1.35 + 0.015 d (d in mm, rho_k in kg/m3, result N/mm2). Returns Pa."""
+    k90 = 1.35 + 0.015 d (d in mm, rho_k in kg/m3, result N/mm2). Returns Pa.
+    """
     dm = d * 1000.0
     f0 = 0.082 * (1 - 0.01 * dm) * rho_k
     k90 = 1.35 + 0.015 * dm
     a = math.radians(alpha_deg)
-    return f0 / (k90 * math.sin(a) ** 2 + math.cos(a) ** 2) * 1e6
+    return float(f0 / (k90 * math.sin(a) ** 2 + math.cos(a) ** 2) * 1e6)
 
 
 def en_M_y(fu: float, d: float) -> float:
     """EN 1995-1-1 (8.30) yield moment of a bolt: M_y,Rk = 0.3 f_u,k d^2.6 (N mm, d mm).
-    Returns N m."""
-    return 0.3 * (fu / 1e6) * (d * 1000.0) ** 2.6 / 1000.0
+    Returns N m.
+    """
+    return float(0.3 * (fu / 1e6) * (d * 1000.0) ** 2.6 / 1000.0)
 
 
 def en_steel_centre(f_h: float, t1: float, d: float, M_y: float) -> YieldModes:
     """EN 1995-1-1 (8.11) steel plate as the central member of a double-shear joint, per
-    shear plane, rope effect left out (conservative): modes f, g, h. N."""
+    shear plane, rope effect left out (conservative): modes f, g, h. N.
+    """
     return YieldModes({
         "f": f_h * t1 * d,
         "g": f_h * t1 * d * (math.sqrt(2 + 4 * M_y / (f_h * d * t1**2)) - 1),
@@ -121,5 +127,6 @@ def en_steel_centre(f_h: float, t1: float, d: float, M_y: float) -> YieldModes:
 
 def en_thin_steel_single(f_h: float, t1: float, d: float, M_y: float) -> YieldModes:
     """EN 1995-1-1 (8.9) thin steel plate in single shear, rope effect left out: modes
-    a, b. N."""
+    a, b. N.
+    """
     return YieldModes({"a": 0.4 * f_h * t1 * d, "b": 1.15 * math.sqrt(2 * M_y * f_h * d)})

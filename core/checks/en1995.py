@@ -35,7 +35,8 @@ def gamma_M(product: str) -> float:
 def k_h(depth: float, product: str) -> float:
     """Depth factor for bending. Solid timber (3.2(3), rho_k <= 700 kg/m3):
     min((150/h)^0.2, 1.3) for h < 150 mm; glulam (3.3(3)): min((600/h)^0.1, 1.1) for
-    h < 600 mm; LVL 1.0 here (the manufacturer's size effect governs). h in m."""
+    h < 600 mm; LVL 1.0 here (the manufacturer's size effect governs). h in m.
+    """
     h = depth * 1000.0
     if product == "glulam":
         return min((600 / h) ** 0.1, 1.1) if h < 600 else 1.0
@@ -46,7 +47,8 @@ def k_h(depth: float, product: str) -> float:
 
 def k_cr(product: str) -> float:
     """EN 1995-1-1 6.1.7(2) crack factor for shear: 0.67 for solid timber and glulam;
-    1.0 for LVL and other products."""
+    1.0 for LVL and other products.
+    """
     return 0.67 if product in ("sawn", "glulam") else 1.0
 
 

@@ -133,14 +133,15 @@ def _bearing(section: Section, beam: BeamResult, design: DesignSpec, uls: list, 
     if lb is None or not uls:
         return []
     cand = [(i, section.materials[i].value("fc90_k")) for i in bearing_plies(section)]
-    cand = [(i, v) for i, v in cand if v is not None]
+    cand_ok: list[tuple[int, float]] = [(i, v) for i, v in cand if v is not None]
     if steel_at_bottom(section) and not design.steel_bears:
         warnings.append(Problem("beam.bearing_length", "a steel ply reaches the supports but "
                                 "has no bearing data; the timber takes the whole reaction"))
-    if not cand:
+    if not cand_ok:
         return []
+    cand = cand_ok  # type: ignore[assignment]
     L = beam.model.layout.length
-    i_min, fc90 = min(cand, key=lambda t: t[1])
+    i_min, fc90 = min(cand_ok, key=lambda t: t[1])
     mat = section.materials[i_min]
     names = " + ".join(section.plies[i].name for i, _ in cand)
     width = sum(section.plies[i].width for i, _ in cand)

@@ -19,7 +19,8 @@ PSI = 6894.757293168361
 
 def C_D(duration: str) -> float:
     """NDS 2018 2.3.2 load duration factor (Table 2.3.2). Applies to Fb, Fv, Ft, Fc and
-    connections, not to Fc_perp or E."""
+    connections, not to Fc_perp or E.
+    """
     if duration not in C_D_TABLE:
         raise ValueError(f"unknown US load duration {duration!r}; use one of "
                          + ", ".join(US_DURATIONS))
@@ -66,6 +67,7 @@ def C_F(depth: float, product: str, size_adjusted: bool, grade_rule: str = "") -
 
     Args:
         depth: the ply's depth (height), m.
+
     """
     d = depth / INCH
     if product == "glulam":
@@ -84,7 +86,8 @@ def C_F(depth: float, product: str, size_adjusted: bool, grade_rule: str = "") -
 def C_V(length: float, depth: float, width: float, southern_pine: bool = False) -> float:
     """NDS 2018 5.3.6 glulam volume factor (5.3-1), from memory:
     C_V = (21/L)^(1/x) (12/d)^(1/x) (5.125/b)^(1/x) <= 1.0, x = 10 (20 for Southern Pine);
-    L in ft, d and b in in."""
+    L in ft, d and b in in.
+    """
     x = 20.0 if southern_pine else 10.0
     L_ft = length / 0.3048
     d = depth / INCH
@@ -94,7 +97,8 @@ def C_V(length: float, depth: float, width: float, southern_pine: bool = False) 
 
 def C_i(value: str, incised: bool) -> float:
     """NDS 2018 4.3.8 incising factor (Table 4.3.8): Fb, Ft, Fc, Fv 0.80; E, Emin 0.95;
-    Fc_perp 1.00."""
+    Fc_perp 1.00.
+    """
     if not incised:
         return 1.0
     return {"E": 0.95, "Emin": 0.95, "Fc_perp": 1.0}.get(value, 0.80)
@@ -102,13 +106,15 @@ def C_i(value: str, incised: bool) -> float:
 
 def C_r(repetitive: bool, product: str) -> float:
     """NDS 2018 4.3.9 repetitive member factor: 1.15 for dimension lumber members in a
-    repetitive system (the user's declaration)."""
+    repetitive system (the user's declaration).
+    """
     return 1.15 if repetitive and product == "sawn" else 1.0
 
 
 def C_b(bearing_length: float, at_end: bool) -> float:
     """NDS 2018 3.10.4 bearing area factor: (l_b + 0.375)/l_b for bearings shorter than
-    6 in and at least 3 in from the member's end; 1.0 otherwise (l_b in in)."""
+    6 in and at least 3 in from the member's end; 1.0 otherwise (l_b in in).
+    """
     lb = bearing_length / INCH
     if at_end or lb >= 6:
         return 1.0
@@ -117,7 +123,8 @@ def C_b(bearing_length: float, at_end: bool) -> float:
 
 def effective_length(unbraced: float, depth: float) -> float:
     """NDS 2018 Table 3.3.3, single span, uniformly distributed load (from memory):
-    l_e = 2.06 l_u where l_u/d < 7, else 1.63 l_u + 3 d. m."""
+    l_e = 2.06 l_u where l_u/d < 7, else 1.63 l_u + 3 d. m.
+    """
     if unbraced / depth < 7:
         return 2.06 * unbraced
     return 1.63 * unbraced + 3 * depth
@@ -127,7 +134,8 @@ def C_L(Fb_star: float, Emin_adj: float, depth: float, breadth: float, unbraced:
     """NDS 2018 3.3.3 beam stability factor (3.3-6), from memory:
     R_B = sqrt(l_e d / b^2), F_bE = 1.20 E'min / R_B^2,
     C_L = (1 + F_bE/Fb*)/1.9 - sqrt(((1 + F_bE/Fb*)/1.9)^2 - (F_bE/Fb*)/0.95).
-    Stresses in Pa, lengths in m."""
+    Stresses in Pa, lengths in m.
+    """
     le = effective_length(unbraced, depth)
     RB2 = le * depth / breadth**2
     FbE = 1.20 * Emin_adj / RB2

@@ -12,8 +12,7 @@ import math
 
 from core.analysis import BeamResult
 from core.caution import CAUTION
-from core.checks import Check, capacity_from
-from core.checks import nds
+from core.checks import Check, capacity_from, nds
 from core.checks.common import (
     EDGE_END_REMINDERS,
     STOCK_SPACINGS_SI,
@@ -189,11 +188,12 @@ def _bearing(project: Project, section: Section, beam: BeamResult, design: Desig
                                 "but has no bearing data; the timber bearing check assumes the "
                                 "timber carries the whole reaction"))
     cand = [(i, section.materials[i].value("Fc_perp")) for i in plies]
-    cand = [(i, v) for i, v in cand if v is not None]
-    if not cand:
+    cand_ok: list[tuple[int, float]] = [(i, v) for i, v in cand if v is not None]
+    if not cand_ok:
         return []
+    cand = cand_ok  # type: ignore[assignment]
     area = sum(section.plies[i].width for i, _ in cand) * lb
-    i_min, fcp = min(cand, key=lambda t: t[1])
+    i_min, fcp = min(cand_ok, key=lambda t: t[1])
     mat = section.materials[i_min]
     names = " + ".join(section.plies[i].name for i, _ in cand)
     layout = beam.model.layout
@@ -303,7 +303,8 @@ def _bolts(section: Section, beam: BeamResult, design: DesignSpec, system: str) 
 
 def _available_thickness(section: Section, j: int) -> float:
     """A timber's thickness available to one plate: half where plates are on both of its
-    faces (NDS 12.3.7 multiple shear, each plane taking half the member, from memory)."""
+    faces (NDS 12.3.7 multiple shear, each plane taking half the member, from memory).
+    """
     joints = side_by_side_joints(section)
     count = sum(1 for jt in joints if j in jt.timbers)
     width = section.plies[j].width

@@ -1,0 +1,151 @@
+"""Project file: round trip, named messages for every kind of bad input, fuzzing."""
+
+from __future__ import annotations
+
+import copy
+import json
+import os
+from pathlib import Path
+
+import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
+
+from core.errors import ProjectError
+from core.project import dumps, from_dict, load, loads, save
+
+DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
+
+
+def base() -> dict:
+    return json.loads(DEMO.read_text())
+
+
+def problems_of(data) -> list[str]:
+    with pytest.raises(ProjectError) as info:
+        from_dict(data)
+    return [str(p) for p in info.value.problems]
+
+
+def test_demo_loads_and_round_trips(tmp_path):
+    p = load(DEMO)
+    out = tmp_path / "copy.plystack.json"
+    save(p, out)
+    assert load(out) == p
+    assert loads(dumps(p)) == p
+
+
+def test_si_round_trip(tmp_path):
+    from dataclasses import replace
+
+    p = replace(load(DEMO), display_units="SI")
+    save(p, tmp_path / "si.json")
+    assert load(tmp_path / "si.json") == p
+
+
+def test_failed_save_keeps_old_file(tmp_path, monkeypatch):
+    p = load(DEMO)
+    target = tmp_path / "keep.plystack.json"
+    save(p, target)
+    before = target.read_bytes()
+
+    def boom(*a, **k):
+        raise OSError("disk full")
+
+    monkeypatch.setattr(os, "replace", boom)
+    with pytest.raises(OSError):
+        save(p, target)
+    assert target.read_bytes() == before
+    assert [f.name for f in tmp_path.iterdir()] == ["keep.plystack.json"]
+
+
+@pytest.mark.parametrize("mutate,expected", [
+    (lambda d: d.update(format="other"), "format: must be"),
+    (lambda d: d.update(version=99), "version: 99 is newer"),
+    (lambda d: d.update(colour="red"), "colour: is not a known key"),
+    (lambda d: d["plies"][2].update(height="12 apples"),
+     'plies[2].height: "12 apples" is not a length'),
+    (lambda d: d["plies"][0].update(width="12"), 'plies[0].width: "12" has no unit'),
+    (lambda d: d["plies"][1].pop("material"), "plies[1].material: is missing"),
+    (lambda d: d["plies"][1].update(material="unobtainium"),
+     "plies[1].material: 'unobtainium' is not a known material"),
+    (lambda d: d["plies"][0].update(width="-2 in"), "plies[0].width: must be greater than zero"),
+    (lambda d: d["plies"][0].update(height="0 in"), "plies[0].height: must be greater than zero"),
+    (lambda d: d["plies"][0].update(depth="2 in"), "plies[0].depth: is not a known key"),
+    (lambda d: d.update(materials={"m": {"kind": "timber", "E": "lots", "density": "500 kg/m^3"}}),
+     'materials.m.E: "lots" has no number'),
+    (lambda d: d.update(materials={"m": {"kind": "wood", "E": "11 GPa", "density": "5 pcf"}}),
+     "materials.m.kind: must be one of"),
+    (lambda d: d.update(materials={"m": {"kind": "timber", "E": "11 GPa", "density": "5 pcf",
+                                         "G": "heavy"}}), "materials.m.G: must be a plain"),
+    (lambda d: d["beam"].update(spans=["0 ft"]), "beam.spans[0]: must be greater than zero"),
+    (lambda d: d["beam"].update(supports="hinged"), 'beam.supports: "hinged" is not one of'),
+    (lambda d: d["beam"].update(spans=["10 ft", "10 ft"], supports="propped"),
+     'beam.supports: "propped" needs exactly one span'),
+    (lambda d: d["beam"]["loads"][2].update(at="40 ft"), "beam.loads[2].at: is outside the member"),
+    (lambda d: d["beam"]["loads"][0].update(case="X"),
+     "beam.loads[0].case: 'X' is not a load case"),
+    (lambda d: d["beam"]["loads"][0].update(value="40 psi m"), "beam.loads[0].value"),
+    (lambda d: d["beam"].update(combinations="LRFD"), 'beam.combinations: "LRFD" is not a known'),
+    (lambda d: d["design"].update(basis="CSA"), "design.basis: 'CSA' must be one of"),
+])
+def test_bad_input_named(mutate, expected):
+    data = base()
+    mutate(data)
+    msgs = problems_of(data)
+    assert any(expected in m for m in msgs), msgs
+
+
+def test_every_problem_reported_at_once():
+    data = base()
+    data["plies"][0]["width"] = "wide"
+    data["plies"][2]["height"] = "12 apples"
+    data["version"] = 7
+    msgs = problems_of(data)
+    assert len(msgs) >= 3
+
+
+def test_not_json():
+    with pytest.raises(ProjectError, match="not valid JSON"):
+        loads("{nope")
+
+
+def test_missing_file(tmp_path):
+    with pytest.raises(ProjectError, match="cannot read"):
+        load(tmp_path / "none.json")
+
+
+json_values = st.recursive(
+    st.none() | st.booleans() | st.integers() | st.floats(allow_nan=True) | st.text(max_size=12),
+    lambda inner: st.lists(inner, max_size=4) | st.dictionaries(st.text(max_size=10), inner,
+                                                                 max_size=4),
+    max_leaves=20)
+
+
+@settings(max_examples=300, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(json_values)
+def test_fuzz_random_json_only_raises_project_error(value):
+    try:
+        from_dict(value)
+    except ProjectError:
+        pass
+
+
+keys = st.sampled_from(["plies", "beam", "design", "materials", "title", "version"])
+
+
+@settings(max_examples=200, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(key=keys, value=json_values, idx=st.integers(0, 2), sub=st.text(max_size=8))
+def test_fuzz_mutated_demo_only_raises_project_error(key, value, idx, sub):
+    data = copy.deepcopy(base())
+    target = data.get(key)
+    if isinstance(target, list) and target:
+        target[idx % len(target)] = value
+    elif isinstance(target, dict):
+        target[sub or "x"] = value
+    else:
+        data[key] = value
+    try:
+        from_dict(data)
+    except ProjectError:
+        pass
