@@ -24,6 +24,8 @@ from core.errors import Problem, ProjectError
 CASES = ("D", "L", "Lr", "S", "W")
 SUPPORTS = ("simple", "cantilever", "fixed-fixed", "propped")
 LOAD_TYPES = ("area", "line", "point")
+#: Positions closer than this fraction of the member length share one node.
+MERGE_TOLERANCE = 1e-7
 
 
 @dataclass(frozen=True)
@@ -223,7 +225,7 @@ class BeamModel:
                 pts.add(0.0 if ld.start is None else min(max(ld.start, 0.0), L))
                 pts.add(L if ld.end is None else min(max(ld.end, 0.0), L))
         nodes = np.array(sorted(pts))
-        keep = np.concatenate([[True], np.diff(nodes) > 1e-9 * max(L, 1.0)])
+        keep = np.concatenate([[True], np.diff(nodes) > MERGE_TOLERANCE * max(L, 1.0)])
         self.nodes = nodes[keep]
         self.nodes[-1] = L
         self.lengths = np.diff(self.nodes)
@@ -242,7 +244,35 @@ class BeamModel:
                 fixed.append(2 * node + 1)
         self.fixed = np.array(sorted(fixed))
         self.free = np.setdiff1d(np.arange(n_dof), self.fixed)
-        self._factor = np.linalg.cholesky(K[np.ix_(self.free, self.free)])
+        kff = K[np.ix_(self.free, self.free)]
+        # symmetric diagonal scaling: short elements next to long ones make K badly scaled
+        self._scale = 1.0 / np.sqrt(np.diag(kff))
+        self._kff_scaled = kff * np.outer(self._scale, self._scale)
+
+    def _restore_equilibrium(self, reactions: np.ndarray, moments: np.ndarray,
+                             point: np.ndarray, q_el: np.ndarray) -> None:
+        """Make the reactions satisfy overall equilibrium exactly (in place).
+
+        The stiffness solution meets equilibrium only to round-off, which grows with very
+        short elements; two reaction components (the outermost vertical reactions, or
+        the force and moment of a single fixed support) are re-solved by statics.
+        """
+        xs = self.nodes
+        mids = (xs[:-1] + xs[1:]) / 2
+        down = float(point.sum() - (q_el * self.lengths).sum())
+        arm = float((point * xs).sum() - (q_el * self.lengths * mids).sum())
+        pos = np.array([xs[n] for n in self.support_nodes])
+        if len(self.support_nodes) >= 2:
+            i, j = 0, len(self.support_nodes) - 1
+            rest_f = reactions.sum() - reactions[i] - reactions[j]
+            rest_m = (reactions * pos).sum() - reactions[i] * pos[i] - reactions[j] * pos[j]
+            rest_m += moments.sum()
+            a = np.array([[1.0, 1.0], [pos[i], pos[j]]])
+            b = np.array([down - rest_f, arm - rest_m])
+            reactions[i], reactions[j] = np.linalg.solve(a, b)
+        else:
+            reactions[0] = down
+            moments[0] = arm - reactions[0] * pos[0]
 
     def node_index(self, x: float) -> int:
         """Index of the node nearest to ``x``."""
@@ -278,8 +308,7 @@ class BeamModel:
         total = F + Fe
         u = np.zeros_like(F)
         rhs = total[self.free]
-        y = np.linalg.solve(self._factor, rhs)
-        u[self.free] = np.linalg.solve(self._factor.T, y)
+        u[self.free] = self._scale * np.linalg.solve(self._kff_scaled, rhs * self._scale)
         R = self.K @ u - total
         reactions = np.array([R[2 * n] for n in self.support_nodes])
         kinds = self.layout.support_kinds()
@@ -287,16 +316,22 @@ class BeamModel:
             R[2 * n + 1] if k == "fixed" else 0.0
             for n, k in zip(self.support_nodes, kinds, strict=True)
         ])
-        # element end forces -> V0, M0 at each element's left end
+        point = -F[0::2]  # downward point loads at nodes
+        self._restore_equilibrium(reactions, reaction_moments, point, q_el)
+        # shear and moment by statics, walking from the left end
+        node_force = point.copy() * -1.0
+        node_couple = np.zeros(self.nodes.size)
+        for k, n in enumerate(self.support_nodes):
+            node_force[n] += reactions[k]
+            node_couple[n] += reaction_moments[k]
         V0 = np.empty(n_el)
         M0 = np.empty(n_el)
+        v_end = m_end = 0.0
         for e in range(n_el):
-            ue = u[2 * e : 2 * e + 4]
-            f = _element_stiffness(le[e]) @ ue - np.array(
-                [q_el[e] * le[e] / 2, q_el[e] * le[e] ** 2 / 12,
-                 q_el[e] * le[e] / 2, -q_el[e] * le[e] ** 2 / 12])
-            V0[e] = f[0]
-            M0[e] = -f[1]
+            V0[e] = v_end + node_force[e]
+            M0[e] = m_end - node_couple[e]
+            v_end = V0[e] + q_el[e] * le[e]
+            m_end = M0[e] + V0[e] * le[e] + q_el[e] * le[e] ** 2 / 2
         return CaseSolution(V0, M0, q_el, u, reactions, reaction_moments)
 
 
@@ -360,11 +395,7 @@ def extremes(model: BeamModel, sol: CaseSolution, EI: float) -> Extremes:
     for e, le in enumerate(model.lengths):
         x0 = model.nodes[e]
         P = polys[e]
-        cand_m = [0.0, le]
-        if P["M"][0] != 0:
-            xr = -P["M"][1] / (2 * P["M"][0])
-            if 0 < xr < le:
-                cand_m.append(xr)
+        cand_m = [0.0, le, *_roots_inside(np.polyder(P["M"]), le)]
         for xl in cand_m:
             m = float(np.polyval(P["M"], xl))
             if m > best["Mmax"][0]:
@@ -375,13 +406,7 @@ def extremes(model: BeamModel, sol: CaseSolution, EI: float) -> Extremes:
             v = abs(float(np.polyval(P["V"], xl)))
             if v > best["V"][0] + 1e-12 * max(v, 1.0):
                 best["V"] = (v, x0 + xl)
-        cand_w = [0.0, le]
-        dw = np.polyder(P["w"])
-        dw = np.trim_zeros(dw, "f")
-        if dw.size > 1:
-            for r in np.roots(dw):
-                if abs(r.imag) < 1e-9 * le and 0 < r.real < le:
-                    cand_w.append(float(r.real))
+        cand_w = [0.0, le, *_roots_inside(np.polyder(P["w"]), le)]
         mid = x0 + le / 2
         name = next((n for n, a, b in regions if a <= mid <= b), "member")
         for xl in cand_w:
@@ -427,21 +452,37 @@ def diagram(model: BeamModel, sol: CaseSolution, EI: float, per_element: int = 2
     for e, le in enumerate(model.lengths):
         P = polys[e]
         local = list(np.linspace(0.0, le, per_element + 1))
-        if P["M"][0] != 0:
-            xr = -P["M"][1] / (2 * P["M"][0])
-            if 0 < xr < le:
-                local.append(float(xr))
-        dw = np.trim_zeros(np.polyder(P["w"]), "f")
-        if dw.size > 1:
-            for r in np.roots(dw):
-                if abs(r.imag) < 1e-9 * le and 0 < r.real < le:
-                    local.append(float(r.real))
+        local.extend(_roots_inside(np.polyder(P["M"]), le))
+        local.extend(_roots_inside(np.polyder(P["w"]), le))
         loc = np.array(sorted(local))
         xs.append(model.nodes[e] + loc)
         vs.append(np.polyval(P["V"], loc))
         ms.append(np.polyval(P["M"], loc))
         ws.append(np.polyval(P["w"], loc))
     return Diagram(np.concatenate(xs), np.concatenate(vs), np.concatenate(ms), np.concatenate(ws))
+
+
+def _roots_inside(poly: np.ndarray, le: float) -> list[float]:
+    """Real roots of a polynomial in local x strictly inside (0, le).
+
+    Coefficients are compared on the element's scale (c_k le^k) so that negligible
+    leading terms do not produce spurious huge roots.
+    """
+    poly = np.asarray(poly, dtype=float)
+    n = poly.size - 1
+    scaled = poly * le ** np.arange(n, -1, -1)
+    big = np.abs(scaled).max() if scaled.size else 0.0
+    if not np.isfinite(big) or big == 0.0:
+        return []
+    scaled = np.where(np.abs(scaled) < 1e-12 * big, 0.0, scaled / big)
+    scaled = np.trim_zeros(scaled, "f")
+    if scaled.size < 2:
+        return []
+    out = []
+    for r in np.roots(scaled):
+        if abs(r.imag) < 1e-9 and 0 < r.real < 1:
+            out.append(float(r.real) * le)
+    return out
 
 
 def combine(solutions: Mapping[str, CaseSolution],
