@@ -1,0 +1,317 @@
+"""Beam and design panel: spans, supports, overhangs, loads table, combinations, basis."""
+
+from __future__ import annotations
+
+from dataclasses import replace
+
+from PySide6.QtGui import QColor
+from PySide6.QtWidgets import (
+    QCheckBox,
+    QComboBox,
+    QFormLayout,
+    QHBoxLayout,
+    QLabel,
+    QLineEdit,
+    QPushButton,
+    QTableWidget,
+    QTableWidgetItem,
+    QVBoxLayout,
+    QWidget,
+)
+
+from app.document import Document
+from app.quantity import QuantityEdit, parse_entry
+from core import units
+from core.beam import CASES, LOAD_TYPES, SUPPORTS, BeamLayout, Load, validate_layout, validate_load
+from core.design import DesignSpec
+from core.project import BeamSpec
+
+COLUMNS = ("Case", "Type", "Value", "Tributary width", "From", "To", "At")
+VALUE_KIND = {"area": "area_load", "line": "line_load", "point": "force"}
+
+
+def default_beam(system: str) -> BeamSpec:
+    """A simple span with no loads but self-weight, for a new project."""
+    span = 12 * 0.3048 if system == "US" else 3.6
+    return BeamSpec(BeamLayout((span,), "simple"), (), True, None,
+                    "ASD" if system == "US" else "EN1990")
+
+
+class BeamPanel(QWidget):
+    """Edits the project's beam and design basis; bad entries are marked in place."""
+
+    def __init__(self, document: Document):
+        super().__init__()
+        self.document = document
+        system = lambda: self.document.project.display_units  # noqa: E731
+        self._updating = False
+        self.has_beam = QCheckBox("Analyse as a beam (spans, supports, loads)")
+        self.spans = QLineEdit()
+        self.spans.setToolTip('Spans left to right, separated by commas, e.g. "12 ft" or '
+                              '"4 m, 5.5 m"')
+        self.supports = QComboBox()
+        self.supports.addItems(SUPPORTS)
+        nonneg = lambda v: None if v >= 0 else "must be zero or more"  # noqa: E731
+        positive = lambda v: None if v > 0 else "must be greater than zero"  # noqa: E731
+        self.over_left = QuantityEdit("span", "overhang left", system, nonneg)
+        self.over_right = QuantityEdit("span", "overhang right", system, nonneg)
+        self.bearing = QuantityEdit("length", "bearing length", system, positive)
+        self.self_weight = QCheckBox("Include self-weight (case D)")
+        self.combos = QComboBox()
+        self.combos.addItems(["ASD", "EN1990"])
+        self.basis = QComboBox()
+        self.basis.addItems(["US-ASD", "EU-LSD"])
+        self.wet = QCheckBox("Wet service")
+        self.repetitive = QCheckBox("Repetitive member (C_r)")
+        self.braced = QCheckBox("Compression edge braced")
+        self.service_class = QComboBox()
+        self.service_class.addItems(["1", "2", "3"])
+        self.error = QLabel("")
+        self.error.setStyleSheet("color: #b00000")
+        self.error.setWordWrap(True)
+        self.loads = QTableWidget(0, len(COLUMNS))
+        self.loads.setHorizontalHeaderLabels(COLUMNS)
+        self.loads.verticalHeader().setVisible(False)
+        add = QPushButton("Add load")
+        remove = QPushButton("Remove load")
+        form = QFormLayout()
+        form.addRow(self.has_beam)
+        form.addRow("Spans", self.spans)
+        form.addRow("Supports", self.supports)
+        form.addRow("Overhang left", self.over_left)
+        form.addRow("Overhang right", self.over_right)
+        form.addRow("Bearing length", self.bearing)
+        form.addRow(self.self_weight)
+        form.addRow("Combinations", self.combos)
+        form.addRow("Design basis", self.basis)
+        form.addRow("Service class (EU)", self.service_class)
+        form.addRow(self.wet)
+        form.addRow(self.repetitive)
+        form.addRow(self.braced)
+        buttons = QHBoxLayout()
+        buttons.addWidget(add)
+        buttons.addWidget(remove)
+        layout = QVBoxLayout(self)
+        layout.addLayout(form)
+        layout.addWidget(QLabel("Loads (positions from the left end of the member)"))
+        layout.addWidget(self.loads, 1)
+        layout.addLayout(buttons)
+        layout.addWidget(self.error)
+        self.has_beam.toggled.connect(self._toggle_beam)
+        self.spans.editingFinished.connect(self._set_spans)
+        self.supports.activated.connect(lambda _i: self._set_layout(
+            supports=self.supports.currentText()))
+        self.over_left.accepted.connect(lambda v: self._set_layout(overhang_left=v))
+        self.over_right.accepted.connect(lambda v: self._set_layout(overhang_right=v))
+        for edit in (self.over_left, self.over_right, self.bearing):
+            edit.rejected.connect(self.error.setText)
+        self.bearing.accepted.connect(lambda v: self._set_beam("Set bearing length",
+                                                               bearing_length=v))
+        self.self_weight.toggled.connect(lambda on: self._set_beam("Self-weight",
+                                                                   self_weight=on))
+        self.combos.activated.connect(lambda _i: self._set_beam(
+            "Set combinations", combinations=self.combos.currentText()))
+        self.basis.activated.connect(self._set_basis)
+        self.service_class.activated.connect(lambda _i: self._set_design(
+            service_class=int(self.service_class.currentText())))
+        self.wet.toggled.connect(lambda on: self._set_design(wet_service=on))
+        self.repetitive.toggled.connect(lambda on: self._set_design(repetitive_member=on))
+        self.braced.toggled.connect(lambda on: self._set_design(compression_edge_braced=on))
+        self.loads.cellChanged.connect(self._cell_changed)
+        add.clicked.connect(self.add_load)
+        remove.clicked.connect(self.remove_load)
+        document.changed.connect(self.refresh)
+        self.refresh()
+
+    # --- model -> widgets -----------------------------------------------------------------
+
+    def refresh(self) -> None:
+        """Show the model's values."""
+        self._updating = True
+        p = self.document.project
+        u = p.display_units
+        beam = p.beam
+        self.has_beam.setChecked(beam is not None)
+        for w in (self.spans, self.supports, self.over_left, self.over_right, self.bearing,
+                  self.self_weight, self.combos, self.loads):
+            w.setEnabled(beam is not None)
+        design = p.design_or_default()
+        self.basis.setCurrentText(design.basis)
+        self.service_class.setCurrentText(str(design.service_class))
+        self.wet.setChecked(design.wet_service)
+        self.repetitive.setChecked(design.repetitive_member)
+        self.braced.setChecked(design.compression_edge_braced)
+        if beam is not None:
+            lay = beam.layout
+            if not self.spans.hasFocus():
+                self.spans.setText(", ".join(units.display_string(s, "span", u, 6)
+                                             for s in lay.spans))
+                self.spans.setStyleSheet("")
+            self.supports.setCurrentText(lay.supports)
+            self.over_left.set_value(lay.overhang_left)
+            self.over_right.set_value(lay.overhang_right)
+            self.bearing.set_value(beam.bearing_length)
+            self.self_weight.setChecked(beam.self_weight)
+            if isinstance(beam.combinations, str):
+                self.combos.setCurrentText(beam.combinations)
+            self._fill_loads(beam.loads, u)
+        self._updating = False
+
+    def _fill_loads(self, loads: tuple[Load, ...], u: str) -> None:
+        self.loads.blockSignals(True)
+        self.loads.setRowCount(len(loads))
+        for r, ld in enumerate(loads):
+            cells = [ld.case, ld.type,
+                     units.display_string(ld.value, VALUE_KIND[ld.type], u, 6),
+                     "" if ld.tributary_width is None else
+                     units.display_string(ld.tributary_width, "span", u, 6),
+                     "" if ld.start is None else units.display_string(ld.start, "span", u, 6),
+                     "" if ld.end is None else units.display_string(ld.end, "span", u, 6),
+                     "" if ld.at is None else units.display_string(ld.at, "span", u, 6)]
+            for c, text in enumerate(cells):
+                item = QTableWidgetItem(text)
+                self.loads.setItem(r, c, item)
+        self.loads.resizeColumnsToContents()
+        self.loads.blockSignals(False)
+
+    # --- widgets -> model -----------------------------------------------------------------
+
+    def _apply_beam(self, beam: BeamSpec | None, text: str) -> None:
+        self.error.setText("")
+        self.document.apply(replace(self.document.project, beam=beam), text)
+
+    def _toggle_beam(self, on: bool) -> None:
+        if self._updating:
+            return
+        p = self.document.project
+        if on and p.beam is None:
+            self._apply_beam(default_beam(p.display_units), "Add beam")
+        elif not on and p.beam is not None:
+            self._apply_beam(None, "Remove beam")
+
+    def _set_beam(self, text: str, **changes: object) -> None:
+        beam = self.document.project.beam
+        if self._updating or beam is None:
+            return
+        self._apply_beam(replace(beam, **changes), text)  # type: ignore[arg-type]
+
+    def _set_layout(self, **changes: object) -> None:
+        beam = self.document.project.beam
+        if self._updating or beam is None:
+            return
+        layout = replace(beam.layout, **changes)  # type: ignore[arg-type]
+        problems = validate_layout(layout)
+        problems += [q for i, ld in enumerate(beam.loads)
+                     for q in validate_load(ld, layout.length, f"beam.loads[{i}]")]
+        if problems:
+            self.error.setText("; ".join(str(q) for q in problems))
+            self.refresh_soon()
+            return
+        self._apply_beam(replace(beam, layout=layout), "Change beam layout")
+
+    def refresh_soon(self) -> None:
+        """Restore the widgets from the model (after a refused edit of a combo box)."""
+        beam = self.document.project.beam
+        if beam is not None:
+            self._updating = True
+            self.supports.setCurrentText(beam.layout.supports)
+            self._updating = False
+
+    def _set_spans(self) -> None:
+        beam = self.document.project.beam
+        if self._updating or beam is None:
+            return
+        u = self.document.project.display_units
+        spans = []
+        for i, part in enumerate(self.spans.text().split(",")):
+            try:
+                spans.append(parse_entry(part, "span", u, f"spans[{i}]"))
+            except units.UnitError as exc:
+                self.error.setText(str(exc))
+                self.spans.setStyleSheet("QLineEdit { background: #ffd9d9; }")
+                return
+        self.spans.setStyleSheet("")
+        self._set_layout(spans=tuple(spans))
+
+    def _set_basis(self, _index: int) -> None:
+        if self._updating:
+            return
+        basis = self.basis.currentText()
+        p = self.document.project
+        design = replace(p.design_or_default(), basis=basis)
+        beam = p.beam
+        if beam is not None and isinstance(beam.combinations, str):
+            beam = replace(beam, combinations="ASD" if basis == "US-ASD" else "EN1990")
+        self.document.apply(replace(p, design=design, beam=beam), "Set design basis")
+
+    def _set_design(self, **changes: object) -> None:
+        if self._updating:
+            return
+        p = self.document.project
+        design: DesignSpec = replace(p.design_or_default(), **changes)  # type: ignore[arg-type]
+        self.document.apply(replace(p, design=design), "Change design choices")
+
+    def _row_load(self, row: int) -> Load:
+        u = self.document.project.display_units
+        text = [(self.loads.item(row, c).text().strip() if self.loads.item(row, c) else "")
+                for c in range(len(COLUMNS))]
+        case, typ = text[0], text[1]
+        path = f"loads[{row}]"
+        if case not in CASES:
+            raise units.UnitError(f"{path}.case: \u201c{case}\u201d is not one of "
+                                  + ", ".join(CASES))
+        if typ not in LOAD_TYPES:
+            raise units.UnitError(f"{path}.type: \u201c{typ}\u201d is not one of "
+                                  + ", ".join(LOAD_TYPES))
+        value = parse_entry(text[2], VALUE_KIND[typ], u, f"{path}.value")
+
+        def opt(k: int, name: str) -> float | None:
+            return parse_entry(text[k], "span", u, f"{path}.{name}") if text[k] else None
+
+        return Load(case, typ, value, opt(3, "tributary_width") if typ == "area" else None,
+                    opt(4, "from") if typ != "point" else None,
+                    opt(5, "to") if typ != "point" else None,
+                    opt(6, "at") if typ == "point" else None)
+
+    def _cell_changed(self, row: int, column: int) -> None:
+        beam = self.document.project.beam
+        if self._updating or beam is None:
+            return
+        try:
+            load = self._row_load(row)
+        except units.UnitError as exc:
+            self._mark(row, column, str(exc))
+            return
+        problems = validate_load(load, beam.layout.length, f"loads[{row}]")
+        if problems:
+            self._mark(row, column, "; ".join(str(q) for q in problems))
+            return
+        loads = list(beam.loads)
+        loads[row] = load
+        self._apply_beam(replace(beam, loads=tuple(loads)), "Edit load")
+
+    def _mark(self, row: int, column: int, message: str) -> None:
+        self.error.setText(message)
+        item = self.loads.item(row, column)
+        if item is not None:
+            self.loads.blockSignals(True)
+            item.setBackground(QColor(255, 217, 217))
+            item.setToolTip(message)
+            self.loads.blockSignals(False)
+
+    def add_load(self) -> None:
+        """Add a uniform live line load of zero over the whole member (to edit)."""
+        beam = self.document.project.beam
+        if beam is None:
+            return
+        loads = (*beam.loads, Load("L", "line", 0.0))
+        self._apply_beam(replace(beam, loads=loads), "Add load")
+
+    def remove_load(self) -> None:
+        """Remove the selected load row."""
+        beam = self.document.project.beam
+        row = self.loads.currentRow()
+        if beam is None or not 0 <= row < len(beam.loads):
+            return
+        loads = tuple(ld for i, ld in enumerate(beam.loads) if i != row)
+        self._apply_beam(replace(beam, loads=loads), "Remove load")

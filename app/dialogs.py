@@ -1,0 +1,144 @@
+"""Dialogs: a new section from a template, and the materials browser."""
+
+from __future__ import annotations
+
+from PySide6.QtWidgets import (
+    QComboBox,
+    QDialog,
+    QDialogButtonBox,
+    QFormLayout,
+    QLabel,
+    QLineEdit,
+    QMessageBox,
+    QPushButton,
+    QTableWidget,
+    QTableWidgetItem,
+    QVBoxLayout,
+)
+
+from core import units
+from core.materials import Material, material_from_record
+from core.templates import (
+    LUMBER_SI,
+    LUMBER_US,
+    PLATES_SI,
+    PLATES_US,
+    TEMPLATES,
+    TemplateChoice,
+    build,
+)
+
+
+class NewSectionDialog(QDialog):
+    """Pick a template, a lumber size, a plate thickness and the materials."""
+
+    def __init__(self, system: str, materials: dict[str, Material], parent=None):  # type: ignore[no-untyped-def]
+        super().__init__(parent)
+        self.setWindowTitle("New section")
+        self.system = system
+        self.template = QComboBox()
+        self.template.addItems(list(TEMPLATES))
+        self.units = QComboBox()
+        self.units.addItems(["US", "SI"])
+        self.units.setCurrentText(system)
+        self.lumber = QComboBox()
+        self.plate = QComboBox()
+        self.timber = QComboBox()
+        self.steel = QComboBox()
+        for mid, m in sorted(materials.items()):
+            (self.timber if m.kind == "timber" else self.steel).addItem(f"{mid} \u2014 {m.name}",
+                                                                        mid)
+        self.units.currentTextChanged.connect(self._fill_sizes)
+        self._fill_sizes(system)
+        form = QFormLayout(self)
+        form.addRow("Template", self.template)
+        form.addRow("Units", self.units)
+        form.addRow("Lumber", self.lumber)
+        form.addRow("Plate", self.plate)
+        form.addRow("Timber material", self.timber)
+        form.addRow("Plate material", self.steel)
+        buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Ok
+                                   | QDialogButtonBox.StandardButton.Cancel)
+        buttons.accepted.connect(self.accept)
+        buttons.rejected.connect(self.reject)
+        form.addRow(buttons)
+
+    def _fill_sizes(self, system: str) -> None:
+        self.lumber.clear()
+        self.plate.clear()
+        for name, dims in (LUMBER_US if system == "US" else LUMBER_SI).items():
+            self.lumber.addItem(name, dims)
+        for name, t in (PLATES_US if system == "US" else PLATES_SI).items():
+            self.plate.addItem(name, t)
+        self.lumber.setCurrentText("2x10" if system == "US" else "45x220")
+        self.plate.setCurrentText("3/8 in" if system == "US" else "10 mm")
+        want_t, want_s = ("DFL-No2", "A36") if system == "US" else ("C24", "S275")
+        for combo, want in ((self.timber, want_t), (self.steel, want_s)):
+            k = combo.findData(want)
+            if k >= 0:
+                combo.setCurrentIndex(k)
+
+    def plies(self):  # type: ignore[no-untyped-def]
+        """The chosen template's plies."""
+        thickness, depth = self.lumber.currentData()
+        inset = 0.25 * 0.0254 if self.units.currentText() == "US" else 0.006
+        choice = TemplateChoice(thickness, depth, self.plate.currentData(),
+                                self.timber.currentData(), self.steel.currentData(), inset)
+        return build(self.template.currentText(), choice)
+
+
+class MaterialsDialog(QDialog):
+    """Browse the library (with sources) and add a project material."""
+
+    def __init__(self, materials: dict[str, Material], system: str, parent=None):  # type: ignore[no-untyped-def]
+        super().__init__(parent)
+        self.setWindowTitle("Materials")
+        self.resize(900, 500)
+        self.added: Material | None = None
+        self.system = system
+        table = QTableWidget(len(materials), 5)
+        table.setHorizontalHeaderLabels(["Id", "Name", "Kind", "E", "Source"])
+        for r, (mid, m) in enumerate(sorted(materials.items())):
+            for c, text in enumerate((mid, m.name, m.kind, units.fmt(m.E, "modulus", system),
+                                      m.source)):
+                table.setItem(r, c, QTableWidgetItem(text))
+        table.resizeColumnsToContents()
+        self.new_id = QLineEdit()
+        self.record = QLineEdit('{"kind": "timber", "name": "My grade", "E": "1400000 psi", '
+                                '"density": "30 pcf", "Fb": "850 psi", "Fv": "150 psi", '
+                                '"G": 0.43, "source": "user"}')
+        add = QPushButton("Add to project")
+        add.clicked.connect(self._add)
+        self.message = QLabel("")
+        self.message.setWordWrap(True)
+        layout = QVBoxLayout(self)
+        layout.addWidget(table, 1)
+        form = QFormLayout()
+        form.addRow("New material id", self.new_id)
+        form.addRow("Record (JSON, trade symbols as keys)", self.record)
+        layout.addLayout(form)
+        layout.addWidget(add)
+        layout.addWidget(self.message)
+        close = QDialogButtonBox(QDialogButtonBox.StandardButton.Close)
+        close.rejected.connect(self.reject)
+        layout.addWidget(close)
+
+    def _add(self) -> None:
+        import json
+
+        mid = self.new_id.text().strip()
+        if not mid:
+            self.message.setText("id: must not be empty")
+            return
+        try:
+            rec = json.loads(self.record.text())
+        except json.JSONDecodeError as exc:
+            self.message.setText(f"record: not valid JSON ({exc.msg})")
+            return
+        m, problems = material_from_record(mid, rec, f"materials.{mid}")
+        if problems or m is None:
+            self.message.setText("\n".join(str(p) for p in problems))
+            return
+        self.added = m
+        QMessageBox.information(self, "Materials", f"Added \u201c{mid}\u201d to the project.")
+        self.accept()

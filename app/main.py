@@ -1,0 +1,73 @@
+"""Start the desktop program: ``plystack``, ``plystack gui FILE [--screenshot OUT.png]``."""
+
+from __future__ import annotations
+
+import os
+import sys
+from pathlib import Path
+
+
+def run_gui(path: str, screenshot: str | None = None) -> int:
+    """Open ``path`` in the main window; with ``screenshot``, render a PNG and exit.
+
+    Returns the exit status (2 when the file cannot be read).
+    """
+    if screenshot and not os.environ.get("DISPLAY") and not os.environ.get("WAYLAND_DISPLAY"):
+        os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+    from PySide6.QtWidgets import QApplication, QMessageBox
+
+    from app.main_window import MainWindow, autosave_dir
+    from core.errors import ProjectError
+    from core.project import load
+
+    app = QApplication.instance() or QApplication(sys.argv[:1])
+    app.setApplicationName("Plystack")
+    app.setOrganizationName("Plystack")
+    try:
+        project = load(path)
+    except ProjectError as exc:
+        for p in exc.problems:
+            print(f"{path}: {p}", file=sys.stderr)
+        return 2
+    window = MainWindow(project, Path(path))
+    if screenshot:
+        window.resize(1700, 1000)
+        window.show()
+        for _ in range(5):
+            app.processEvents()
+        window.recompute()
+        window.canvas.fit()
+        window.profiles.draw()
+        window.diagrams.draw()
+        app.processEvents()
+        ok = window.grab().save(screenshot)
+        window.document.undo_stack.setClean()
+        window.close()
+        if not ok:
+            print(f"could not write {screenshot}", file=sys.stderr)
+            return 2
+        return 0
+    offer_recovery(window, autosave_dir(), QMessageBox)
+    window.show()
+    return int(app.exec())
+
+
+def offer_recovery(window, folder: Path, box) -> None:  # type: ignore[no-untyped-def]
+    """After a crash, offer the autosaved projects left behind."""
+    from core.errors import ProjectError
+    from core.project import load
+
+    if not folder.is_dir():
+        return
+    for f in sorted(folder.glob("*.json")):
+        answer = box.question(window, "Recover unsaved work",
+                              f"Plystack found unsaved work from an earlier session:\n{f.name}"
+                              "\nRecover it?")
+        if answer == box.StandardButton.Yes:
+            try:
+                project = load(f)
+            except ProjectError:
+                continue
+            window.document.apply(project, "Recover autosave")
+            return
+        f.unlink(missing_ok=True)

@@ -1,0 +1,392 @@
+"""The main window: section canvas, plots, panels and results around one document."""
+
+from __future__ import annotations
+
+from dataclasses import replace
+from pathlib import Path
+
+from PySide6.QtCore import QSettings, QStandardPaths, Qt, QTimer
+from PySide6.QtGui import QAction, QCloseEvent, QKeySequence
+from PySide6.QtWidgets import (
+    QComboBox,
+    QFileDialog,
+    QHBoxLayout,
+    QLabel,
+    QMainWindow,
+    QMessageBox,
+    QSplitter,
+    QTabWidget,
+    QVBoxLayout,
+    QWidget,
+)
+
+from app.beam_panel import BeamPanel, default_beam
+from app.canvas import SectionCanvas
+from app.dialogs import MaterialsDialog, NewSectionDialog
+from app.document import Document
+from app.plots import DiagramPlot, ProfilePlot
+from app.ply_panel import PlyPanel
+from app.results import ResultsPanel
+from core.analysis import Analysis, run
+from core.errors import ProjectError
+from core.project import Project, dumps, load
+
+AUTOSAVE_MS = 60_000
+
+
+def autosave_dir() -> Path:
+    """Folder for autosaves (the platform's application-data folder)."""
+    base = QStandardPaths.writableLocation(QStandardPaths.StandardLocation.AppDataLocation)
+    return Path(base or Path.home() / ".plystack") / "autosave"
+
+
+class MainWindow(QMainWindow):
+    """Plystack's window. ``ask`` can be replaced in tests to answer prompts."""
+
+    def __init__(self, project: Project, path: Path | None = None):
+        super().__init__()
+        self.document = Document(project, path)
+        self.analysis: Analysis | None = None
+        self.settings = QSettings("Plystack", "Plystack")
+        self.canvas = SectionCanvas(self.document)
+        self.ply_panel = PlyPanel(self.document)
+        self.beam_panel = BeamPanel(self.document)
+        self.results = ResultsPanel()
+        self.profiles = ProfilePlot()
+        self.diagrams = DiagramPlot()
+        self.combo_pick = QComboBox()
+        self.combo_pick.setToolTip("Combination shown in the plots")
+        panels = QTabWidget()
+        panels.addTab(self.ply_panel, "Plies")
+        panels.addTab(self.beam_panel, "Loads")
+        panels.setMinimumWidth(330)
+        top = QSplitter(Qt.Orientation.Horizontal)
+        top.addWidget(self.canvas)
+        plot_box = QWidget()
+        pl = QVBoxLayout(plot_box)
+        pl.setContentsMargins(0, 0, 0, 0)
+        row = QHBoxLayout()
+        row.addWidget(QLabel("Plots for"))
+        row.addWidget(self.combo_pick, 1)
+        pl.addLayout(row)
+        pl.addWidget(self.profiles, 1)
+        top.addWidget(plot_box)
+        top.setSizes([520, 520])
+        centre = QSplitter(Qt.Orientation.Vertical)
+        centre.addWidget(top)
+        centre.addWidget(self.diagrams)
+        centre.setSizes([460, 360])
+        main = QSplitter(Qt.Orientation.Horizontal)
+        main.addWidget(panels)
+        main.addWidget(centre)
+        main.addWidget(self.results)
+        main.setSizes([330, 900, 640])
+        self.setCentralWidget(main)
+        self.statusBar().showMessage("Drag on the section to draw a ply; click a ply to "
+                                     "select it.")
+        self.canvas.status.connect(self.statusBar().showMessage)
+        self.canvas.selection_changed.connect(self.ply_panel.set_index)
+        self.ply_panel.materials_button.clicked.connect(self.open_materials)
+        self.combo_pick.activated.connect(lambda _i: self._redraw_plots())
+        self._timer = QTimer(self)
+        self._timer.setSingleShot(True)
+        self._timer.setInterval(15)
+        self._timer.timeout.connect(self.recompute)
+        self.document.changed.connect(self._timer.start)
+        self.document.file_changed.connect(self._update_title)
+        self._autosave = QTimer(self)
+        self._autosave.setInterval(AUTOSAVE_MS)
+        self._autosave.timeout.connect(self.autosave)
+        self._autosave.start()
+        self._build_menus()
+        self.resize(1600, 950)
+        self._update_title()
+        self.recompute()
+
+    # --- menus ------------------------------------------------------------------------
+
+    def _action(self, menu, text: str, slot, shortcut=None) -> QAction:  # type: ignore[no-untyped-def]
+        act = QAction(text, self)
+        if shortcut is not None:
+            act.setShortcut(QKeySequence(shortcut))
+        act.triggered.connect(lambda _checked=False: slot())
+        menu.addAction(act)
+        return act
+
+    def _build_menus(self) -> None:
+        bar = self.menuBar()
+        f = bar.addMenu("&File")
+        self._action(f, "&New from template\u2026", self.new_from_template,
+                     QKeySequence.StandardKey.New)
+        self._action(f, "&Open\u2026", self.open_dialog, QKeySequence.StandardKey.Open)
+        self.recent_menu = f.addMenu("Open &recent")
+        self._action(f, "&Save", self.save, QKeySequence.StandardKey.Save)
+        self._action(f, "Save &as\u2026", self.save_as, QKeySequence.StandardKey.SaveAs)
+        f.addSeparator()
+        self._action(f, "&Quit", self.close, QKeySequence.StandardKey.Quit)
+        e = bar.addMenu("&Edit")
+        undo = self.document.undo_stack.createUndoAction(self, "&Undo")
+        undo.setShortcut(QKeySequence.StandardKey.Undo)
+        redo = self.document.undo_stack.createRedoAction(self, "&Redo")
+        redo.setShortcut(QKeySequence.StandardKey.Redo)
+        e.addAction(undo)
+        e.addAction(redo)
+        e.addSeparator()
+        self._action(e, "&Delete ply", self.delete_ply, QKeySequence.StandardKey.Delete)
+        self._action(e, "D&uplicate ply", self.duplicate_ply, "Ctrl+D")
+        self._action(e, "&Mirror ply about the centre line", self.mirror_ply, "Ctrl+M")
+        self._action(e, "Bring &forward", lambda: self.restack(+1), "Ctrl+]")
+        self._action(e, "Send &back", lambda: self.restack(-1), "Ctrl+[")
+        self._action(e, "&Materials\u2026", self.open_materials)
+        v = bar.addMenu("&View")
+        self._action(v, "&Fit section", self.canvas.fit, "F")
+        self.transformed_action = self._action(v, "Show &transformed section",
+                                               self.toggle_transformed, "T")
+        self.transformed_action.setCheckable(True)
+        self.us_action = self._action(v, "US units", lambda: self.set_units("US"))
+        self.si_action = self._action(v, "SI units", lambda: self.set_units("SI"))
+        self._fill_recent()
+
+    # --- computation --------------------------------------------------------------------
+
+    def recompute(self) -> None:
+        """Run core/ on the current project and update results and plots."""
+        try:
+            self.analysis = run(self.document.project)
+        except ProjectError as exc:
+            self.analysis = None
+            self.results.show_error("\n".join(str(p) for p in exc.problems))
+        except Exception as exc:  # noqa: BLE001 - never lose work over a computation
+            self.analysis = None
+            self.results.show_error(f"Computation failed: {type(exc).__name__}: {exc}")
+        else:
+            self.results.show_analysis(self.analysis)
+        names = [c.name for c in self.analysis.beam.combinations] if (
+            self.analysis and self.analysis.beam) else []
+        current = self.combo_pick.currentText()
+        self.combo_pick.blockSignals(True)
+        self.combo_pick.clear()
+        self.combo_pick.addItem("governing combination")
+        self.combo_pick.addItems(names)
+        if current in names:
+            self.combo_pick.setCurrentText(current)
+        self.combo_pick.blockSignals(False)
+        self._redraw_plots()
+
+    def _redraw_plots(self) -> None:
+        name = self.combo_pick.currentText()
+        pick = None if name == "governing combination" else name
+        self.profiles.update_from(self.analysis, pick)
+        self.diagrams.update_from(self.analysis, pick)
+
+    # --- edits ------------------------------------------------------------------------
+
+    def _plies(self) -> list:  # type: ignore[type-arg]
+        return list(self.document.project.plies)
+
+    def delete_ply(self) -> None:
+        """Remove the selected ply."""
+        i = self.canvas.selected
+        if i is None:
+            return
+        plies = self._plies()
+        del plies[i]
+        self.canvas.select(None)
+        self.document.apply(self.document.project.with_plies(tuple(plies)), "Delete ply")
+
+    def duplicate_ply(self) -> None:
+        """Copy the selected ply beside itself (to the right)."""
+        i = self.canvas.selected
+        if i is None:
+            return
+        plies = self._plies()
+        p = plies[i]
+        plies.append(replace(p, name=f"{p.name} copy", x=p.x + p.width))
+        self.document.apply(self.document.project.with_plies(tuple(plies)), "Duplicate ply")
+        self.canvas.select(len(plies) - 1)
+
+    def mirror_ply(self) -> None:
+        """Mirror the selected ply about the section's vertical centre line."""
+        i = self.canvas.selected
+        if i is None:
+            return
+        plies = self._plies()
+        x0 = min(p.x for p in plies)
+        x1 = max(p.x + p.width for p in plies)
+        p = plies[i]
+        plies[i] = replace(p, x=x0 + x1 - p.x - p.width)
+        self.document.apply(self.document.project.with_plies(tuple(plies)), "Mirror ply")
+
+    def restack(self, step: int) -> None:
+        """Move the selected ply up or down the stacking order."""
+        i = self.canvas.selected
+        if i is None:
+            return
+        plies = self._plies()
+        j = i + step
+        if not 0 <= j < len(plies):
+            return
+        plies[i], plies[j] = plies[j], plies[i]
+        self.document.apply(self.document.project.with_plies(tuple(plies)),
+                            "Bring forward" if step > 0 else "Send back")
+        self.canvas.select(j)
+
+    def toggle_transformed(self) -> None:
+        """Show or hide the transformed outline."""
+        self.canvas.show_transformed = self.transformed_action.isChecked()
+        self.canvas.rebuild()
+
+    def set_units(self, system: str) -> None:
+        """Switch the display units (US or SI)."""
+        self.document.apply(replace(self.document.project, display_units=system),
+                            f"{system} units")
+        self.canvas.rebuild()
+
+    def open_materials(self) -> None:
+        """Browse materials and add one to the project."""
+        p = self.document.project
+        dlg = MaterialsDialog(p.all_materials(), p.display_units, self)
+        if dlg.exec() and dlg.added is not None:
+            mats = {**p.materials, dlg.added.id: dlg.added}
+            self.document.apply(replace(p, materials=mats), "Add material")
+
+    # --- files ------------------------------------------------------------------------
+
+    def ask(self, title: str, text: str, buttons, default):  # type: ignore[no-untyped-def]
+        """Ask the user (replaced in tests)."""
+        return QMessageBox.question(self, title, text, buttons, default)
+
+    def maybe_save(self) -> bool:
+        """True when it is fine to drop the current document."""
+        if not self.document.modified:
+            return True
+        b = QMessageBox.StandardButton
+        answer = self.ask("Unsaved changes", "Save the changes to this project first?",
+                          b.Save | b.Discard | b.Cancel, b.Save)
+        if answer == b.Save:
+            return self.save()
+        return bool(answer == b.Discard)
+
+    def new_from_template(self) -> None:
+        """Start a new project from a section template."""
+        if not self.maybe_save():
+            return
+        p = self.document.project
+        dlg = NewSectionDialog(p.display_units, p.all_materials(), self)
+        if not dlg.exec():
+            return
+        system = dlg.units.currentText()
+        project = Project(title="New section", display_units=system, plies=dlg.plies(),
+                          beam=default_beam(system),
+                          design=None if system == "US" else _eu_design())
+        self.document.replace_all(project, None)
+        self.canvas._fitted = False
+        self.canvas.rebuild()
+
+    def open_path(self, path: Path) -> bool:
+        """Open a project file; show its problems if it cannot be read."""
+        try:
+            project = load(path)
+        except ProjectError as exc:
+            QMessageBox.warning(self, "Cannot open", "\n".join(str(p) for p in exc.problems))
+            return False
+        self.document.replace_all(project, Path(path))
+        self.canvas._fitted = False
+        self.canvas.select(None)
+        self.canvas.rebuild()
+        self._remember(Path(path))
+        return True
+
+    def open_dialog(self) -> None:
+        """File > Open."""
+        if not self.maybe_save():
+            return
+        name, _ = QFileDialog.getOpenFileName(self, "Open project", "",
+                                              "Plystack projects (*.plystack.json *.json)")
+        if name:
+            self.open_path(Path(name))
+
+    def save(self) -> bool:
+        """File > Save (asks for a name the first time)."""
+        if self.document.path is None:
+            return self.save_as()
+        return self._save_to(self.document.path)
+
+    def save_as(self) -> bool:
+        """File > Save as."""
+        name, _ = QFileDialog.getSaveFileName(self, "Save project", "untitled.plystack.json",
+                                              "Plystack projects (*.plystack.json)")
+        return self._save_to(Path(name)) if name else False
+
+    def _save_to(self, path: Path) -> bool:
+        try:
+            self.document.save_to(path)
+        except OSError as exc:
+            QMessageBox.critical(self, "Save failed", f"{path}: {exc}. The old file is "
+                                 "unchanged.")
+            return False
+        self._remember(path)
+        self._clear_autosave()
+        return True
+
+    def _remember(self, path: Path) -> None:
+        recent = [str(path)] + [p for p in self._recent() if p != str(path)]
+        self.settings.setValue("recent", recent[:8])
+        self._fill_recent()
+
+    def _recent(self) -> list[str]:
+        value = self.settings.value("recent", [])
+        return [str(v) for v in value] if isinstance(value, list) else (
+            [str(value)] if value else [])
+
+    def _fill_recent(self) -> None:
+        self.recent_menu.clear()
+        for p in self._recent():
+            act = self.recent_menu.addAction(p)
+            act.triggered.connect(lambda _c=False, p=p: self.maybe_save() and self.open_path(
+                Path(p)))
+
+    def _update_title(self) -> None:
+        name = self.document.path.name if self.document.path else "untitled"
+        mark = "*" if self.document.modified else ""
+        self.setWindowTitle(f"{name}{mark} \u2014 Plystack")
+        self.setWindowModified(self.document.modified)
+
+    # --- autosave and closing ---------------------------------------------------------
+
+    def _autosave_path(self) -> Path:
+        stem = self.document.path.name if self.document.path else "untitled.plystack.json"
+        return autosave_dir() / stem
+
+    def autosave(self) -> Path | None:
+        """Write the project to the autosave folder while it has unsaved changes."""
+        if not self.document.modified:
+            return None
+        target = self._autosave_path()
+        try:
+            target.parent.mkdir(parents=True, exist_ok=True)
+            tmp = target.with_suffix(".tmp")
+            tmp.write_text(dumps(self.document.project), encoding="utf-8")
+            tmp.replace(target)
+        except OSError:
+            return None
+        return target
+
+    def _clear_autosave(self) -> None:
+        try:
+            self._autosave_path().unlink(missing_ok=True)
+        except OSError:
+            pass
+
+    def closeEvent(self, event: QCloseEvent) -> None:  # noqa: N802,D102
+        if self.maybe_save():
+            self._clear_autosave()
+            event.accept()
+        else:
+            event.ignore()
+
+
+def _eu_design():  # type: ignore[no-untyped-def]
+    from core.design import DesignSpec
+
+    return DesignSpec(basis="EU-LSD")
