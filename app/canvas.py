@@ -181,7 +181,9 @@ class SectionCanvas(QGraphicsView):
             item.setToolTip(f"{ply.name} ({ply.material})")
             scene.addItem(item)
             # dashed outline of the uncut rectangle where the ply is clipped
-            if self.section is not None and abs(self.section.area[i] - ply.width * ply.height) > 1e-12:
+            clipped = self.section is not None and abs(
+                self.section.area[i] - ply.width * ply.height) > 1e-12
+            if clipped:
                 ghost = QGraphicsRectItem(self._rect(ply))
                 gp = QPen(QColor(120, 120, 120), 0, Qt.PenStyle.DotLine)
                 gp.setCosmetic(True)

@@ -58,7 +58,10 @@ class Document(QObject):
         self._project = project
         self.path = path
         self.undo_stack = QUndoStack(self)
-        self.undo_stack.cleanChanged.connect(lambda _clean: self.file_changed.emit())
+        self.undo_stack.cleanChanged.connect(self._clean_changed)
+
+    def _clean_changed(self, _clean: bool) -> None:
+        self.file_changed.emit()
 
     @property
     def project(self) -> Project:

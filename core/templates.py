@@ -37,7 +37,8 @@ PLATES_SI = {"6 mm": 6 * MM, "8 mm": 8 * MM, "10 mm": 10 * MM, "12 mm": 12 * MM,
 @dataclass(frozen=True)
 class TemplateChoice:
     """Inputs of a template: lumber (thickness, depth), plate thickness, materials,
-    and how far the plate stops short of the timber's edges (flitch plates)."""
+    and how far the plate stops short of the timber's edges (flitch plates).
+    """
 
     thickness: float
     depth: float
