@@ -1,88 +1,176 @@
 """Plots: strain and stress over the depth, shear, moment and deflection along the span.
 
-Lines are created once and updated in place; labels are redrawn; ``draw_idle`` lets Qt
-coalesce repaints.
+Speed: the axes, ticks and labels are drawn once and cached as a background; an edit
+only changes the data artists (created once, updated in place with ``set_data``) and
+blits them over the cached background. The axes are redrawn in full only when the data
+leave the current limits or shrink well inside them, or the widget is resized.
 """
 
 from __future__ import annotations
 
+from typing import Any
+
 import numpy as np
 from matplotlib.backends.backend_qtagg import FigureCanvasQTAgg
 from matplotlib.figure import Figure
+from matplotlib.patches import Polygon
 
 from core.analysis import Analysis
 from core.beam import diagram
 from core.units import sig, to_display, unit_label
 
 
-class ProfilePlot(FigureCanvasQTAgg):
+def _needs_new_limits(current: tuple[float, float], lo: float, hi: float) -> bool:
+    """True when [lo, hi] leaves the current limits or fills less than half of them."""
+    a, b = current
+    span = b - a
+    if lo < a or hi > b or span <= 0:
+        return True
+    return (hi - lo) < 0.5 * span
+
+
+def _padded(lo: float, hi: float) -> tuple[float, float]:
+    if hi - lo <= 0:
+        pad = max(abs(hi), 1.0) * 0.1
+        return lo - pad, hi + pad
+    pad = (hi - lo) * 0.12
+    return lo - pad, hi + pad
+
+
+class BlitCanvas(FigureCanvasQTAgg):
+    """A matplotlib canvas that redraws only its data artists when it can."""
+
+    def __init__(self, figure: Figure):
+        super().__init__(figure)
+        self._background: Any = None
+        self._full = True
+        self.dynamic: list[Any] = []
+        self.full_draws = 0
+
+    def resizeEvent(self, event: Any) -> None:  # noqa: N802,D102 - Qt API
+        self.figure.set_layout_engine("constrained")
+        self._full = True
+        super().resizeEvent(event)
+
+    def refresh(self, full: bool) -> None:
+        """Draw: in full (axes and background) or by blitting the data artists."""
+        for a in self.dynamic:
+            a.set_animated(True)
+        if full or self._full or self._background is None:
+            self.figure.set_layout_engine("constrained")
+            self.draw()
+            self.figure.set_layout_engine("none")
+            self._background = self.copy_from_bbox(self.figure.bbox)
+            self._full = False
+            self.full_draws += 1
+        else:
+            self.restore_region(self._background)
+        for a in self.dynamic:
+            if a.axes is not None:
+                a.axes.draw_artist(a)
+        self.blit(self.figure.bbox)
+
+
+class ProfilePlot(BlitCanvas):
     """Strain and stress profiles over the height of the section, side by side."""
 
     def __init__(self) -> None:
-        self.figure = Figure(figsize=(5.5, 3.6), layout="constrained")
-        super().__init__(self.figure)
-        self.ax_strain, self.ax_stress = self.figure.subplots(1, 2, sharey=True)
+        figure = Figure(figsize=(5.5, 3.6), layout="constrained")
+        super().__init__(figure)
+        self.ax_strain, self.ax_stress = figure.subplots(1, 2, sharey=True)
         (self.strain_line,) = self.ax_strain.plot([], [], color="#333333", lw=1.6)
-        self.stress_lines: list = []  # type: ignore[type-arg]
-        self.labels: list = []  # type: ignore[type-arg]
-        self.last: dict[str, np.ndarray] = {}
+        self.na_lines = [ax.axhline(0, color="#c02020", ls="-.", lw=0.9)
+                         for ax in (self.ax_strain, self.ax_stress)]
+        for ax in (self.ax_strain, self.ax_stress):
+            ax.axvline(0.0, color="#999999", lw=0.6)
+        self.stress_lines: list[Any] = []
+        self.labels: list[Any] = []
+        self.last: dict[str, Any] = {}
+        self._key: tuple[Any, ...] = ()
+        self.na_label = self.ax_strain.annotate("", (0, 0), fontsize=7, color="#c02020",
+                                                xytext=(3, 3), textcoords="offset points")
+        self.moment_text = self.ax_stress.text(0.02, 0.98, "", transform=self.ax_stress.transAxes,
+                                               fontsize=8, va="top")
 
     def update_from(self, a: Analysis | None, combo_name: str | None = None) -> None:
-        """Redraw for the analysis at the governing (or named) combination's moment."""
+        """Update for the analysis at the governing (or named) combination's moment."""
         for t in self.labels:
-            t.remove()
-        self.labels = []
+            t.set_text("")
+        used = 0
         if a is None:
-            self.draw_idle()
+            self.strain_line.set_data([], [])
+            for line in self.stress_lines:
+                line.set_data([], [])
+            self.dynamic = [self.strain_line, *self.stress_lines]
+            self.refresh(False)
             return
         u = a.project.display_units
         s = a.section
         moment, title = _moment_for(a, combo_name)
-        y0, y1 = float(s.y_bottom.min()), float(s.y_top.max())
-        ys = np.array([y0, y1])
-        L = unit_label("length", u)
-        S = unit_label("stress", u)
-        strain = s.strain(moment, ys)
-        self.strain_line.set_data(strain * 1e6, to_display(1.0, "length", u) * ys)
-        self.ax_strain.set_xlabel("strain (\u00b5\u03b5, tension +)")
-        self.ax_strain.set_ylabel(f"height ({L})")
-        self.ax_strain.set_title("Strain", fontsize=9)
-        self.ax_stress.set_title(f"Stress at M = {sig(to_display(moment, 'moment', u), 4)} "
-                                 f"{unit_label('moment', u)} ({title})", fontsize=9)
-        self.ax_stress.set_xlabel(f"stress ({S}, tension +)")
+        k = to_display(1.0, "length", u)
+        ks = to_display(1.0, "stress", u)
+        y0, y1 = float(s.y_bottom.min()) * k, float(s.y_top.max()) * k
+        strain = s.strain(moment, np.array([y0 / k, y1 / k])) * 1e6
+        self.strain_line.set_data(strain, [y0, y1])
         while len(self.stress_lines) < len(s.plies):
             (line,) = self.ax_stress.plot([], [], lw=1.8)
             self.stress_lines.append(line)
         top, bot = s.ply_extreme_stresses(moment)
-        k = to_display(1.0, "length", u)
-        ks = to_display(1.0, "stress", u)
         seen: set[tuple[float, float]] = set()
         for i, line in enumerate(self.stress_lines):
             if i >= len(s.plies) or s.area[i] <= 0:
                 line.set_data([], [])
                 continue
-            kind = s.materials[i].kind
-            line.set_color({"timber": "#9a6b2f", "steel": "#3d4654"}.get(kind, "#777777"))
+            line.set_color({"timber": "#9a6b2f", "steel": "#3d4654"}.get(
+                s.materials[i].kind, "#777777"))
             line.set_data([bot[i] * ks, top[i] * ks], [s.y_bottom[i] * k, s.y_top[i] * k])
             for value, y in ((bot[i], s.y_bottom[i]), (top[i], s.y_top[i])):
                 key = (round(float(value), 3), round(float(y), 9))
                 if key in seen:
                     continue
                 seen.add(key)
-                self.labels.append(self.ax_stress.annotate(
-                    sig(float(value) * ks, 3), (float(value) * ks, float(y) * k), fontsize=7,
-                    xytext=(3, 0), textcoords="offset points", va="center"))
+                if used == len(self.labels):
+                    self.labels.append(self.ax_stress.annotate(
+                        "", (0, 0), fontsize=7, xytext=(3, 0), textcoords="offset points",
+                        va="center"))
+                self.labels[used].set_text(sig(float(value) * ks, 3))
+                self.labels[used].xy = (float(value) * ks, float(y) * k)
+                used += 1
         na = s.neutral_axis_y * k
-        for ax in (self.ax_strain, self.ax_stress):
-            self.labels.append(ax.axhline(na, color="#c02020", ls="-.", lw=0.9))
-            self.labels.append(ax.axvline(0.0, color="#999999", lw=0.6))
-            ax.relim()
-            ax.autoscale_view()
-        self.labels.append(self.ax_strain.annotate(
-            f"NA {sig(na, 4)} {L}", (0, na), fontsize=7, color="#c02020",
-            xytext=(3, 3), textcoords="offset points"))
-        self.last = {"moment": np.array([moment]), "top": top, "bottom": bot}
-        self.draw_idle()
+        for line in self.na_lines:
+            line.set_ydata([na, na])
+        self.na_label.set_text(f"NA {sig(na, 4)} {unit_label('length', u)}")
+        self.na_label.xy = (0, na)
+        full = self._set_limits(strain, np.concatenate([top, bot]) * ks, (y0, y1), u, moment,
+                                title)
+        self.dynamic = [self.strain_line, *self.stress_lines, *self.na_lines,
+                        *self.labels[:used], self.na_label, self.moment_text]
+        self.last = {"moment": moment, "top": top, "bottom": bot}
+        self.refresh(full)
+
+    def _set_limits(self, strain: np.ndarray, stress: np.ndarray, ys: tuple[float, float],
+                    u: str, moment: float, title: str) -> bool:
+        full = False
+        for ax, values in ((self.ax_strain, strain), (self.ax_stress, stress)):
+            lo, hi = float(min(values.min(), 0.0)), float(max(values.max(), 0.0))
+            if _needs_new_limits(ax.get_xlim(), lo, hi):
+                ax.set_xlim(*_padded(lo, hi))
+                full = True
+        if _needs_new_limits(self.ax_strain.get_ylim(), *ys):
+            self.ax_strain.set_ylim(*_padded(*ys))
+            full = True
+        self.moment_text.set_text(f"M = {sig(to_display(moment, 'moment', u), 4)} "
+                                  f"{unit_label('moment', u)}")
+        key = (u, title)
+        if key != self._key:
+            self._key = key
+            self.ax_strain.set_xlabel("strain (\u00b5\u03b5, tension +)")
+            self.ax_strain.set_ylabel(f"height ({unit_label('length', u)})")
+            self.ax_strain.set_title("Strain", fontsize=9)
+            self.ax_stress.set_title(f"Stress ({title})", fontsize=9)
+            self.ax_stress.set_xlabel(f"stress ({unit_label('stress', u)}, tension +)")
+            full = True
+        return full
 
 
 def _moment_for(a: Analysis, combo_name: str | None) -> tuple[float, str]:
@@ -95,28 +183,34 @@ def _moment_for(a: Analysis, combo_name: str | None) -> tuple[float, str]:
     return chosen.M_governing, chosen.name
 
 
-class DiagramPlot(FigureCanvasQTAgg):
+class DiagramPlot(BlitCanvas):
     """Shear, moment and deflection along the member, maxima labelled."""
 
     def __init__(self) -> None:
-        self.figure = Figure(figsize=(7, 4.2), layout="constrained")
-        super().__init__(self.figure)
-        self.axes = self.figure.subplots(3, 1, sharex=True)
+        figure = Figure(figsize=(7, 4.2), layout="constrained")
+        super().__init__(figure)
+        self.axes = figure.subplots(3, 1, sharex=True)
         self.lines = [ax.plot([], [], lw=1.5, color=c)[0]
                       for ax, c in zip(self.axes, ("#2a6f97", "#9b2226", "#3a5a40"), strict=True)]
-        self.fills: list = []  # type: ignore[type-arg]
-        self.labels: list = []  # type: ignore[type-arg]
+        for ax in self.axes:
+            ax.axhline(0, color="#888888", lw=0.6)
+        self.fills = [ax.add_patch(Polygon(np.zeros((1, 2)), closed=True, alpha=0.12,
+                                           color=line.get_color(), lw=0))
+                      for ax, line in zip(self.axes, self.lines, strict=True)]
+        self.labels = [ax.annotate("", (0, 0), fontsize=7, xytext=(4, 4),
+                                   textcoords="offset points") for ax in self.axes]
         self.last: dict[str, float] = {}
+        self._key: tuple[Any, ...] = ()
 
     def update_from(self, a: Analysis | None, combo_name: str | None = None) -> None:
-        """Redraw for the governing (or named) combination."""
-        for t in self.labels + self.fills:
-            t.remove()
-        self.labels, self.fills = [], []
+        """Update for the governing (or named) combination."""
         if a is None or a.beam is None:
-            for line in self.lines:
+            for line, fill, label in zip(self.lines, self.fills, self.labels, strict=True):
                 line.set_data([], [])
-            self.draw_idle()
+                fill.set_xy(np.zeros((1, 2)))
+                label.set_text("")
+            self.dynamic = [*self.lines, *self.fills, *self.labels]
+            self.refresh(False)
             return
         u = a.project.display_units
         combos = a.beam.combinations
@@ -126,22 +220,38 @@ class DiagramPlot(FigureCanvasQTAgg):
         kx = to_display(1.0, "span", u)
         series = (("shear", d.V, "force"), ("moment", d.M, "moment"),
                   ("deflection (down +)", d.deflection, "deflection"))
-        for ax, line, (name, values, kind) in zip(self.axes, self.lines, series, strict=True):
+        full = False
+        x = d.x * kx
+        if _needs_new_limits(self.axes[0].get_xlim(), float(x.min()), float(x.max())) or (
+                abs(self.axes[0].get_xlim()[1] - x.max()) > 1e-9 * max(abs(x.max()), 1.0)):
+            self.axes[0].set_xlim(float(x.min()), float(x.max()))
+            full = True
+        for ax, line, fill, label, (name, values, kind) in zip(
+                self.axes, self.lines, self.fills, self.labels, series, strict=True):
             kv = to_display(1.0, kind, u)
-            x, v = d.x * kx, values * kv
+            v = values * kv
             line.set_data(x, v)
-            self.fills.append(ax.fill_between(x, 0, v, color=line.get_color(), alpha=0.12))
-            ax.set_ylabel(f"{name}\n({unit_label(kind, u)})", fontsize=8)
+            fill.set_xy(np.column_stack([np.concatenate([x, x[::-1]]),
+                                         np.concatenate([v, np.zeros_like(v)])]))
             k = int(np.argmax(np.abs(v)))
-            self.labels.append(ax.annotate(f"{sig(float(v[k]), 4)} at {sig(float(x[k]), 3)}",
-                                           (float(x[k]), float(v[k])), fontsize=7,
-                                           xytext=(4, 4), textcoords="offset points"))
-            self.labels.append(ax.axhline(0, color="#888888", lw=0.6))
-            ax.relim()
-            ax.autoscale_view()
+            label.set_text(f"{sig(float(v[k]), 4)} at {sig(float(x[k]), 3)}")
+            label.xy = (float(x[k]), float(v[k]))
+            lo, hi = float(min(v.min(), 0.0)), float(max(v.max(), 0.0))
+            if _needs_new_limits(ax.get_ylim(), lo, hi):
+                ax.set_ylim(*_padded(lo, hi))
+                full = True
             self.last[kind] = float(v[k]) / kv
-        for xs in a.beam.model.layout.support_positions():
-            self.labels.append(self.axes[1].axvline(xs * kx, color="#aaaaaa", lw=0.6, ls=":"))
-        self.axes[0].set_title(f"{chosen.name}", fontsize=9)
-        self.axes[2].set_xlabel(f"x from the left end ({unit_label('span', u)})")
-        self.draw_idle()
+        key = (u, chosen.name, tuple(a.beam.model.layout.support_positions()))
+        if key != self._key:
+            self._key = key
+            for ax, (name, _, kind) in zip(self.axes, series, strict=True):
+                ax.set_ylabel(f"{name}\n({unit_label(kind, u)})", fontsize=8)
+            for ln in getattr(self, "_supports", []):
+                ln.remove()
+            self._supports = [self.axes[1].axvline(xs * kx, color="#aaaaaa", lw=0.6, ls=":")
+                              for xs in a.beam.model.layout.support_positions()]
+            self.axes[0].set_title(chosen.name, fontsize=9)
+            self.axes[2].set_xlabel(f"x from the left end ({unit_label('span', u)})")
+            full = True
+        self.dynamic = [*self.lines, *self.fills, *self.labels]
+        self.refresh(full)

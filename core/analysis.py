@@ -25,7 +25,7 @@ from core.combinations import (
 from core.design import DesignSpec
 from core.errors import Problem, ProjectError
 from core.project import BeamSpec, Project
-from core.section import Section, analyse
+from core.section import Section, analyse, with_moduli
 
 GRAVITY = 9.80665
 
@@ -113,8 +113,7 @@ def analyse_beam(project: Project, section: Section, design: DesignSpec) -> Beam
     case_ext = {c: extremes(model, s, EI) for c, s in cases.items()}
     products = [m.product for m in section.materials if m.kind == "timber"]
     factor = design.creep_factor(products[0] if products else "sawn")
-    creep_section = analyse(project.plies, project.all_materials(), project.reference_material,
-                            moduli=creep_moduli(section, factor))
+    creep_section = with_moduli(section, creep_moduli(section, factor))
     EI_c = creep_section.EI
     frac = spec.sustained_live_fraction or 0.0
     results = []

@@ -386,47 +386,125 @@ def element_polynomials(model: BeamModel, sol: CaseSolution,
     return out
 
 
+def _coefficients(model: BeamModel, sol: CaseSolution, EI: float) -> np.ndarray:
+    """Per element, downward deflection coefficients in local x, highest power first
+    (n, 5): Hermite cubic plus the uniform-load particular solution.
+    """
+    le = model.lengths
+    u = sol.u
+    v1, t1, v2, t2 = u[0:-2:2], u[1:-2:2], u[2::2], u[3::2]
+    a2 = (3 * (v2 - v1) / le - 2 * t1 - t2) / le
+    a3 = (2 * (v1 - v2) / le + t1 + t2) / le**2
+    p = sol.q / 24
+    w_up = np.column_stack([p, a3 - 2 * le * p, a2 + le * le * p, t1, v1])
+    return np.asarray(-w_up / EI)
+
+
+def _real_roots_batched(coeffs: np.ndarray, le: np.ndarray) -> np.ndarray:
+    """Real roots inside (0, le) of per-row cubics (n, 4), highest power first.
+
+    Returns (n, 3) local positions, NaN where there is no root. Each row is scaled to
+    t = x / le and normalised, so negligible leading terms are treated as zero.
+    """
+    n = coeffs.shape[0]
+    out = np.full((n, 3), np.nan)
+    scaled = coeffs * le[:, None] ** np.array([3, 2, 1, 0])
+    big = np.abs(scaled).max(axis=1)
+    ok = np.isfinite(big) & (big > 0)
+    scaled = np.where(ok[:, None], scaled / np.where(ok, big, 1.0)[:, None], 0.0)
+    scaled = np.where(np.abs(scaled) < 1e-12, 0.0, scaled)
+    c3, c2, c1, c0 = scaled.T
+    cubic = ok & (c3 != 0)
+    if cubic.any():
+        k = np.flatnonzero(cubic)
+        comp = np.zeros((k.size, 3, 3))
+        comp[:, 0, 0] = -c2[k] / c3[k]
+        comp[:, 0, 1] = -c1[k] / c3[k]
+        comp[:, 0, 2] = -c0[k] / c3[k]
+        comp[:, 1, 0] = 1.0
+        comp[:, 2, 1] = 1.0
+        roots = np.linalg.eigvals(comp)
+        real = (np.abs(roots.imag) < 1e-9) & (roots.real > 0) & (roots.real < 1)
+        out[k] = np.where(real, roots.real, np.nan)
+    quad = ok & (c3 == 0) & (c2 != 0)
+    if quad.any():
+        k = np.flatnonzero(quad)
+        disc = c1[k] ** 2 - 4 * c2[k] * c0[k]
+        sq = np.sqrt(np.where(disc >= 0, disc, np.nan))
+        for j, r in enumerate(((-c1[k] + sq) / (2 * c2[k]), (-c1[k] - sq) / (2 * c2[k]))):
+            out[k, j] = np.where((r > 0) & (r < 1), r, np.nan)
+    lin = ok & (c3 == 0) & (c2 == 0) & (c1 != 0)
+    if lin.any():
+        k = np.flatnonzero(lin)
+        r = -c0[k] / c1[k]
+        out[k, 0] = np.where((r > 0) & (r < 1), r, np.nan)
+    return np.asarray(out * le[:, None])
+
+
+def _horner(coeffs: np.ndarray, x: np.ndarray) -> np.ndarray:
+    """Evaluate per-row polynomials (n, k) at per-row points (n, m)."""
+    out = np.zeros_like(x)
+    for j in range(coeffs.shape[1]):
+        out = out * x + coeffs[:, j : j + 1]
+    return out
+
+
+def _element_regions(model: BeamModel) -> list[str]:
+    cached: list[str] | None = getattr(model, "_regions_cache", None)
+    if cached is None:
+        regions = model.layout.regions()
+        mids = (model.nodes[:-1] + model.nodes[1:]) / 2
+        cached = [next((n for n, a, b in regions if a <= m <= b), "member") for m in mids]
+        model._regions_cache = cached  # type: ignore[attr-defined]
+    return cached
+
+
 def extremes(model: BeamModel, sol: CaseSolution, EI: float) -> Extremes:
-    """True extrema of M, |V| and deflection, found from each element's polynomials."""
-    polys = element_polynomials(model, sol, EI)
-    best = {"Mmax": (-np.inf, 0.0), "Mmin": (np.inf, 0.0), "V": (-1.0, 0.0), "w": (-1.0, 0.0)}
+    """True extrema of M, |V| and deflection, found from each element's polynomials
+    (vectorised over elements).
+    """
+    le = model.lengths
+    x0 = model.nodes[:-1]
+    q, V0, M0 = sol.q, sol.V0, sol.M0
+    with np.errstate(divide="ignore", invalid="ignore"):
+        xr = np.where(q != 0, -V0 / q, np.nan)
+    xr = np.where((xr > 0) & (xr < le), xr, np.nan)
+    xm = np.column_stack([np.zeros_like(le), le, xr])
+    m = M0[:, None] + V0[:, None] * xm + q[:, None] * xm**2 / 2
+    m_hi = np.where(np.isnan(m), -np.inf, m)
+    m_lo = np.where(np.isnan(m), np.inf, m)
+    i_max = np.unravel_index(np.argmax(m_hi), m.shape)
+    i_min = np.unravel_index(np.argmin(m_lo), m.shape)
+    v = np.abs(np.column_stack([V0, V0 + q * le]))
+    i_v = np.unravel_index(np.argmax(v), v.shape)
+    w_c = _coefficients(model, sol, EI)
+    dw = w_c[:, :4] * np.array([4.0, 3.0, 2.0, 1.0])
+    xw = np.column_stack([np.zeros_like(le), le, _real_roots_batched(dw, le)])
+    w = _horner(w_c, np.nan_to_num(xw))
+    w = np.where(np.isnan(xw), 0.0, w)
+    aw = np.abs(w)
+    i_w = np.unravel_index(np.argmax(aw), aw.shape)
     region_defl: dict[str, tuple[float, float]] = {}
+    row_best = np.argmax(aw, axis=1)
+    for e, name in enumerate(_element_regions(model)):
+        j = row_best[e]
+        cur = region_defl.get(name)
+        if cur is None or aw[e, j] > abs(cur[0]):
+            region_defl[name] = (float(w[e, j]), float(x0[e] + xw[e, j]))
     regions = model.layout.regions()
-    for e, le in enumerate(model.lengths):
-        x0 = model.nodes[e]
-        P = polys[e]
-        cand_m = [0.0, le, *_roots_inside(np.polyder(P["M"]), le)]
-        for xl in cand_m:
-            m = float(np.polyval(P["M"], xl))
-            if m > best["Mmax"][0]:
-                best["Mmax"] = (m, x0 + xl)
-            if m < best["Mmin"][0]:
-                best["Mmin"] = (m, x0 + xl)
-        for xl in (0.0, le):
-            v = abs(float(np.polyval(P["V"], xl)))
-            if v > best["V"][0] + 1e-12 * max(v, 1.0):
-                best["V"] = (v, x0 + xl)
-        cand_w = [0.0, le, *_roots_inside(np.polyder(P["w"]), le)]
-        mid = x0 + le / 2
-        name = next((n for n, a, b in regions if a <= mid <= b), "member")
-        for xl in cand_w:
-            w = float(np.polyval(P["w"], xl))
-            if abs(w) > best["w"][0]:
-                best["w"] = (abs(w), x0 + xl)
-            cur = region_defl.get(name)
-            if cur is None or abs(w) > abs(cur[0]):
-                region_defl[name] = (w, x0 + xl)
     by_region = tuple((n, *region_defl[n]) for n, _, _ in regions if n in region_defl)
-    w_abs, x_w = best["w"]
-    scale = max(abs(best["Mmax"][0]), abs(best["Mmin"][0]), 1e-300)
-    for key in ("Mmax", "Mmin"):
-        if abs(best[key][0]) < 1e-9 * scale:
-            best[key] = (0.0, best[key][1])
+    m_max, m_min = float(m[i_max]), float(m[i_min])
+    scale = max(abs(m_max), abs(m_min), 1e-300)
+    if abs(m_max) < 1e-9 * scale:
+        m_max = 0.0
+    if abs(m_min) < 1e-9 * scale:
+        m_min = 0.0
     return Extremes(
-        M_max=best["Mmax"][0], x_M_max=best["Mmax"][1],
-        M_min=best["Mmin"][0], x_M_min=best["Mmin"][1],
-        V_max_abs=best["V"][0], x_V_max_abs=best["V"][1],
-        deflection_max_abs=w_abs, x_deflection_max=x_w,
+        M_max=m_max, x_M_max=float(x0[i_max[0]] + xm[i_max]),
+        M_min=m_min, x_M_min=float(x0[i_min[0]] + xm[i_min]),
+        V_max_abs=float(v[i_v]), x_V_max_abs=float(x0[i_v[0]] + (0.0 if i_v[1] == 0
+                                                                  else le[i_v[0]])),
+        deflection_max_abs=float(aw[i_w]), x_deflection_max=float(x0[i_w[0]] + xw[i_w]),
         deflection_by_region=by_region,
     )
 

@@ -309,6 +309,25 @@ def analyse(
             if area[i] > 0 and not touches_any(i, list(geoms), size):
                 warnings.append(Problem(f"plies[{i}]", f'"{ply.name}" touches no other ply; '
                                         "nothing connects it to the rest of the section"))
+    profiles = tuple(width_profile(g) for g in geoms)
+    return _assemble(plies, mats, reference, E_ref, E, area, first_y, second_y, y_bottom, y_top,
+                     geoms, profiles, tuple(warnings), size)
+
+
+def with_moduli(section: Section, moduli: Sequence[float] | np.ndarray) -> Section:
+    """The same geometry with other per-ply moduli (creep), without re-clipping."""
+    size = max(max(p.width, p.height) for p in section.plies)
+    return _assemble(section.plies, section.materials, section.reference_material,
+                     section.E_ref, np.asarray(moduli, dtype=float), section.area,
+                     section.first_y, section.second_y, section.y_bottom, section.y_top,
+                     section.geoms, section.profiles, section.warnings, size)
+
+
+def _assemble(plies: tuple[Ply, ...], mats: tuple[Material, ...], reference: str, E_ref: float,
+              E: np.ndarray, area: np.ndarray, first_y: np.ndarray, second_y: np.ndarray,
+              y_bottom: np.ndarray, y_top: np.ndarray, geoms: tuple[BaseGeometry, ...],
+              profiles: tuple[WidthProfile, ...], warnings: tuple[Problem, ...],
+              size: float) -> Section:
     EA = float((E * area).sum())
     if EA <= 0:
         raise ProjectError(Problem("plies", "the section has no stiffness left after clipping"))
@@ -316,7 +335,6 @@ def analyse(
     I_na = second_y - 2 * y_na * first_y + y_na**2 * area
     EI = float((E * I_na).sum())
     n = E / E_ref
-    profiles = tuple(width_profile(g) for g in geoms)
     section = Section(
         plies=plies,
         materials=mats,
@@ -338,7 +356,7 @@ def analyse(
         mass_per_length=float(sum(m.density * a for m, a in zip(mats, area, strict=True))),
         I_na=I_na,
         interfaces=(),
-        warnings=tuple(warnings),
+        warnings=warnings,
     )
     object.__setattr__(section, "interfaces", _find_interfaces(section, size))
     return section

@@ -9,7 +9,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from core.analysis import BeamResult, CombinationResult
-from core.beam import CaseSolution, extremes
+from core.beam import CaseSolution, Extremes, extremes
 from core.checks import Check
 from core.section import Section
 
@@ -51,11 +51,13 @@ def region_span(name: str, x0: float, x1: float) -> float:
     return 2 * length if ("overhang" in name or name == "cantilever") else length
 
 
-def deflection_checks(check_id: str, label: str, solution: CaseSolution, beam: BeamResult,
-                      EI: float, limit: float, sources: dict[str, str],
+def deflection_checks(check_id: str, label: str, solution: CaseSolution | Extremes,
+                      beam: BeamResult, EI: float, limit: float, sources: dict[str, str],
                       notes: tuple[str, ...] = ()) -> list[Check]:
-    """One check per span and overhang: |deflection| against region length / limit."""
-    ext = extremes(beam.model, solution, EI)
+    """One check per span and overhang: |deflection| against region length / limit.
+    ``solution`` may be its already computed extremes.
+    """
+    ext = solution if isinstance(solution, Extremes) else extremes(beam.model, solution, EI)
     regions = {n: (a, b) for n, a, b in beam.model.layout.regions()}
     out = []
     for name, w, x in ext.deflection_by_region:

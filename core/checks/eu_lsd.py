@@ -184,7 +184,7 @@ def _deflections(section: Section, beam: BeamResult, design: DesignSpec) -> list
     qp = qps[0].solution if qps else None
     out: list[Check] = []
     for combo in chars:
-        out += deflection_checks("deflection-total", combo.name, combo.solution, beam, EI, total,
+        out += deflection_checks("deflection-total", combo.name, combo.extremes, beam, EI, total,
                                  src, ("w_inst of the characteristic combination.",))
         q_only = {c: f for c, f in combo.combination.factors.items() if c != "D"}
         sol_q = combine(beam.cases, q_only)

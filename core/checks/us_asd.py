@@ -224,14 +224,15 @@ def _deflections(beam: BeamResult, section: Section, design: DesignSpec) -> list
     EI = section.EI
     for case in ("L", "Lr", "S", "W"):
         if case in beam.cases:
-            out += deflection_checks("deflection-live", case, beam.cases[case], beam, EI, live,
+            out += deflection_checks("deflection-live", case, beam.case_extremes[case], beam,
+                                     EI, live,
                                      src, ("Immediate deflection under the variable case "
                                            "alone.",))
     for combo in beam.combinations:
-        out += deflection_checks("deflection-total", combo.name, combo.solution, beam, EI,
+        out += deflection_checks("deflection-total", combo.name, combo.extremes, beam, EI,
                                  total, src, ("Immediate deflection of the whole combination.",))
         out += deflection_checks(
-            "deflection-long-term", combo.name, combo.total_solution, beam, EI, long_term,
+            "deflection-long-term", combo.name, combo.total, beam, EI, long_term,
             {**src, "K_cr": "NDS 2018 3.5.2 (from memory)"},
             (f"K_cr = {beam.creep_factor:g}: sustained part on the section with timber moduli "
              "divided by K_cr, plus the short-term part.",))
