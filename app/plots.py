@@ -226,7 +226,7 @@ class DiagramPlot(BlitCanvas):
                 abs(self.axes[0].get_xlim()[1] - x.max()) > 1e-9 * max(abs(x.max()), 1.0)):
             self.axes[0].set_xlim(float(x.min()), float(x.max()))
             full = True
-        for ax, line, fill, label, (name, values, kind) in zip(
+        for ax, line, fill, label, (_name, values, kind) in zip(
                 self.axes, self.lines, self.fills, self.labels, series, strict=True):
             kv = to_display(1.0, kind, u)
             v = values * kv
