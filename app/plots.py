@@ -38,36 +38,46 @@ def _padded(lo: float, hi: float) -> tuple[float, float]:
 
 
 class BlitCanvas(FigureCanvasQTAgg):
-    """A matplotlib canvas that redraws only its data artists when it can."""
+    """A matplotlib canvas that redraws only its data artists when it can.
+
+    The data artists are animated: every full draw (an edit that moves the limits, a
+    resize, a screenshot) caches the background and then draws them on top, so they
+    are never lost; other edits restore the background and blit.
+    """
 
     def __init__(self, figure: Figure):
         super().__init__(figure)
         self._background: Any = None
-        self._full = True
         self.dynamic: list[Any] = []
         self.full_draws = 0
+        self.mpl_connect("draw_event", self._on_draw)
 
     def resizeEvent(self, event: Any) -> None:  # noqa: N802,D102 - Qt API
         self.figure.set_layout_engine("constrained")
-        self._full = True
+        self._background = None
         super().resizeEvent(event)
+
+    def _on_draw(self, _event: Any) -> None:
+        self._background = self.copy_from_bbox(self.figure.bbox)
+        self._draw_dynamic()
+
+    def _draw_dynamic(self) -> None:
+        for a in self.dynamic:
+            if a.axes is not None:
+                a.axes.draw_artist(a)
 
     def refresh(self, full: bool) -> None:
         """Draw: in full (axes and background) or by blitting the data artists."""
         for a in self.dynamic:
             a.set_animated(True)
-        if full or self._full or self._background is None:
+        if full or self._background is None:
             self.figure.set_layout_engine("constrained")
             self.draw()
             self.figure.set_layout_engine("none")
-            self._background = self.copy_from_bbox(self.figure.bbox)
-            self._full = False
             self.full_draws += 1
-        else:
-            self.restore_region(self._background)
-        for a in self.dynamic:
-            if a.axes is not None:
-                a.axes.draw_artist(a)
+            return
+        self.restore_region(self._background)
+        self._draw_dynamic()
         self.blit(self.figure.bbox)
 
 
