@@ -11,6 +11,7 @@ short-term section. Total deflection = long-term part + short-term part.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import cached_property
 from typing import Any
 
 import numpy as np
@@ -32,24 +33,48 @@ GRAVITY = 9.80665
 
 @dataclass(frozen=True, eq=False)
 class CombinationResult:
-    """Actions of one combination (SI; deflection positive downward)."""
+    """Actions of one combination (SI; deflection positive downward).
+
+    The creep parts (long-term, short-term rest) are computed when first asked for.
+    """
 
     combination: Combination
     duration: str
     solution: CaseSolution
     extremes: Extremes
     sustained_factors: dict[str, float]
-    long_term: Extremes | None
-    short_term_rest: Extremes | None
+    sustained: CaseSolution | None
+    rest: CaseSolution | None
     total: Extremes
     total_solution: CaseSolution
     M_governing: float
-    M_sustained: float
+    model: BeamModel
+    EI: float
+    EI_creep: float
 
     @property
     def name(self) -> str:
         """The combination's name."""
         return self.combination.name
+
+    @cached_property
+    def long_term(self) -> Extremes | None:
+        """Sustained part on the creep section."""
+        return None if self.sustained is None else extremes(self.model, self.sustained,
+                                                            self.EI_creep)
+
+    @cached_property
+    def short_term_rest(self) -> Extremes | None:
+        """The rest (not sustained) on the short-term section."""
+        return None if self.rest is None else extremes(self.model, self.rest, self.EI)
+
+    @property
+    def M_sustained(self) -> float:
+        """Sustained moment of largest magnitude, N m."""
+        e = self.long_term
+        if e is None:
+            return 0.0
+        return e.M_max if abs(e.M_max) >= abs(e.M_min) else e.M_min
 
 
 @dataclass(frozen=True, eq=False)
@@ -59,12 +84,24 @@ class BeamResult:
     spec: BeamSpec
     model: BeamModel
     cases: dict[str, CaseSolution]
-    case_extremes: dict[str, Extremes]
     combinations: tuple[CombinationResult, ...]
     creep_factor: float
     creep_section: Section
     self_weight_line: float
     basis: str
+    EI: float
+
+    @cached_property
+    def case_extremes(self) -> dict[str, Extremes]:
+        """Extremes of every load case alone (short-term EI)."""
+        return {c: self.extremes_of(c) for c in self.cases}
+
+    def extremes_of(self, case: str) -> Extremes:
+        """Extremes of one load case alone (short-term EI), computed once."""
+        cache: dict[str, Extremes] = self.__dict__.setdefault("_case_cache", {})
+        if case not in cache:
+            cache[case] = extremes(self.model, self.cases[case], self.EI)
+        return cache[case]
 
 
 @dataclass(frozen=True, eq=False)
@@ -96,21 +133,33 @@ def creep_moduli(section: Section, factor: float) -> np.ndarray:
     return np.array([m.E / factor if m.kind == "timber" else m.E for m in section.materials])
 
 
-def analyse_beam(project: Project, section: Section, design: DesignSpec) -> BeamResult:
-    """Solve every case and combination of the project's beam."""
+#: A beam solved once for reuse: model, per-case solutions without self-weight, and the
+#: solution for a unit self-weight (N/m) or None.
+Prepared = tuple[BeamModel, dict[str, CaseSolution], CaseSolution | None]
+
+
+def analyse_beam(project: Project, section: Section, design: DesignSpec,
+                 prepared: Prepared | None = None) -> BeamResult:
+    """Solve every case and combination of the project's beam (or reuse ``prepared``)."""
     spec = project.beam
     if spec is None:
         raise ProjectError(Problem("beam", "the project has no beam"))
     basis = "US" if design.us else "EU"
-    model = BeamModel(spec.layout, spec.loads)
     sw = section.mass_per_length * GRAVITY if spec.self_weight else 0.0
     cases: dict[str, CaseSolution] = {}
     present = sorted({ld.case for ld in spec.loads} | ({"D"} if spec.self_weight else set()))
-    for case in present:
-        cases[case] = model.solve([ld for ld in spec.loads if ld.case == case],
-                                  extra_line=sw if case == "D" else 0.0)
+    if prepared is None:
+        model = BeamModel(spec.layout, spec.loads)
+        for case in present:
+            cases[case] = model.solve([ld for ld in spec.loads if ld.case == case],
+                                      extra_line=sw if case == "D" else 0.0)
+    else:
+        model, base, unit_sw = prepared
+        cases = dict(base)
+        if spec.self_weight and unit_sw is not None:
+            own = unit_sw.scaled(sw)
+            cases["D"] = cases["D"] + own if "D" in cases else own
     EI = section.EI
-    case_ext = {c: extremes(model, s, EI) for c, s in cases.items()}
     products = [m.product for m in section.materials if m.kind == "timber"]
     factor = design.creep_factor(products[0] if products else "sawn")
     creep_section = with_moduli(section, creep_moduli(section, factor))
@@ -127,34 +176,32 @@ def analyse_beam(project: Project, section: Section, design: DesignSpec) -> Beam
         sus = combine(cases, sus_f)
         rest_f = {c: f - sus_f.get(c, 0.0) for c, f in combo.factors.items()}
         rest = combine(cases, rest_f)
-        long_ext = extremes(model, sus, EI_c) if sus is not None else None
-        rest_ext = extremes(model, rest, EI) if rest is not None else None
         if sus is not None:
             total_sol = sus.scaled(EI / EI_c) if rest is None else sus.scaled(EI / EI_c) + rest
         else:
             total_sol = sol
         total = extremes(model, total_sol, EI)
         m_gov = ext.M_max if abs(ext.M_max) >= abs(ext.M_min) else ext.M_min
-        m_sus = 0.0
-        if long_ext is not None:
-            m_sus = long_ext.M_max if abs(long_ext.M_max) >= abs(long_ext.M_min) else (
-                long_ext.M_min)
         results.append(CombinationResult(combo, duration_of(combo, basis), sol, ext, sus_f,
-                                         long_ext, rest_ext, total, total_sol, m_gov,
-                                         m_sus))
+                                         sus, rest, total, total_sol, m_gov, model, EI, EI_c))
     if not results:
         raise ProjectError(Problem("beam.combinations", "no combination has a load case that "
                                    "the beam carries"))
-    return BeamResult(spec, model, cases, case_ext, tuple(results), factor, creep_section, sw,
-                      basis)
+    return BeamResult(spec, model, cases, tuple(results), factor, creep_section, sw, basis, EI)
 
 
-def run(project: Project, reference: str | None = None, with_checks: bool = True) -> Analysis:
-    """Analyse a project: section, beam and (where it has a beam) the design checks."""
+def run(project: Project, reference: str | None = None, with_checks: bool = True,
+        prepared: Prepared | None = None) -> Analysis:
+    """Analyse a project: section, beam and (where it has a beam) the design checks.
+
+    ``prepared`` reuses a beam already solved for these spans and loads (see
+    core.compare.Evaluator).
+    """
     mats = project.all_materials()
     section = analyse(project.plies, mats, reference or project.reference_material)
     design = project.design_or_default()
-    beam = analyse_beam(project, section, design) if project.beam is not None else None
+    beam = (analyse_beam(project, section, design, prepared)
+            if project.beam is not None else None)
     warnings = list(section.warnings)
     checks: tuple[Any, ...] = ()
     if beam is not None and with_checks:

@@ -84,13 +84,25 @@ def clip_plies(plies: tuple[Ply, ...] | list[Ply]) -> list[BaseGeometry]:
     rects = [p.rectangle() for p in plies]
     out: list[BaseGeometry] = []
     for i, rect in enumerate(rects):
-        later = [r for r in rects[i + 1 :] if r.intersects(rect)]
+        later = [rects[j] for j in range(i + 1, len(plies)) if _overlap(plies[i], plies[j])]
         if later:
             cut = rect.difference(shapely.union_all(later))
             out.append(_polygons_only(cut))
         else:
             out.append(rect)
     return out
+
+
+def _overlap(a: Ply, b: Ply) -> bool:
+    """True where two rectangles share area (touching edges do not count)."""
+    return (min(a.x + a.width, b.x + b.width) > max(a.x, b.x)
+            and min(a.top, b.top) > max(a.y, b.y))
+
+
+def rectangles_touch(a: Ply, b: Ply, tol: float) -> bool:
+    """True where two rectangles overlap or share an edge or a corner (within tol)."""
+    return (min(a.x + a.width, b.x + b.width) >= max(a.x, b.x) - tol
+            and min(a.top, b.top) >= max(a.y, b.y) - tol)
 
 
 def _polygons_only(geom: BaseGeometry) -> BaseGeometry:
@@ -212,6 +224,11 @@ def width_profile(geom: BaseGeometry) -> WidthProfile:
     if geom.is_empty:
         empty = np.zeros(0)
         return WidthProfile(empty, empty, empty)
+    if isinstance(geom, Polygon) and not geom.interiors and len(geom.exterior.coords) == 5:
+        minx, miny, maxx, maxy = geom.bounds
+        if abs(geom.area - (maxx - minx) * (maxy - miny)) <= 1e-12 * max(geom.area, 1e-30):
+            w = np.array([maxx - minx])
+            return WidthProfile(np.array([miny, maxy]), w, w.copy())
     ys = np.unique(np.concatenate([ring[:, 1] for ring in _rings(geom)]))
     b_start = np.zeros(max(ys.size - 1, 0))
     b_end = np.zeros(max(ys.size - 1, 0))

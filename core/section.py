@@ -29,6 +29,7 @@ from core.geometry import (
     WidthProfile,
     clip_plies,
     polygon_moments,
+    rectangles_touch,
     touches_any,
     validate_ply,
     width_profile,
@@ -304,9 +305,16 @@ def analyse(
             y_bottom[i], y_top[i] = ply.y, ply.top
         else:
             _, y_bottom[i], _, y_top[i] = g.bounds
+    unclipped = all(abs(a - p.width * p.height) <= 1e-12 * max(p.width * p.height, 1e-30)
+                    for a, p in zip(area, plies, strict=True))
     if len(plies) > 1:
         for i, ply in enumerate(plies):
-            if area[i] > 0 and not touches_any(i, list(geoms), size):
+            if unclipped:
+                touching = any(j != i and rectangles_touch(ply, q, size * 1e-7)
+                               for j, q in enumerate(plies))
+            else:
+                touching = area[i] > 0 and touches_any(i, list(geoms), size)
+            if area[i] > 0 and not touching:
                 warnings.append(Problem(f"plies[{i}]", f'"{ply.name}" touches no other ply; '
                                         "nothing connects it to the rest of the section"))
     profiles = tuple(width_profile(g) for g in geoms)
@@ -362,11 +370,31 @@ def _assemble(plies: tuple[Ply, ...], mats: tuple[Material, ...], reference: str
     return section
 
 
+def _rectangle_contacts(section: Section, tol: float
+                        ) -> dict[float, list[tuple[int, int, float]]] | None:
+    """Horizontal contacts of unclipped rectangles (None where some ply is clipped)."""
+    plies = section.plies
+    for a, p in zip(section.area, plies, strict=True):
+        if abs(a - p.width * p.height) > 1e-12 * max(p.width * p.height, 1e-30):
+            return None
+    contacts: dict[float, list[tuple[int, int, float]]] = {}
+    for i, lo in enumerate(plies):
+        for j, up in enumerate(plies):
+            if i == j or abs(lo.top - up.y) > tol:
+                continue
+            length = min(lo.x + lo.width, up.x + up.width) - max(lo.x, up.x)
+            if length > tol:
+                key = round(up.y / tol) * tol
+                contacts.setdefault(key, []).append((i, j, length))
+    return contacts
+
+
 def _find_interfaces(section: Section, size: float) -> tuple[Interface, ...]:
     """Find horizontal contacts between plies and the first moment they must hold."""
     tol = size * 1e-9
-    contacts: dict[float, list[tuple[int, int, float]]] = {}
-    geoms = section.geoms
+    fast = _rectangle_contacts(section, tol)
+    contacts: dict[float, list[tuple[int, int, float]]] = fast or {}
+    geoms = section.geoms if fast is None else ()
     for i, gi in enumerate(geoms):
         if gi.is_empty:
             continue

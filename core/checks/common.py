@@ -37,7 +37,7 @@ def unit_shear_stress(section: Section) -> np.ndarray:
     """Largest shear stress in each ply for V = 1 N (Pa per N)."""
     lo = float(section.y_bottom.min())
     hi = float(section.y_top.max())
-    ys = np.unique(np.concatenate([np.linspace(lo, hi, 161), section.y_bottom, section.y_top,
+    ys = np.unique(np.concatenate([np.linspace(lo, hi, 41), section.y_bottom, section.y_top,
                                    [section.neutral_axis_y]]))
     tau = np.abs(section.shear_stress(1.0, ys))
     return np.asarray(np.nan_to_num(np.nanmax(np.where(np.isfinite(tau), tau, 0.0), axis=1)))

@@ -224,7 +224,7 @@ def _deflections(beam: BeamResult, section: Section, design: DesignSpec) -> list
     EI = section.EI
     for case in ("L", "Lr", "S", "W"):
         if case in beam.cases:
-            out += deflection_checks("deflection-live", case, beam.case_extremes[case], beam,
+            out += deflection_checks("deflection-live", case, beam.extremes_of(case), beam,
                                      EI, live,
                                      src, ("Immediate deflection under the variable case "
                                            "alone.",))
