@@ -32,6 +32,27 @@ def build_parser() -> argparse.ArgumentParser:
     c.add_argument("--moment", help='bending moment, e.g. "12 kip*ft" (sagging positive)')
     c.add_argument("--shear", help='shear force, e.g. "3 kip"')
     c.add_argument("--json", action="store_true", help="print one JSON object in SI units")
+    cmp_ = sub.add_parser("compare", help="all alternatives in the file, side by side")
+    cmp_.add_argument("file")
+    cmp_.add_argument("--json", action="store_true")
+    sw = sub.add_parser("sweep", help="vary one dimension of one ply")
+    sw.add_argument("file")
+    sw.add_argument("--ply", required=True, help="name of the ply to vary")
+    sw.add_argument("--dimension", required=True, choices=["width", "height"])
+    sw.add_argument("--values", required=True, help='e.g. "1/4 in, 3/8 in, 1/2 in"')
+    sw.add_argument("--json", action="store_true")
+    sz = sub.add_parser("size", help="smallest stock option of one ply that passes")
+    sz.add_argument("file")
+    sz.add_argument("--ply", required=True)
+    sz.add_argument("--dimension", default="width", choices=["width", "height"])
+    sz.add_argument("--values", help="options to try (default: stock plate thicknesses for "
+                    "width, the ply's height in 1/2 in or 10 mm steps for height)")
+    sz.add_argument("--json", action="store_true")
+    sp = sub.add_parser("span", help="longest span that passes every check")
+    sp.add_argument("file")
+    sp.add_argument("--tributary-widths", help='span table over tributary widths of the area '
+                    'loads, e.g. "12 in, 16 in, 24 in"')
+    sp.add_argument("--json", action="store_true")
     g = sub.add_parser("gui", help="open the desktop program")
     g.add_argument("file", nargs="?")
     g.add_argument("--screenshot", metavar="OUT.png", help="render the window to a PNG and exit")
@@ -67,6 +88,155 @@ def cmd_check(args: argparse.Namespace) -> int:
     return 0
 
 
+def _values(text: str, field: str) -> list[float]:
+    from core import units
+
+    out = []
+    for i, part in enumerate(text.split(",")):
+        out.append(units.parse(part.strip(), "length", f"{field}[{i}]"))
+    return out
+
+
+def cmd_compare(args: argparse.Namespace) -> int:
+    """``plystack compare``: one object per alternative, keys as ``check --json``."""
+    from core.analysis import run
+    from core.compare import alternatives_with_current, summarise
+    from core.output import check_json
+    from core.project import load
+    from core.units import fmt
+
+    try:
+        project = load(args.file)
+        alts = alternatives_with_current(project)
+        results = [(alt, run(project.with_plies(alt.plies))) for alt in alts]
+        rows = [(alt, a, summarise(a)) for alt, a in results]
+    except ProjectError as exc:
+        return _fail([f"{args.file}: {p}" for p in exc.problems])
+    if args.json:
+        print(json.dumps([{"name": alt.name, **check_json(a)} for alt, a, _ in rows], indent=1))
+        return 0
+    u = project.display_units
+    print(f"{'alternative':<24}{'EI':>18}{'mass/length':>16}{'governs':>22}{'ratio':>8}"
+          f"{'deflection':>14}  verdict")
+    for alt, _a, o in rows:
+        print(f"{alt.name[:23]:<24}{fmt(o.EI, 'EI', u):>18}"
+              f"{fmt(o.mass_per_length, 'mass_per_length', u):>16}{o.governing_id:>22}"
+              f"{o.governing_ratio:>8.3f}{fmt(o.deflection_max_abs, 'deflection', u, 3):>14}  "
+              f"{'OK' if o.ok else 'NOT OK'}")
+    from core.caution import CAUTION
+
+    print(CAUTION)
+    return 0
+
+
+def cmd_sweep(args: argparse.Namespace) -> int:
+    """``plystack sweep``."""
+    from core import units
+    from core.compare import sweep
+    from core.project import load
+
+    try:
+        project = load(args.file)
+        values = _values(args.values, "--values")
+        rows = sweep(project, args.ply, args.dimension, values)
+    except ProjectError as exc:
+        return _fail([f"{args.file}: {p}" for p in exc.problems])
+    except units.UnitError as exc:
+        return _fail([str(exc)])
+    if args.json:
+        print(json.dumps({"units": "SI", "ply": args.ply, "dimension": args.dimension,
+                          "rows": [r.to_dict() for r in rows]}, indent=1))
+        return 0
+    u = project.display_units
+    print(f"{args.ply}: {args.dimension}")
+    print(f"{'value':>12}{'governs':>22}{'ratio':>8}{'deflection':>14}{'mass/length':>16}  verdict")
+    previous_ok = None
+    for r in rows:
+        mark = "  <- pass/fail boundary" if previous_ok is not None and r.ok != previous_ok else ""
+        previous_ok = r.ok
+        print(f"{units.fmt(r.value, 'length', u):>12}{r.governing_id:>22}{r.governing_ratio:>8.3f}"
+              f"{units.fmt(r.deflection_max_abs, 'deflection', u, 3):>14}"
+              f"{units.fmt(r.mass_per_length, 'mass_per_length', u):>16}  "
+              f"{'OK' if r.ok else 'NOT OK'}{mark}")
+    return 0
+
+
+def cmd_size(args: argparse.Namespace) -> int:
+    """``plystack size``: exit 1 when no option passes."""
+    from core import units
+    from core.compare import auto_size, ply_index
+    from core.project import load
+    from core.templates import PLATES_SI, PLATES_US
+
+    try:
+        project = load(args.file)
+        if args.values:
+            options = _values(args.values, "--values")
+        elif args.dimension == "width":
+            options = list((PLATES_US if project.display_units == "US" else PLATES_SI).values())
+        else:
+            ply = project.plies[ply_index(project.plies, args.ply)]
+            step = 0.0127 if project.display_units == "US" else 0.01
+            top = max(p.top for p in project.plies) - min(p.y for p in project.plies)
+            options = [step * k for k in range(2, int(top / step) + 2)] or [ply.height]
+        result = auto_size(project, args.ply, args.dimension, options)
+    except ProjectError as exc:
+        return _fail([f"{args.file}: {p}" for p in exc.problems])
+    except units.UnitError as exc:
+        return _fail([str(exc)])
+    if args.json:
+        print(json.dumps({"units": "SI", **result.to_dict()}, indent=1))
+    else:
+        u = project.display_units
+        if result.chosen is None:
+            print(f"{args.ply}: {result.message}")
+        else:
+            print(f"{args.ply}: {args.dimension} {units.fmt(result.chosen.value, 'length', u)} "
+                  f"passes (governing {result.chosen.governing_id}, ratio "
+                  f"{result.chosen.governing_ratio:.3f})")
+            if result.next_smaller is not None:
+                n = result.next_smaller
+                print(f"  next smaller, {units.fmt(n.value, 'length', u)}, fails: "
+                      f"{n.governing_id} ratio {n.governing_ratio:.3f}")
+        from core.caution import CAUTION
+
+        print(CAUTION)
+    return 0 if result.chosen is not None else 1
+
+
+def cmd_span(args: argparse.Namespace) -> int:
+    """``plystack span``."""
+    from core import units
+    from core.compare import longest_span, span_table
+    from core.project import load
+
+    try:
+        project = load(args.file)
+        result = longest_span(project)
+        table = (span_table(project, _values(args.tributary_widths, "--tributary-widths"))
+                 if args.tributary_widths else [])
+    except ProjectError as exc:
+        return _fail([f"{args.file}: {p}" for p in exc.problems])
+    except units.UnitError as exc:
+        return _fail([str(exc)])
+    if args.json:
+        print(json.dumps({"units": "SI", **result.to_dict(), "table": table}, indent=1))
+        return 0
+    u = project.display_units
+    print(f"Longest span that passes every check: {units.fmt(result.span, 'span', u)} "
+          f"(to {units.fmt(result.tolerance, 'length', u, 3)}); governing "
+          f"{result.governing_id}, ratio {result.governing_ratio:.3f}")
+    for row in table:
+        width = units.fmt(float(row["tributary_width"]), "length", u)  # type: ignore[arg-type]
+        span = units.fmt(float(row["span"]), "span", u)  # type: ignore[arg-type]
+        print(f"  {row['alternative']:<20} tributary {width:>10}  span {span:>10}  "
+              f"({row['governing_id']})")
+    from core.caution import CAUTION
+
+    print(CAUTION)
+    return 0
+
+
 def main(argv: list[str] | None = None) -> int:
     """Entry point of the console script."""
     argv = sys.argv[1:] if argv is None else argv
@@ -74,8 +244,10 @@ def main(argv: list[str] | None = None) -> int:
     if not argv:
         argv = ["gui"]
     args = parser.parse_args(argv)
-    if args.command == "check":
-        return cmd_check(args)
+    commands = {"check": cmd_check, "compare": cmd_compare, "sweep": cmd_sweep,
+                "size": cmd_size, "span": cmd_span}
+    if args.command in commands:
+        return commands[args.command](args)
     if args.command == "gui":
         from app.main import run_gui
 

@@ -243,7 +243,7 @@ def sig(value: float, digits: int = 4) -> str:
     if value == 0:
         return "0"
     magnitude = math.floor(math.log10(abs(value)))
-    if magnitude >= 9 or magnitude <= -5:
+    if magnitude >= 12 or magnitude <= -5:
         return f"{value:.{digits - 1}e}"
     decimals = max(digits - 1 - magnitude, 0)
     return f"{value:,.{decimals}f}"

@@ -1,0 +1,107 @@
+"""Sweeps, auto-size and longest span, each confirmed through the normal check path
+(a separate `check` of a file written with the candidate's value)."""
+
+from __future__ import annotations
+
+import json
+from pathlib import Path
+
+import pytest
+
+from core.cli import main
+from core.compare import auto_size, longest_span, scaled_spans, sweep, with_dimension
+from core.project import load, save
+
+DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
+IN = 0.0254
+
+
+def check_file(project, tmp_path, capsys, name="candidate"):
+    path = tmp_path / f"{name}.plystack.json"
+    save(project, path)
+    assert main(["check", str(path), "--json"]) == 0
+    return json.loads(capsys.readouterr().out)
+
+
+def test_sweep_matches_separate_checks(tmp_path, capsys):
+    project = load(DEMO)
+    values = [0.125 * IN, 0.25 * IN, 0.375 * IN, 0.625 * IN]
+    rows = sweep(project, "flitch plate", "width", values)
+    assert [r.value for r in rows] == values
+    for r in rows:
+        plies = with_dimension(project.plies, "flitch plate", "width", r.value)
+        out = check_file(project.with_plies(plies), tmp_path, capsys)
+        assert out["governing"]["ratio"] == pytest.approx(r.governing_ratio, rel=1e-12)
+        assert out["governing"]["id"] == r.governing_id
+        assert out["section"]["mass_per_length"] == pytest.approx(r.mass_per_length, rel=1e-12)
+        assert out["ok"] == r.ok
+
+
+def test_sweep_keeps_touching_plies_touching():
+    project = load(DEMO)
+    plies = with_dimension(project.plies, "flitch plate", "width", 0.5 * IN)
+    plate, right = plies[1], plies[2]
+    assert right.x == pytest.approx(plate.x + plate.width)
+    assert plies[0] == project.plies[0]
+
+
+def test_sweep_command_json(capsys):
+    assert main(["sweep", str(DEMO), "--ply", "flitch plate", "--dimension", "width",
+                 "--values", "1/4 in, 3/8 in, 1/2 in", "--json"]) == 0
+    out = json.loads(capsys.readouterr().out)
+    assert [round(r["value"] / IN, 6) for r in out["rows"]] == [0.25, 0.375, 0.5]
+    for r in out["rows"]:
+        assert set(r) >= {"value", "governing_ratio", "governing_id", "deflection_max_abs",
+                          "mass_per_length", "ok"}
+
+
+def test_auto_size_passes_and_next_smaller_fails(tmp_path, capsys):
+    project = load(DEMO)
+    options = [x * IN for x in (0.0625, 0.125, 0.1875, 0.25, 0.375)]
+    result = auto_size(project, "flitch plate", "width", options)
+    assert result.chosen is not None and result.next_smaller is not None
+    ok = check_file(project.with_plies(with_dimension(project.plies, "flitch plate", "width",
+                                                      result.chosen.value)), tmp_path, capsys)
+    assert ok["ok"] is True
+    bad = check_file(project.with_plies(with_dimension(project.plies, "flitch plate", "width",
+                                                       result.next_smaller.value)),
+                     tmp_path, capsys, "smaller")
+    assert bad["ok"] is False
+    assert options.index(result.chosen.value) == options.index(result.next_smaller.value) + 1
+
+
+def test_auto_size_none_passing_says_so(capsys):
+    assert main(["size", str(DEMO), "--ply", "flitch plate", "--values",
+                 "1/64 in, 1/32 in", "--json"]) == 1
+    out = json.loads(capsys.readouterr().out)
+    assert out["value"] is None and out["ok"] is False
+    assert "no option passes" in out["message"]
+
+
+def test_size_command_json(capsys):
+    assert main(["size", str(DEMO), "--ply", "flitch plate", "--values",
+                 "1/8 in, 3/16 in, 1/4 in", "--json"]) == 0
+    out = json.loads(capsys.readouterr().out)
+    assert set(out) >= {"ply", "dimension", "value", "ok", "next_smaller"}
+    assert out["ok"] is True and out["next_smaller"]["ok"] is False
+
+
+def test_longest_span_passes_and_one_more_step_fails(tmp_path, capsys):
+    project = load(DEMO)
+    r = longest_span(project)
+    assert r.tolerance == pytest.approx(IN / 8)
+    at = check_file(scaled_spans(project, r.span), tmp_path, capsys, "at")
+    beyond = check_file(scaled_spans(project, r.span + r.tolerance), tmp_path, capsys, "beyond")
+    assert at["ok"] is True and beyond["ok"] is False
+    assert main(["span", str(DEMO), "--json"]) == 0
+    out = json.loads(capsys.readouterr().out)
+    assert out["span"] == pytest.approx(r.span) and out["governing_id"] == r.governing_id
+
+
+def test_compare_lists_every_alternative(capsys):
+    assert main(["compare", str(DEMO), "--json"]) == 0
+    out = json.loads(capsys.readouterr().out)
+    project = load(DEMO)
+    assert [o["name"] for o in out] == [a.name for a in project.alternatives]
+    for o in out:
+        assert {"section", "plies", "beam", "checks", "governing", "units"} <= set(o)
