@@ -20,6 +20,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from app.alternatives import AlternativesPanel, SweepDialog
 from app.beam_panel import BeamPanel, default_beam
 from app.canvas import SectionCanvas
 from app.dialogs import MaterialsDialog, NewSectionDialog
@@ -79,7 +80,12 @@ class MainWindow(QMainWindow):
         main = QSplitter(Qt.Orientation.Horizontal)
         main.addWidget(panels)
         main.addWidget(centre)
-        main.addWidget(self.results)
+        self.alternatives = AlternativesPanel(self.document)
+        self.right_tabs = QTabWidget()
+        self.right_tabs.addTab(self.results, "Results")
+        self.right_tabs.addTab(self.alternatives, "Alternatives")
+        self.right_tabs.currentChanged.connect(lambda _i: self._refresh_alternatives())
+        main.addWidget(self.right_tabs)
         main.setSizes([330, 900, 640])
         self.setCentralWidget(main)
         self.statusBar().showMessage("Drag on the section to draw a ply; click a ply to "
@@ -145,7 +151,73 @@ class MainWindow(QMainWindow):
         self.transformed_action.setCheckable(True)
         self.us_action = self._action(v, "US units", lambda: self.set_units("US"))
         self.si_action = self._action(v, "SI units", lambda: self.set_units("SI"))
+        t = bar.addMenu("&Tools")
+        self._action(t, "&Sweep a ply dimension\u2026", self.open_sweep)
+        self._action(t, "&Auto-size the selected ply (thickness)", self.auto_size_selected)
+        self._action(t, "&Longest span", self.show_longest_span)
+        self._action(t, "&Keep current as alternative\u2026", self.alternatives.add_current)
         self._fill_recent()
+
+    # --- tools --------------------------------------------------------------------------
+
+    def open_sweep(self) -> None:
+        """Tools > Sweep."""
+        SweepDialog(self.document, self).exec()
+
+    def auto_size_selected(self) -> None:
+        """Smallest stock plate thickness of the selected ply that passes."""
+        from core.compare import auto_size
+        from core.templates import PLATES_SI, PLATES_US
+        from core.units import fmt
+
+        i = self.canvas.selected
+        p = self.document.project
+        if i is None:
+            QMessageBox.information(self, "Auto-size", "Select a ply first.")
+            return
+        options = list((PLATES_US if p.display_units == "US" else PLATES_SI).values())
+        try:
+            r = auto_size(p, p.plies[i].name, "width", options)
+        except ProjectError as exc:
+            QMessageBox.warning(self, "Auto-size", str(exc))
+            return
+        u = p.display_units
+        if r.chosen is None:
+            QMessageBox.information(self, "Auto-size", r.message)
+            return
+        text = (f"{p.plies[i].name}: {fmt(r.chosen.value, 'length', u)} passes "
+                f"({r.chosen.governing_id}, ratio {r.chosen.governing_ratio:.3f}).")
+        if r.next_smaller is not None:
+            text += (f"\nNext smaller, {fmt(r.next_smaller.value, 'length', u)}, fails: "
+                     f"{r.next_smaller.governing_id} ratio {r.next_smaller.governing_ratio:.3f}.")
+        from core.caution import CAUTION
+
+        answer = QMessageBox.question(self, "Auto-size", text + "\n\nUse this thickness?\n\n"
+                                      + CAUTION)
+        if answer == QMessageBox.StandardButton.Yes:
+            from core.compare import with_dimension
+
+            self.document.apply(p.with_plies(with_dimension(p.plies, p.plies[i].name, "width",
+                                                            r.chosen.value)), "Auto-size ply")
+
+    def show_longest_span(self) -> None:
+        """Tools > Longest span."""
+        from core.caution import CAUTION
+        from core.compare import longest_span
+        from core.units import fmt
+
+        p = self.document.project
+        try:
+            r = longest_span(p)
+        except ProjectError as exc:
+            QMessageBox.warning(self, "Longest span", str(exc))
+            return
+        u = p.display_units
+        QMessageBox.information(self, "Longest span",
+                                f"Longest span that passes every check: "
+                                f"{fmt(r.span, 'span', u)} (to {fmt(r.tolerance, 'length', u, 3)})"
+                                f"; governing {r.governing_id}, ratio {r.governing_ratio:.3f}."
+                                f"\n\n{CAUTION}")
 
     # --- computation --------------------------------------------------------------------
 
@@ -172,6 +244,11 @@ class MainWindow(QMainWindow):
             self.combo_pick.setCurrentText(current)
         self.combo_pick.blockSignals(False)
         self._redraw_plots()
+        self._refresh_alternatives()
+
+    def _refresh_alternatives(self) -> None:
+        if self.right_tabs.currentWidget() is self.alternatives:
+            self.alternatives.refresh()
 
     def _redraw_plots(self) -> None:
         name = self.combo_pick.currentText()

@@ -253,3 +253,34 @@ def test_screenshot_command(tmp_path):
     out = tmp_path / "shot.png"
     assert main(["gui", str(demo), "--screenshot", str(out)]) == 0
     assert out.stat().st_size > 10_000
+
+
+def test_alternatives_side_by_side_promote_and_undo(window, qtbot):
+    from dataclasses import replace as dc_replace
+
+    from core.compare import summarise
+
+    doc = window.document
+    doc.apply(dc_replace(doc.project, alternatives=()), "clear alternatives")
+    window.alternatives.add_current("as drawn")
+    window.canvas.select(1)
+    edit = window.ply_panel.fields["width"]
+    edit.setText("1/2 in")
+    edit.editingFinished.emit()
+    window.alternatives.add_current("half inch")
+    window.right_tabs.setCurrentWidget(window.alternatives)
+    window.recompute()
+    panel = window.alternatives
+    assert panel.names == ["as drawn", "half inch"]
+    for col, alt in enumerate(doc.project.alternatives):
+        expected = summarise(run(doc.project.with_plies(alt.plies)))
+        ei = panel.table.item(0, col).data(Qt.ItemDataRole.UserRole)
+        ratio = panel.table.item(2, col).data(Qt.ItemDataRole.UserRole)
+        assert ei == pytest.approx(expected.EI, rel=1e-12)
+        assert ratio == pytest.approx(expected.governing_ratio, rel=1e-12)
+    before = doc.project
+    panel.promote("as drawn")
+    assert doc.project.plies == doc.project.alternatives[0].plies
+    assert doc.project.plies[1].width == pytest.approx(0.375 * IN)
+    doc.undo_stack.undo()
+    assert doc.project == before
