@@ -142,3 +142,56 @@ class MaterialsDialog(QDialog):
         self.added = m
         QMessageBox.information(self, "Materials", f"Added \u201c{mid}\u201d to the project.")
         self.accept()
+
+
+class SheetDialog(QDialog):
+    """Export the calculation sheet: paper size, alternative, page count preview."""
+
+    def __init__(self, project, parent=None):  # type: ignore[no-untyped-def]
+        super().__init__(parent)
+        self.setWindowTitle("Export calculation sheet")
+        self.project = project
+        self.paper = QComboBox()
+        self.paper.addItems(["letter", "a4"])
+        self.paper.setCurrentText("letter" if project.display_units == "US" else "a4")
+        self.alternative = QComboBox()
+        self.alternative.addItem("current design", None)
+        for alt in project.alternatives:
+            self.alternative.addItem(alt.name, alt.name)
+        self.preview = QLabel("")
+        self.preview.setWordWrap(True)
+        self.pages = 0
+        self.data = b""
+        form = QFormLayout(self)
+        form.addRow("Paper", self.paper)
+        form.addRow("Design", self.alternative)
+        form.addRow("Preview", self.preview)
+        buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Save
+                                   | QDialogButtonBox.StandardButton.Cancel)
+        buttons.accepted.connect(self.accept)
+        buttons.rejected.connect(self.reject)
+        self.save_button = buttons.button(QDialogButtonBox.StandardButton.Save)
+        form.addRow(buttons)
+        self.paper.currentTextChanged.connect(lambda _t: self.render())
+        self.alternative.currentIndexChanged.connect(lambda _i: self.render())
+        self.render()
+
+    def render(self) -> None:
+        """Build the sheet in memory and show its page count (or why it cannot be made)."""
+        import io
+
+        from core.errors import ProjectError
+        from core.sheet import build_sheet
+
+        buf = io.BytesIO()
+        try:
+            self.pages = build_sheet(self.project, buf, self.paper.currentText(),
+                                     self.alternative.currentData())
+        except ProjectError as exc:
+            self.pages, self.data = 0, b""
+            self.preview.setText("Cannot export: " + "; ".join(str(p) for p in exc.problems))
+            self.save_button.setEnabled(False)
+            return
+        self.data = buf.getvalue()
+        self.preview.setText(f"{self.pages} pages, {self.paper.currentText()} paper")
+        self.save_button.setEnabled(True)

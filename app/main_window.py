@@ -23,7 +23,7 @@ from PySide6.QtWidgets import (
 from app.alternatives import AlternativesPanel, SweepDialog
 from app.beam_panel import BeamPanel, default_beam
 from app.canvas import SectionCanvas
-from app.dialogs import MaterialsDialog, NewSectionDialog
+from app.dialogs import MaterialsDialog, NewSectionDialog, SheetDialog
 from app.document import Document
 from app.plots import DiagramPlot, ProfilePlot
 from app.ply_panel import PlyPanel
@@ -128,6 +128,7 @@ class MainWindow(QMainWindow):
         self.recent_menu = f.addMenu("Open &recent")
         self._action(f, "&Save", self.save, QKeySequence.StandardKey.Save)
         self._action(f, "Save &as\u2026", self.save_as, QKeySequence.StandardKey.SaveAs)
+        self._action(f, "&Export calculation sheet (PDF)\u2026", self.export_sheet, "Ctrl+E")
         f.addSeparator()
         self._action(f, "&Quit", self.close, QKeySequence.StandardKey.Quit)
         e = bar.addMenu("&Edit")
@@ -372,6 +373,30 @@ class MainWindow(QMainWindow):
         self.canvas.select(None)
         self.canvas.rebuild()
         self._remember(Path(path))
+        return True
+
+    def export_sheet(self, target: Path | None = None) -> bool:
+        """File > Export calculation sheet: choose paper, see the page count, save."""
+        dlg = SheetDialog(self.document.project, self)
+        if target is None:
+            if not dlg.exec():
+                return False
+            name, _ = QFileDialog.getSaveFileName(self, "Export calculation sheet",
+                                                  "calculation.pdf", "PDF (*.pdf)")
+            if not name:
+                return False
+            target = Path(name)
+        if not dlg.data:
+            QMessageBox.warning(self, "Export calculation sheet", dlg.preview.text())
+            return False
+        tmp = target.with_name(f".{target.name}.tmp")
+        try:
+            tmp.write_bytes(dlg.data)
+            tmp.replace(target)
+        except OSError as exc:
+            QMessageBox.critical(self, "Export failed", f"{target}: {exc}")
+            return False
+        self.statusBar().showMessage(f"Wrote {target} ({dlg.pages} pages)")
         return True
 
     def open_dialog(self) -> None:

@@ -53,6 +53,12 @@ def build_parser() -> argparse.ArgumentParser:
     sp.add_argument("--tributary-widths", help='span table over tributary widths of the area '
                     'loads, e.g. "12 in, 16 in, 24 in"')
     sp.add_argument("--json", action="store_true")
+    sh = sub.add_parser("sheet", help="write the PDF calculation sheet")
+    sh.add_argument("file")
+    sh.add_argument("-o", "--output", required=True, metavar="OUT.pdf")
+    sh.add_argument("--alternative", metavar="NAME")
+    sh.add_argument("--paper", choices=["letter", "a4"], default=None,
+                    help="paper size (default: letter for US units, a4 for SI)")
     g = sub.add_parser("gui", help="open the desktop program")
     g.add_argument("file", nargs="?")
     g.add_argument("--screenshot", metavar="OUT.png", help="render the window to a PNG and exit")
@@ -237,6 +243,23 @@ def cmd_span(args: argparse.Namespace) -> int:
     return 0
 
 
+def cmd_sheet(args: argparse.Namespace) -> int:
+    """``plystack sheet``: refuses (exit 2) a project that cannot be analysed."""
+    from core.project import load
+    from core.sheet import build_sheet
+
+    try:
+        project = load(args.file)
+        paper = args.paper or ("letter" if project.display_units == "US" else "a4")
+        pages = build_sheet(project, args.output, paper, args.alternative)
+    except ProjectError as exc:
+        return _fail([f"{args.file}: {p}" for p in exc.problems])
+    except OSError as exc:
+        return _fail([f"{args.output}: {exc}"])
+    print(f"wrote {args.output}: {pages} pages ({paper})")
+    return 0
+
+
 def main(argv: list[str] | None = None) -> int:
     """Entry point of the console script."""
     argv = sys.argv[1:] if argv is None else argv
@@ -245,7 +268,7 @@ def main(argv: list[str] | None = None) -> int:
         argv = ["gui"]
     args = parser.parse_args(argv)
     commands = {"check": cmd_check, "compare": cmd_compare, "sweep": cmd_sweep,
-                "size": cmd_size, "span": cmd_span}
+                "size": cmd_size, "span": cmd_span, "sheet": cmd_sheet}
     if args.command in commands:
         return commands[args.command](args)
     if args.command == "gui":

@@ -248,7 +248,8 @@ def _bolts(section: Section, beam: BeamResult, design: DesignSpec, uls: list,  #
                 "load per bolt <= k_mod F_v,Rk / gamma_M",
                 f"one bolt location every {fmt(s, 'length', system, 3)} ({n_loc} locations, "
                 f"{bolt.rows} per location)", None,
-                (", ".join(f"mode ({m}) {v:.0f} N per plane" for m, v in modes.modes.items())
+                (", ".join(f"mode ({m}) {fmt(v, 'force', system)} per plane"
+                           for m, v in modes.modes.items())
                  + f"; governing ({modes.governing}).",
                  f"Plate's share of the load E_p I_p / EI = {share:.3f}.",
                  "Spacing and distances per EN 1995-1-1 Table 8.4 (a1 >= 4d, a3 >= 4d, "

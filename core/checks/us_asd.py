@@ -278,7 +278,7 @@ def _bolts(section: Section, beam: BeamResult, design: DesignSpec, system: str) 
         s = pick_spacing(worst_need / L, bolt.rows * Z * math.prod(base.values()),
                          bolt.spacing, stock, 4 * D)
         n_loc = max(2, math.floor(L / s + 1e-9))
-        mode_text = ", ".join(f"{m} {v:.0f} N" for m, v in modes.modes.items())
+        mode_text = ", ".join(f"{m} {fmt(v, 'force', system)}" for m, v in modes.modes.items())
         for combo in beam.combinations:
             W = sum(float(r) for r in combo.solution.reactions)
             per_bolt = abs(W) * share / (n_loc * bolt.rows)

@@ -284,3 +284,23 @@ def test_alternatives_side_by_side_promote_and_undo(window, qtbot):
     assert doc.project.plies[1].width == pytest.approx(0.375 * IN)
     doc.undo_stack.undo()
     assert doc.project == before
+
+
+def test_export_sheet_from_the_window(window, qtbot, tmp_path):
+    from pypdf import PdfReader
+
+    from app.dialogs import SheetDialog
+
+    dlg = SheetDialog(window.document.project, window)
+    assert dlg.pages >= 3 and "pages" in dlg.preview.text()
+    dlg.paper.setCurrentText("a4")
+    assert dlg.pages >= 3
+    out = tmp_path / "sheet.pdf"
+    assert window.export_sheet(out)
+    assert len(PdfReader(out).pages) >= 3
+    from dataclasses import replace as dc_replace
+
+    window.document.apply(dc_replace(window.document.project, beam=None), "no beam")
+    bad = SheetDialog(window.document.project, window)
+    assert bad.pages == 0 and "Cannot export" in bad.preview.text()
+    assert not bad.save_button.isEnabled()
