@@ -310,7 +310,8 @@ class SectionCanvas(QGraphicsView):
         painter.restore()
 
     def fit(self) -> None:
-        """Fit the section in the view."""
+        """Fit the section in the view (and follow the window's size again)."""
+        self._user_zoomed = False
         rect = self.scene().itemsBoundingRect().adjusted(-20, -20, 20, 20)
         if rect.width() > 0 and rect.height() > 0:
             self.fitInView(rect, Qt.AspectRatioMode.KeepAspectRatio)
@@ -381,6 +382,12 @@ class SectionCanvas(QGraphicsView):
     def wheelEvent(self, event: QWheelEvent) -> None:  # noqa: N802,D102
         factor = 1.15 if event.angleDelta().y() > 0 else 1 / 1.15
         self.scale(factor, factor)
+        self._user_zoomed = True
+
+    def resizeEvent(self, event) -> None:  # type: ignore[no-untyped-def]  # noqa: N802,D102
+        super().resizeEvent(event)
+        if not getattr(self, "_user_zoomed", False):
+            self.fit()
 
     def keyPressEvent(self, event: QKeyEvent) -> None:  # noqa: N802,D102
         key = event.key()

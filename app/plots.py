@@ -21,12 +21,12 @@ from core.units import sig, to_display, unit_label
 
 
 def _needs_new_limits(current: tuple[float, float], lo: float, hi: float) -> bool:
-    """True when [lo, hi] leaves the current limits or fills less than half of them."""
+    """True when [lo, hi] leaves the current limits or fills less than 70 % of them."""
     a, b = current
     span = b - a
     if lo < a or hi > b or span <= 0:
         return True
-    return (hi - lo) < 0.5 * span
+    return (hi - lo) < 0.7 * span
 
 
 def _padded(lo: float, hi: float) -> tuple[float, float]:

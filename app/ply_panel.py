@@ -94,6 +94,10 @@ class PlyPanel(QWidget):
         if not ok or self.index is None:
             self.title.setText("Select a ply, or drag on the section to draw one.")
             self.material.blockSignals(False)
+            self.name.setText("")
+            self.material.setCurrentIndex(-1)
+            for edit in self.fields.values():
+                edit.set_value(None)
             return
         p = plies[self.index]
         self.title.setText(f"Ply {self.index + 1} of {len(plies)} (later plies win where "
