@@ -154,6 +154,8 @@ class BeamPanel(QWidget):
             self.self_weight.setChecked(beam.self_weight)
             if isinstance(beam.combinations, str):
                 self.combos.setCurrentText(beam.combinations)
+            elif beam.combinations is None:
+                self.combos.setCurrentText("ASD" if design.us else "EN1990")
             self._fill_loads(beam.loads, u)
         self._updating = False
 
@@ -240,7 +242,7 @@ class BeamPanel(QWidget):
         p = self.document.project
         design = replace(p.design_or_default(), basis=basis)
         beam = p.beam
-        if beam is not None and isinstance(beam.combinations, str):
+        if beam is not None and (beam.combinations is None or isinstance(beam.combinations, str)):
             beam = replace(beam, combinations="ASD" if basis == "US-ASD" else "EN1990")
         self.document.apply(replace(p, design=design, beam=beam), "Set design basis")
 

@@ -121,11 +121,14 @@ def combinations_for(spec: BeamSpec, basis: str, design: DesignSpec) -> tuple[Co
     present = {ld.case for ld in spec.loads}
     if spec.self_weight:
         present.add("D")
-    if isinstance(spec.combinations, str):
-        if spec.combinations == "EN1990":
+    chosen = spec.combinations
+    if chosen is None:
+        chosen = "ASD" if basis == "US" else "EN1990"
+    if isinstance(chosen, str):
+        if chosen == "EN1990":
             return en1990_combinations(present, design.psi)
         return asd_combinations(present)
-    return spec.combinations
+    return chosen
 
 
 def creep_moduli(section: Section, factor: float) -> np.ndarray:

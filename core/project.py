@@ -41,7 +41,8 @@ class BeamSpec:
         loads: the loads, by case.
         self_weight: add the member's weight as case D.
         bearing_length: m, for the bearing check (None: not checked).
-        combinations: "ASD", "EN1990" or an explicit tuple.
+        combinations: "ASD", "EN1990", an explicit tuple, or None for the design
+            basis's own set (ASD for US-ASD, EN1990 for EU-LSD).
         sustained_live_fraction: part of L that is sustained (creep), 0 to 1.
 
     """
@@ -50,7 +51,7 @@ class BeamSpec:
     loads: tuple[Load, ...] = ()
     self_weight: bool = True
     bearing_length: float | None = None
-    combinations: str | tuple[Combination, ...] = "ASD"
+    combinations: str | tuple[Combination, ...] | None = None
     sustained_live_fraction: float | None = None
 
 

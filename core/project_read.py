@@ -151,7 +151,8 @@ def read_beam(raw: Any, path: str, problems: list[Problem]) -> BeamSpec | None:
     if len(problems) == before:
         problems.extend(validate_layout(layout, path))
     loads = _read_loads(raw.get("loads", []), f"{path}.loads", layout, problems)
-    combos = read_combinations(raw.get("combinations", "ASD"), f"{path}.combinations", problems)
+    combos = (read_combinations(raw["combinations"], f"{path}.combinations", problems)
+              if "combinations" in raw else None)
     frac = None
     if "sustained_live_fraction" in raw:
         frac = _number(raw["sustained_live_fraction"], f"{path}.sustained_live_fraction",

@@ -77,7 +77,9 @@ def write_beam(beam: BeamSpec, system: str) -> dict[str, Any]:
             rec["at"] = exact_text(ld.at, "span", system)
         loads.append(rec)
     out["loads"] = loads
-    if isinstance(beam.combinations, str):
+    if beam.combinations is None:
+        pass
+    elif isinstance(beam.combinations, str):
         out["combinations"] = beam.combinations
     else:
         out["combinations"] = [

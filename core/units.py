@@ -246,7 +246,7 @@ def sig(value: float, digits: int = 4) -> str:
     if magnitude >= 12 or magnitude <= -5:
         return f"{value:.{digits - 1}e}"
     decimals = max(digits - 1 - magnitude, 0)
-    return f"{value:,.{decimals}f}"
+    return f"{value:.{decimals}f}"
 
 
 def from_display(value: float, kind: str, system: str) -> float:

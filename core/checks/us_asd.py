@@ -57,6 +57,10 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
     wet, temp = design.wet_service, design.temperature
     combos = beam.combinations
     tau_unit = unit_shear_stress(section)
+    if not any(c.combination.limit_state in ("ASD", "custom") for c in combos):
+        warnings.append(Problem("beam.combinations", 'no ASD combination: use "ASD" (or your '
+                                "own list) with the US basis; timber strength checks are "
+                                "skipped"))
     member_width = max(p.x + p.width for p in section.plies) - min(p.x for p in section.plies)
     for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):
         if section.area[i] <= 0:
