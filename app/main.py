@@ -12,8 +12,15 @@ def run_gui(path: str, screenshot: str | None = None) -> int:
 
     Returns the exit status (2 when the file cannot be read).
     """
-    if screenshot and not os.environ.get("DISPLAY") and not os.environ.get("WAYLAND_DISPLAY"):
+    no_display = (sys.platform.startswith("linux") and not os.environ.get("DISPLAY")
+                  and not os.environ.get("WAYLAND_DISPLAY"))
+    if screenshot and no_display:
         os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+    elif no_display and not os.environ.get("QT_QPA_PLATFORM"):
+        print("plystack: no display to open a window on (DISPLAY is not set). Use "
+              "`plystack check FILE`, or `plystack gui FILE --screenshot OUT.png`.",
+              file=sys.stderr)
+        return 2
     from PySide6.QtWidgets import QApplication, QMessageBox
 
     from app.main_window import MainWindow, autosave_dir

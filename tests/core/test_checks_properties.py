@@ -120,3 +120,17 @@ def test_creep_moves_moment_to_steel():
     assert a.beam.creep_factor == 1.5
     wet = run(replace(load(DEMO), design=replace(load(DEMO).design, wet_service=True)))
     assert wet.beam.creep_factor == 2.0
+
+
+def test_eu_demo_full_set_of_checks(capsys):
+    from core.cli import main
+
+    eu = DEMO.parent / "stair-trimmer-eu.plystack.json"
+    assert main(["check", str(eu), "--json"]) == 0
+    out = json.loads(capsys.readouterr().out)
+    ids = {c["id"] for c in out["checks"]}
+    assert {"bending", "shear", "bearing", "deflection-live", "deflection-total",
+            "deflection-long-term", "bolts"} <= ids
+    assert all("k_mod" in c["factors"] for c in out["checks"]
+               if c["id"] in ("bending", "shear") and c["ply"] != "plate")
+    assert out["warnings"] == []
