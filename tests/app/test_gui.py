@@ -304,3 +304,27 @@ def test_export_sheet_from_the_window(window, qtbot, tmp_path):
     bad = SheetDialog(window.document.project, window)
     assert bad.pages == 0 and "Cannot export" in bad.preview.text()
     assert not bad.save_button.isEnabled()
+
+
+def test_crash_recovery_offers_the_autosave(window, qtbot, tmp_path):
+    from app.main import offer_recovery
+    from core.project import save
+
+    edited = window.document.project.with_plies(window.document.project.plies[:2])
+    save(edited, tmp_path / "untitled.plystack.json")
+
+    class Box:
+        class StandardButton:
+            Yes, No = 1, 0
+
+        asked = []
+
+        @staticmethod
+        def question(parent, title, text):
+            Box.asked.append(text)
+            return Box.StandardButton.Yes
+
+    offer_recovery(window, tmp_path, Box)
+    assert Box.asked and "untitled.plystack.json" in Box.asked[0]
+    assert window.document.project == edited
+    assert window.document.modified
