@@ -107,6 +107,8 @@ class SectionCanvas(QGraphicsView):
 
     def snap(self, value: float) -> float:
         """Round to the snap step, exactly in the display unit."""
+        if self.snap_override:
+            return round(value / self.snap_override) * self.snap_override
         if self.system == "US":
             per_in = round(IN / self.snap_step)
             return round(value / IN * per_in) / per_in * IN

@@ -150,6 +150,7 @@ class MainWindow(QMainWindow):
         self.transformed_action = self._action(v, "Show &transformed section",
                                                self.toggle_transformed, "T")
         self.transformed_action.setCheckable(True)
+        self._action(v, "Snap &step\u2026", self.ask_snap_step)
         self.us_action = self._action(v, "US units", lambda: self.set_units("US"))
         self.si_action = self._action(v, "SI units", lambda: self.set_units("SI"))
         t = bar.addMenu("&Tools")
@@ -320,6 +321,29 @@ class MainWindow(QMainWindow):
                             f"{system} units")
         self.canvas.rebuild()
 
+    def ask_snap_step(self) -> None:
+        """View > Snap step: any length (a bare number is in the display unit)."""
+        from PySide6.QtWidgets import QInputDialog
+
+        from app.quantity import parse_entry
+        from core import units
+
+        u = self.document.project.display_units
+        current = units.display_string(self.canvas.snap_step, "length", u, 6)
+        text, ok = QInputDialog.getText(self, "Snap step", "Snap step (e.g. 1/16 in, 1 mm):",
+                                        text=current)
+        if not ok:
+            return
+        try:
+            step = parse_entry(text, "length", u, "snap step")
+        except units.UnitError as exc:
+            QMessageBox.warning(self, "Snap step", str(exc))
+            return
+        if step <= 0:
+            QMessageBox.warning(self, "Snap step", "snap step: must be greater than zero")
+            return
+        self.canvas.snap_override = step
+
     def open_materials(self) -> None:
         """Browse materials and add one to the project."""
         p = self.document.project
@@ -452,7 +476,6 @@ class MainWindow(QMainWindow):
         name = self.document.path.name if self.document.path else "untitled"
         mark = "*" if self.document.modified else ""
         self.setWindowTitle(f"{name}{mark} \u2014 Plystack")
-        self.setWindowModified(self.document.modified)
 
     # --- autosave and closing ---------------------------------------------------------
 
