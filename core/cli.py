@@ -164,6 +164,9 @@ def cmd_sweep(args: argparse.Namespace) -> int:
               f"{units.fmt(r.deflection_max_abs, 'deflection', u, 3):>14}"
               f"{units.fmt(r.mass_per_length, 'mass_per_length', u):>16}  "
               f"{'OK' if r.ok else 'NOT OK'}{mark}")
+    from core.caution import CAUTION
+
+    print(CAUTION)
     return 0
 
 
