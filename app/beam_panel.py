@@ -23,7 +23,7 @@ from app.document import Document
 from app.quantity import QuantityEdit, parse_entry
 from core import units
 from core.beam import CASES, LOAD_TYPES, SUPPORTS, BeamLayout, Load, validate_layout, validate_load
-from core.design import DesignSpec
+from core.design import STEEL_RULES, TEMPERATURES, DesignSpec
 from core.project import BeamSpec
 
 COLUMNS = ("Case", "Type", "Value", "Tributary width", "From", "To", "At")
@@ -66,6 +66,19 @@ class BeamPanel(QWidget):
         self.braced = QCheckBox("Compression edge braced")
         self.service_class = QComboBox()
         self.service_class.addItems(["1", "2", "3"])
+        self.temperature = QComboBox()
+        self.temperature.addItems(list(TEMPERATURES))
+        self.incised = QCheckBox("Incised lumber (C_i)")
+        self.steel_rule = QComboBox()
+        self.steel_rule.addItems(list(STEEL_RULES))
+        self.live_limit = QLineEdit()
+        self.total_limit = QLineEdit()
+        for edit in (self.live_limit, self.total_limit):
+            edit.setToolTip("Span divided by this number, e.g. 360")
+        self.bolt_diameter = QuantityEdit("length", "bolt diameter", system, positive)
+        self.connector_allowable = QuantityEdit("force", "connector allowable", system, positive)
+        self.connector_allowable.setToolTip("Allowable (US) or design (EU) lateral load of one "
+                                            "connector, already adjusted")
         self.error = QLabel("")
         self.error.setStyleSheet("color: #b00000")
         self.error.setWordWrap(True)
@@ -85,8 +98,15 @@ class BeamPanel(QWidget):
         form.addRow("Combinations", self.combos)
         form.addRow("Design basis", self.basis)
         form.addRow("Service class (EU)", self.service_class)
+        form.addRow("Temperature (NDS C_t)", self.temperature)
+        form.addRow("Steel plate allowable", self.steel_rule)
+        form.addRow("Deflection limit, live L /", self.live_limit)
+        form.addRow("Deflection limit, total L /", self.total_limit)
+        form.addRow("Bolt diameter (flitch)", self.bolt_diameter)
+        form.addRow("Connector allowable (stacked)", self.connector_allowable)
         form.addRow(self.wet)
         form.addRow(self.repetitive)
+        form.addRow(self.incised)
         form.addRow(self.braced)
         buttons = QHBoxLayout()
         buttons.addWidget(add)
@@ -117,6 +137,17 @@ class BeamPanel(QWidget):
         self.wet.toggled.connect(lambda on: self._set_design(wet_service=on))
         self.repetitive.toggled.connect(lambda on: self._set_design(repetitive_member=on))
         self.braced.toggled.connect(lambda on: self._set_design(compression_edge_braced=on))
+        self.incised.toggled.connect(lambda on: self._set_design(incised=on))
+        self.temperature.activated.connect(lambda _i: self._set_design(
+            temperature=self.temperature.currentText()))
+        self.steel_rule.activated.connect(lambda _i: self._set_design(
+            steel_rule=self.steel_rule.currentText()))
+        self.live_limit.editingFinished.connect(lambda: self._set_limit("live"))
+        self.total_limit.editingFinished.connect(lambda: self._set_limit("total"))
+        self.bolt_diameter.accepted.connect(self._set_bolt)
+        self.connector_allowable.accepted.connect(self._set_connector)
+        for edit in (self.bolt_diameter, self.connector_allowable):
+            edit.rejected.connect(self.error.setText)
         self.loads.cellChanged.connect(self._cell_changed)
         add.clicked.connect(self.add_load)
         remove.clicked.connect(self.remove_load)
@@ -141,6 +172,16 @@ class BeamPanel(QWidget):
         self.wet.setChecked(design.wet_service)
         self.repetitive.setChecked(design.repetitive_member)
         self.braced.setChecked(design.compression_edge_braced)
+        self.incised.setChecked(design.incised)
+        self.temperature.setCurrentText(design.temperature)
+        self.steel_rule.setCurrentText(design.steel_rule)
+        live, total, _ = design.deflection_limits()
+        if not self.live_limit.hasFocus():
+            self.live_limit.setText(f"{live:g}")
+        if not self.total_limit.hasFocus():
+            self.total_limit.setText(f"{total:g}")
+        self.bolt_diameter.set_value(design.bolt.diameter)
+        self.connector_allowable.set_value(design.connector.allowable)
         if beam is not None:
             lay = beam.layout
             if not self.spans.hasFocus():
@@ -252,6 +293,30 @@ class BeamPanel(QWidget):
         p = self.document.project
         design: DesignSpec = replace(p.design_or_default(), **changes)  # type: ignore[arg-type]
         self.document.apply(replace(p, design=design), "Change design choices")
+
+    def _set_limit(self, which: str) -> None:
+        if self._updating:
+            return
+        edit = self.live_limit if which == "live" else self.total_limit
+        try:
+            value = float(edit.text())
+        except ValueError:
+            value = float("nan")
+        if not 1 <= value <= 100000:
+            self.error.setText(f"deflection limit {which}: \u201c{edit.text()}\u201d must be a "
+                               "number such as 360 (span divided by it)")
+            edit.setStyleSheet("QLineEdit { background: #ffd9d9; }")
+            return
+        edit.setStyleSheet("")
+        self._set_design(**{f"{which}_limit": value})
+
+    def _set_bolt(self, diameter: float) -> None:
+        design = self.document.project.design_or_default()
+        self._set_design(bolt=replace(design.bolt, diameter=diameter))
+
+    def _set_connector(self, allowable: float) -> None:
+        design = self.document.project.design_or_default()
+        self._set_design(connector=replace(design.connector, allowable=allowable))
 
     def _row_load(self, row: int) -> Load:
         u = self.document.project.display_units

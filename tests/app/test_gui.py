@@ -328,3 +328,22 @@ def test_crash_recovery_offers_the_autosave(window, qtbot, tmp_path):
     assert Box.asked and "untitled.plystack.json" in Box.asked[0]
     assert window.document.project == edited
     assert window.document.modified
+
+
+def test_design_choices_in_the_loads_panel(window, qtbot):
+    panel = window.beam_panel
+    panel.live_limit.setText("480")
+    panel.live_limit.editingFinished.emit()
+    assert window.document.project.design.live_limit == 480
+    before = window.document.project
+    panel.total_limit.setText("lots")
+    panel.total_limit.editingFinished.emit()
+    assert window.document.project == before
+    assert "deflection limit total" in panel.error.text()
+    panel.bolt_diameter.setText("5/8 in")
+    panel.bolt_diameter.editingFinished.emit()
+    assert window.document.project.design.bolt.diameter == pytest.approx(0.625 * IN)
+    panel.incised.setChecked(True)
+    window.recompute()
+    c = next(c for c in window.analysis.checks if c.id == "bending" and c.ply == "left 2x10")
+    assert c.factors["C_i"] == 0.8
