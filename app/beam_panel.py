@@ -13,6 +13,7 @@ from PySide6.QtWidgets import (
     QLabel,
     QLineEdit,
     QPushButton,
+    QStyledItemDelegate,
     QTableWidget,
     QTableWidgetItem,
     QVBoxLayout,
@@ -28,6 +29,25 @@ from core.project import BeamSpec
 
 COLUMNS = ("Case", "Type", "Value", "Tributary width", "From", "To", "At")
 VALUE_KIND = {"area": "area_load", "line": "line_load", "point": "force"}
+
+
+class ChoiceDelegate(QStyledItemDelegate):
+    """A drop-down editor for a table column with a fixed set of values."""
+
+    def __init__(self, choices: tuple[str, ...], parent: QWidget):
+        super().__init__(parent)
+        self.choices = choices
+
+    def createEditor(self, parent, option, index):  # type: ignore[no-untyped-def]  # noqa: N802,D102
+        box = QComboBox(parent)
+        box.addItems(list(self.choices))
+        return box
+
+    def setEditorData(self, editor, index):  # type: ignore[no-untyped-def]  # noqa: N802,D102
+        editor.setCurrentText(str(index.data() or self.choices[0]))
+
+    def setModelData(self, editor, model, index):  # type: ignore[no-untyped-def]  # noqa: N802,D102
+        model.setData(index, editor.currentText())
 
 
 def default_beam(system: str) -> BeamSpec:
@@ -85,6 +105,8 @@ class BeamPanel(QWidget):
         self.loads = QTableWidget(0, len(COLUMNS))
         self.loads.setHorizontalHeaderLabels(COLUMNS)
         self.loads.verticalHeader().setVisible(False)
+        self.loads.setItemDelegateForColumn(0, ChoiceDelegate(CASES, self.loads))
+        self.loads.setItemDelegateForColumn(1, ChoiceDelegate(LOAD_TYPES, self.loads))
         add = QPushButton("Add load")
         remove = QPushButton("Remove load")
         form = QFormLayout()

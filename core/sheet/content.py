@@ -219,10 +219,12 @@ def _beam(a: Analysis, u: str, width: float) -> list[Any]:
                      "" if ld.type == "point" else (fmt(ld.end, "span", u)
                                                     if ld.end is not None else "right end")])
     out += [Paragraph("Loads by case", H2), _table(rows)]
-    rows = [["Combination", "Factors", "Duration", "M max", "M min", "|V| max", "Deflection"]]
+    rows = [["Combination", "Use", "Factors", "Duration", "M max", "M min", "|V| max",
+             "Deflection"]]
     for c in beam.combinations:
         e = c.extremes
-        rows.append([c.name, ", ".join(f"{k} {v:g}" for k, v in c.combination.factors.items()),
+        rows.append([c.name, c.combination.limit_state,
+                     ", ".join(f"{k} {v:g}" for k, v in c.combination.factors.items()),
                      c.duration, fmt(e.M_max, "moment", u), fmt(e.M_min, "moment", u),
                      fmt(e.V_max_abs, "force", u), fmt(e.deflection_max_abs, "deflection", u, 3)])
     out += [Paragraph("Combinations", H2), _table(rows)]
@@ -232,20 +234,26 @@ def _beam(a: Analysis, u: str, width: float) -> list[Any]:
                      *[fmt(float(s.reactions[k]), "force", u) for s in beam.cases.values()]])
     out += [Paragraph("Reactions by case (upward positive)", H2), _table(rows)]
     gov = max(beam.combinations, key=lambda c: abs(c.M_governing))
+    sls = [c for c in beam.combinations
+           if c.combination.limit_state in ("ASD", "SLS-characteristic", "custom")]
+    gov_sls = max(sls or list(beam.combinations),
+                  key=lambda c: c.extremes.deflection_max_abs)
     d = diagram(beam.model, gov.solution, a.section.EI)
+    d_sls = diagram(beam.model, gov_sls.solution, a.section.EI)
     kx = to_display(1.0, "span", u)
-    xs = d.x * kx
     marks = [x * kx for x in lay.support_positions()]
     xl = f"x from the left end ({unit_label('span', u)})"
-    plots = [line_plot(xs, d.V * to_display(1.0, "force", u), xl,
+    plots = [line_plot(d.x * kx, d.V * to_display(1.0, "force", u), xl,
                        f"V ({unit_label('force', u)})", width, marks=marks),
-             line_plot(xs, d.M * to_display(1.0, "moment", u), xl,
-                       f"M ({unit_label('moment', u)})", width, marks=marks),
-             line_plot(xs, d.deflection * to_display(1.0, "deflection", u), xl,
-                       f"deflection ({unit_label('deflection', u)}, down +)", width,
-                       marks=marks)]
-    out.append(KeepTogether([Paragraph(_esc(f"Shear, moment and immediate deflection for "
-                                            f"{gov.name}"), H2), *plots]))
+             line_plot(d.x * kx, d.M * to_display(1.0, "moment", u), xl,
+                       f"M ({unit_label('moment', u)})", width, marks=marks)]
+    out.append(KeepTogether([Paragraph(_esc(f"Shear and moment for {gov.name}"), H2),
+                             *plots]))
+    out.append(KeepTogether([
+        Paragraph(_esc(f"Immediate deflection for {gov_sls.name}"), H2),
+        line_plot(d_sls.x * kx, d_sls.deflection * to_display(1.0, "deflection", u), xl,
+                  f"deflection ({unit_label('deflection', u)}, down +)", width,
+                  marks=marks)]))
     rows = [["Combination", "Short-term part", "Long-term part (creep)", "Total"]]
     for c in beam.combinations:
         rows.append([c.name,
