@@ -206,6 +206,11 @@ def run(project: Project, reference: str | None = None, with_checks: bool = True
     beam = (analyse_beam(project, section, design, prepared)
             if project.beam is not None else None)
     warnings = list(section.warnings)
+    if project.beam is not None and project.beam.self_weight:
+        for mid in sorted({p.material for p in project.plies}):
+            if mats[mid].density <= 0:
+                warnings.append(Problem(f"materials.{mid}.density", "is not given: the "
+                                        "self-weight of its plies is left out"))
     checks: tuple[Any, ...] = ()
     if beam is not None and with_checks:
         from core.checks import run_checks

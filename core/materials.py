@@ -107,9 +107,7 @@ def material_from_record(mid: str, record: Any, path: str) -> tuple[Material | N
                 problems.append(Problem(f"{path}.E", "must be greater than zero"))
         except units.UnitError as exc:
             problems.append(units.problem(exc))
-    if "density" not in record:
-        problems.append(Problem(f"{path}.density", "is missing"))
-    else:
+    if "density" in record:
         try:
             density = units.parse(record["density"], "density", f"{path}.density")
             if density < 0:

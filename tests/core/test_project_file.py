@@ -149,3 +149,17 @@ def test_fuzz_mutated_demo_only_raises_project_error(key, value, idx, sub):
         from_dict(data)
     except ProjectError:
         pass
+
+
+def test_material_without_density_loads_and_warns():
+    from core.analysis import run
+
+    p = from_dict({"format": "plystack", "version": 1,
+                   "materials": {"w": {"kind": "timber", "E": "11 GPa"}},
+                   "plies": [{"name": "a", "material": "w", "x": "0 mm", "y": "0 mm",
+                              "width": "50 mm", "height": "200 mm"}],
+                   "beam": {"spans": ["3 m"], "supports": "simple",
+                            "loads": [{"case": "L", "type": "line", "value": "2 kN/m"}]}})
+    a = run(p)
+    assert any("materials.w.density" in str(w) for w in a.warnings)
+    assert a.section.mass_per_length == 0.0
