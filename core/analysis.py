@@ -141,69 +141,110 @@ def creep_moduli(section: Section, factor: float) -> np.ndarray:
 Prepared = tuple[BeamModel, dict[str, CaseSolution], CaseSolution | None]
 
 
+def combination_parts(cases: dict[str, CaseSolution], combo: Combination, frac: float,
+                      EI: float, EI_c: float) -> tuple[CaseSolution, dict[str, float],
+                                                       CaseSolution | None,
+                                                       CaseSolution | None,
+                                                       CaseSolution] | None:
+    """A combination's solution, its sustained factors and part, the rest, and the
+    solution whose deflection is the total with creep (sustained part scaled by
+    EI / EI_creep). None when the beam carries none of its cases.
+    """
+    sol = combine(cases, combo.factors)
+    if sol is None:
+        return None
+    sus_f = {c: f * (1.0 if c == "D" else frac) for c, f in combo.factors.items()
+             if c in ("D", "L") and c in cases}
+    sus = combine(cases, sus_f)
+    rest = combine(cases, {c: f - sus_f.get(c, 0.0) for c, f in combo.factors.items()})
+    if sus is not None:
+        total_sol = sus.scaled(EI / EI_c) if rest is None else sus.scaled(EI / EI_c) + rest
+    else:
+        total_sol = sol
+    return sol, sus_f, sus, rest, total_sol
+
+
+def beam_cases(spec: BeamSpec, sw: float, prepared: Prepared | None
+               ) -> tuple[BeamModel, dict[str, CaseSolution]]:
+    """The mesh and the solution of every load case, self-weight (N/m) in case D."""
+    present = sorted({ld.case for ld in spec.loads} | ({"D"} if spec.self_weight else set()))
+    if prepared is None:
+        model = BeamModel(spec.layout, spec.loads)
+        return model, {case: model.solve([ld for ld in spec.loads if ld.case == case],
+                                         extra_line=sw if case == "D" else 0.0)
+                       for case in present}
+    model, base, unit_sw = prepared
+    cases = dict(base)
+    if spec.self_weight and unit_sw is not None:
+        own = unit_sw.scaled(sw)
+        cases["D"] = cases["D"] + own if "D" in cases else own
+    return model, cases
+
+
+#: Extremes already computed for a candidate: ("combo" | "total" | "case", name).
+Precomputed = dict[tuple[str, str], Extremes]
+
+
 def analyse_beam(project: Project, section: Section, design: DesignSpec,
-                 prepared: Prepared | None = None) -> BeamResult:
-    """Solve every case and combination of the project's beam (or reuse ``prepared``)."""
+                 prepared: Prepared | None = None,
+                 precomputed: Precomputed | None = None) -> BeamResult:
+    """Solve every case and combination of the project's beam (reusing ``prepared``
+    solutions and ``precomputed`` extremes where given).
+    """
     spec = project.beam
     if spec is None:
         raise ProjectError(Problem("beam", "the project has no beam"))
     basis = "US" if design.us else "EU"
     sw = section.mass_per_length * GRAVITY if spec.self_weight else 0.0
-    cases: dict[str, CaseSolution] = {}
-    present = sorted({ld.case for ld in spec.loads} | ({"D"} if spec.self_weight else set()))
-    if prepared is None:
-        model = BeamModel(spec.layout, spec.loads)
-        for case in present:
-            cases[case] = model.solve([ld for ld in spec.loads if ld.case == case],
-                                      extra_line=sw if case == "D" else 0.0)
-    else:
-        model, base, unit_sw = prepared
-        cases = dict(base)
-        if spec.self_weight and unit_sw is not None:
-            own = unit_sw.scaled(sw)
-            cases["D"] = cases["D"] + own if "D" in cases else own
+    model, cases = beam_cases(spec, sw, prepared)
     EI = section.EI
-    products = [m.product for m in section.materials if m.kind == "timber"]
-    factor = design.creep_factor(products[0] if products else "sawn")
+    factor = creep_factor_of(section, design)
     creep_section = with_moduli(section, creep_moduli(section, factor))
     EI_c = creep_section.EI
     frac = spec.sustained_live_fraction or 0.0
+    pre = precomputed or {}
     results = []
     for combo in combinations_for(spec, basis, design):
-        sol = combine(cases, combo.factors)
-        if sol is None:
+        parts = combination_parts(cases, combo, frac, EI, EI_c)
+        if parts is None:
             continue
-        ext = extremes(model, sol, EI)
-        sus_f = {c: f * (1.0 if c == "D" else frac) for c, f in combo.factors.items()
-                 if c in ("D", "L") and c in cases}
-        sus = combine(cases, sus_f)
-        rest_f = {c: f - sus_f.get(c, 0.0) for c, f in combo.factors.items()}
-        rest = combine(cases, rest_f)
-        if sus is not None:
-            total_sol = sus.scaled(EI / EI_c) if rest is None else sus.scaled(EI / EI_c) + rest
-        else:
-            total_sol = sol
-        total = extremes(model, total_sol, EI)
+        sol, sus_f, sus, rest, total_sol = parts
+        ext = pre.get(("combo", combo.name)) or extremes(model, sol, EI)
+        total = pre.get(("total", combo.name)) or extremes(model, total_sol, EI)
         m_gov = ext.M_max if abs(ext.M_max) >= abs(ext.M_min) else ext.M_min
         results.append(CombinationResult(combo, duration_of(combo, basis), sol, ext, sus_f,
                                          sus, rest, total, total_sol, m_gov, model, EI, EI_c))
     if not results:
         raise ProjectError(Problem("beam.combinations", "no combination has a load case that "
                                    "the beam carries"))
-    return BeamResult(spec, model, cases, tuple(results), factor, creep_section, sw, basis, EI)
+    result = BeamResult(spec, model, cases, tuple(results), factor, creep_section, sw, basis,
+                        EI)
+    cache = {name: e for (kind, name), e in pre.items() if kind == "case"}
+    if cache:
+        result.__dict__["_case_cache"] = cache
+    return result
+
+
+def creep_factor_of(section: Section, design: DesignSpec) -> float:
+    """The creep factor for the section's (first) timber product."""
+    products = [m.product for m in section.materials if m.kind == "timber"]
+    return design.creep_factor(products[0] if products else "sawn")
 
 
 def run(project: Project, reference: str | None = None, with_checks: bool = True,
-        prepared: Prepared | None = None) -> Analysis:
+        prepared: Prepared | None = None, precomputed: Precomputed | None = None,
+        section: Section | None = None) -> Analysis:
     """Analyse a project: section, beam and (where it has a beam) the design checks.
 
-    ``prepared`` reuses a beam already solved for these spans and loads (see
-    core.compare.Evaluator).
+    ``prepared`` reuses a beam already solved for these spans and loads, ``precomputed``
+    extremes found for many candidates at once, ``section`` a section already analysed
+    (see core.compare.Evaluator).
     """
     mats = project.all_materials()
-    section = analyse(project.plies, mats, reference or project.reference_material)
+    if section is None:
+        section = analyse(project.plies, mats, reference or project.reference_material)
     design = project.design_or_default()
-    beam = (analyse_beam(project, section, design, prepared)
+    beam = (analyse_beam(project, section, design, prepared, precomputed)
             if project.beam is not None else None)
     warnings = list(section.warnings)
     if project.beam is not None and project.beam.self_weight:

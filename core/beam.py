@@ -14,7 +14,7 @@ q L^4 xi^2 (1 - xi)^2 / 24 EI) are exact everywhere.
 
 from __future__ import annotations
 
-from collections.abc import Mapping
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 
 import numpy as np
@@ -386,20 +386,6 @@ def element_polynomials(model: BeamModel, sol: CaseSolution,
     return out
 
 
-def _coefficients(model: BeamModel, sol: CaseSolution, EI: float) -> np.ndarray:
-    """Per element, downward deflection coefficients in local x, highest power first
-    (n, 5): Hermite cubic plus the uniform-load particular solution.
-    """
-    le = model.lengths
-    u = sol.u
-    v1, t1, v2, t2 = u[0:-2:2], u[1:-2:2], u[2::2], u[3::2]
-    a2 = (3 * (v2 - v1) / le - 2 * t1 - t2) / le
-    a3 = (2 * (v1 - v2) / le + t1 + t2) / le**2
-    p = sol.q / 24
-    w_up = np.column_stack([p, a3 - 2 * le * p, a2 + le * le * p, t1, v1])
-    return np.asarray(-w_up / EI)
-
-
 def _real_roots_batched(coeffs: np.ndarray, le: np.ndarray) -> np.ndarray:
     """Real roots inside (0, le) of per-row cubics (n, 4), highest power first.
 
@@ -441,14 +427,6 @@ def _real_roots_batched(coeffs: np.ndarray, le: np.ndarray) -> np.ndarray:
     return np.asarray(out * le[:, None])
 
 
-def _horner(coeffs: np.ndarray, x: np.ndarray) -> np.ndarray:
-    """Evaluate per-row polynomials (n, k) at per-row points (n, m)."""
-    out = np.zeros_like(x)
-    for j in range(coeffs.shape[1]):
-        out = out * x + coeffs[:, j : j + 1]
-    return out
-
-
 def _element_regions(model: BeamModel) -> list[str]:
     cached: list[str] | None = getattr(model, "_regions_cache", None)
     if cached is None:
@@ -460,53 +438,88 @@ def _element_regions(model: BeamModel) -> list[str]:
 
 
 def extremes(model: BeamModel, sol: CaseSolution, EI: float) -> Extremes:
-    """True extrema of M, |V| and deflection, found from each element's polynomials
-    (vectorised over elements).
+    """True extrema of M, |V| and deflection, found from each element's polynomials."""
+    return extremes_many(model, [sol], [EI])[0]
+
+
+def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
+                  EIs: Sequence[float] | np.ndarray) -> list[Extremes]:
+    """Extremes of many solutions on one mesh at once (vectorised over solutions and
+    elements): moment at element ends and where V = 0, |V| at element ends, deflection
+    at element ends and at the real roots of its derivative inside each element.
     """
     le = model.lengths
     x0 = model.nodes[:-1]
-    q, V0, M0 = sol.q, sol.V0, sol.M0
+    k, n = len(sols), le.size
+    q = np.stack([s.q for s in sols])
+    V0 = np.stack([s.V0 for s in sols])
+    M0 = np.stack([s.M0 for s in sols])
+    U = np.stack([s.u for s in sols])
+    EI = np.asarray(EIs, dtype=float).reshape(k, 1)
     with np.errstate(divide="ignore", invalid="ignore"):
-        xr = np.where(q != 0, -V0 / q, np.nan)
-    xr = np.where((xr > 0) & (xr < le), xr, np.nan)
-    xm = np.column_stack([np.zeros_like(le), le, xr])
-    m = M0[:, None] + V0[:, None] * xm + q[:, None] * xm**2 / 2
-    m_hi = np.where(np.isnan(m), -np.inf, m)
-    m_lo = np.where(np.isnan(m), np.inf, m)
-    i_max = np.unravel_index(np.argmax(m_hi), m.shape)
-    i_min = np.unravel_index(np.argmin(m_lo), m.shape)
-    v = np.abs(np.column_stack([V0, V0 + q * le]))
-    i_v = np.unravel_index(np.argmax(v), v.shape)
-    w_c = _coefficients(model, sol, EI)
-    dw = w_c[:, :4] * np.array([4.0, 3.0, 2.0, 1.0])
-    xw = np.column_stack([np.zeros_like(le), le, _real_roots_batched(dw, le)])
-    w = _horner(w_c, np.nan_to_num(xw))
+        xr = np.where(q != 0, -V0 / q, 0.0)
+    valid = (q != 0) & (xr > 0) & (xr < le)
+    xm = np.empty((k, n, 3))
+    xm[..., 0] = 0.0
+    xm[..., 1] = le
+    xm[..., 2] = np.where(valid, xr, 0.0)
+    m = M0[..., None] + V0[..., None] * xm + q[..., None] * xm**2 / 2
+    ok = np.ones((k, n, 3), dtype=bool)
+    ok[..., 2] = valid
+    i_max = np.argmax(np.where(ok, m, -np.inf).reshape(k, -1), axis=1)
+    i_min = np.argmin(np.where(ok, m, np.inf).reshape(k, -1), axis=1)
+    v = np.abs(np.stack([V0, V0 + q * le], axis=-1)).reshape(k, -1)
+    i_v = np.argmax(v, axis=1)
+    v1, t1, v2, t2 = U[:, 0:-2:2], U[:, 1:-2:2], U[:, 2::2], U[:, 3::2]
+    a2 = (3 * (v2 - v1) / le - 2 * t1 - t2) / le
+    a3 = (2 * (v1 - v2) / le + t1 + t2) / le**2
+    p = q / 24
+    w_c = -np.stack([p, a3 - 2 * le * p, a2 + le * le * p, t1, v1], axis=-1) / EI[..., None]
+    dw = w_c[..., :4] * np.array([4.0, 3.0, 2.0, 1.0])
+    roots = _real_roots_batched(dw.reshape(k * n, 4), np.tile(le, k)).reshape(k, n, 3)
+    xw = np.concatenate([np.zeros((k, n, 1)), np.broadcast_to(le[:, None], (k, n, 1)),
+                         roots], axis=-1)
+    xw_safe = np.nan_to_num(xw)
+    w = np.zeros_like(xw_safe)
+    for j in range(5):
+        w = w * xw_safe + w_c[..., j : j + 1]
     w = np.where(np.isnan(xw), 0.0, w)
     aw = np.abs(w)
-    i_w = np.unravel_index(np.argmax(aw), aw.shape)
-    region_defl: dict[str, tuple[float, float]] = {}
-    row_best = np.argmax(aw, axis=1)
-    for e, name in enumerate(_element_regions(model)):
-        j = row_best[e]
-        cur = region_defl.get(name)
-        if cur is None or aw[e, j] > abs(cur[0]):
-            region_defl[name] = (float(w[e, j]), float(x0[e] + xw[e, j]))
+    i_w = np.argmax(aw.reshape(k, -1), axis=1)
     regions = model.layout.regions()
-    by_region = tuple((n, *region_defl[n]) for n, _, _ in regions if n in region_defl)
-    m_max, m_min = float(m[i_max]), float(m[i_min])
-    scale = max(abs(m_max), abs(m_min), 1e-300)
-    if abs(m_max) < 1e-9 * scale:
-        m_max = 0.0
-    if abs(m_min) < 1e-9 * scale:
-        m_min = 0.0
-    return Extremes(
-        M_max=m_max, x_M_max=float(x0[i_max[0]] + xm[i_max]),
-        M_min=m_min, x_M_min=float(x0[i_min[0]] + xm[i_min]),
-        V_max_abs=float(v[i_v]), x_V_max_abs=float(x0[i_v[0]] + (0.0 if i_v[1] == 0
-                                                                  else le[i_v[0]])),
-        deflection_max_abs=float(aw[i_w]), x_deflection_max=float(x0[i_w[0]] + xw[i_w]),
-        deflection_by_region=by_region,
-    )
+    element_region = np.array([[n_ for n_, _, _ in regions].index(r) if r in
+                               [n_ for n_, _, _ in regions] else -1
+                               for r in _element_regions(model)])
+    pos_w = x0[None, :, None] + xw_safe
+    out = []
+    xm_flat = (x0[None, :, None] + xm).reshape(k, -1)
+    xv_flat = np.stack([np.broadcast_to(x0, (k, n)), np.broadcast_to(x0 + le, (k, n))],
+                       axis=-1).reshape(k, -1)
+    for c in range(k):
+        m_flat = m[c].reshape(-1)
+        m_max, m_min = float(m_flat[i_max[c]]), float(m_flat[i_min[c]])
+        scale = max(abs(m_max), abs(m_min), 1e-300)
+        if abs(m_max) < 1e-9 * scale:
+            m_max = 0.0
+        if abs(m_min) < 1e-9 * scale:
+            m_min = 0.0
+        by_region = []
+        for r, (name, _, _) in enumerate(regions):
+            mask = element_region == r
+            if not mask.any():
+                continue
+            a_r = aw[c][mask].reshape(-1)
+            j = int(np.argmax(a_r))
+            by_region.append((name, float(w[c][mask].reshape(-1)[j]),
+                              float(pos_w[c][mask].reshape(-1)[j])))
+        out.append(Extremes(
+            M_max=m_max, x_M_max=float(xm_flat[c, i_max[c]]),
+            M_min=m_min, x_M_min=float(xm_flat[c, i_min[c]]),
+            V_max_abs=float(v[c, i_v[c]]), x_V_max_abs=float(xv_flat[c, i_v[c]]),
+            deflection_max_abs=float(aw[c].reshape(-1)[i_w[c]]),
+            x_deflection_max=float(pos_w[c].reshape(-1)[i_w[c]]),
+            deflection_by_region=tuple(by_region)))
+    return out
 
 
 @dataclass(frozen=True, eq=False)

@@ -64,6 +64,58 @@ class Evaluator:
         """Summary for the project with these plies."""
         return summarise(self.analyse(plies), value)
 
+    def evaluate_many(self, candidates: Sequence[Sequence[Ply]],
+                      values: Sequence[float]) -> list[Outcome]:
+        """Summaries of many candidates: sections one by one, then the extremes of every
+        combination for all candidates in one vectorised pass, then the checks.
+        """
+        from core import analysis as pipeline
+        from core.beam import extremes_many
+        from core.section import analyse, with_moduli
+
+        spec = self.project.beam
+        if spec is None or len(candidates) < 2:
+            return [self.evaluate(p, v) for p, v in zip(candidates, values, strict=True)]
+        self.analyse(candidates[0])  # fills the beam cache for this spec
+        _, model, base, unit_sw = self._cache[id(spec)]
+        design = self.project.design_or_default()
+        basis = "US" if design.us else "EU"
+        mats = self.project.all_materials()
+        ref = self.project.reference_material
+        sections = [analyse(tuple(p), mats, ref) for p in candidates]
+        combos = pipeline.combinations_for(spec, basis, design)
+        frac = spec.sustained_live_fraction or 0.0
+        per: list[dict[tuple[str, str], object]] = [{} for _ in candidates]
+        sols: dict[tuple[str, str], list[object]] = {}
+        eis = [s.EI for s in sections]
+        for s in sections:
+            sw = s.mass_per_length * pipeline.GRAVITY if spec.self_weight else 0.0
+            _, cases = pipeline.beam_cases(spec, sw, (model, base, unit_sw))
+            factor = pipeline.creep_factor_of(s, design)
+            EI_c = with_moduli(s, pipeline.creep_moduli(s, factor)).EI
+            for combo in combos:
+                parts = pipeline.combination_parts(cases, combo, frac, s.EI, EI_c)
+                if parts is None:
+                    continue
+                sols.setdefault(("combo", combo.name), []).append(parts[0])
+                sols.setdefault(("total", combo.name), []).append(parts[4])
+            for case in ("L", "Lr", "S", "W"):
+                if case in cases:
+                    sols.setdefault(("case", case), []).append(cases[case])
+        for key, group in sols.items():
+            if len(group) != len(sections):
+                continue
+            for k, e in enumerate(extremes_many(model, group, eis)):  # type: ignore[arg-type]
+                per[k][key] = e
+        out = []
+        for k, (plies, v) in enumerate(zip(candidates, values, strict=True)):
+            a = pipeline.run(self.project.with_plies(tuple(plies)),
+                             prepared=(model, base, unit_sw),
+                             precomputed=per[k],  # type: ignore[arg-type]
+                             section=sections[k])
+            out.append(summarise(a, v))
+        return out
+
     def analyse(self, plies: Sequence[Ply]) -> Analysis:
         """The full analysis for the project with these plies (beam solutions reused)."""
         from core import analysis as pipeline
@@ -123,13 +175,11 @@ def ply_index(plies: Sequence[Ply], name: str) -> int:
 def sweep(project: Project, name: str, dimension: str, values: Sequence[float]
           ) -> list[Outcome]:
     """Governing ratio, deflection and mass for each value of one ply dimension."""
-    ev = Evaluator(project)
-    rows = []
     for v in values:
         if not v > 0:
             raise ProjectError(Problem("--values", f"{v} must be greater than zero"))
-        rows.append(ev.evaluate(with_dimension(project.plies, name, dimension, v), v))
-    return rows
+    candidates = [with_dimension(project.plies, name, dimension, v) for v in values]
+    return Evaluator(project).evaluate_many(candidates, list(values))
 
 
 @dataclass(frozen=True)
