@@ -98,7 +98,7 @@ def _title_block_maker(project: Project, paper: tuple[float, float],
             self.drawString(c2 + 2 * mm, mid + 1.5 * mm,
                             f"Date: {date}   Revision: {info.get('revision', '')}")
             self.setFont("PlyStackSans-Bold", 9)
-            self.drawString(c2 + 2 * mm, y0 + 2 * mm, f"Page {self._pageNumber} of {total}")
+            self.drawString(c2 + 2 * mm, y0 + 2 * mm, f"page {self._pageNumber} of {total}")
             self.setStrokeColor(colors.black)
 
     return TitledCanvas

@@ -57,7 +57,7 @@ def test_every_page_has_title_block_and_page_x_of_y():
     n = len(pages)
     assert n >= 3
     for k, page in enumerate(pages, start=1):
-        assert f"Page {k} of {n}" in page
+        assert f"page {k} of {n}" in page
         assert "Invented demo" in page
         assert "Checked by:" in page and "Plystack" in page and "Revision" in page
         assert "Member: FB-1" in page
