@@ -24,7 +24,7 @@ def _time(args: list[str], repeat: int = 7) -> float:
 
 def main() -> None:
     base = _time([sys.executable, "-c", "import numpy, shapely, pint"])
-    check = _time([sys.executable, "-m", "core.cli", "check", str(DEMO), "--json"])
+    check = _time([sys.executable, "-m", "app.launch", "check", str(DEMO), "--json"])
     print(f"import numpy, shapely, pint : {base * 1000:8.1f} ms (median of 7)")
     print(f"plystack check demo --json  : {check * 1000:8.1f} ms (median of 7)")
     print(f"ratio                       : {check / base:8.2f}  (target <= 1.6)")

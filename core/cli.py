@@ -1,6 +1,7 @@
 """The ``plystack`` command line. Exit status 2 with messages on stderr for bad input.
 
-The ``check`` path imports neither Qt nor matplotlib.
+Nothing here imports Qt or matplotlib; the console script (app.launch) passes in the
+function that opens the desktop program.
 """
 
 from __future__ import annotations
@@ -8,6 +9,7 @@ from __future__ import annotations
 import argparse
 import json
 import sys
+from collections.abc import Callable
 from pathlib import Path
 
 from core.errors import ProjectError
@@ -263,8 +265,11 @@ def cmd_sheet(args: argparse.Namespace) -> int:
     return 0
 
 
-def main(argv: list[str] | None = None) -> int:
-    """Entry point of the console script."""
+def main(argv: list[str] | None = None,
+         gui: Callable[[str, str | None], int] | None = None) -> int:
+    """The command line. ``gui`` opens the desktop program; it is given by the console
+    script (app.launch), since core/ never imports the GUI stack.
+    """
     argv = sys.argv[1:] if argv is None else argv
     parser = build_parser()
     if not argv:
@@ -275,9 +280,10 @@ def main(argv: list[str] | None = None) -> int:
     if args.command in commands:
         return commands[args.command](args)
     if args.command == "gui":
-        from app.main import run_gui
-
-        return int(run_gui(args.file or str(DEMO), args.screenshot))
+        if gui is None:
+            return _fail(["plystack: the desktop program starts from the `plystack` command "
+                          "(app.launch), not from core.cli"])
+        return int(gui(args.file or str(DEMO), args.screenshot))
     parser.print_help()
     return 2
 

@@ -247,7 +247,7 @@ def test_random_actions_never_break_the_model(window, qtbot):
 
 
 def test_screenshot_command(tmp_path):
-    from core.cli import main
+    from app.launch import main
 
     demo = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
     out = tmp_path / "shot.png"

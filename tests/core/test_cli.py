@@ -77,9 +77,20 @@ def test_bad_arguments_exit_2(args, capsys):
     assert capsys.readouterr().out == ""
 
 
-def test_cli_does_not_import_qt_or_matplotlib():
-    code = (f"import sys; from core.cli import main; main(['check', {str(DEMO)!r}, '--json']); "
+@pytest.mark.parametrize("entry", ["core.cli", "app.launch"])
+def test_cli_does_not_import_qt_or_matplotlib(entry):
+    code = (f"import sys; from {entry} import main; main(['check', {str(DEMO)!r}, '--json']); "
             "bad = [m for m in sys.modules if m.startswith(('PySide6', 'matplotlib'))]; "
             "sys.stderr.write(repr(bad)); sys.exit(1 if bad else 0)")
     r = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True)
     assert r.returncode == 0, r.stderr
+
+def test_core_never_imports_the_gui():
+    """core/ never imports app/ (nor Qt): the console script passes the GUI in."""
+    import re
+
+    root = Path(__file__).resolve().parents[2] / "core"
+    pattern = re.compile(r"^\s*(from|import)\s+(app|PySide6|matplotlib)\b", re.MULTILINE)
+    for path in root.rglob("*.py"):
+        assert not pattern.search(path.read_text()), path
+
