@@ -11,7 +11,10 @@ import numpy as np
 from core.analysis import BeamResult, CombinationResult
 from core.beam import CaseSolution, Extremes, extremes
 from core.checks import Check
+from core.design import DesignSpec
+from core.errors import Problem
 from core.section import Section
+from core.units import fmt
 
 #: Stock spacings tried for fasteners, largest first, at most 24 in / 600 mm (common
 #: practice: the 16 in and 24 in framing modules and their fractions; metric equivalents).
@@ -139,6 +142,25 @@ def steel_at_bottom(section: Section) -> list[int]:
             if m.kind == "steel" and abs(float(section.y_bottom[i]) - bottom) <= tol]
 
 
+def bearing_candidates(section: Section, key: str, design: DesignSpec,
+                       warnings: list[Problem]) -> list[tuple[int, float]]:
+    """Timber plies that bear on the supports, with their value ``key`` (Fc_perp or
+    fc90_k); warns where a steel ply reaches the supports without bearing data.
+    """
+    steel = steel_at_bottom(section)
+    if steel and not design.steel_bears:
+        names = ", ".join(section.plies[i].name for i in steel)
+        warnings.append(Problem("beam.bearing_length", f"steel ply {names} reaches the supports "
+                                "but has no bearing data; the timber bearing check assumes the "
+                                "timber carries the whole reaction"))
+    out = []
+    for i in bearing_plies(section):
+        v = section.materials[i].value(key)
+        if v is not None:
+            out.append((i, v))
+    return out
+
+
 def pick_spacing(required_per_length: float, per_location: float, user: float | None,
                  stock: tuple[float, ...], minimum: float) -> float:
     """The user's spacing, or the largest stock spacing (not below ``minimum``) at which
@@ -161,3 +183,52 @@ EDGE_END_REMINDERS = (
     "(NDS 12.5.1, from memory). Stagger bolts so that no two share a growth-ring line.",
     "Point loads must reach the plate through bolts near where they act.",
 )
+
+
+def apply_overrides(factors: dict[str, float], sources: dict[str, str], design: DesignSpec,
+                    ply: str) -> None:
+    """Replace derived factors by the user's per-ply values (design.overrides)."""
+    for sym, v in design.overrides.get(ply, {}).items():
+        if sym in factors:
+            factors[sym] = v
+            sources[sym] = "user override"
+
+
+def connector_checks(section: Section, beam: BeamResult, design: DesignSpec, system: str,
+                     warnings: list[Problem]) -> list[Check]:
+    """Connectors of stacked plies, on either basis: the shear flow V Q / I_t at each
+    horizontal interface under the largest strength-combination shear, against the
+    user's connector value (allowable for US, design value for EU) at the largest stock
+    spacing that works (or the user's spacing).
+    """
+    if not section.interfaces:
+        return []
+    conn = design.connector
+    combos = [c for c in beam.combinations
+              if c.combination.limit_state in ("ASD", "ULS", "custom")] or list(beam.combinations)
+    V = max(c.extremes.V_max_abs for c in combos)
+    worst = max(combos, key=lambda c: c.extremes.V_max_abs)
+    stock = STOCK_SPACINGS_US if system == "US" else STOCK_SPACINGS_SI
+    out = []
+    for itf, q in section.interface_shear_flows(V):
+        if conn.allowable is None:
+            warnings.append(Problem("design.connector.allowable", "not given: the interface "
+                                    f"at y = {fmt(itf.y, 'length', system)} carries a shear "
+                                    f"flow of {fmt(float(q), 'shear_flow', system)} at the "
+                                    "largest shear; give the connector's allowable load to get "
+                                    "a spacing"))
+            continue
+        per_loc = conn.allowable * conn.rows
+        s = pick_spacing(float(q), per_loc, conn.spacing, stock, 0.0)
+        demand = float(q) * s / conn.rows
+        names = "; ".join(f"{section.plies[a].name} / {section.plies[b].name}"
+                          for a, b in itf.pairs)
+        out.append(Check(
+            "connectors", names, worst.name, demand, conn.allowable, "force",
+            ("allowable per connector", conn.allowable), {}, {},
+            {"allowable per connector": "the user's connector value (already adjusted)"},
+            "load per connector = q s / rows = (V Q / I_t) s / rows <= allowable",
+            f"one {conn.type} every {fmt(s, 'length', system, 3)} ({conn.rows} per row) "
+            "along the region of highest shear", itf.y,
+            (f"Shear flow q = {float(q):.1f} N/m at |V| = {V:.1f} N; Q = {itf.Q:.4e} m^3.",)))
+    return out

@@ -21,13 +21,14 @@ from core.checks.common import (
     EDGE_END_REMINDERS,
     STOCK_SPACINGS_SI,
     STOCK_SPACINGS_US,
-    bearing_plies,
+    apply_overrides,
+    bearing_candidates,
     bending_demand,
+    connector_checks,
     deflection_checks,
     pick_spacing,
     plate_share,
     side_by_side_joints,
-    steel_at_bottom,
     unit_shear_stress,
 )
 from core.checks.dowels import en_f_h_k, en_M_y, en_steel_centre, en_thin_steel_single
@@ -39,13 +40,6 @@ from core.units import fmt
 
 S_KMOD = "EN 1995-1-1 Table 3.1 (from memory)"
 S_GM = "EN 1995-1-1 Table 2.3 (from memory)"
-
-
-def _over(f: dict[str, float], s: dict[str, str], design: DesignSpec, ply: str) -> None:
-    for sym, v in design.overrides.get(ply, {}).items():
-        if sym in f:
-            f[sym] = v
-            s[sym] = "user override"
 
 
 def eu_checks(project: Project, section: Section, beam: BeamResult,
@@ -78,7 +72,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
                      "k_crit": "EN 1995-1-1 6.3.3, compression edge braced (user's "
                      "declaration)"}
                 g = {"gamma_M": gm}
-                _over(f, s, design, ply.name)
+                apply_overrides(f, s, design, ply.name)
                 demand, x = bending_demand(section, combo, i)
                 checks.append(Check("bending", ply.name, combo.name, demand,
                                     capacity_from(fm, f, g), "stress", ("fm_k", fm), f, g, s,
@@ -86,7 +80,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
                 fvf = {"k_mod": km, "k_cr": ec5.k_cr(mat.product)}
                 sv = {"fv_k": mat.source_of("fv_k"), "k_mod": S_KMOD, "gamma_M": S_GM,
                       "k_cr": "EN 1995-1-1 6.1.7(2), b_ef = k_cr b (from memory)"}
-                _over(fvf, sv, design, ply.name)
+                apply_overrides(fvf, sv, design, ply.name)
                 checks.append(Check(
                     "shear", ply.name, combo.name, float(tau_unit[i]) * combo.extremes.V_max_abs,
                     capacity_from(fv, fvf, g), "stress", ("fv_k", fv), fvf, g, sv,
@@ -117,7 +111,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
     checks += _bearing(section, beam, design, uls, warnings)
     checks += _deflections(section, beam, design)
     checks += _bolts(section, beam, design, uls, project.display_units)
-    checks += _connectors(section, beam, design, project.display_units, warnings)
+    checks += connector_checks(section, beam, design, project.display_units, warnings)
     return tuple(checks), warnings
 
 
@@ -132,16 +126,11 @@ def _bearing(section: Section, beam: BeamResult, design: DesignSpec, uls: list, 
     lb = beam.spec.bearing_length
     if lb is None or not uls:
         return []
-    cand = [(i, section.materials[i].value("fc90_k")) for i in bearing_plies(section)]
-    cand_ok: list[tuple[int, float]] = [(i, v) for i, v in cand if v is not None]
-    if steel_at_bottom(section) and not design.steel_bears:
-        warnings.append(Problem("beam.bearing_length", "a steel ply reaches the supports but "
-                                "has no bearing data; the timber takes the whole reaction"))
-    if not cand_ok:
+    cand = bearing_candidates(section, "fc90_k", design, warnings)
+    if not cand:
         return []
-    cand = cand_ok  # type: ignore[assignment]
     L = beam.model.layout.length
-    i_min, fc90 = min(cand_ok, key=lambda t: t[1])
+    i_min, fc90 = min(cand, key=lambda t: t[1])
     mat = section.materials[i_min]
     names = " + ".join(section.plies[i].name for i, _ in cand)
     width = sum(section.plies[i].width for i, _ in cand)
@@ -157,7 +146,7 @@ def _bearing(section: Section, beam: BeamResult, design: DesignSpec, uls: list, 
             g = {"gamma_M": ec5.gamma_M(mat.product)}
             s = {"fc90_k": mat.source_of("fc90_k"), "k_mod": S_KMOD, "gamma_M": S_GM,
                  "k_c,90": "EN 1995-1-1 6.1.5, taken as 1.0 (conservative)"}
-            _over(f, s, design, section.plies[i_min].name)
+            apply_overrides(f, s, design, section.plies[i_min].name)
             c = Check("bearing", names, combo.name, R / (width * l_ef), capacity_from(fc90, f, g),
                       "stress", ("fc90_k", fc90), f, g, s,
                       "sigma_c,90,d = F / (b l_ef) <= k_c,90 k_mod f_c,90,k / gamma_M",
@@ -255,10 +244,3 @@ def _bolts(section: Section, beam: BeamResult, design: DesignSpec, uls: list,  #
                  "Spacing and distances per EN 1995-1-1 Table 8.4 (a1 >= 4d, a3 >= 4d, "
                  "loaded edge a4,t >= 4d).", EDGE_END_REMINDERS[1], CAUTION)))
     return out
-
-
-def _connectors(section: Section, beam: BeamResult, design: DesignSpec, system: str,
-                warnings: list[Problem]) -> list[Check]:
-    from core.checks.us_asd import _connectors as shared
-
-    return shared(section, beam, design, system, warnings)

@@ -17,13 +17,14 @@ from core.checks.common import (
     EDGE_END_REMINDERS,
     STOCK_SPACINGS_SI,
     STOCK_SPACINGS_US,
-    bearing_plies,
+    apply_overrides,
+    bearing_candidates,
     bending_demand,
+    connector_checks,
     deflection_checks,
     pick_spacing,
     plate_share,
     side_by_side_joints,
-    steel_at_bottom,
     unit_shear_stress,
 )
 from core.checks.dowels import Fe_perpendicular, Fe_steel, nds_double_shear, nds_single_shear
@@ -39,14 +40,6 @@ S_CT = "NDS 2018 Table 2.3.3 (from memory)"
 S_CI = "NDS 2018 Table 4.3.8 (from memory)"
 S_CR = "NDS 2018 4.3.9 (user's declaration)"
 S_CF = "NDS Supplement Table 4A size factors (from memory)"
-
-
-def _apply_overrides(factors: dict[str, float], sources: dict[str, str], design: DesignSpec,
-                     ply: str) -> None:
-    for sym, v in design.overrides.get(ply, {}).items():
-        if sym in factors:
-            factors[sym] = v
-            sources[sym] = "user override"
 
 
 def us_checks(project: Project, section: Section, beam: BeamResult,
@@ -110,7 +103,7 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
                     f["C_L"] = c_l
                     f[size_sym] = size_val
                 s = dict(src)
-                _apply_overrides(f, s, design, ply.name)
+                apply_overrides(f, s, design, ply.name)
                 demand, x = bending_demand(section, combo, i)
                 checks.append(Check("bending", ply.name, combo.name, demand,
                                     capacity_from(Fb, f), "stress", ("Fb", Fb), f, {}, s,
@@ -120,7 +113,7 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
                       "C_t": nds.C_t("Fv", temp, wet), "C_i": nds.C_i("Fv", design.incised)}
                 sv = {"Fv": mat.source_of("Fv"), "C_D": S_TABLE, "C_M": S_CM, "C_t": S_CT,
                       "C_i": S_CI}
-                _apply_overrides(fv, sv, design, ply.name)
+                apply_overrides(fv, sv, design, ply.name)
                 checks.append(Check(
                     "shear", ply.name, combo.name, float(tau_unit[i]) * combo.extremes.V_max_abs,
                     capacity_from(Fv, fv), "stress", ("Fv", Fv), fv, {}, sv,
@@ -135,7 +128,7 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
     checks.extend(_bearing(project, section, beam, design, warnings))
     checks.extend(_deflections(beam, section, design))
     checks.extend(_bolts(section, beam, design, project.display_units))
-    checks.extend(_connectors(section, beam, design, project.display_units, warnings))
+    checks.extend(connector_checks(section, beam, design, project.display_units, warnings))
     return tuple(checks), warnings
 
 
@@ -184,20 +177,11 @@ def _bearing(project: Project, section: Section, beam: BeamResult, design: Desig
     lb = beam.spec.bearing_length
     if lb is None:
         return []
-    plies = bearing_plies(section)
-    steel = steel_at_bottom(section)
-    if steel and not design.steel_bears:
-        names = ", ".join(section.plies[i].name for i in steel)
-        warnings.append(Problem("beam.bearing_length", f"steel ply {names} reaches the supports "
-                                "but has no bearing data; the timber bearing check assumes the "
-                                "timber carries the whole reaction"))
-    cand = [(i, section.materials[i].value("Fc_perp")) for i in plies]
-    cand_ok: list[tuple[int, float]] = [(i, v) for i, v in cand if v is not None]
-    if not cand_ok:
+    cand = bearing_candidates(section, "Fc_perp", design, warnings)
+    if not cand:
         return []
-    cand = cand_ok  # type: ignore[assignment]
     area = sum(section.plies[i].width for i, _ in cand) * lb
-    i_min, fcp = min(cand_ok, key=lambda t: t[1])
+    i_min, fcp = min(cand, key=lambda t: t[1])
     mat = section.materials[i_min]
     names = " + ".join(section.plies[i].name for i, _ in cand)
     layout = beam.model.layout
@@ -212,7 +196,7 @@ def _bearing(project: Project, section: Section, beam: BeamResult, design: Desig
              "C_i": nds.C_i("Fc_perp", design.incised), "C_b": nds.C_b(lb, at_end)}
         s = {"Fc_perp": mat.source_of("Fc_perp"), "C_M": S_CM, "C_t": S_CT, "C_i": S_CI,
              "C_b": "NDS 2018 3.10.4 (from memory)"}
-        _apply_overrides(f, s, design, section.plies[i_min].name)
+        apply_overrides(f, s, design, section.plies[i_min].name)
         out.append(Check("bearing", names, worst.name, max(R, 0.0) / area,
                          capacity_from(fcp, f), "stress", ("Fc_perp", fcp), f, {}, s,
                          "f_c_perp = R / (sum b x l_b) <= F'c_perp", f"support {k + 1}", xs,
@@ -314,38 +298,3 @@ def _available_thickness(section: Section, j: int) -> float:
     count = sum(1 for jt in joints if j in jt.timbers)
     width = section.plies[j].width
     return width / 2 if count >= 2 else width
-
-
-def _connectors(section: Section, beam: BeamResult, design: DesignSpec, system: str,
-                warnings: list[Problem]) -> list[Check]:
-    if not section.interfaces:
-        return []
-    conn = design.connector
-    combos = [c for c in beam.combinations
-              if c.combination.limit_state in ("ASD", "ULS", "custom")] or list(beam.combinations)
-    V = max(c.extremes.V_max_abs for c in combos)
-    worst = max(combos, key=lambda c: c.extremes.V_max_abs)
-    stock = STOCK_SPACINGS_US if system == "US" else STOCK_SPACINGS_SI
-    out = []
-    for itf, q in section.interface_shear_flows(V):
-        if conn.allowable is None:
-            warnings.append(Problem("design.connector.allowable", "not given: the interface "
-                                    f"at y = {fmt(itf.y, 'length', system)} carries a shear "
-                                    f"flow of {fmt(float(q), 'shear_flow', system)} at the "
-                                    "largest shear; give the connector's allowable load to get "
-                                    "a spacing"))
-            continue
-        per_loc = conn.allowable * conn.rows
-        s = pick_spacing(float(q), per_loc, conn.spacing, stock, 0.0)
-        demand = float(q) * s / conn.rows
-        names = "; ".join(f"{section.plies[a].name} / {section.plies[b].name}"
-                          for a, b in itf.pairs)
-        out.append(Check(
-            "connectors", names, worst.name, demand, conn.allowable, "force",
-            ("allowable per connector", conn.allowable), {}, {},
-            {"allowable per connector": "the user's connector value (already adjusted)"},
-            "load per connector = q s / rows = (V Q / I_t) s / rows <= allowable",
-            f"one {conn.type} every {fmt(s, 'length', system, 3)} ({conn.rows} per row) "
-            "along the region of highest shear", itf.y,
-            (f"Shear flow q = {float(q):.1f} N/m at |V| = {V:.1f} N; Q = {itf.Q:.4e} m^3.",)))
-    return out
