@@ -12,7 +12,9 @@ import sys
 from collections.abc import Callable
 from pathlib import Path
 
+from core.caution import CAUTION
 from core.errors import ProjectError
+from core.units import UnitError
 
 DEMO = Path(__file__).resolve().parent.parent / "assets" / "demo" / "porch-header.plystack.json"
 
@@ -80,15 +82,10 @@ def cmd_check(args: argparse.Namespace) -> int:
     from core.output import check_json, check_text
     from core.project import load
 
-    try:
-        project = load(args.file)
-        moment = units.parse(args.moment, "moment", "--moment") if args.moment else None
-        shear = units.parse(args.shear, "force", "--shear") if args.shear else None
-        analysis = run(project, reference=args.reference)
-    except ProjectError as exc:
-        return _fail([f"{args.file}: {p}" for p in exc.problems])
-    except units.UnitError as exc:
-        return _fail([str(exc)])
+    project = load(args.file)
+    moment = units.parse(args.moment, "moment", "--moment") if args.moment else None
+    shear = units.parse(args.shear, "force", "--shear") if args.shear else None
+    analysis = run(project, reference=args.reference)
     if args.json:
         print(json.dumps(check_json(analysis, moment, shear), indent=1))
     else:
@@ -113,13 +110,10 @@ def cmd_compare(args: argparse.Namespace) -> int:
     from core.project import load
     from core.units import fmt
 
-    try:
-        project = load(args.file)
-        alts = alternatives_with_current(project)
-        results = [(alt, run(project.with_plies(alt.plies))) for alt in alts]
-        rows = [(alt, a, summarise(a)) for alt, a in results]
-    except ProjectError as exc:
-        return _fail([f"{args.file}: {p}" for p in exc.problems])
+    project = load(args.file)
+    alts = alternatives_with_current(project)
+    results = [(alt, run(project.with_plies(alt.plies))) for alt in alts]
+    rows = [(alt, a, summarise(a)) for alt, a in results]
     if args.json:
         print(json.dumps([{"name": alt.name, **check_json(a)} for alt, a, _ in rows], indent=1))
         return 0
@@ -131,8 +125,6 @@ def cmd_compare(args: argparse.Namespace) -> int:
               f"{fmt(o.mass_per_length, 'mass_per_length', u):>16}{o.governing_id:>22}"
               f"{o.governing_ratio:>8.3f}{fmt(o.deflection_max_abs, 'deflection', u, 3):>14}  "
               f"{'OK' if o.ok else 'NOT OK'}")
-    from core.caution import CAUTION
-
     print(CAUTION)
     return 0
 
@@ -143,14 +135,9 @@ def cmd_sweep(args: argparse.Namespace) -> int:
     from core.compare import sweep
     from core.project import load
 
-    try:
-        project = load(args.file)
-        values = _values(args.values, "--values")
-        rows = sweep(project, args.ply, args.dimension, values)
-    except ProjectError as exc:
-        return _fail([f"{args.file}: {p}" for p in exc.problems])
-    except units.UnitError as exc:
-        return _fail([str(exc)])
+    project = load(args.file)
+    values = _values(args.values, "--values")
+    rows = sweep(project, args.ply, args.dimension, values)
     if args.json:
         print(json.dumps({"units": "SI", "ply": args.ply, "dimension": args.dimension,
                           "rows": [r.to_dict() for r in rows]}, indent=1))
@@ -166,8 +153,6 @@ def cmd_sweep(args: argparse.Namespace) -> int:
               f"{units.fmt(r.deflection_max_abs, 'deflection', u, 3):>14}"
               f"{units.fmt(r.mass_per_length, 'mass_per_length', u):>16}  "
               f"{'OK' if r.ok else 'NOT OK'}{mark}")
-    from core.caution import CAUTION
-
     print(CAUTION)
     return 0
 
@@ -179,22 +164,17 @@ def cmd_size(args: argparse.Namespace) -> int:
     from core.project import load
     from core.templates import PLATES_SI, PLATES_US
 
-    try:
-        project = load(args.file)
-        if args.values:
-            options = _values(args.values, "--values")
-        elif args.dimension == "width":
-            options = list((PLATES_US if project.display_units == "US" else PLATES_SI).values())
-        else:
-            ply = project.plies[ply_index(project.plies, args.ply)]
-            step = 0.0127 if project.display_units == "US" else 0.01
-            top = max(p.top for p in project.plies) - min(p.y for p in project.plies)
-            options = [step * k for k in range(2, int(top / step) + 2)] or [ply.height]
-        result = auto_size(project, args.ply, args.dimension, options)
-    except ProjectError as exc:
-        return _fail([f"{args.file}: {p}" for p in exc.problems])
-    except units.UnitError as exc:
-        return _fail([str(exc)])
+    project = load(args.file)
+    if args.values:
+        options = _values(args.values, "--values")
+    elif args.dimension == "width":
+        options = list((PLATES_US if project.display_units == "US" else PLATES_SI).values())
+    else:
+        ply = project.plies[ply_index(project.plies, args.ply)]
+        step = 0.0127 if project.display_units == "US" else 0.01
+        top = max(p.top for p in project.plies) - min(p.y for p in project.plies)
+        options = [step * k for k in range(2, int(top / step) + 2)] or [ply.height]
+    result = auto_size(project, args.ply, args.dimension, options)
     if args.json:
         print(json.dumps({"units": "SI", **result.to_dict()}, indent=1))
     else:
@@ -209,9 +189,7 @@ def cmd_size(args: argparse.Namespace) -> int:
                 n = result.next_smaller
                 print(f"  next smaller, {units.fmt(n.value, 'length', u)}, fails: "
                       f"{n.governing_id} ratio {n.governing_ratio:.3f}")
-        from core.caution import CAUTION
-
-        print(CAUTION)
+            print(CAUTION)
     return 0 if result.chosen is not None else 1
 
 
@@ -221,15 +199,10 @@ def cmd_span(args: argparse.Namespace) -> int:
     from core.compare import longest_span, span_table
     from core.project import load
 
-    try:
-        project = load(args.file)
-        result = longest_span(project)
-        table = (span_table(project, _values(args.tributary_widths, "--tributary-widths"))
-                 if args.tributary_widths else [])
-    except ProjectError as exc:
-        return _fail([f"{args.file}: {p}" for p in exc.problems])
-    except units.UnitError as exc:
-        return _fail([str(exc)])
+    project = load(args.file)
+    result = longest_span(project)
+    table = (span_table(project, _values(args.tributary_widths, "--tributary-widths"))
+             if args.tributary_widths else [])
     if args.json:
         print(json.dumps({"units": "SI", **result.to_dict(), "table": table}, indent=1))
         return 0
@@ -242,8 +215,6 @@ def cmd_span(args: argparse.Namespace) -> int:
         span = units.fmt(float(row["span"]), "span", u)  # type: ignore[arg-type]
         print(f"  {row['alternative']:<20} tributary {width:>10}  span {span:>10}  "
               f"({row['governing_id']})")
-    from core.caution import CAUTION
-
     print(CAUTION)
     return 0
 
@@ -253,14 +224,9 @@ def cmd_sheet(args: argparse.Namespace) -> int:
     from core.project import load
     from core.sheet import build_sheet
 
-    try:
-        project = load(args.file)
-        paper = args.paper or ("letter" if project.display_units == "US" else "a4")
-        pages = build_sheet(project, args.output, paper, args.alternative)
-    except ProjectError as exc:
-        return _fail([f"{args.file}: {p}" for p in exc.problems])
-    except OSError as exc:
-        return _fail([f"{args.output}: {exc}"])
+    project = load(args.file)
+    paper = args.paper or ("letter" if project.display_units == "US" else "a4")
+    pages = build_sheet(project, args.output, paper, args.alternative)
     print(f"wrote {args.output}: {pages} pages ({paper})")
     return 0
 
@@ -278,7 +244,14 @@ def main(argv: list[str] | None = None,
     commands = {"check": cmd_check, "compare": cmd_compare, "sweep": cmd_sweep,
                 "size": cmd_size, "span": cmd_span, "sheet": cmd_sheet}
     if args.command in commands:
-        return commands[args.command](args)
+        try:
+            return commands[args.command](args)
+        except ProjectError as exc:
+            return _fail([f"{args.file}: {p}" for p in exc.problems])
+        except UnitError as exc:
+            return _fail([str(exc)])
+        except OSError as exc:  # an output file that cannot be written
+            return _fail([f"{getattr(args, 'output', args.file)}: {exc}"])
     if args.command == "gui":
         if gui is None:
             return _fail(["plystack: the desktop program starts from the `plystack` command "
