@@ -231,9 +231,8 @@ def creep_factor_of(section: Section, design: DesignSpec) -> float:
     return design.creep_factor(products[0] if products else "sawn")
 
 
-def run(project: Project, reference: str | None = None, with_checks: bool = True,
-        prepared: Prepared | None = None, precomputed: Precomputed | None = None,
-        section: Section | None = None) -> Analysis:
+def run(project: Project, reference: str | None = None, prepared: Prepared | None = None,
+        precomputed: Precomputed | None = None, section: Section | None = None) -> Analysis:
     """Analyse a project: section, beam and (where it has a beam) the design checks.
 
     ``prepared`` reuses a beam already solved for these spans and loads, ``precomputed``
@@ -253,7 +252,7 @@ def run(project: Project, reference: str | None = None, with_checks: bool = True
                 warnings.append(Problem(f"materials.{mid}.density", "is not given: the "
                                         "self-weight of its plies is left out"))
     checks: tuple[Any, ...] = ()
-    if beam is not None and with_checks:
+    if beam is not None:
         from core.checks import run_checks
 
         checks, check_warnings = run_checks(project, section, beam, design)

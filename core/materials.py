@@ -170,35 +170,6 @@ def _default_product(kind: Any) -> str:
     return {"timber": "sawn", "steel": "steel"}.get(kind if isinstance(kind, str) else "", "other")
 
 
-def material_to_record(m: Material, system: str = "US") -> dict[str, Any]:
-    """Write a material as a file record (quantities as strings with units)."""
-    rec: dict[str, Any] = {"kind": m.kind, "name": m.name}
-    us = system == "US"
-    rec["E"] = _q(m.E, "psi" if us else "MPa", 6894.757293168361 if us else 1e6)
-    rec["density"] = _q(m.density, "pcf" if us else "kg/m^3", 16.01846337396 if us else 1.0)
-    for key, v in m.values.items():
-        if key == "G":
-            rec[key] = v
-        elif key in DENSITY_KEYS:
-            rec[key] = _q(v, "kg/m^3", 1.0)
-        else:
-            rec[key] = _q(v, "psi" if us else "MPa", 6894.757293168361 if us else 1e6)
-    rec["source"] = m.source
-    if m.product != _default_product(m.kind):
-        rec["product"] = m.product
-    if m.size_adjusted:
-        rec["size_adjusted"] = True
-    if m.sources:
-        rec["sources"] = dict(m.sources)
-    if m.notes:
-        rec["notes"] = m.notes
-    return rec
-
-
-def _q(value: float, unit: str, factor: float) -> str:
-    return f"{value / factor:.10g} {unit}"
-
-
 @lru_cache(maxsize=4)
 def _load_library_cached(path: str) -> tuple[tuple[str, Material], ...]:
     data = json.loads(Path(path).read_text(encoding="utf-8"))

@@ -34,6 +34,15 @@ def _quantity(raw: Any, dimension: str, path: str, problems: list[Problem]) -> f
         return None
 
 
+def _positive(raw: Any, dimension: str, path: str, problems: list[Problem]) -> float | None:
+    """A quantity that must be greater than zero (None, with a problem, otherwise)."""
+    v = _quantity(raw, dimension, path, problems)
+    if v is not None and v <= 0:
+        problems.append(Problem(path, "must be greater than zero"))
+        return None
+    return v
+
+
 def _number(raw: Any, path: str, problems: list[Problem], lo: float | None = None,
             hi: float | None = None) -> float | None:
     if isinstance(raw, bool) or not isinstance(raw, int | float):
@@ -143,9 +152,7 @@ def read_beam(raw: Any, path: str, problems: list[Problem]) -> BeamSpec | None:
             over[side] = v if v is not None else 0.0
     bearing = None
     if "bearing_length" in raw:
-        bearing = _quantity(raw["bearing_length"], "length", f"{path}.bearing_length", problems)
-        if bearing is not None and bearing <= 0:
-            problems.append(Problem(f"{path}.bearing_length", "must be greater than zero"))
+        bearing = _positive(raw["bearing_length"], "length", f"{path}.bearing_length", problems)
     self_weight = _flag(raw.get("self_weight", True), f"{path}.self_weight", problems)
     layout = BeamLayout(tuple(spans), supports, over["overhang_left"], over["overhang_right"])
     if len(problems) == before:
@@ -372,20 +379,10 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
             typ = c.get("type", "screw")
             if typ not in ("screw", "bolt", "nail"):
                 problems.append(Problem(f"{path}.connector.type", "must be screw, bolt or nail"))
-            allow = None
-            if "allowable" in c:
-                allow = _quantity(c["allowable"], "force", f"{path}.connector.allowable",
-                                  problems)
-                if allow is not None and allow <= 0:
-                    problems.append(Problem(f"{path}.connector.allowable", "must be greater "
-                                            "than zero"))
-            spacing = None
-            if "spacing" in c:
-                spacing = _quantity(c["spacing"], "length", f"{path}.connector.spacing",
-                                    problems)
-                if spacing is not None and spacing <= 0:
-                    problems.append(Problem(f"{path}.connector.spacing", "must be greater "
-                                            "than zero"))
+            allow = (_positive(c["allowable"], "force", f"{path}.connector.allowable", problems)
+                     if "allowable" in c else None)
+            spacing = (_positive(c["spacing"], "length", f"{path}.connector.spacing", problems)
+                       if "spacing" in c else None)
             rows = _number(c.get("rows", 1), f"{path}.connector.rows", problems, 1, 20)
             if rows is not None:
                 kw["connector"] = Connector(str(typ), allow, int(rows), spacing)
@@ -397,20 +394,14 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
             for key in b:
                 if key not in ("diameter", "Fyb", "rows", "fu", "spacing"):
                     problems.append(Problem(f"{path}.bolt.{key}", "is not a known key"))
-            dia = _quantity(b.get("diameter", "1/2 in"), "length", f"{path}.bolt.diameter",
+            dia = _positive(b.get("diameter", "1/2 in"), "length", f"{path}.bolt.diameter",
                             problems)
             fyb = _quantity(b.get("Fyb", "45000 psi"), "stress", f"{path}.bolt.Fyb", problems)
             fu = _quantity(b.get("fu", "400 MPa"), "stress", f"{path}.bolt.fu", problems)
             rows = _number(b.get("rows", 2), f"{path}.bolt.rows", problems, 1, 20)
-            bsp = None
-            if "spacing" in b:
-                bsp = _quantity(b["spacing"], "length", f"{path}.bolt.spacing", problems)
-                if bsp is not None and bsp <= 0:
-                    problems.append(Problem(f"{path}.bolt.spacing", "must be greater than zero"))
+            bsp = (_positive(b["spacing"], "length", f"{path}.bolt.spacing", problems)
+                   if "spacing" in b else None)
             if dia is not None and fyb is not None and rows is not None and fu is not None:
-                if dia <= 0:
-                    problems.append(Problem(f"{path}.bolt.diameter", "must be greater than "
-                                            "zero"))
                 kw["bolt"] = Bolt(dia, fyb, int(rows), fu, bsp)
     if len(problems) > before:
         return None

@@ -262,21 +262,11 @@ def display_string(value: float, kind: str, system: str, digits: int = 6) -> str
     return f"{text} {label}"
 
 
-#: Units used when writing files, per system: dimension -> (unit text, factor from SI).
+#: Units used when writing files: the display units of the kinds a file holds.
 FILE_UNITS: dict[str, dict[str, tuple[str, float]]] = {
-    "US": {
-        "length": ("in", 1 / 0.0254), "span": ("ft", 1 / 0.3048),
-        "force": ("lbf", 1 / 4.4482216152605), "stress": ("psi", 1 / 6894.757293168361),
-        "modulus": ("psi", 1 / 6894.757293168361),
-        "line_load": ("plf", 0.3048 / 4.4482216152605),
-        "area_load": ("psf", 0.3048**2 / 4.4482216152605),
-        "density": ("pcf", 0.3048**3 / 0.45359237),
-    },
-    "SI": {
-        "length": ("mm", 1000.0), "span": ("m", 1.0), "force": ("kN", 1e-3),
-        "stress": ("MPa", 1e-6), "modulus": ("MPa", 1e-6), "line_load": ("kN/m", 1e-3),
-        "area_load": ("kPa", 1e-3), "density": ("kg/m^3", 1.0),
-    },
+    system: {kind: table[kind] for kind in ("length", "span", "force", "stress", "modulus",
+                                            "line_load", "area_load", "density")}
+    for system, table in DISPLAY.items()
 }
 
 _SI_TEXT = {"length": "m", "span": "m", "force": "N", "stress": "Pa", "modulus": "Pa",
