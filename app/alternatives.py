@@ -107,20 +107,28 @@ class AlternativesPanel(QWidget):
         layout.addWidget(caution)
         self.values: list[dict[str, object]] = []
         self.names: list[str] = []
+        self._context: object = None
+        self._cache: dict[tuple[object, ...], dict[str, object]] = {}
 
     def refresh(self) -> None:
         """Analyse every alternative and fill the table and chart."""
         p = self.document.project
         alts = alternatives_with_current(p) if p.plies else []
+        # everything but the plies decides the results: keep them while it is unchanged
+        context = replace(p, plies=(), alternatives=())
+        if context != self._context:
+            self._context, self._cache = context, {}
         self.names, self.values = [], []
         for alt in alts:
-            try:
-                a = run(p.with_plies(alt.plies))
-                v = column_values(a)
-            except ProjectError as exc:
-                v = {"error": "; ".join(str(q) for q in exc.problems)}
+            if alt.plies not in self._cache:
+                try:
+                    v = column_values(run(p.with_plies(alt.plies)))
+                except ProjectError as exc:
+                    v = {"error": "; ".join(str(q) for q in exc.problems)}
+                self._cache[alt.plies] = v
             self.names.append(alt.name)
-            self.values.append(v)
+            self.values.append(self._cache[alt.plies])
+        self._cache = {alt.plies: self._cache[alt.plies] for alt in alts}
         check_rows = sorted({k for v in self.values for k in v.get("checks", {})})  # type: ignore[attr-defined]
         labels = [r[0] for r in ROWS] + [f"ratio \u2014 {k}" for k in check_rows]
         self.table.clear()

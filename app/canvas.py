@@ -87,6 +87,7 @@ class SectionCanvas(QGraphicsView):
         self.snap_override: float | None = None
         self.gesture: Gesture | None = None
         self.section: Section | None = None
+        self.section_of: object = None  # the project that ``section`` was analysed for
         self._fitted = False
         document.changed.connect(self.rebuild)
         self.rebuild()
@@ -154,12 +155,12 @@ class SectionCanvas(QGraphicsView):
         if not project.plies:
             scene.setSceneRect(QRectF(-200, -200, 400, 400))
             return
+        mats = project.all_materials()
         try:
-            self.section = analyse(project.plies, project.all_materials(),
-                                   project.reference_material)
+            self.section = analyse(project.plies, mats, project.reference_material)
         except ProjectError:
             self.section = None
-        mats = project.all_materials()
+        self.section_of = project
         geoms = self.section.geoms if self.section else [p.rectangle() for p in project.plies]
         for i, (ply, geom) in enumerate(zip(project.plies, geoms, strict=True)):
             kind = mats[ply.material].kind if ply.material in mats else "other"

@@ -226,7 +226,10 @@ class MainWindow(QMainWindow):
     def recompute(self) -> None:
         """Run core/ on the current project and update results and plots."""
         try:
-            self.analysis = run(self.document.project)
+            project = self.document.project
+            # the canvas analysed this project's section when it redrew: reuse it
+            shared = self.canvas.section if self.canvas.section_of is project else None
+            self.analysis = run(project, section=shared)
         except ProjectError as exc:
             self.analysis = None
             self.results.show_error("\n".join(str(p) for p in exc.problems))

@@ -58,8 +58,10 @@ def plies_list(section: Section, moment: float | None) -> list[dict[str, Any]]:
 
 
 def _ext(e: Extremes | None) -> dict[str, Any] | None:
-    if e is None:
-        return None
+    return None if e is None else _extremes_dict(e)
+
+
+def _extremes_dict(e: Extremes) -> dict[str, Any]:
     return {"M_max": e.M_max, "x_M_max": e.x_M_max, "M_min": e.M_min, "x_M_min": e.x_M_min,
             "V_max_abs": e.V_max_abs, "x_V_max_abs": e.x_V_max_abs,
             "deflection_max_abs": e.deflection_max_abs,
@@ -91,11 +93,7 @@ def beam_dict(beam: BeamResult, section: Section) -> dict[str, Any]:
             "factors": dict(c.combination.factors),
             "duration": c.duration,
             "limit_state": c.combination.limit_state,
-            "M_max": e.M_max, "x_M_max": e.x_M_max, "M_min": e.M_min, "x_M_min": e.x_M_min,
-            "V_max_abs": e.V_max_abs, "x_V_max_abs": e.x_V_max_abs,
-            "deflection_max_abs": e.deflection_max_abs,
-            "x_deflection_max": e.x_deflection_max,
-            "deflection_by_region": _ext(e)["deflection_by_region"],  # type: ignore[index]
+            **_extremes_dict(e),
             "reactions": [float(r) for r in c.solution.reactions],
             "M_governing": c.M_governing,
             "plies": [{"name": p.name, "stress_top": float(top[i]),
