@@ -25,13 +25,14 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from app.document import Document
-from core import units
-from core.analysis import Analysis, run
-from core.caution import CAUTION
-from core.compare import Outcome, alternatives_with_current, summarise, sweep
-from core.errors import ProjectError
-from core.project import Alternative
+from plystack.app.analysis_model import AnalysisModel
+from plystack.app.document import Document
+from plystack.core.model import units
+from plystack.core.model.caution import CAUTION
+from plystack.core.model.errors import ProjectError
+from plystack.core.model.project import Alternative
+from plystack.core.pipeline import Analysis
+from plystack.core.study.compare import Outcome, alternatives_with_current, summarise, sweep
 
 #: Rows of the side-by-side table: label, how to read it, display kind, best is "min"/"max".
 ROWS = (
@@ -54,12 +55,8 @@ def column_values(a: Analysis) -> dict[str, object]:
     worst = max(combos, key=lambda c: c.total.deflection_max_abs) if combos else None
     bolts = [c for c in a.checks if c.id == "bolts"]
     n_bolts = float("nan")
-    if bolts:
-        text = bolts[0].location
-        try:
-            n_bolts = float(text.split("(")[1].split(" locations")[0])
-        except (IndexError, ValueError):
-            n_bolts = float("nan")
+    if bolts and bolts[0].fasteners is not None and bolts[0].fasteners.locations is not None:
+        n_bolts = float(bolts[0].fasteners.locations)
     values: dict[str, object] = {
         "EI": a.section.EI, "mass": a.section.mass_per_length, "ratio": o.governing_ratio,
         "gov_id": o.governing_id,
@@ -81,9 +78,10 @@ def column_values(a: Analysis) -> dict[str, object]:
 class AlternativesPanel(QWidget):
     """Side-by-side table of alternatives with best values marked, and a chart."""
 
-    def __init__(self, document: Document):
+    def __init__(self, document: Document, analysis_model: AnalysisModel):
         super().__init__()
         self.document = document
+        self.analysis_model = analysis_model
         self.table = QTableWidget(0, 0)
         self.figure = Figure(figsize=(5, 2.4), layout="constrained")
         self.chart = FigureCanvasQTAgg(self.figure)
@@ -91,7 +89,7 @@ class AlternativesPanel(QWidget):
         add = QPushButton("Keep current as alternative")
         promote = QPushButton("Make selected current")
         remove = QPushButton("Remove selected")
-        add.clicked.connect(self.add_current)
+        add.clicked.connect(lambda _checked=False: self.add_current())
         promote.clicked.connect(self.promote_selected)
         remove.clicked.connect(self.remove_selected)
         buttons = QHBoxLayout()
@@ -122,7 +120,7 @@ class AlternativesPanel(QWidget):
         for alt in alts:
             if alt.plies not in self._cache:
                 try:
-                    v = column_values(run(p.with_plies(alt.plies)))
+                    v = column_values(self.analysis_model.analyse(p.with_plies(alt.plies)))
                 except ProjectError as exc:
                     v = {"error": "; ".join(str(q) for q in exc.problems)}
                 self._cache[alt.plies] = v

@@ -20,12 +20,20 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from app.document import Document
-from app.quantity import QuantityEdit, parse_entry
-from core import units
-from core.beam import CASES, LOAD_TYPES, SUPPORTS, BeamLayout, Load, validate_layout, validate_load
-from core.design import STEEL_RULES, TEMPERATURES, DesignSpec
-from core.project import BeamSpec
+from plystack.app.document import Document
+from plystack.app.quantity import QuantityEdit, parse_entry
+from plystack.core.model import units
+from plystack.core.model.design import STEEL_RULES, TEMPERATURES, DesignSpec
+from plystack.core.model.member import (
+    CASES,
+    LOAD_TYPES,
+    SUPPORTS,
+    BeamLayout,
+    BeamSpec,
+    Load,
+    validate_layout,
+    validate_load,
+)
 
 COLUMNS = ("Case", "Type", "Value", "Tributary width", "From", "To", "At")
 VALUE_KIND = {"area": "area_load", "line": "line_load", "point": "force"}

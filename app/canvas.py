@@ -32,11 +32,11 @@ from PySide6.QtWidgets import (
 from shapely.geometry import MultiPolygon, Polygon
 from shapely.geometry.base import BaseGeometry
 
-from app.document import Document
-from app.interactions import DrawGesture, Gesture, MoveGesture, ResizeGesture
-from core.errors import ProjectError
-from core.section import Section, analyse
-from core.units import fmt
+from plystack.app.analysis_model import AnalysisModel
+from plystack.app.document import Document
+from plystack.app.interactions import DrawGesture, Gesture, MoveGesture, ResizeGesture
+from plystack.core.model.units import fmt
+from plystack.core.section.transformed import Section
 
 IN = 0.0254
 HANDLE_PX = 8
@@ -73,9 +73,10 @@ class SectionCanvas(QGraphicsView):
     selection_changed = Signal(int)
     status = Signal(str)
 
-    def __init__(self, document: Document):
+    def __init__(self, document: Document, analysis: AnalysisModel):
         super().__init__()
         self.document = document
+        self.analysis = analysis
         self.setScene(QGraphicsScene(self))
         self.setRenderHint(QPainter.RenderHint.Antialiasing)
         self.setMouseTracking(True)
@@ -86,11 +87,18 @@ class SectionCanvas(QGraphicsView):
         self.show_transformed = False
         self.snap_override: float | None = None
         self.gesture: Gesture | None = None
-        self.section: Section | None = None
-        self.section_of: object = None  # the project that ``section`` was analysed for
         self._fitted = False
-        document.changed.connect(self.rebuild)
+        analysis.section_changed.connect(self.rebuild)
         self.rebuild()
+
+    @property
+    def section(self) -> Section | None:
+        """The section the analysis model published for the current plies."""
+        return self.analysis.section
+
+    def request_fit(self) -> None:
+        """Fit the section in the view at the next redraw (a new project was loaded)."""
+        self._fitted = False
 
     # --- state ------------------------------------------------------------------------
 
@@ -151,17 +159,14 @@ class SectionCanvas(QGraphicsView):
         if self.selected is not None and self.selected >= len(project.plies):
             self.selected = None
             self.selection_changed.emit(-1)
-        self.section = None
         if not project.plies:
             scene.setSceneRect(QRectF(-200, -200, 400, 400))
             return
         mats = project.all_materials()
-        try:
-            self.section = analyse(project.plies, mats, project.reference_material)
-        except ProjectError:
-            self.section = None
-        self.section_of = project
-        geoms = self.section.geoms if self.section else [p.rectangle() for p in project.plies]
+        section = self.section
+        if section is not None and section.plies != project.plies:
+            section = None  # published for other plies (cannot happen once signals settle)
+        geoms = section.geoms if section else [p.rectangle() for p in project.plies]
         for i, (ply, geom) in enumerate(zip(project.plies, geoms, strict=True)):
             kind = mats[ply.material].kind if ply.material in mats else "other"
             color, style, line = FILLS.get(kind, FILLS["other"])
@@ -184,8 +189,8 @@ class SectionCanvas(QGraphicsView):
             item.setToolTip(f"{ply.name} ({ply.material})")
             scene.addItem(item)
             # dashed outline of the uncut rectangle where the ply is clipped
-            clipped = self.section is not None and abs(
-                self.section.area[i] - ply.width * ply.height) > 1e-12
+            clipped = section is not None and abs(
+                section.area[i] - ply.width * ply.height) > 1e-12
             if clipped:
                 ghost = QGraphicsRectItem(self._rect(ply))
                 gp = QPen(QColor(120, 120, 120), 0, Qt.PenStyle.DotLine)
@@ -193,9 +198,9 @@ class SectionCanvas(QGraphicsView):
                 ghost.setPen(gp)
                 ghost.setZValue(1000)
                 scene.addItem(ghost)
-        if self.section is not None and self.show_transformed:
+        if section is not None and self.show_transformed:
             for i in range(len(project.plies)):
-                t = QGraphicsPathItem(geometry_path(self.section.transformed_geometry(i)))
+                t = QGraphicsPathItem(geometry_path(section.transformed_geometry(i)))
                 tp = QPen(QColor(200, 40, 40), 0, Qt.PenStyle.DashLine)
                 tp.setCosmetic(True)
                 t.setPen(tp)

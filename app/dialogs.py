@@ -16,9 +16,9 @@ from PySide6.QtWidgets import (
     QVBoxLayout,
 )
 
-from core import units
-from core.materials import Material, material_from_record
-from core.templates import (
+from plystack.core.model import units
+from plystack.core.model.materials import Material, material_from_record
+from plystack.core.section.templates import (
     LUMBER_SI,
     LUMBER_US,
     PLATES_SI,
@@ -180,8 +180,8 @@ class SheetDialog(QDialog):
         """Build the sheet in memory and show its page count (or why it cannot be made)."""
         import io
 
-        from core.errors import ProjectError
-        from core.sheet import build_sheet
+        from plystack.core.model.errors import ProjectError
+        from plystack.core.report.sheet import build_sheet
 
         buf = io.BytesIO()
         try:

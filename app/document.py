@@ -12,7 +12,8 @@ from pathlib import Path
 from PySide6.QtCore import QObject, Signal
 from PySide6.QtGui import QUndoCommand, QUndoStack
 
-from core.project import Project, save
+from plystack.core.io.project_file import save
+from plystack.core.model.project import Project
 
 _MERGE_ID = 4242
 _serial = itertools.count(1)

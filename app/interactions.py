@@ -7,21 +7,44 @@ with one merge key per gesture so that the gesture is one undo step.
 from __future__ import annotations
 
 from dataclasses import replace
-from typing import TYPE_CHECKING
+from typing import Protocol
 
-from app.document import new_gesture_key
-from core.geometry import Ply
-
-if TYPE_CHECKING:
-    from app.canvas import SectionCanvas
+from plystack.app.document import Document, new_gesture_key
+from plystack.core.model.plies import Ply
 
 MM = 0.001
+
+
+class GestureHost(Protocol):
+    """What a gesture needs from the view it runs in (the section canvas)."""
+
+    @property
+    def document(self) -> Document:
+        """The document the gesture edits."""
+        ...
+
+    @property
+    def snap_step(self) -> float:
+        """The snap step, m."""
+        ...
+
+    def default_material(self) -> str:
+        """Material id for a newly drawn ply."""
+        ...
+
+    def next_name(self) -> str:
+        """A fresh ply name."""
+        ...
+
+    def select(self, index: int | None) -> None:
+        """Select a ply (None clears)."""
+        ...
 
 
 class Gesture:
     """Base class: press, move, release in model coordinates (m, y up)."""
 
-    def __init__(self, canvas: SectionCanvas, x: float, y: float):
+    def __init__(self, canvas: GestureHost, x: float, y: float):
         self.canvas = canvas
         self.start = (x, y)
         self.key = new_gesture_key(type(self).__name__)
@@ -36,7 +59,7 @@ class Gesture:
 class DrawGesture(Gesture):
     """Drag on empty space: a new rectangular ply between press and release."""
 
-    def __init__(self, canvas: SectionCanvas, x: float, y: float):
+    def __init__(self, canvas: GestureHost, x: float, y: float):
         super().__init__(canvas, x, y)
         self.index: int | None = None
 
@@ -61,7 +84,7 @@ class DrawGesture(Gesture):
 class MoveGesture(Gesture):
     """Drag a ply: move it by the snapped offset from the press point."""
 
-    def __init__(self, canvas: SectionCanvas, x: float, y: float, index: int):
+    def __init__(self, canvas: GestureHost, x: float, y: float, index: int):
         super().__init__(canvas, x, y)
         self.index = index
         self.original = canvas.document.project.plies[index]
@@ -80,7 +103,7 @@ class MoveGesture(Gesture):
 class ResizeGesture(Gesture):
     """Drag a handle: move the edges the handle stands for (l, r, b, t)."""
 
-    def __init__(self, canvas: SectionCanvas, x: float, y: float, index: int, edges: str):
+    def __init__(self, canvas: GestureHost, x: float, y: float, index: int, edges: str):
         super().__init__(canvas, x, y)
         self.index, self.edges = index, edges
         self.original = canvas.document.project.plies[index]

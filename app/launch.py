@@ -6,12 +6,14 @@ as fast as core/ alone.
 
 from __future__ import annotations
 
-from core.cli import main as cli_main
+from plystack.core.cli import main as cli_main
 
 
-def open_gui(path: str, screenshot: str | None) -> int:
-    """Open ``path`` in the desktop program (or render it with ``screenshot``)."""
-    from app.main import run_gui
+def open_gui(path: str | None, screenshot: str | None) -> int:
+    """Open ``path`` (None: the bundled demo) in the desktop program, or render it to
+    the PNG ``screenshot``.
+    """
+    from plystack.app.main import run_gui
 
     return run_gui(path, screenshot)
 

@@ -7,10 +7,12 @@ import sys
 from pathlib import Path
 
 
-def run_gui(path: str, screenshot: str | None = None) -> int:
+def run_gui(path: str | None, screenshot: str | None = None) -> int:
     """Open ``path`` in the main window; with ``screenshot``, render a PNG and exit.
 
-    Returns the exit status (2 when the file cannot be read).
+    Without a path the bundled demo opens as an untitled copy (saving asks for a new
+    file, so the installed demo is never overwritten). Returns the exit status (2 when
+    the file cannot be read).
     """
     no_display = (sys.platform.startswith("linux") and not os.environ.get("DISPLAY")
                   and not os.environ.get("WAYLAND_DISPLAY"))
@@ -23,20 +25,23 @@ def run_gui(path: str, screenshot: str | None = None) -> int:
         return 2
     from PySide6.QtWidgets import QApplication, QMessageBox
 
-    from app.main_window import MainWindow, autosave_dir
-    from core.errors import ProjectError
-    from core.project import load
+    from plystack.app.icons import app_icon
+    from plystack.app.main_window import MainWindow, autosave_dir
+    from plystack.core.io.project_file import load, loads
+    from plystack.core.io.resources import demo_text
+    from plystack.core.model.errors import ProjectError
 
     app = QApplication.instance() or QApplication(sys.argv[:1])
     app.setApplicationName("Plystack")
     app.setOrganizationName("Plystack")
+    app.setWindowIcon(app_icon())
     try:
-        project = load(path)
+        project = load(path) if path is not None else loads(demo_text())
     except ProjectError as exc:
         for p in exc.problems:
-            print(f"{path}: {p}", file=sys.stderr)
+            print(f"{path or 'demo'}: {p}", file=sys.stderr)
         return 2
-    window = MainWindow(project, Path(path))
+    window = MainWindow(project, Path(path) if path is not None else None)
     if screenshot:
         window.resize(1700, 1000)
         window.show()
@@ -61,8 +66,8 @@ def run_gui(path: str, screenshot: str | None = None) -> int:
 
 def offer_recovery(window, folder: Path, box) -> None:  # type: ignore[no-untyped-def]
     """After a crash, offer the autosaved projects left behind."""
-    from core.errors import ProjectError
-    from core.project import load
+    from plystack.core.io.project_file import load
+    from plystack.core.model.errors import ProjectError
 
     if not folder.is_dir():
         return

@@ -20,17 +20,20 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from app.alternatives import AlternativesPanel, SweepDialog
-from app.beam_panel import BeamPanel, default_beam
-from app.canvas import SectionCanvas
-from app.dialogs import MaterialsDialog, NewSectionDialog, SheetDialog
-from app.document import Document
-from app.plots import DiagramPlot, ProfilePlot
-from app.ply_panel import PlyPanel
-from app.results import ResultsPanel
-from core.analysis import Analysis, run
-from core.errors import ProjectError
-from core.project import Project, dumps, load
+from plystack.app.alternatives import AlternativesPanel, SweepDialog
+from plystack.app.analysis_model import AnalysisModel
+from plystack.app.beam_panel import BeamPanel, default_beam
+from plystack.app.canvas import SectionCanvas
+from plystack.app.dialogs import MaterialsDialog, NewSectionDialog, SheetDialog
+from plystack.app.document import Document
+from plystack.app.icons import app_icon
+from plystack.app.plots import DiagramPlot, ProfilePlot
+from plystack.app.ply_panel import PlyPanel
+from plystack.app.results import ResultsPanel
+from plystack.core.io.project_file import dumps, load
+from plystack.core.model.errors import ProjectError
+from plystack.core.model.project import Project
+from plystack.core.pipeline import Analysis
 
 AUTOSAVE_MS = 60_000
 
@@ -47,9 +50,9 @@ class MainWindow(QMainWindow):
     def __init__(self, project: Project, path: Path | None = None):
         super().__init__()
         self.document = Document(project, path)
-        self.analysis: Analysis | None = None
+        self.analysis_model = AnalysisModel(self.document)
         self.settings = QSettings("Plystack", "Plystack")
-        self.canvas = SectionCanvas(self.document)
+        self.canvas = SectionCanvas(self.document, self.analysis_model)
         self.ply_panel = PlyPanel(self.document)
         self.beam_panel = BeamPanel(self.document)
         self.results = ResultsPanel()
@@ -80,7 +83,7 @@ class MainWindow(QMainWindow):
         main = QSplitter(Qt.Orientation.Horizontal)
         main.addWidget(panels)
         main.addWidget(centre)
-        self.alternatives = AlternativesPanel(self.document)
+        self.alternatives = AlternativesPanel(self.document, self.analysis_model)
         self.right_tabs = QTabWidget()
         self.right_tabs.addTab(self.results, "Results")
         self.right_tabs.addTab(self.alternatives, "Alternatives")
@@ -94,17 +97,14 @@ class MainWindow(QMainWindow):
         self.canvas.selection_changed.connect(self.ply_panel.set_index)
         self.ply_panel.materials_button.clicked.connect(self.open_materials)
         self.combo_pick.activated.connect(lambda _i: self._redraw_plots())
-        self._timer = QTimer(self)
-        self._timer.setSingleShot(True)
-        self._timer.setInterval(15)
-        self._timer.timeout.connect(self.recompute)
-        self.document.changed.connect(self._timer.start)
+        self.analysis_model.analysis_changed.connect(self.show_analysis)
         self.document.file_changed.connect(self._update_title)
         self._autosave = QTimer(self)
         self._autosave.setInterval(AUTOSAVE_MS)
         self._autosave.timeout.connect(self.autosave)
         self._autosave.start()
         self._build_menus()
+        self.setWindowIcon(app_icon())
         self.resize(1600, 950)
         self._update_title()
         self.recompute()
@@ -168,9 +168,9 @@ class MainWindow(QMainWindow):
 
     def auto_size_selected(self) -> None:
         """Smallest stock plate thickness of the selected ply that passes."""
-        from core.compare import auto_size
-        from core.templates import PLATES_SI, PLATES_US
-        from core.units import fmt
+        from plystack.core.model.units import fmt
+        from plystack.core.section.templates import PLATES_SI, PLATES_US
+        from plystack.core.study.compare import auto_size
 
         i = self.canvas.selected
         p = self.document.project
@@ -192,21 +192,21 @@ class MainWindow(QMainWindow):
         if r.next_smaller is not None:
             text += (f"\nNext smaller, {fmt(r.next_smaller.value, 'length', u)}, fails: "
                      f"{r.next_smaller.governing_id} ratio {r.next_smaller.governing_ratio:.3f}.")
-        from core.caution import CAUTION
+        from plystack.core.model.caution import CAUTION
 
         answer = QMessageBox.question(self, "Auto-size", text + "\n\nUse this thickness?\n\n"
                                       + CAUTION)
         if answer == QMessageBox.StandardButton.Yes:
-            from core.compare import with_dimension
+            from plystack.core.study.compare import with_dimension
 
             self.document.apply(p.with_plies(with_dimension(p.plies, p.plies[i].name, "width",
                                                             r.chosen.value)), "Auto-size ply")
 
     def show_longest_span(self) -> None:
         """Tools > Longest span."""
-        from core.caution import CAUTION
-        from core.compare import longest_span
-        from core.units import fmt
+        from plystack.core.model.caution import CAUTION
+        from plystack.core.model.units import fmt
+        from plystack.core.study.compare import longest_span
 
         p = self.document.project
         try:
@@ -223,19 +223,19 @@ class MainWindow(QMainWindow):
 
     # --- computation --------------------------------------------------------------------
 
+    @property
+    def analysis(self) -> Analysis | None:
+        """The latest analysis the analysis model published."""
+        return self.analysis_model.analysis
+
     def recompute(self) -> None:
-        """Run core/ on the current project and update results and plots."""
-        try:
-            project = self.document.project
-            # the canvas analysed this project's section when it redrew: reuse it
-            shared = self.canvas.section if self.canvas.section_of is project else None
-            self.analysis = run(project, section=shared)
-        except ProjectError as exc:
-            self.analysis = None
-            self.results.show_error("\n".join(str(p) for p in exc.problems))
-        except Exception as exc:  # noqa: BLE001 - never lose work over a computation
-            self.analysis = None
-            self.results.show_error(f"Computation failed: {type(exc).__name__}: {exc}")
+        """Analyse the current project now (results and plots follow)."""
+        self.analysis_model.recompute()
+
+    def show_analysis(self) -> None:
+        """Show what the analysis model published: results, plots, alternatives."""
+        if self.analysis is None:
+            self.results.show_error(self.analysis_model.error or "Nothing to analyse yet.")
         else:
             self.results.show_analysis(self.analysis)
         names = [c.name for c in self.analysis.beam.combinations] if (
@@ -328,8 +328,8 @@ class MainWindow(QMainWindow):
         """View > Snap step: any length (a bare number is in the display unit)."""
         from PySide6.QtWidgets import QInputDialog
 
-        from app.quantity import parse_entry
-        from core import units
+        from plystack.app.quantity import parse_entry
+        from plystack.core.model import units
 
         u = self.document.project.display_units
         current = units.display_string(self.canvas.snap_step, "length", u, 6)
@@ -385,7 +385,7 @@ class MainWindow(QMainWindow):
                           beam=default_beam(system),
                           design=None if system == "US" else _eu_design())
         self.document.replace_all(project, None)
-        self.canvas._fitted = False
+        self.canvas.request_fit()
         self.canvas.rebuild()
 
     def open_path(self, path: Path) -> bool:
@@ -396,7 +396,7 @@ class MainWindow(QMainWindow):
             QMessageBox.warning(self, "Cannot open", "\n".join(str(p) for p in exc.problems))
             return False
         self.document.replace_all(project, Path(path))
-        self.canvas._fitted = False
+        self.canvas.request_fit()
         self.canvas.select(None)
         self.canvas.rebuild()
         self._remember(Path(path))
@@ -515,6 +515,6 @@ class MainWindow(QMainWindow):
 
 
 def _eu_design():  # type: ignore[no-untyped-def]
-    from core.design import DesignSpec
+    from plystack.core.model.design import DesignSpec
 
     return DesignSpec(basis="EU-LSD")

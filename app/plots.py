@@ -15,9 +15,9 @@ from matplotlib.backends.backend_qtagg import FigureCanvasQTAgg
 from matplotlib.figure import Figure
 from matplotlib.patches import Polygon
 
-from core.analysis import Analysis
-from core.beam import diagram
-from core.units import sig, to_display, unit_label
+from plystack.core.actions.beam import diagram
+from plystack.core.model.units import sig, to_display, unit_label
+from plystack.core.pipeline import Analysis
 
 
 def _needs_new_limits(current: tuple[float, float], lo: float, hi: float) -> bool:

@@ -16,8 +16,8 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from app.document import Document
-from app.quantity import QuantityEdit
+from plystack.app.document import Document
+from plystack.app.quantity import QuantityEdit
 
 
 class PlyPanel(QWidget):

@@ -7,7 +7,7 @@ from collections.abc import Callable
 from PySide6.QtCore import Signal
 from PySide6.QtWidgets import QLineEdit
 
-from core import units
+from plystack.core.model import units
 
 BAD_STYLE = "QLineEdit { background: #ffd9d9; border: 1px solid #b00000; }"
 

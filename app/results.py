@@ -21,11 +21,11 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
-from core.analysis import Analysis
-from core.caution import CAUTION
-from core.checks.text import governing_per_group
-from core.section import PlyResult
-from core.units import fmt, sig
+from plystack.core.design.text import governing_per_group
+from plystack.core.model.caution import CAUTION
+from plystack.core.model.units import fmt, sig
+from plystack.core.pipeline import Analysis
+from plystack.core.section.transformed import PlyResult
 
 RATIO_COLUMN = 5
 

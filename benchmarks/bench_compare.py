@@ -8,9 +8,9 @@ from __future__ import annotations
 import time
 from pathlib import Path
 
-from core.analysis import run
-from core.compare import longest_span, summarise, sweep, with_dimension
-from core.project import load
+from plystack.core.io.project_file import load
+from plystack.core.pipeline import run
+from plystack.core.study.compare import longest_span, summarise, sweep, with_dimension
 
 DEMO = Path(__file__).resolve().parents[1] / "assets" / "demo" / "porch-header.plystack.json"
 IN = 0.0254

@@ -23,10 +23,10 @@ DEMO = ROOT / "assets" / "demo" / "porch-header.plystack.json"
 def main(edits: int = 60) -> None:
     QStandardPaths.setTestModeEnabled(True)
     app = QApplication.instance() or QApplication([])
-    from app.main_window import MainWindow
-    from core.analysis import run
-    from core.project import load
-    from core.section import analyse
+    from plystack.app.main_window import MainWindow
+    from plystack.core.io.project_file import load
+    from plystack.core.pipeline import run
+    from plystack.core.section.transformed import analyse
 
     project = load(DEMO)
     w = MainWindow(project, None)

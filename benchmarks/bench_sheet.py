@@ -8,9 +8,9 @@ import statistics
 import time
 from pathlib import Path
 
-from core.analysis import run
-from core.project import load
-from core.sheet import build_sheet
+from plystack.core.io.project_file import load
+from plystack.core.pipeline import run
+from plystack.core.report.sheet import build_sheet
 
 DEMO = Path(__file__).resolve().parents[1] / "assets" / "demo" / "porch-header.plystack.json"
 

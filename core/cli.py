@@ -10,13 +10,12 @@ import argparse
 import json
 import sys
 from collections.abc import Callable
-from pathlib import Path
 
-from core.caution import CAUTION
-from core.errors import ProjectError
-from core.units import UnitError
-
-DEMO = Path(__file__).resolve().parent.parent / "assets" / "demo" / "porch-header.plystack.json"
+from . import __version__
+from .io.resources import DEFAULT_DEMO, DEMOS, DataFileError, demo_text
+from .model.caution import CAUTION
+from .model.errors import ProjectError
+from .model.units import UnitError
 
 
 class _Parser(argparse.ArgumentParser):
@@ -29,6 +28,7 @@ class _Parser(argparse.ArgumentParser):
 def build_parser() -> argparse.ArgumentParser:
     """The argument parser with every subcommand."""
     p = _Parser(prog="plystack", description="Built-up timber and steel beam sections.")
+    p.add_argument("--version", action="version", version=f"plystack {__version__}")
     sub = p.add_subparsers(dest="command", parser_class=_Parser)
     c = sub.add_parser("check", help="analyse a project file and print the results")
     c.add_argument("file")
@@ -63,6 +63,10 @@ def build_parser() -> argparse.ArgumentParser:
     sh.add_argument("--alternative", metavar="NAME")
     sh.add_argument("--paper", choices=["letter", "a4"], default=None,
                     help="paper size (default: letter for US units, a4 for SI)")
+    d = sub.add_parser("demo", help="copy a bundled demo project to a file you can edit")
+    d.add_argument("output", metavar="OUT.plystack.json")
+    d.add_argument("--name", choices=sorted(DEMOS), default=DEFAULT_DEMO,
+                   help=f"which demo (default {DEFAULT_DEMO})")
     g = sub.add_parser("gui", help="open the desktop program")
     g.add_argument("file", nargs="?")
     g.add_argument("--screenshot", metavar="OUT.png", help="render the window to a PNG and exit")
@@ -77,10 +81,10 @@ def _fail(messages: list[str]) -> int:
 
 def cmd_check(args: argparse.Namespace) -> int:
     """``plystack check``."""
-    from core import units
-    from core.analysis import run
-    from core.output import check_json, check_text
-    from core.project import load
+    from .io.output import check_json, check_text
+    from .io.project_file import load
+    from .model import units
+    from .pipeline import run
 
     project = load(args.file)
     moment = units.parse(args.moment, "moment", "--moment") if args.moment else None
@@ -94,7 +98,7 @@ def cmd_check(args: argparse.Namespace) -> int:
 
 
 def _values(text: str, field: str) -> list[float]:
-    from core import units
+    from .model import units
 
     out = []
     for i, part in enumerate(text.split(",")):
@@ -104,11 +108,11 @@ def _values(text: str, field: str) -> list[float]:
 
 def cmd_compare(args: argparse.Namespace) -> int:
     """``plystack compare``: one object per alternative, keys as ``check --json``."""
-    from core.analysis import run
-    from core.compare import alternatives_with_current, summarise
-    from core.output import check_json
-    from core.project import load
-    from core.units import fmt
+    from .io.output import check_json
+    from .io.project_file import load
+    from .model.units import fmt
+    from .pipeline import run
+    from .study.compare import alternatives_with_current, summarise
 
     project = load(args.file)
     alts = alternatives_with_current(project)
@@ -131,9 +135,9 @@ def cmd_compare(args: argparse.Namespace) -> int:
 
 def cmd_sweep(args: argparse.Namespace) -> int:
     """``plystack sweep``."""
-    from core import units
-    from core.compare import sweep
-    from core.project import load
+    from .io.project_file import load
+    from .model import units
+    from .study.compare import sweep
 
     project = load(args.file)
     values = _values(args.values, "--values")
@@ -159,10 +163,10 @@ def cmd_sweep(args: argparse.Namespace) -> int:
 
 def cmd_size(args: argparse.Namespace) -> int:
     """``plystack size``: exit 1 when no option passes."""
-    from core import units
-    from core.compare import auto_size, ply_index
-    from core.project import load
-    from core.templates import PLATES_SI, PLATES_US
+    from .io.project_file import load
+    from .model import units
+    from .section.templates import PLATES_SI, PLATES_US
+    from .study.compare import auto_size, ply_index
 
     project = load(args.file)
     if args.values:
@@ -195,9 +199,9 @@ def cmd_size(args: argparse.Namespace) -> int:
 
 def cmd_span(args: argparse.Namespace) -> int:
     """``plystack span``."""
-    from core import units
-    from core.compare import longest_span, span_table
-    from core.project import load
+    from .io.project_file import load
+    from .model import units
+    from .study.compare import longest_span, span_table
 
     project = load(args.file)
     result = longest_span(project)
@@ -221,8 +225,8 @@ def cmd_span(args: argparse.Namespace) -> int:
 
 def cmd_sheet(args: argparse.Namespace) -> int:
     """``plystack sheet``: refuses (exit 2) a project that cannot be analysed."""
-    from core.project import load
-    from core.sheet import build_sheet
+    from .io.project_file import load
+    from .report.sheet import build_sheet
 
     project = load(args.file)
     paper = args.paper or ("letter" if project.display_units == "US" else "a4")
@@ -231,8 +235,17 @@ def cmd_sheet(args: argparse.Namespace) -> int:
     return 0
 
 
+def cmd_demo(args: argparse.Namespace) -> int:
+    """Copy a bundled demo project to ``args.output`` (never over an existing file)."""
+    from .io.atomic import write_text_new
+
+    write_text_new(args.output, demo_text(args.name))
+    print(f"wrote {args.output}: the demo project {args.name!r} (an invented scenario)")
+    return 0
+
+
 def main(argv: list[str] | None = None,
-         gui: Callable[[str, str | None], int] | None = None) -> int:
+         gui: Callable[[str | None, str | None], int] | None = None) -> int:
     """The command line. ``gui`` opens the desktop program; it is given by the console
     script (app.launch), since core/ never imports the GUI stack.
     """
@@ -242,21 +255,23 @@ def main(argv: list[str] | None = None,
         argv = ["gui"]
     args = parser.parse_args(argv)
     commands = {"check": cmd_check, "compare": cmd_compare, "sweep": cmd_sweep,
-                "size": cmd_size, "span": cmd_span, "sheet": cmd_sheet}
+                "size": cmd_size, "span": cmd_span, "sheet": cmd_sheet, "demo": cmd_demo}
     if args.command in commands:
         try:
             return commands[args.command](args)
+        except DataFileError as exc:  # a fault of the installation, not of the input
+            return _fail([f"plystack: {p}" for p in exc.problems])
         except ProjectError as exc:
             return _fail([f"{args.file}: {p}" for p in exc.problems])
         except UnitError as exc:
             return _fail([str(exc)])
         except OSError as exc:  # an output file that cannot be written
-            return _fail([f"{getattr(args, 'output', args.file)}: {exc}"])
+            return _fail([f"{getattr(args, 'output', None) or args.file}: {exc.strerror or exc}"])
     if args.command == "gui":
         if gui is None:
             return _fail(["plystack: the desktop program starts from the `plystack` command "
                           "(app.launch), not from core.cli"])
-        return int(gui(args.file or str(DEMO), args.screenshot))
+        return int(gui(args.file, args.screenshot))
     parser.print_help()
     return 2
 

@@ -2,8 +2,8 @@
 
 from __future__ import annotations
 
-from core.geometry import Ply
-from core.materials import Material
+from plystack.core.model.materials import Material
+from plystack.core.model.plies import Ply
 
 IN = 0.0254
 FT = 0.3048

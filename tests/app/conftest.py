@@ -18,8 +18,8 @@ def window(qtbot):
     """A fresh main window on a fresh copy of the demo project."""
     from pathlib import Path
 
-    from app.main_window import MainWindow
-    from core.project import load
+    from plystack.app.main_window import MainWindow
+    from plystack.core.io.project_file import load
 
     demo = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
     w = MainWindow(load(demo), None)

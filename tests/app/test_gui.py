@@ -12,8 +12,8 @@ from PySide6.QtCore import QPoint, QPointF, Qt
 from PySide6.QtTest import QTest
 from PySide6.QtWidgets import QMessageBox
 
-from core.analysis import run
-from core.project import load, loads
+from plystack.core.io.project_file import load, loads
+from plystack.core.pipeline import run
 
 IN = 0.0254
 
@@ -239,7 +239,7 @@ def test_random_actions_never_break_the_model(window, qtbot):
         elif action == "restack":
             window.restack(rng.choice([-1, 1]))
     project = window.document.project
-    from core.project import dumps
+    from plystack.core.io.project_file import dumps
 
     assert loads(dumps(project)) == project  # a model the file format accepts
     if project.plies:
@@ -247,7 +247,7 @@ def test_random_actions_never_break_the_model(window, qtbot):
 
 
 def test_screenshot_command(tmp_path):
-    from app.launch import main
+    from plystack.app.launch import main
 
     demo = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
     out = tmp_path / "shot.png"
@@ -258,7 +258,7 @@ def test_screenshot_command(tmp_path):
 def test_alternatives_side_by_side_promote_and_undo(window, qtbot):
     from dataclasses import replace as dc_replace
 
-    from core.compare import summarise
+    from plystack.core.study.compare import summarise
 
     doc = window.document
     doc.apply(dc_replace(doc.project, alternatives=()), "clear alternatives")
@@ -289,7 +289,7 @@ def test_alternatives_side_by_side_promote_and_undo(window, qtbot):
 def test_export_sheet_from_the_window(window, qtbot, tmp_path):
     from pypdf import PdfReader
 
-    from app.dialogs import SheetDialog
+    from plystack.app.dialogs import SheetDialog
 
     dlg = SheetDialog(window.document.project, window)
     assert dlg.pages >= 3 and "pages" in dlg.preview.text()
@@ -307,8 +307,8 @@ def test_export_sheet_from_the_window(window, qtbot, tmp_path):
 
 
 def test_crash_recovery_offers_the_autosave(window, qtbot, tmp_path):
-    from app.main import offer_recovery
-    from core.project import save
+    from plystack.app.main import offer_recovery
+    from plystack.core.io.project_file import save
 
     edited = window.document.project.with_plies(window.document.project.plies[:2])
     save(edited, tmp_path / "untitled.plystack.json")

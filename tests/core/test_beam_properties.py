@@ -10,7 +10,8 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from core.beam import BeamLayout, BeamModel, Load, diagram
+from plystack.core.actions.beam import BeamModel, diagram
+from plystack.core.model.member import BeamLayout, Load
 
 
 @st.composite

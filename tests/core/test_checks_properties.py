@@ -9,9 +9,9 @@ from pathlib import Path
 
 import pytest
 
-from core.analysis import run
-from core.checks import capacity_from
-from core.project import from_dict, load
+from plystack.core.design.check import capacity_from
+from plystack.core.io.project_file import from_dict, load
+from plystack.core.pipeline import run
 
 DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
 
@@ -76,7 +76,7 @@ def test_every_check_is_complete(basis):
 
 
 def test_json_has_checks_and_governing():
-    from core.output import check_json
+    from plystack.core.io.output import check_json
 
     out = check_json(run(load(DEMO)))
     assert out["governing"]["ratio"] == max(c["ratio"] for c in out["checks"])
@@ -123,7 +123,7 @@ def test_creep_moves_moment_to_steel():
 
 
 def test_eu_demo_full_set_of_checks(capsys):
-    from core.cli import main
+    from plystack.core.cli import main
 
     eu = DEMO.parent / "stair-trimmer-eu.plystack.json"
     assert main(["check", str(eu), "--json"]) == 0

@@ -9,7 +9,7 @@ from pathlib import Path
 
 import pytest
 
-from core.cli import main
+from plystack.core.cli import main
 
 DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
 

@@ -8,9 +8,15 @@ from pathlib import Path
 
 import pytest
 
-from core.cli import main
-from core.compare import auto_size, longest_span, scaled_spans, sweep, with_dimension
-from core.project import load, save
+from plystack.core.cli import main
+from plystack.core.io.project_file import load, save
+from plystack.core.study.compare import (
+    auto_size,
+    longest_span,
+    scaled_spans,
+    sweep,
+    with_dimension,
+)
 
 DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
 IN = 0.0254

@@ -11,8 +11,8 @@ import pytest
 from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
-from core.errors import ProjectError
-from core.project import dumps, from_dict, load, loads, save
+from plystack.core.io.project_file import dumps, from_dict, load, loads, save
+from plystack.core.model.errors import ProjectError
 
 DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
 
@@ -152,7 +152,7 @@ def test_fuzz_mutated_demo_only_raises_project_error(key, value, idx, sub):
 
 
 def test_material_without_density_loads_and_warns():
-    from core.analysis import run
+    from plystack.core.pipeline import run
 
     p = from_dict({"format": "plystack", "version": 1,
                    "materials": {"w": {"kind": "timber", "E": "11 GPa"}},

@@ -10,8 +10,8 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from core.errors import ProjectError
-from core.section import analyse
+from plystack.core.model.errors import ProjectError
+from plystack.core.section.transformed import analyse
 from tests.helpers import rect, steel, timber
 
 dims = st.floats(min_value=0.005, max_value=0.4)

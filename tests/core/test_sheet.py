@@ -11,11 +11,11 @@ from pathlib import Path
 import pytest
 from pypdf import PdfReader
 
-from core.cli import main
-from core.errors import ProjectError
-from core.project import from_dict, load
-from core.sheet import build_sheet
-from core.units import fmt
+from plystack.core.cli import main
+from plystack.core.io.project_file import from_dict, load
+from plystack.core.model.errors import ProjectError
+from plystack.core.model.units import fmt
+from plystack.core.report.sheet import build_sheet
 
 DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
 SECTIONS = ["1  Design basis and assumptions", "2  Section", "3  Transformed section",

@@ -5,7 +5,7 @@ from __future__ import annotations
 
 import pytest
 
-from core import units
+from plystack.core.model import units
 
 IN, FT, LBF = 0.0254, 0.3048, 4.4482216152605
 

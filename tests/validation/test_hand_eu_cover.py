@@ -16,8 +16,8 @@ from __future__ import annotations
 
 import pytest
 
-from core.analysis import run
-from core.project import from_dict
+from plystack.core.io.project_file import from_dict
+from plystack.core.pipeline import run
 
 E_t, E_s = 11000.0, 210000.0  # MPa
 b, h, tp = 75.0, 225.0, 6.0  # mm

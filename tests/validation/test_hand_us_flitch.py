@@ -16,8 +16,8 @@ from __future__ import annotations
 
 import pytest
 
-from core.analysis import run
-from core.project import from_dict
+from plystack.core.io.project_file import from_dict
+from plystack.core.pipeline import run
 
 E_W, E_S = 1.6e6, 29.0e6  # psi
 b, h, t = 1.5, 9.25, 0.375  # in

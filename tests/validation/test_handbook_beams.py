@@ -7,7 +7,8 @@ from __future__ import annotations
 
 import pytest
 
-from core.beam import BeamLayout, BeamModel, Load, extremes
+from plystack.core.actions.beam import BeamModel, extremes
+from plystack.core.model.member import BeamLayout, Load
 
 EI = 3.1e6
 W, P, L = 1750.0, 4200.0, 5.3

@@ -18,7 +18,7 @@ import pytest
 from hypothesis import given
 from hypothesis import strategies as st
 
-from core.checks.dowels import (
+from plystack.core.codes.dowels import (
     Fe_perpendicular,
     Fe_steel,
     en_f_h_k,

@@ -8,7 +8,7 @@ import pytest
 from hypothesis import given
 from hypothesis import strategies as st
 
-from core.checks import en1995, nds
+from plystack.core.codes import en1995, nds
 
 IN, PSI = 0.0254, 6894.757293168361
 

@@ -12,8 +12,8 @@ from sectionproperties.analysis.section import Section as FESection
 from sectionproperties.pre.geometry import CompoundGeometry, Geometry
 from sectionproperties.pre.pre import Material as FEMaterial
 
-from core.geometry import clip_plies
-from core.section import analyse
+from plystack.core.section.geometry import clip_plies
+from plystack.core.section.transformed import analyse
 from tests.helpers import IN, rect, steel, timber
 
 MATS = {"w": timber("w", 11.0e9), "w2": timber("w2", 8.0e9), "s": steel("s", 200e9)}

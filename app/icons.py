@@ -1,0 +1,17 @@
+"""The application icon, read from the installed package data."""
+
+from __future__ import annotations
+
+from PySide6.QtGui import QIcon, QPixmap
+
+from plystack.core.io.resources import read_bytes
+
+
+def app_icon() -> QIcon:
+    """Plystack's window icon (assets/icons/plystack.png); an empty icon if unreadable."""
+    pixmap = QPixmap()
+    try:
+        pixmap.loadFromData(read_bytes("icons/plystack.png", "the application icon"))
+    except Exception:  # noqa: BLE001 - a missing icon must never stop the program
+        return QIcon()
+    return QIcon(pixmap)

@@ -1,0 +1,1 @@
+"""Data files bundled with Plystack: material library, fonts, demo projects, icons."""

@@ -1,0 +1,1 @@
+"""Beam actions: the direct-stiffness solver, load combinations, creep, results per combination."""

@@ -1,0 +1,428 @@
+"""Beam actions: supports, loads, and an exact direct-stiffness solution of a prismatic beam.
+
+The member is a straight Euler-Bernoulli beam of constant EI. Positions x run from the
+left end of the member (the tip of a left overhang, where there is one). Loads are
+positive downward (gravity). Results: upward reactions positive; sagging moment
+positive; shear V(x) = sum of upward forces left of x; deflection positive downward.
+
+Every load either acts at a node (point loads) or is uniform over whole elements (line
+and area loads, with nodes at their ends), so the stiffness solution with consistent
+load vectors is exact at the nodes, and shear, moment (by statics inside each element)
+and deflection (Hermite shape functions plus the uniform-load particular solution
+q L^4 xi^2 (1 - xi)^2 / 24 EI) are exact everywhere.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping, Sequence
+from dataclasses import dataclass
+
+import numpy as np
+
+from ..model.errors import ProjectError
+from ..model.member import MERGE_TOLERANCE, BeamLayout, Load, validate_layout
+
+
+@dataclass(frozen=True, eq=False)
+class CaseSolution:
+    """Exact solution of one load (or load set) for EI = 1.
+
+    Per element e from ``nodes[e]`` to ``nodes[e+1]``: V(x) = V0 + q x and
+    M(x) = M0 + V0 x + q x^2 / 2 (x local, q upward positive), deflection (downward
+    positive) = -(Hermite(v1, t1, v2, t2) + q L^4 xi^2 (1 - xi)^2 / 24) / EI.
+    """
+
+    V0: np.ndarray
+    M0: np.ndarray
+    q: np.ndarray
+    u: np.ndarray
+    reactions: np.ndarray
+    reaction_moments: np.ndarray
+
+    def scaled(self, factor: float) -> CaseSolution:
+        """Return this solution times ``factor`` (the beam is linear)."""
+        return CaseSolution(self.V0 * factor, self.M0 * factor, self.q * factor,
+                            self.u * factor, self.reactions * factor,
+                            self.reaction_moments * factor)
+
+    def __add__(self, other: CaseSolution) -> CaseSolution:
+        return CaseSolution(self.V0 + other.V0, self.M0 + other.M0, self.q + other.q,
+                            self.u + other.u, self.reactions + other.reactions,
+                            self.reaction_moments + other.reaction_moments)
+
+
+class BeamModel:
+    """Mesh and stiffness of a member for a given layout and set of load positions.
+
+    Build once per layout and set of loads; solve any load for EI = 1 and scale.
+    """
+
+    def __init__(self, layout: BeamLayout, loads: tuple[Load, ...] | list[Load]):
+        problems = validate_layout(layout)
+        if problems:
+            raise ProjectError(problems)
+        self.layout = layout
+        L = layout.length
+        pts = {0.0, L, *layout.support_positions()}
+        for ld in loads:
+            if ld.type == "point" and ld.at is not None:
+                pts.add(min(max(ld.at, 0.0), L))
+            else:
+                pts.add(0.0 if ld.start is None else min(max(ld.start, 0.0), L))
+                pts.add(L if ld.end is None else min(max(ld.end, 0.0), L))
+        nodes = np.array(sorted(pts))
+        keep = np.concatenate([[True], np.diff(nodes) > MERGE_TOLERANCE * max(L, 1.0)])
+        self.nodes = nodes[keep]
+        self.nodes[-1] = L
+        self.lengths = np.diff(self.nodes)
+        n_dof = 2 * self.nodes.size
+        K = np.zeros((n_dof, n_dof))
+        for e, le in enumerate(self.lengths):
+            K[2 * e : 2 * e + 4, 2 * e : 2 * e + 4] += _element_stiffness(le)
+        self.K = K
+        fixed = []
+        self.support_nodes = []
+        for xs, kind in zip(layout.support_positions(), layout.support_kinds(), strict=True):
+            node = int(np.argmin(np.abs(self.nodes - xs)))
+            self.support_nodes.append(node)
+            fixed.append(2 * node)
+            if kind == "fixed":
+                fixed.append(2 * node + 1)
+        self.fixed = np.array(sorted(fixed))
+        self.free = np.setdiff1d(np.arange(n_dof), self.fixed)
+        kff = K[np.ix_(self.free, self.free)]
+        # symmetric diagonal scaling: short elements next to long ones make K badly scaled
+        self._scale = 1.0 / np.sqrt(np.diag(kff))
+        self._kff_scaled = kff * np.outer(self._scale, self._scale)
+        regions = layout.regions()
+        mids = (self.nodes[:-1] + self.nodes[1:]) / 2
+        #: The named region (span, overhang) of every element.
+        self.element_regions = tuple(
+            next((n for n, a, b in regions if a <= m <= b), "member") for m in mids)
+
+    def _restore_equilibrium(self, reactions: np.ndarray, moments: np.ndarray,
+                             point: np.ndarray, q_el: np.ndarray) -> None:
+        """Make the reactions satisfy overall equilibrium exactly (in place).
+
+        The stiffness solution meets equilibrium only to round-off, which grows with very
+        short elements; two reaction components (the outermost vertical reactions, or
+        the force and moment of a single fixed support) are re-solved by statics.
+        """
+        xs = self.nodes
+        mids = (xs[:-1] + xs[1:]) / 2
+        down = float(point.sum() - (q_el * self.lengths).sum())
+        arm = float((point * xs).sum() - (q_el * self.lengths * mids).sum())
+        pos = np.array([xs[n] for n in self.support_nodes])
+        if len(self.support_nodes) >= 2:
+            i, j = 0, len(self.support_nodes) - 1
+            rest_f = reactions.sum() - reactions[i] - reactions[j]
+            rest_m = (reactions * pos).sum() - reactions[i] * pos[i] - reactions[j] * pos[j]
+            rest_m += moments.sum()
+            a = np.array([[1.0, 1.0], [pos[i], pos[j]]])
+            b = np.array([down - rest_f, arm - rest_m])
+            reactions[i], reactions[j] = np.linalg.solve(a, b)
+        else:
+            reactions[0] = down
+            moments[0] = arm - reactions[0] * pos[0]
+
+    def node_index(self, x: float) -> int:
+        """Index of the node nearest to ``x``."""
+        return int(np.argmin(np.abs(self.nodes - x)))
+
+    def solve(self, loads: list[Load] | tuple[Load, ...], extra_line: float = 0.0) -> CaseSolution:
+        """Solve for the given loads (downward positive) with EI = 1.
+
+        Args:
+            loads: loads of one case (or any set).
+            extra_line: a uniform downward line load over the whole member, N/m
+                (self-weight).
+
+        """
+        n_el = self.lengths.size
+        q_el = np.full(n_el, -float(extra_line))  # upward positive
+        F = np.zeros(2 * self.nodes.size)
+        mids = (self.nodes[:-1] + self.nodes[1:]) / 2
+        L = self.layout.length
+        for ld in loads:
+            if ld.type == "point":
+                F[2 * self.node_index(float(ld.at or 0.0))] -= ld.value
+            else:
+                a = 0.0 if ld.start is None else ld.start
+                b = L if ld.end is None else ld.end
+                q_el[(mids > a) & (mids < b)] -= ld.line_value
+        le = self.lengths
+        Fe = np.zeros_like(F)
+        np.add.at(Fe, 2 * np.arange(n_el), q_el * le / 2)
+        np.add.at(Fe, 2 * np.arange(n_el) + 1, q_el * le**2 / 12)
+        np.add.at(Fe, 2 * np.arange(n_el) + 2, q_el * le / 2)
+        np.add.at(Fe, 2 * np.arange(n_el) + 3, -q_el * le**2 / 12)
+        total = F + Fe
+        u = np.zeros_like(F)
+        rhs = total[self.free]
+        u[self.free] = self._scale * np.linalg.solve(self._kff_scaled, rhs * self._scale)
+        R = self.K @ u - total
+        reactions = np.array([R[2 * n] for n in self.support_nodes])
+        kinds = self.layout.support_kinds()
+        reaction_moments = np.array([
+            R[2 * n + 1] if k == "fixed" else 0.0
+            for n, k in zip(self.support_nodes, kinds, strict=True)
+        ])
+        point = -F[0::2]  # downward point loads at nodes
+        self._restore_equilibrium(reactions, reaction_moments, point, q_el)
+        # shear and moment by statics, walking from the left end
+        node_force = point.copy() * -1.0
+        node_couple = np.zeros(self.nodes.size)
+        for k, n in enumerate(self.support_nodes):
+            node_force[n] += reactions[k]
+            node_couple[n] += reaction_moments[k]
+        V0 = np.empty(n_el)
+        M0 = np.empty(n_el)
+        v_end = m_end = 0.0
+        for e in range(n_el):
+            V0[e] = v_end + node_force[e]
+            M0[e] = m_end - node_couple[e]
+            v_end = V0[e] + q_el[e] * le[e]
+            m_end = M0[e] + V0[e] * le[e] + q_el[e] * le[e] ** 2 / 2
+        return CaseSolution(V0, M0, q_el, u, reactions, reaction_moments)
+
+
+def _element_stiffness(le: float) -> np.ndarray:
+    """Euler-Bernoulli beam element stiffness for EI = 1, dofs (v1, t1, v2, t2)."""
+    l2 = le * le
+    return np.array([
+        [12, 6 * le, -12, 6 * le],
+        [6 * le, 4 * l2, -6 * le, 2 * l2],
+        [-12, -6 * le, 12, -6 * le],
+        [6 * le, 2 * l2, -6 * le, 4 * l2],
+    ]) / (l2 * le)
+
+
+@dataclass(frozen=True)
+class Extremes:
+    """Extreme actions of one solution (SI). Deflection positive downward."""
+
+    M_max: float
+    x_M_max: float
+    M_min: float
+    x_M_min: float
+    V_max_abs: float
+    x_V_max_abs: float
+    deflection_max_abs: float
+    x_deflection_max: float
+    deflection_by_region: tuple[tuple[str, float, float], ...]
+
+
+def element_polynomials(model: BeamModel, sol: CaseSolution,
+                        EI: float) -> list[dict[str, np.ndarray]]:
+    """Per element, polynomial coefficients (numpy order, highest first, local x) of
+    V, M and downward deflection.
+    """
+    out = []
+    for e, le in enumerate(model.lengths):
+        v1, t1, v2, t2 = sol.u[2 * e : 2 * e + 4]
+        q = sol.q[e]
+        # Hermite cubic in local x
+        a0 = v1
+        a1 = t1
+        a2 = (3 * (v2 - v1) / le - 2 * t1 - t2) / le
+        a3 = (2 * (v1 - v2) / le + t1 + t2) / le**2
+        # particular q x^2 (L - x)^2 / 24 = q/24 (x^4 - 2 L x^3 + L^2 x^2)
+        p = q / 24
+        w_up = np.array([p, a3 - 2 * le * p, a2 + le * le * p, a1, a0])
+        out.append({
+            "V": np.array([q, sol.V0[e]]),
+            "M": np.array([q / 2, sol.V0[e], sol.M0[e]]),
+            "w": -w_up / EI,
+        })
+    return out
+
+
+def _real_roots_batched(coeffs: np.ndarray, le: np.ndarray) -> np.ndarray:
+    """Real roots inside (0, le) of per-row cubics (n, 4), highest power first.
+
+    Returns (n, 3) local positions, NaN where there is no root. Each row is scaled to
+    t = x / le and normalised, so negligible leading terms are treated as zero.
+    """
+    n = coeffs.shape[0]
+    out = np.full((n, 3), np.nan)
+    scaled = coeffs * le[:, None] ** np.array([3, 2, 1, 0])
+    big = np.abs(scaled).max(axis=1)
+    ok = np.isfinite(big) & (big > 0)
+    scaled = np.where(ok[:, None], scaled / np.where(ok, big, 1.0)[:, None], 0.0)
+    scaled = np.where(np.abs(scaled) < 1e-12, 0.0, scaled)
+    c3, c2, c1, c0 = scaled.T
+    cubic = ok & (c3 != 0)
+    if cubic.any():
+        k = np.flatnonzero(cubic)
+        comp = np.zeros((k.size, 3, 3))
+        comp[:, 0, 0] = -c2[k] / c3[k]
+        comp[:, 0, 1] = -c1[k] / c3[k]
+        comp[:, 0, 2] = -c0[k] / c3[k]
+        comp[:, 1, 0] = 1.0
+        comp[:, 2, 1] = 1.0
+        roots = np.linalg.eigvals(comp)
+        real = (np.abs(roots.imag) < 1e-9) & (roots.real > 0) & (roots.real < 1)
+        out[k] = np.where(real, roots.real, np.nan)
+    quad = ok & (c3 == 0) & (c2 != 0)
+    if quad.any():
+        k = np.flatnonzero(quad)
+        disc = c1[k] ** 2 - 4 * c2[k] * c0[k]
+        sq = np.sqrt(np.where(disc >= 0, disc, np.nan))
+        for j, r in enumerate(((-c1[k] + sq) / (2 * c2[k]), (-c1[k] - sq) / (2 * c2[k]))):
+            out[k, j] = np.where((r > 0) & (r < 1), r, np.nan)
+    lin = ok & (c3 == 0) & (c2 == 0) & (c1 != 0)
+    if lin.any():
+        k = np.flatnonzero(lin)
+        r = -c0[k] / c1[k]
+        out[k, 0] = np.where((r > 0) & (r < 1), r, np.nan)
+    return np.asarray(out * le[:, None])
+
+
+def extremes(model: BeamModel, sol: CaseSolution, EI: float) -> Extremes:
+    """True extrema of M, |V| and deflection, found from each element's polynomials."""
+    return extremes_many(model, [sol], [EI])[0]
+
+
+def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
+                  EIs: Sequence[float] | np.ndarray) -> list[Extremes]:
+    """Extremes of many solutions on one mesh at once (vectorised over solutions and
+    elements): moment at element ends and where V = 0, |V| at element ends, deflection
+    at element ends and at the real roots of its derivative inside each element.
+    """
+    le = model.lengths
+    x0 = model.nodes[:-1]
+    k, n = len(sols), le.size
+    q = np.stack([s.q for s in sols])
+    V0 = np.stack([s.V0 for s in sols])
+    M0 = np.stack([s.M0 for s in sols])
+    U = np.stack([s.u for s in sols])
+    EI = np.asarray(EIs, dtype=float).reshape(k, 1)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        xr = np.where(q != 0, -V0 / q, 0.0)
+    valid = (q != 0) & (xr > 0) & (xr < le)
+    xm = np.empty((k, n, 3))
+    xm[..., 0] = 0.0
+    xm[..., 1] = le
+    xm[..., 2] = np.where(valid, xr, 0.0)
+    m = M0[..., None] + V0[..., None] * xm + q[..., None] * xm**2 / 2
+    ok = np.ones((k, n, 3), dtype=bool)
+    ok[..., 2] = valid
+    i_max = np.argmax(np.where(ok, m, -np.inf).reshape(k, -1), axis=1)
+    i_min = np.argmin(np.where(ok, m, np.inf).reshape(k, -1), axis=1)
+    v = np.abs(np.stack([V0, V0 + q * le], axis=-1)).reshape(k, -1)
+    i_v = np.argmax(v, axis=1)
+    v1, t1, v2, t2 = U[:, 0:-2:2], U[:, 1:-2:2], U[:, 2::2], U[:, 3::2]
+    a2 = (3 * (v2 - v1) / le - 2 * t1 - t2) / le
+    a3 = (2 * (v1 - v2) / le + t1 + t2) / le**2
+    p = q / 24
+    w_c = -np.stack([p, a3 - 2 * le * p, a2 + le * le * p, t1, v1], axis=-1) / EI[..., None]
+    dw = w_c[..., :4] * np.array([4.0, 3.0, 2.0, 1.0])
+    roots = _real_roots_batched(dw.reshape(k * n, 4), np.tile(le, k)).reshape(k, n, 3)
+    xw = np.concatenate([np.zeros((k, n, 1)), np.broadcast_to(le[:, None], (k, n, 1)),
+                         roots], axis=-1)
+    xw_safe = np.nan_to_num(xw)
+    w = np.zeros_like(xw_safe)
+    for j in range(5):
+        w = w * xw_safe + w_c[..., j : j + 1]
+    w = np.where(np.isnan(xw), 0.0, w)
+    aw = np.abs(w)
+    i_w = np.argmax(aw.reshape(k, -1), axis=1)
+    regions = model.layout.regions()
+    element_region = np.array([[n_ for n_, _, _ in regions].index(r) if r in
+                               [n_ for n_, _, _ in regions] else -1
+                               for r in model.element_regions])
+    pos_w = x0[None, :, None] + xw_safe
+    out = []
+    xm_flat = (x0[None, :, None] + xm).reshape(k, -1)
+    xv_flat = np.stack([np.broadcast_to(x0, (k, n)), np.broadcast_to(x0 + le, (k, n))],
+                       axis=-1).reshape(k, -1)
+    for c in range(k):
+        m_flat = m[c].reshape(-1)
+        m_max, m_min = float(m_flat[i_max[c]]), float(m_flat[i_min[c]])
+        scale = max(abs(m_max), abs(m_min), 1e-300)
+        if abs(m_max) < 1e-9 * scale:
+            m_max = 0.0
+        if abs(m_min) < 1e-9 * scale:
+            m_min = 0.0
+        by_region = []
+        for r, (name, _, _) in enumerate(regions):
+            mask = element_region == r
+            if not mask.any():
+                continue
+            a_r = aw[c][mask].reshape(-1)
+            j = int(np.argmax(a_r))
+            by_region.append((name, float(w[c][mask].reshape(-1)[j]),
+                              float(pos_w[c][mask].reshape(-1)[j])))
+        out.append(Extremes(
+            M_max=m_max, x_M_max=float(xm_flat[c, i_max[c]]),
+            M_min=m_min, x_M_min=float(xm_flat[c, i_min[c]]),
+            V_max_abs=float(v[c, i_v[c]]), x_V_max_abs=float(xv_flat[c, i_v[c]]),
+            deflection_max_abs=float(aw[c].reshape(-1)[i_w[c]]),
+            x_deflection_max=float(pos_w[c].reshape(-1)[i_w[c]]),
+            deflection_by_region=tuple(by_region)))
+    return out
+
+
+@dataclass(frozen=True, eq=False)
+class Diagram:
+    """Shear, moment and downward deflection sampled along the member (SI).
+
+    Stations include every node from both sides (shear jumps at point loads) and the
+    element extrema of moment and deflection.
+    """
+
+    x: np.ndarray
+    V: np.ndarray
+    M: np.ndarray
+    deflection: np.ndarray
+
+
+def diagram(model: BeamModel, sol: CaseSolution, EI: float, per_element: int = 24) -> Diagram:
+    """Sample V, M and deflection along the member (load-aware stations)."""
+    polys = element_polynomials(model, sol, EI)
+    xs, vs, ms, ws = [], [], [], []
+    for e, le in enumerate(model.lengths):
+        P = polys[e]
+        local = list(np.linspace(0.0, le, per_element + 1))
+        local.extend(_roots_inside(np.polyder(P["M"]), le))
+        local.extend(_roots_inside(np.polyder(P["w"]), le))
+        loc = np.array(sorted(local))
+        xs.append(model.nodes[e] + loc)
+        vs.append(np.polyval(P["V"], loc))
+        ms.append(np.polyval(P["M"], loc))
+        ws.append(np.polyval(P["w"], loc))
+    return Diagram(np.concatenate(xs), np.concatenate(vs), np.concatenate(ms), np.concatenate(ws))
+
+
+def _roots_inside(poly: np.ndarray, le: float) -> list[float]:
+    """Real roots of a polynomial in local x strictly inside (0, le).
+
+    Coefficients are compared on the element's scale (c_k le^k) so that negligible
+    leading terms do not produce spurious huge roots.
+    """
+    poly = np.asarray(poly, dtype=float)
+    n = poly.size - 1
+    scaled = poly * le ** np.arange(n, -1, -1)
+    big = np.abs(scaled).max() if scaled.size else 0.0
+    if not np.isfinite(big) or big == 0.0:
+        return []
+    scaled = np.where(np.abs(scaled) < 1e-12 * big, 0.0, scaled / big)
+    scaled = np.trim_zeros(scaled, "f")
+    if scaled.size < 2:
+        return []
+    out = []
+    for r in np.roots(scaled):
+        if abs(r.imag) < 1e-9 and 0 < r.real < 1:
+            out.append(float(r.real) * le)
+    return out
+
+
+def combine(solutions: Mapping[str, CaseSolution],
+            factors: Mapping[str, float]) -> CaseSolution | None:
+    """Linear combination of case solutions; None when no case is present."""
+    out: CaseSolution | None = None
+    for case, f in factors.items():
+        if case in solutions and f != 0:
+            s = solutions[case].scaled(f)
+            out = s if out is None else out + s
+    return out

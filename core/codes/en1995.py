@@ -1,0 +1,61 @@
+"""EN 1995-1-1:2004+A1:2008 factors (timber) and EN 1993-1-1 partial factors, from memory.
+
+Values are the recommended ones; national annexes may change them.
+"""
+
+from __future__ import annotations
+
+from ..model.combination import EU_DURATIONS
+
+#: EN 1995-1-1 Table 3.1: k_mod for solid timber, glulam and LVL, service classes 1 and
+#: 2 (same values) and 3.
+K_MOD = {
+    1: {"permanent": 0.6, "long-term": 0.7, "medium-term": 0.8, "short-term": 0.9,
+        "instantaneous": 1.1},
+    2: {"permanent": 0.6, "long-term": 0.7, "medium-term": 0.8, "short-term": 0.9,
+        "instantaneous": 1.1},
+    3: {"permanent": 0.5, "long-term": 0.55, "medium-term": 0.65, "short-term": 0.7,
+        "instantaneous": 0.9},
+}
+
+
+def k_mod(duration: str, service_class: int) -> float:
+    """EN 1995-1-1 3.1.3 and Table 3.1 modification factor (solid timber, glulam, LVL)."""
+    if duration not in K_MOD[service_class]:
+        raise ValueError(f"unknown EU load duration {duration!r}; use one of "
+                         + ", ".join(EU_DURATIONS))
+    return K_MOD[service_class][duration]
+
+
+def gamma_M(product: str) -> float:
+    """EN 1995-1-1 Table 2.3 partial factor: solid timber 1.3, glulam 1.25, LVL 1.2."""
+    return {"glulam": 1.25, "lvl": 1.2}.get(product, 1.3)
+
+
+def k_h(depth: float, product: str) -> float:
+    """Depth factor for bending. Solid timber (3.2(3), rho_k <= 700 kg/m3):
+    min((150/h)^0.2, 1.3) for h < 150 mm; glulam (3.3(3)): min((600/h)^0.1, 1.1) for
+    h < 600 mm; LVL 1.0 here (the manufacturer's size effect governs). h in m.
+    """
+    h = depth * 1000.0
+    if product == "glulam":
+        return min((600 / h) ** 0.1, 1.1) if h < 600 else 1.0
+    if product == "sawn":
+        return min((150 / h) ** 0.2, 1.3) if h < 150 else 1.0
+    return 1.0
+
+
+def k_cr(product: str) -> float:
+    """EN 1995-1-1 6.1.7(2) crack factor for shear: 0.67 for solid timber and glulam;
+    1.0 for LVL and other products.
+    """
+    return 0.67 if product in ("sawn", "glulam") else 1.0
+
+
+def k_def(service_class: int) -> float:
+    """EN 1995-1-1 Table 3.2 for solid timber, glulam and LVL: 0.6, 0.8, 2.0."""
+    return {1: 0.6, 2: 0.8, 3: 2.0}[service_class]
+
+
+GAMMA_M0 = 1.0  # EN 1993-1-1 6.1 recommended value
+GAMMA_M_CONNECTION = 1.3  # EN 1995-1-1 Table 2.3, connections

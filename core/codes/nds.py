@@ -1,0 +1,151 @@
+"""NDS 2018 adjustment factors for sawn lumber, glulam and LVL (ASD), from memory.
+
+Each function is small and pure and cites its clause; values are dimensionless.
+"""
+
+from __future__ import annotations
+
+import math
+
+from ..model.combination import US_DURATIONS
+
+#: NDS 2018 Table 2.3.2 load duration factors (from memory).
+C_D_TABLE = {"permanent": 0.9, "ten-years": 1.0, "two-months": 1.15, "seven-days": 1.25,
+             "ten-minutes": 1.6, "impact": 2.0}
+
+INCH = 0.0254
+PSI = 6894.757293168361
+
+
+def C_D(duration: str) -> float:
+    """NDS 2018 2.3.2 load duration factor (Table 2.3.2). Applies to Fb, Fv, Ft, Fc and
+    connections, not to Fc_perp or E.
+    """
+    if duration not in C_D_TABLE:
+        raise ValueError(f"unknown US load duration {duration!r}; use one of "
+                         + ", ".join(US_DURATIONS))
+    return C_D_TABLE[duration]
+
+
+def C_M(value: str, product: str, wet: bool, Fb_times_CF: float | None = None) -> float:
+    """Wet service factor. Sawn lumber: NDS Supplement Table 4A adjustment factors
+    (Fb 0.85 only where Fb C_F > 1150 psi, Ft 1.0, Fv 0.97, Fc_perp 0.67, Fc 0.8 where
+    Fc C_F > 750 psi, E and Emin 0.9). Glulam: NDS Supplement Table 5A footnote (Fb 0.8,
+    Fv 0.875, Fc_perp 0.53, E 0.833). LVL: taken as glulam (manufacturer governs).
+    """
+    if not wet:
+        return 1.0
+    if product == "sawn":
+        if value == "Fb":
+            return 0.85 if (Fb_times_CF or 0.0) > 1150 * PSI else 1.0
+        return {"Fv": 0.97, "Fc_perp": 0.67, "E": 0.9, "Emin": 0.9, "Ft": 1.0,
+                "Fc": 0.8}.get(value, 1.0)
+    return {"Fb": 0.8, "Fv": 0.875, "Fc_perp": 0.53, "E": 0.833, "Emin": 0.833,
+            "Ft": 0.8, "Fc": 0.73}.get(value, 1.0)
+
+
+def C_t(value: str, temperature: str, wet: bool) -> float:
+    """NDS 2018 2.3.3 temperature factor (Table 2.3.3): 'normal' is T <= 100 F."""
+    if temperature == "normal":
+        return 1.0
+    if value in ("E", "Emin", "Ft"):
+        return 0.9
+    if temperature == "up-to-125F":
+        return 0.7 if wet else 0.8
+    return 0.5 if wet else 0.7
+
+
+def C_F(depth: float, product: str, size_adjusted: bool, grade_rule: str = "") -> float:
+    """Size factor for bending.
+
+    Sawn visually graded dimension lumber, 2 in to 4 in thick (NDS Supplement Table 4A,
+    Select Structural to No.3, from memory), by actual depth: up to 3.5 in (2x4) 1.5;
+    4.5 in 1.4; 5.5 in (2x6) 1.3; 7.25 in (2x8) 1.2; 9.25 in (2x10) 1.1; 11.25 in (2x12)
+    1.0; deeper 0.9. Size-adjusted values (Table 4B Southern Pine) 1.0 up to 12 in, deeper
+    (12/d)^(1/9) (NDS 4.3.6.2). LVL: (12/d)^(1/9), typical of manufacturers (their
+    values govern). Glulam uses C_V instead (returns 1.0).
+
+    Args:
+        depth: the ply's depth (height), m.
+
+    """
+    d = depth / INCH
+    if product == "glulam":
+        return 1.0
+    if product == "lvl" or size_adjusted:
+        return 1.0 if d <= 12 else (12 / d) ** (1 / 9)
+    if product != "sawn":
+        return 1.0
+    for limit, factor in ((3.5, 1.5), (4.5, 1.4), (5.5, 1.3), (7.25, 1.2), (9.25, 1.1),
+                          (11.25, 1.0)):
+        if d <= limit + 1e-6:
+            return factor
+    return 0.9
+
+
+def C_V(length: float, depth: float, width: float, southern_pine: bool = False) -> float:
+    """NDS 2018 5.3.6 glulam volume factor (5.3-1), from memory:
+    C_V = (21/L)^(1/x) (12/d)^(1/x) (5.125/b)^(1/x) <= 1.0, x = 10 (20 for Southern Pine);
+    L in ft, d and b in in.
+    """
+    x = 20.0 if southern_pine else 10.0
+    L_ft = length / 0.3048
+    d = depth / INCH
+    b = width / INCH
+    return float(min(1.0, (21 / L_ft) ** (1 / x) * (12 / d) ** (1 / x) * (5.125 / b) ** (1 / x)))
+
+
+def C_i(value: str, incised: bool) -> float:
+    """NDS 2018 4.3.8 incising factor (Table 4.3.8): Fb, Ft, Fc, Fv 0.80; E, Emin 0.95;
+    Fc_perp 1.00.
+    """
+    if not incised:
+        return 1.0
+    return {"E": 0.95, "Emin": 0.95, "Fc_perp": 1.0}.get(value, 0.80)
+
+
+def C_r(repetitive: bool, product: str) -> float:
+    """NDS 2018 4.3.9 repetitive member factor: 1.15 for dimension lumber members in a
+    repetitive system (the user's declaration).
+    """
+    return 1.15 if repetitive and product == "sawn" else 1.0
+
+
+def C_b(bearing_length: float, at_end: bool) -> float:
+    """NDS 2018 3.10.4 bearing area factor: (l_b + 0.375)/l_b for bearings shorter than
+    6 in and at least 3 in from the member's end; 1.0 otherwise (l_b in in).
+    """
+    lb = bearing_length / INCH
+    if at_end or lb >= 6:
+        return 1.0
+    return (lb + 0.375) / lb
+
+
+def effective_length(unbraced: float, depth: float) -> float:
+    """NDS 2018 Table 3.3.3, single span, uniformly distributed load (from memory):
+    l_e = 2.06 l_u where l_u/d < 7, else 1.63 l_u + 3 d. m.
+    """
+    if unbraced / depth < 7:
+        return 2.06 * unbraced
+    return 1.63 * unbraced + 3 * depth
+
+
+def C_L(Fb_star: float, Emin_adj: float, depth: float, breadth: float, unbraced: float) -> float:
+    """NDS 2018 3.3.3 beam stability factor (3.3-6), from memory:
+    R_B = sqrt(l_e d / b^2), F_bE = 1.20 E'min / R_B^2,
+    C_L = (1 + F_bE/Fb*)/1.9 - sqrt(((1 + F_bE/Fb*)/1.9)^2 - (F_bE/Fb*)/0.95).
+    Stresses in Pa, lengths in m.
+    """
+    le = effective_length(unbraced, depth)
+    RB2 = le * depth / breadth**2
+    FbE = 1.20 * Emin_adj / RB2
+    a = FbE / Fb_star
+    k = (1 + a) / 1.9
+    return float(k - math.sqrt(k * k - a / 0.95))
+
+
+def K_cr(wet_service: bool) -> float:
+    """NDS 2018 3.5.2 creep factor (from memory): 1.5 for seasoned lumber and glulam in
+    dry service, 2.0 in wet service. Dimensionless.
+    """
+    return 2.0 if wet_service else 1.5

@@ -1,0 +1,133 @@
+"""Design checks on two bases: US allowable stress design (NDS 2018, AISC 360-16) and
+EU limit states (EN 1995-1-1, EN 1993-1-1). One module per basis; shared parts in
+``common``. Every check carries demand, capacity, ratio, verdict, and every factor with
+its source, so that capacity = reference x prod(factors) / prod(partial_factors).
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Mapping
+from dataclasses import dataclass, field
+from typing import Any, Literal
+
+#: Every kind of check (the ``id`` of a check in JSON output).
+CheckId = Literal["bending", "shear", "bearing", "deflection-live", "deflection-total",
+                  "deflection-long-term", "bolts", "connectors"]
+#: What a check's demand and capacity measure (selects the display unit).
+Quantity = Literal["stress", "deflection", "force", "shear_flow"]
+#: The limit state a check belongs to.
+LimitState = Literal["strength", "serviceability"]
+SERVICEABILITY_IDS = frozenset({"deflection-live", "deflection-total", "deflection-long-term"})
+
+
+@dataclass(frozen=True)
+class Fasteners:
+    """The fasteners a connection check asks for.
+
+    Attributes:
+        count: fasteners needed (bolts along the member, or per metre of interface for
+            connectors), None where not a count.
+        spacing: spacing along the member, m.
+        locations: bolt locations along the member (a location may hold several rows).
+        rows: rows of fasteners at each location.
+
+    """
+
+    count: int | None = None
+    spacing: float | None = None
+    locations: int | None = None
+    rows: int | None = None
+
+
+@dataclass(frozen=True, kw_only=True)
+class Check:
+    """One design check.
+
+    Attributes:
+        id: kind of check: "bending", "shear", "bearing", "deflection-live",
+            "deflection-total", "deflection-long-term", "bolts", "connectors".
+        ply: the ply (or plies) checked, None for the whole member.
+        combination: the load combination (or case) name.
+        demand: SI (Pa for stresses, m for deflections, N for fastener loads).
+        capacity: same unit as demand.
+        ratio: demand / capacity.
+        ok: ratio <= 1.
+        quantity: "stress", "deflection", "force" or "shear_flow" (for display units).
+        reference: symbol and SI value of the reference design value.
+        factors: factors that multiply the reference value.
+        partial_factors: factors that divide it.
+        sources: where each factor and the reference value come from.
+        equation: the check written out in symbols.
+        location: where along the member (text) and x, m.
+        notes: reminders and assumptions specific to this check.
+        fasteners: the fasteners a connection check asks for (bolts, connectors).
+
+    """
+
+    id: CheckId
+    ply: str | None
+    combination: str | None
+    demand: float
+    capacity: float
+    quantity: Quantity
+    reference: tuple[str, float]
+    factors: Mapping[str, float] = field(default_factory=dict)
+    partial_factors: Mapping[str, float] = field(default_factory=dict)
+    sources: Mapping[str, str] = field(default_factory=dict)
+    equation: str = ""
+    location: str = ""
+    x: float | None = None
+    notes: tuple[str, ...] = ()
+    fasteners: Fasteners | None = None
+
+    @property
+    def limit_state(self) -> LimitState:
+        """Strength or serviceability."""
+        return "serviceability" if self.id in SERVICEABILITY_IDS else "strength"
+
+    @property
+    def ratio(self) -> float:
+        """Demand over capacity."""
+        if self.capacity <= 0:
+            return math.inf
+        return abs(self.demand) / self.capacity
+
+    @property
+    def ok(self) -> bool:
+        """True where the ratio is at most 1 (within 1e-9)."""
+        return self.ratio <= 1.0 + 1e-9
+
+    def to_dict(self) -> dict[str, Any]:
+        """The check as a JSON object (SI)."""
+        ratio = self.ratio
+        return {
+            "id": self.id, "ply": self.ply, "combination": self.combination,
+            "demand": self.demand, "capacity": self.capacity,
+            "ratio": ratio if math.isfinite(ratio) else None, "ok": self.ok,
+            "quantity": self.quantity,
+            "reference": {"symbol": self.reference[0], "value": self.reference[1]},
+            "factors": dict(self.factors), "partial_factors": dict(self.partial_factors),
+            "sources": dict(self.sources), "equation": self.equation,
+            "location": self.location, "x": self.x, "notes": list(self.notes),
+            "limit_state": self.limit_state,
+            "fasteners": None if self.fasteners is None else {
+                "count": self.fasteners.count, "spacing": self.fasteners.spacing,
+                "locations": self.fasteners.locations, "rows": self.fasteners.rows},
+        }
+
+
+def capacity_from(reference: float, factors: Mapping[str, float],
+                  partial: Mapping[str, float] | None = None) -> float:
+    """Reference x prod(factors) / prod(partial factors)."""
+    value = reference
+    for f in factors.values():
+        value *= f
+    for g in (partial or {}).values():
+        value /= g
+    return value
+
+
+def governing(checks: tuple[Check, ...] | list[Check]) -> Check | None:
+    """The check with the highest ratio."""
+    return max(checks, key=lambda c: c.ratio) if checks else None

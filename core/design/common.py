@@ -1,0 +1,243 @@
+"""Parts shared by both design bases: demands from the section and beam, deflection
+checks, joint layout of side-by-side plies, and stock fastener spacings.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from ..actions.analysis import BeamResult, CombinationResult
+from ..actions.beam import CaseSolution, Extremes, extremes
+from ..model.design import DesignSpec
+from ..model.errors import Problem
+from ..model.units import fmt
+from ..section.transformed import Section
+from .check import Check, CheckId, Fasteners
+
+#: Stock spacings tried for fasteners, largest first, at most 24 in / 600 mm (common
+#: practice: the 16 in and 24 in framing modules and their fractions; metric equivalents).
+STOCK_SPACINGS_US = tuple(x * 0.0254 for x in (24, 16, 12, 8, 6, 4, 3, 2))
+STOCK_SPACINGS_SI = tuple(x / 1000 for x in (600, 400, 300, 200, 150, 100, 75, 50))
+
+
+def bending_demand(section: Section, combo: CombinationResult, i: int) -> tuple[float, float]:
+    """Largest |stress| at ply i's extreme fibres under the combination's extreme
+    moments, and where it occurs. Returns (Pa, x).
+    """
+    ext = combo.extremes
+    best = (0.0, ext.x_M_max)
+    for m, x in ((ext.M_max, ext.x_M_max), (ext.M_min, ext.x_M_min)):
+        top, bot = section.ply_extreme_stresses(m)
+        s = max(abs(float(top[i])), abs(float(bot[i])))
+        if s > best[0]:
+            best = (s, x)
+    return best
+
+
+def unit_shear_stress(section: Section) -> np.ndarray:
+    """Largest shear stress in each ply for V = 1 N (Pa per N)."""
+    lo = float(section.y_bottom.min())
+    hi = float(section.y_top.max())
+    ys = np.unique(np.concatenate([np.linspace(lo, hi, 41), section.y_bottom, section.y_top,
+                                   [section.neutral_axis_y]]))
+    tau = np.abs(section.shear_stress(1.0, ys))
+    return np.asarray(np.nan_to_num(np.nanmax(np.where(np.isfinite(tau), tau, 0.0), axis=1)))
+
+
+def region_span(name: str, x0: float, x1: float) -> float:
+    """The length a deflection limit is applied to: the span, or twice an overhang or
+    cantilever (common practice).
+    """
+    length = x1 - x0
+    return 2 * length if ("overhang" in name or name == "cantilever") else length
+
+
+def deflection_checks(check_id: CheckId, label: str, solution: CaseSolution | Extremes,
+                      beam: BeamResult, EI: float, limit: float, sources: dict[str, str],
+                      notes: tuple[str, ...] = ()) -> list[Check]:
+    """One check per span and overhang: |deflection| against region length / limit.
+    ``solution`` may be its already computed extremes.
+    """
+    ext = solution if isinstance(solution, Extremes) else extremes(beam.model, solution, EI)
+    regions = {n: (a, b) for n, a, b in beam.model.layout.regions()}
+    out = []
+    for name, w, x in ext.deflection_by_region:
+        a, b = regions[name]
+        span = region_span(name, a, b)
+        out.append(Check(
+            id=check_id, ply=None, combination=label, demand=abs(w), capacity=span / limit,
+            quantity="deflection", reference=("L", span),
+            partial_factors={"limit": limit}, sources={**sources, "L": "span length; twice "
+                                                       "the length for an overhang "
+                                                       "(common practice)"},
+            equation=f"delta <= L / {limit:g}", location=name, x=x, notes=notes))
+    return out
+
+
+@dataclass(frozen=True)
+class Joint:
+    """A steel ply bolted to timber plies beside it (a flitch or side-plate joint).
+
+    Attributes:
+        steel: index of the steel ply.
+        timbers: indices of the timber plies touching its vertical faces.
+        steel_is_main: True where timber lies on both sides (wood-steel-wood, double
+            shear); False where the steel is on one face (single shear).
+
+    """
+
+    steel: int
+    timbers: tuple[int, ...]
+    steel_is_main: bool
+
+
+def side_by_side_joints(section: Section) -> list[Joint]:
+    """Find steel plies with timber plies against their vertical faces."""
+    joints = []
+    size = section.depth
+    tol = size * 1e-7
+    for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):
+        if mat.kind != "steel" or section.area[i] <= 0:
+            continue
+        left = right = None
+        for j, (other, om) in enumerate(zip(section.plies, section.materials, strict=True)):
+            if om.kind != "timber" or section.area[j] <= 0:
+                continue
+            overlap = min(ply.top, other.top) - max(ply.y, other.y)
+            if overlap <= tol:
+                continue
+            if abs(other.x + other.width - ply.x) <= tol:
+                left = j
+            elif abs(ply.x + ply.width - other.x) <= tol:
+                right = j
+        timbers = tuple(j for j in (left, right) if j is not None)
+        if timbers:
+            joints.append(Joint(i, timbers, len(timbers) == 2))
+    return joints
+
+
+def plate_share(section: Section, i: int) -> float:
+    """Share of the load carried by ply i in proportion to its bending stiffness about the
+    common neutral axis, E_i I_i,na / EI (common practice for flitch beams).
+    """
+    return float(section.E[i] * section.I_na[i] / section.EI)
+
+
+def bearing_plies(section: Section) -> list[int]:
+    """Timber plies that reach the bottom of the section (those that bear)."""
+    bottom = float(section.y_bottom.min())
+    tol = section.depth * 1e-7
+    return [i for i, m in enumerate(section.materials)
+            if m.kind == "timber" and section.area[i] > 0
+            and abs(float(section.y_bottom[i]) - bottom) <= tol]
+
+
+def steel_at_bottom(section: Section) -> list[int]:
+    """Steel plies that reach the bottom of the section (and so the supports)."""
+    bottom = float(section.y_bottom.min())
+    tol = section.depth * 1e-7
+    return [i for i, m in enumerate(section.materials)
+            if m.kind == "steel" and abs(float(section.y_bottom[i]) - bottom) <= tol]
+
+
+def bearing_candidates(section: Section, key: str, design: DesignSpec,
+                       warnings: list[Problem]) -> list[tuple[int, float]]:
+    """Timber plies that bear on the supports, with their value ``key`` (Fc_perp or
+    fc90_k); warns where a steel ply reaches the supports without bearing data.
+    """
+    steel = steel_at_bottom(section)
+    if steel and not design.steel_bears:
+        names = ", ".join(section.plies[i].name for i in steel)
+        warnings.append(Problem("beam.bearing_length", f"steel ply {names} reaches the supports "
+                                "but has no bearing data; the timber bearing check assumes the "
+                                "timber carries the whole reaction"))
+    out = []
+    for i in bearing_plies(section):
+        v = section.materials[i].value(key)
+        if v is not None:
+            out.append((i, v))
+    return out
+
+
+def pick_spacing(required_per_length: float, per_location: float, user: float | None,
+                 stock: tuple[float, ...], minimum: float) -> float:
+    """The user's spacing, or the largest stock spacing (not below ``minimum``) at which
+    ``per_location`` capacity carries ``required_per_length`` (N/m); the smallest
+    allowed stock spacing where none does.
+    """
+    if user is not None:
+        return user
+    allowed = [s for s in stock if s >= minimum] or [stock[-1]]
+    for s in allowed:
+        if per_location / s >= required_per_length:
+            return s
+    return allowed[-1]
+
+
+EDGE_END_REMINDERS = (
+    "Bolts: edge distance at least 4D from the loaded (top) edge and 1.5D from the "
+    "unloaded edge; end distance at least 4D (7D for full value in parallel-to-grain "
+    "loading); spacing between rows at least 2.5D; holes 1/32 to 1/16 in oversize "
+    "(NDS 12.5.1, from memory). Stagger bolts so that no two share a growth-ring line.",
+    "Point loads must reach the plate through bolts near where they act.",
+)
+
+
+def apply_overrides(factors: dict[str, float], sources: dict[str, str], design: DesignSpec,
+                    ply: str) -> None:
+    """Replace derived factors by the user's per-ply values (design.overrides)."""
+    for sym, v in design.overrides.get(ply, {}).items():
+        if sym in factors:
+            factors[sym] = v
+            sources[sym] = "user override"
+
+
+def connector_checks(section: Section, beam: BeamResult, design: DesignSpec, system: str,
+                     warnings: list[Problem]) -> list[Check]:
+    """Connectors of stacked plies, on either basis: the shear flow V Q / I_t at each
+    horizontal interface under the largest strength-combination shear, against the
+    user's connector value (allowable for US, design value for EU) at the largest stock
+    spacing that works (or the user's spacing).
+    """
+    if not section.interfaces:
+        return []
+    conn = design.connector
+    combos = [c for c in beam.combinations
+              if c.combination.limit_state in ("ASD", "ULS", "custom")] or list(beam.combinations)
+    V = max(c.extremes.V_max_abs for c in combos)
+    worst = max(combos, key=lambda c: c.extremes.V_max_abs)
+    stock = STOCK_SPACINGS_US if system == "US" else STOCK_SPACINGS_SI
+    out = []
+    for itf, q in section.interface_shear_flows(V):
+        if conn.allowable is None:
+            warnings.append(Problem("design.connector.allowable", "not given: the interface "
+                                    f"at y = {fmt(itf.y, 'length', system)} carries a shear "
+                                    f"flow of {fmt(float(q), 'shear_flow', system)} at the "
+                                    "largest shear; give the connector's allowable load to get "
+                                    "a spacing"))
+            continue
+        per_loc = conn.allowable * conn.rows
+        s = pick_spacing(float(q), per_loc, conn.spacing, stock, 0.0)
+        demand = float(q) * s / conn.rows
+        names = "; ".join(f"{section.plies[a].name} / {section.plies[b].name}"
+                          for a, b in itf.pairs)
+        out.append(Check(
+            id="connectors",
+            ply=names,
+            combination=worst.name,
+            demand=demand,
+            capacity=conn.allowable,
+            quantity="force",
+            reference=("allowable per connector", conn.allowable),
+            factors={},
+            partial_factors={},
+            sources={"allowable per connector": "the user's connector value (already adjusted)"},
+            equation="load per connector = q s / rows = (V Q / I_t) s / rows <= allowable",
+            location=f"one {conn.type} every {fmt(s, 'length', system, 3)} ({conn.rows} per row) "
+            "along the region of highest shear",
+            fasteners=Fasteners(rows=conn.rows, spacing=s),
+            x=itf.y,
+            notes=(f"Shear flow q = {float(q):.1f} N/m at |V| = {V:.1f} N; Q = {itf.Q:.4e} m^3.",)))
+    return out

@@ -1,0 +1,306 @@
+"""EU limit states: timber per EN 1995-1-1:2004+A1:2008, steel per EN 1993-1-1:2005,
+combinations per EN 1990 (recommended values, from memory; national annexes vary).
+
+Design strengths f_d = k_mod k_h f_k / gamma_M (bending), k_mod k_cr f_v,k / gamma_M
+(shear, the crack factor written as a factor on strength), k_c,90 f_c,90,k k_mod /
+gamma_M (bearing); steel f_y / gamma_M0 (elastic, 6.2.1(5)) and f_y / (sqrt(3) gamma_M0)
+(shear, 6.2.6). Final deflection (2.2.3): w_fin = w_inst,char + creep increment of the
+quasi-permanent load, with timber moduli divided by (1 + k_def) for the latter.
+"""
+
+from __future__ import annotations
+
+import math
+
+from ..actions.analysis import BeamResult
+from ..actions.beam import CaseSolution, combine
+from ..codes import en1995 as ec5
+from ..codes.dowels import en_f_h_k, en_M_y, en_steel_centre, en_thin_steel_single
+from ..model.caution import CAUTION
+from ..model.design import DesignSpec
+from ..model.errors import Problem
+from ..model.project import Project
+from ..model.units import fmt
+from ..section.transformed import Section
+from .check import Check, Fasteners, capacity_from
+from .common import (
+    EDGE_END_REMINDERS,
+    STOCK_SPACINGS_SI,
+    STOCK_SPACINGS_US,
+    apply_overrides,
+    bearing_candidates,
+    bending_demand,
+    connector_checks,
+    deflection_checks,
+    pick_spacing,
+    plate_share,
+    side_by_side_joints,
+    unit_shear_stress,
+)
+
+S_KMOD = "EN 1995-1-1 Table 3.1 (from memory)"
+S_GM = "EN 1995-1-1 Table 2.3 (from memory)"
+
+
+def eu_checks(project: Project, section: Section, beam: BeamResult,
+              design: DesignSpec) -> tuple[tuple[Check, ...], list[Problem]]:
+    """Every EU-LSD check of the project."""
+    checks: list[Check] = []
+    warnings: list[Problem] = []
+    uls = [c for c in beam.combinations if c.combination.limit_state in ("ULS", "custom")]
+    if not uls:
+        warnings.append(Problem("beam.combinations", 'no ULS combination: use "EN1990" for '
+                                "the EU basis; strength checks are skipped"))
+    sc = design.service_class
+    tau_unit = unit_shear_stress(section)
+    for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):
+        if section.area[i] <= 0:
+            continue
+        if mat.kind == "timber":
+            fm, fv = mat.value("fm_k"), mat.value("fv_k")
+            if fm is None or fv is None:
+                warnings.append(Problem(f"plies[{i}].material", f'"{mat.id}" has no EN '
+                                        "characteristic values (fm_k, fv_k); its timber checks "
+                                        "are skipped on the EU basis"))
+                continue
+            gm = ec5.gamma_M(mat.product)
+            for combo in uls:
+                km = ec5.k_mod(_eu_duration(combo.duration), sc)
+                f = {"k_mod": km, "k_h": ec5.k_h(ply.height, mat.product), "k_crit": 1.0}
+                s = {"fm_k": mat.source_of("fm_k"), "k_mod": S_KMOD, "gamma_M": S_GM,
+                     "k_h": "EN 1995-1-1 3.2(3) / 3.3(3) (from memory)",
+                     "k_crit": "EN 1995-1-1 6.3.3, compression edge braced (user's "
+                     "declaration)"}
+                g = {"gamma_M": gm}
+                apply_overrides(f, s, design, ply.name)
+                demand, x = bending_demand(section, combo, i)
+                checks.append(Check(
+                    id="bending",
+                    ply=ply.name,
+                    combination=combo.name,
+                    demand=demand,
+                    capacity=capacity_from(fm, f, g),
+                    quantity="stress",
+                    reference=("fm_k", fm),
+                    factors=f,
+                    partial_factors=g,
+                    sources=s,
+                    equation="sigma_m,d <= k_mod k_h f_m,k / gamma_M",
+                    location="",
+                    x=x))
+                fvf = {"k_mod": km, "k_cr": ec5.k_cr(mat.product)}
+                sv = {"fv_k": mat.source_of("fv_k"), "k_mod": S_KMOD, "gamma_M": S_GM,
+                      "k_cr": "EN 1995-1-1 6.1.7(2), b_ef = k_cr b (from memory)"}
+                apply_overrides(fvf, sv, design, ply.name)
+                checks.append(Check(
+                    id="shear",
+                    ply=ply.name,
+                    combination=combo.name,
+                    demand=float(tau_unit[i]) * combo.extremes.V_max_abs,
+                    capacity=capacity_from(fv, fvf, g),
+                    quantity="stress",
+                    reference=("fv_k", fv),
+                    factors=fvf,
+                    partial_factors=g,
+                    sources=sv,
+                    equation="tau_d <= k_mod k_cr f_v,k / gamma_M",
+                    location="",
+                    x=combo.extremes.x_V_max_abs))
+        elif mat.kind == "steel":
+            fy = mat.value("Fy")
+            if fy is None:
+                continue
+            g0 = {"gamma_M0": ec5.GAMMA_M0}
+            for combo in uls:
+                demand, x = bending_demand(section, combo, i)
+                checks.append(Check(
+                    id="bending",
+                    ply=ply.name,
+                    combination=combo.name,
+                    demand=demand,
+                    capacity=capacity_from(fy, {}, g0),
+                    quantity="stress",
+                    reference=("f_y", fy),
+                    factors={},
+                    partial_factors=g0,
+                    sources={"f_y": mat.source_of("Fy"),
+                             "gamma_M0": "EN 1993-1-1 6.1 (from memory)"},
+                    equation="sigma_Ed <= f_y / gamma_M0 (EN 1993-1-1 6.2.1(5), elastic)",
+                    location="",
+                    x=x,
+                    notes=("Plate assumed braced against lateral buckling by the timbers.",)))
+                fs = {"1/sqrt(3)": 1 / math.sqrt(3)}
+                checks.append(Check(
+                    id="shear",
+                    ply=ply.name,
+                    combination=combo.name,
+                    demand=float(tau_unit[i]) * combo.extremes.V_max_abs,
+                    capacity=capacity_from(fy, fs, g0),
+                    quantity="stress",
+                    reference=("f_y", fy),
+                    factors=fs,
+                    partial_factors=g0,
+                    sources={"f_y": mat.source_of("Fy"), "1/sqrt(3)": "EN 1993-1-1 6.2.6(5) (from "
+                     "memory)", "gamma_M0": "EN 1993-1-1 6.1 (from memory)"},
+                    equation="tau_Ed <= f_y / (sqrt(3) gamma_M0)",
+                    location="",
+                    x=combo.extremes.x_V_max_abs))
+        else:
+            warnings.append(Problem(f"plies[{i}].material", f'"{mat.id}" is neither timber nor '
+                                    "steel: its stresses are reported but not checked"))
+    checks += _bearing(section, beam, design, uls, warnings)
+    checks += _deflections(section, beam, design)
+    checks += _bolts(section, beam, design, uls, project.display_units)
+    checks += connector_checks(section, beam, design, project.display_units, warnings)
+    return tuple(checks), warnings
+
+
+def _eu_duration(duration: str) -> str:
+    """Map a US duration given on a custom combination to the nearest EU class."""
+    return {"ten-years": "long-term", "two-months": "medium-term", "seven-days": "short-term",
+            "ten-minutes": "instantaneous", "impact": "instantaneous"}.get(duration, duration)
+
+
+def _bearing(section: Section, beam: BeamResult, design: DesignSpec, uls: list,  # type: ignore[type-arg]
+             warnings: list[Problem]) -> list[Check]:
+    lb = beam.spec.bearing_length
+    if lb is None or not uls:
+        return []
+    cand = bearing_candidates(section, "fc90_k", design, warnings)
+    if not cand:
+        return []
+    L = beam.model.layout.length
+    i_min, fc90 = min(cand, key=lambda t: t[1])
+    mat = section.materials[i_min]
+    names = " + ".join(section.plies[i].name for i, _ in cand)
+    width = sum(section.plies[i].width for i, _ in cand)
+    out = []
+    for k, xs in enumerate(beam.model.layout.support_positions()):
+        at_end = xs <= 1e-9 or xs >= L - 1e-9
+        l_ef = lb + (0.03 if at_end else 0.06)
+        best = None
+        for combo in uls:
+            R = max(float(combo.solution.reactions[k]), 0.0)
+            km = ec5.k_mod(_eu_duration(combo.duration), design.service_class)
+            f = {"k_mod": km, "k_c,90": 1.0}
+            g = {"gamma_M": ec5.gamma_M(mat.product)}
+            s = {"fc90_k": mat.source_of("fc90_k"), "k_mod": S_KMOD, "gamma_M": S_GM,
+                 "k_c,90": "EN 1995-1-1 6.1.5, taken as 1.0 (conservative)"}
+            apply_overrides(f, s, design, section.plies[i_min].name)
+            c = Check(
+                id="bearing",
+                ply=names,
+                combination=combo.name,
+                demand=R / (width * l_ef),
+                capacity=capacity_from(fc90, f, g),
+                quantity="stress",
+                reference=("fc90_k", fc90),
+                factors=f,
+                partial_factors=g,
+                sources=s,
+                equation="sigma_c,90,d = F / (b l_ef) <= k_c,90 k_mod f_c,90,k / gamma_M",
+                location=f"support {k + 1}",
+                x=xs,
+                notes=(f"Effective length l_ef = l + {'30' if at_end else '2 x 30'} mm "
+                       "(EN 1995-1-1 6.1.5(1), from memory).",))
+            if best is None or c.ratio > best.ratio:
+                best = c
+        if best is not None:
+            out.append(best)
+    return out
+
+
+def _deflections(section: Section, beam: BeamResult, design: DesignSpec) -> list[Check]:
+    live, total, fin = design.deflection_limits()
+    EI = section.EI
+    EI_c = beam.creep_section.EI
+    src = {"limit": "EN 1995-1-1 7.2 Table 7.2 range, the user's choice (national annexes "
+           "vary)"}
+    chars = [c for c in beam.combinations if c.combination.limit_state == "SLS-characteristic"]
+    qps = [c for c in beam.combinations if c.combination.limit_state == "SLS-quasi-permanent"]
+    if not chars:
+        chars = [c for c in beam.combinations if c.combination.limit_state == "custom"]
+    qp = qps[0].solution if qps else None
+    out: list[Check] = []
+    for combo in chars:
+        out += deflection_checks("deflection-total", combo.name, combo.extremes, beam, EI, total,
+                                 src, ("w_inst of the characteristic combination.",))
+        q_only = {c: f for c, f in combo.combination.factors.items() if c != "D"}
+        sol_q = combine(beam.cases, q_only)
+        if sol_q is not None:
+            out += deflection_checks("deflection-live", combo.name, sol_q, beam, EI, live, src,
+                                     ("w_inst of the variable actions alone.",))
+        fin_sol: CaseSolution = combo.solution
+        if qp is not None:
+            fin_sol = combo.solution + qp.scaled(EI / EI_c) + qp.scaled(-1.0)
+        out += deflection_checks(
+            "deflection-long-term", combo.name, fin_sol, beam, EI, fin,
+            {**src, "k_def": "EN 1995-1-1 Table 3.2 (from memory)"},
+            (f"w_fin = w_inst,char + creep of the quasi-permanent load, timber moduli / "
+             f"(1 + k_def), 1 + k_def = {beam.creep_factor:g}.",))
+    return out
+
+
+def _bolts(section: Section, beam: BeamResult, design: DesignSpec, uls: list,  # type: ignore[type-arg]
+           system: str) -> list[Check]:
+    joints = side_by_side_joints(section)
+    if not joints or not uls:
+        return []
+    bolt = design.bolt
+    d = bolt.diameter
+    L = beam.model.layout.length
+    stock = STOCK_SPACINGS_US if system == "US" else STOCK_SPACINGS_SI
+    My = en_M_y(bolt.fu, d)
+    out = []
+    for jt in joints:
+        steel = section.plies[jt.steel]
+        rhos = [section.materials[j].value("rho_k") for j in jt.timbers]
+        if any(r is None for r in rhos):
+            continue
+        rho = min(r for r in rhos if r is not None)
+        fh = en_f_h_k(rho, d, 90.0)
+        t1 = min(section.plies[j].width for j in jt.timbers)
+        if jt.steel_is_main:
+            modes = en_steel_centre(fh, t1, d, My)
+            planes = 2
+            kind = "steel plate as central member, (8.11)"
+        else:
+            modes = en_thin_steel_single(fh, steel.width, d, My)
+            planes = 1
+            kind = "thin steel plate, single shear, (8.9)"
+        Fv_Rk = modes.value * planes
+        share = plate_share(section, jt.steel)
+        g = {"gamma_M": ec5.GAMMA_M_CONNECTION}
+        worst = max(sum(float(r) for r in c.solution.reactions) * share /
+                    ec5.k_mod(_eu_duration(c.duration), design.service_class) for c in uls)
+        s = pick_spacing(worst / L, bolt.rows * Fv_Rk / g["gamma_M"], bolt.spacing, stock, 4 * d)
+        n_loc = max(2, math.floor(L / s + 1e-9))
+        for combo in uls:
+            W = sum(float(r) for r in combo.solution.reactions)
+            f = {"k_mod": ec5.k_mod(_eu_duration(combo.duration), design.service_class)}
+            out.append(Check(
+                id="bolts",
+                ply=steel.name,
+                combination=combo.name,
+                demand=abs(W) * share / (n_loc * bolt.rows),
+                capacity=capacity_from(Fv_Rk, f, g),
+                quantity="force",
+                reference=("F_v,Rk", Fv_Rk),
+                factors=f,
+                partial_factors=g,
+                sources={"F_v,Rk": f"EN 1995-1-1 8.2.3 {kind}, f_h,90,k (8.32)-(8.33), "
+                         "M_y,Rk (8.30), rope effect left out (from memory)", "k_mod": S_KMOD,
+                 "gamma_M": "EN 1995-1-1 Table 2.3, connections (from memory)"},
+                equation="load per bolt <= k_mod F_v,Rk / gamma_M",
+                location=f"one bolt location every {fmt(s, 'length', system, 3)} "
+                f"({n_loc} locations, {bolt.rows} per location)",
+                fasteners=Fasteners(locations=n_loc, rows=bolt.rows, count=n_loc * bolt.rows,
+                                    spacing=s),
+                x=None,
+                notes=(", ".join(f"mode ({m}) {fmt(v, 'force', system)} per plane"
+                           for m, v in modes.modes.items())
+                 + f"; governing ({modes.governing}).",
+                 f"Plate's share of the load E_p I_p / EI = {share:.3f}.",
+                 "Spacing and distances per EN 1995-1-1 Table 8.4 (a1 >= 4d, a3 >= 4d, "
+                 "loaded edge a4,t >= 4d).", EDGE_END_REMINDERS[1], CAUTION)))
+    return out

@@ -1,0 +1,45 @@
+"""Readable checks table (display units)."""
+
+from __future__ import annotations
+
+from ..model.caution import CAUTION
+from ..model.units import fmt
+from .check import Check, governing
+
+QUANTITY_KIND = {"stress": "stress", "deflection": "deflection", "force": "force",
+                 "shear_flow": "shear_flow"}
+
+
+def governing_per_group(checks: tuple[Check, ...] | list[Check]) -> list[Check]:
+    """For each (id, ply, location), the check with the highest ratio, highest first."""
+    best: dict[tuple[str, str | None, str], Check] = {}
+    for c in checks:
+        key = (c.id, c.ply, c.location if c.id.startswith(("deflection", "bearing")) else "")
+        if key not in best or c.ratio > best[key].ratio:
+            best[key] = c
+    return sorted(best.values(), key=lambda c: -c.ratio)
+
+
+def checks_text(checks: tuple[Check, ...], system: str) -> list[str]:
+    """Lines of the checks table, the governing check first, with the caution."""
+    lines = ["", "Checks (governing combination of each; all combinations in --json)"]
+    lines.append(f"  {'check':<22}{'ply / place':<26}{'combination':<26}{'demand':>14}"
+                 f"{'capacity':>14}{'ratio':>8}  verdict")
+    for c in governing_per_group(checks):
+        kind = QUANTITY_KIND[c.quantity]
+        where = c.ply or c.location
+        if c.ply and c.location and c.id in ("bearing",):
+            where = f"{c.location}: {c.ply}"
+        lines.append(f"  {c.id:<22}{where[:25]:<26}{(c.combination or '')[:25]:<26}"
+                     f"{fmt(c.demand, kind, system):>14}{fmt(c.capacity, kind, system):>14}"
+                     f"{c.ratio:>8.3f}  {'OK' if c.ok else 'NOT OK'}")
+        if c.id in ("bolts", "connectors"):
+            lines.append(f"      {c.location}")
+    gov = governing(checks)
+    if gov is not None:
+        verdict = "OK" if all(c.ok for c in checks) else "NOT OK"
+        lines.append("")
+        lines.append(f"Governing: {gov.id} in {gov.ply or gov.location} under {gov.combination},"
+                     f" ratio {gov.ratio:.3f}. Verdict: {verdict}")
+    lines.append(CAUTION)
+    return lines

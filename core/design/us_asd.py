@@ -1,0 +1,368 @@
+"""US allowable stress design: timber per NDS 2018, steel plates per AISC 360-16.
+
+Adjusted design values (NDS Table 4.3.1, from memory):
+F'b = Fb C_D C_M C_t C_L C_F C_i C_r (glulam: C_V in place of C_F, the lesser of C_L
+and C_V); F'v = Fv C_D C_M C_t C_i; F'c_perp = Fc_perp C_M C_t C_i C_b;
+E'min = Emin C_M C_t C_i. Bolts: Z' = Z C_D C_M C_t C_g C_Delta (NDS Table 11.3.1).
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+
+from ..actions.analysis import BeamResult
+from ..codes import nds
+from ..codes.dowels import Fe_perpendicular, Fe_steel, nds_double_shear, nds_single_shear
+from ..model.caution import CAUTION
+from ..model.design import DesignSpec
+from ..model.errors import Problem
+from ..model.project import Project
+from ..model.units import fmt
+from ..section.transformed import Section
+from .check import Check, Fasteners, capacity_from
+from .common import (
+    EDGE_END_REMINDERS,
+    STOCK_SPACINGS_SI,
+    STOCK_SPACINGS_US,
+    apply_overrides,
+    bearing_candidates,
+    bending_demand,
+    connector_checks,
+    deflection_checks,
+    pick_spacing,
+    plate_share,
+    side_by_side_joints,
+    unit_shear_stress,
+)
+
+S_TABLE = "NDS 2018 Table 2.3.2 (from memory)"
+S_CM = "NDS Supplement Table 4A/5A wet service factors (from memory)"
+S_CT = "NDS 2018 Table 2.3.3 (from memory)"
+S_CI = "NDS 2018 Table 4.3.8 (from memory)"
+S_CR = "NDS 2018 4.3.9 (user's declaration)"
+S_CF = "NDS Supplement Table 4A size factors (from memory)"
+
+
+def us_checks(project: Project, section: Section, beam: BeamResult,
+              design: DesignSpec) -> tuple[tuple[Check, ...], list[Problem]]:
+    """Every US-ASD check of the project."""
+    checks: list[Check] = []
+    warnings: list[Problem] = []
+    wet, temp = design.wet_service, design.temperature
+    combos = beam.combinations
+    tau_unit = unit_shear_stress(section)
+    if not any(c.combination.limit_state in ("ASD", "custom") for c in combos):
+        warnings.append(Problem("beam.combinations", 'no ASD combination: use "ASD" (or your '
+                                "own list) with the US basis; timber strength checks are "
+                                "skipped"))
+    member_width = max(p.x + p.width for p in section.plies) - min(p.x for p in section.plies)
+    for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):
+        if section.area[i] <= 0:
+            continue
+        if mat.kind == "timber":
+            Fb, Fv, Emin = mat.value("Fb"), mat.value("Fv"), mat.value("Emin")
+            if Fb is None or Fv is None:
+                warnings.append(Problem(f"plies[{i}].material", f'"{mat.id}" has no NDS '
+                                        "reference values (Fb, Fv); its timber checks are "
+                                        "skipped on the US basis"))
+                continue
+            cf = nds.C_F(ply.height, mat.product, mat.size_adjusted)
+            base = {"C_M": nds.C_M("Fb", mat.product, wet, Fb * cf),
+                    "C_t": nds.C_t("Fb", temp, wet),
+                    "C_i": nds.C_i("Fb", design.incised),
+                    "C_r": nds.C_r(design.repetitive_member, mat.product)}
+            src = {"Fb": mat.source_of("Fb"), "C_D": S_TABLE, "C_M": S_CM, "C_t": S_CT,
+                   "C_i": S_CI, "C_r": S_CR}
+            if mat.product == "glulam":
+                size_sym, size_val = "C_V", nds.C_V(beam.model.layout.length, ply.height,
+                                                    ply.width)
+                src["C_V"] = "NDS 2018 5.3.6 (from memory)"
+            else:
+                size_sym, size_val = "C_F", cf
+                src["C_F"] = S_CF if mat.product == "sawn" else (
+                    "NDS 2018 4.3.6.2 / typical LVL size factor (from memory)")
+            c_l = 1.0
+            notes: list[str] = []
+            if design.compression_edge_braced:
+                src["C_L"] = "compression edge braced (user's declaration), NDS 3.3.3"
+            else:
+                lu = design.unbraced_length or beam.model.layout.length
+                Emin_adj = (Emin or mat.E * 0.36) * nds.C_M("Emin", mat.product, wet) * \
+                    nds.C_t("Emin", temp, wet) * nds.C_i("Emin", design.incised)
+                fb_star = Fb * nds.C_D("ten-years") * math.prod(base.values()) * size_val
+                c_l = nds.C_L(fb_star, Emin_adj, ply.height, member_width, lu)
+                src["C_L"] = ("NDS 2018 3.3.3, l_e per Table 3.3.3 (uniform load), b = whole "
+                              "member width (plies bolted together), from memory")
+                notes.append(f"C_L from unbraced length {lu:.3f} m")
+            for combo in combos:
+                if combo.combination.limit_state not in ("ASD", "custom"):
+                    continue
+                f = {"C_D": nds.C_D(combo.duration), **base}
+                if mat.product == "glulam":
+                    f["C_V" if size_val <= c_l else "C_L"] = min(size_val, c_l)
+                else:
+                    f["C_L"] = c_l
+                    f[size_sym] = size_val
+                s = dict(src)
+                apply_overrides(f, s, design, ply.name)
+                demand, x = bending_demand(section, combo, i)
+                checks.append(Check(
+                    id="bending",
+                    ply=ply.name,
+                    combination=combo.name,
+                    demand=demand,
+                    capacity=capacity_from(Fb, f),
+                    quantity="stress",
+                    reference=("Fb", Fb),
+                    factors=f,
+                    partial_factors={},
+                    sources=s,
+                    equation="f_b = n M c / I_t <= F'b = Fb x factors",
+                    location="",
+                    x=x,
+                    notes=tuple(notes)))
+                fv = {"C_D": nds.C_D(combo.duration), "C_M": nds.C_M("Fv", mat.product, wet),
+                      "C_t": nds.C_t("Fv", temp, wet), "C_i": nds.C_i("Fv", design.incised)}
+                sv = {"Fv": mat.source_of("Fv"), "C_D": S_TABLE, "C_M": S_CM, "C_t": S_CT,
+                      "C_i": S_CI}
+                apply_overrides(fv, sv, design, ply.name)
+                checks.append(Check(
+                    id="shear",
+                    ply=ply.name,
+                    combination=combo.name,
+                    demand=float(tau_unit[i]) * combo.extremes.V_max_abs,
+                    capacity=capacity_from(Fv, fv),
+                    quantity="stress",
+                    reference=("Fv", Fv),
+                    factors=fv,
+                    partial_factors={},
+                    sources=sv,
+                    equation="f_v = V n Q / (I_t b) <= F'v = Fv x factors",
+                    location="",
+                    x=combo.extremes.x_V_max_abs,
+                    notes=("Shear taken at the largest |V|, loads within d of supports included "
+                     "(conservative; NDS 3.4.3.1 permits leaving them out).",)))
+        elif mat.kind == "steel":
+            checks.extend(_steel_checks(i, section, beam, design, tau_unit))
+        else:
+            warnings.append(Problem(f"plies[{i}].material", f'"{mat.id}" is neither timber nor '
+                                    "steel: its stresses are reported but not checked"))
+    checks.extend(_bearing(project, section, beam, design, warnings))
+    checks.extend(_deflections(beam, section, design))
+    checks.extend(_bolts(section, beam, design, project.display_units))
+    checks.extend(connector_checks(section, beam, design, project.display_units, warnings))
+    return tuple(checks), warnings
+
+
+def _steel_checks(i: int, section: Section, beam: BeamResult, design: DesignSpec,
+                  tau_unit: np.ndarray) -> list[Check]:
+    ply, mat = section.plies[i], section.materials[i]
+    Fy = mat.value("Fy")
+    if Fy is None:
+        return []
+    out = []
+    if design.steel_rule == "AISC-F11":
+        f: dict[str, float] = {"Z/S": 1.5}
+        g = {"Omega_b": 1.67}
+        src = {"Fy": mat.source_of("Fy"), "Z/S": "rectangle, Mn = Fy Z <= 1.6 Fy S, AISC 360-16 "
+               "F11.1 (from memory)", "Omega_b": "AISC 360-16 F1 (from memory)"}
+        eq = "f_b = n M c / I_t <= Fy (Z/S) / Omega_b"
+    else:
+        f, g = {"F_b/F_y": 0.6}, {}
+        src = {"Fy": mat.source_of("Fy"), "F_b/F_y": "traditional allowable 0.6 Fy for plates "
+               "braced by the timbers (common practice)"}
+        eq = "f_b = n M c / I_t <= 0.6 Fy"
+    h, t = max(ply.height, ply.width), min(ply.height, ply.width)
+    kv_limit = 1.10 * math.sqrt(5.34 * mat.E / Fy)
+    cv1 = 1.0 if h / t <= kv_limit else kv_limit / (h / t)
+    fv = {"0.6": 0.6, "C_v1": cv1}
+    gv = {"Omega_v": 1.67}
+    sv = {"Fy": mat.source_of("Fy"), "0.6": "AISC 360-16 G2.1 (from memory)",
+          "C_v1": "AISC 360-16 G2.1(b), k_v = 5.34 (from memory)",
+          "Omega_v": "AISC 360-16 G1 (from memory)"}
+    for combo in beam.combinations:
+        demand, x = bending_demand(section, combo, i)
+        out.append(Check(
+            id="bending",
+            ply=ply.name,
+            combination=combo.name,
+            demand=demand,
+            capacity=capacity_from(Fy, f, g),
+            quantity="stress",
+            reference=("Fy", Fy),
+            factors=f,
+            partial_factors=g,
+            sources=src,
+            equation=eq,
+            location="",
+            x=x,
+            notes=("Plate assumed braced against lateral buckling by the timbers.",)))
+        out.append(Check(
+            id="shear",
+            ply=ply.name,
+            combination=combo.name,
+            demand=float(tau_unit[i]) * combo.extremes.V_max_abs,
+            capacity=capacity_from(Fy, fv, gv),
+            quantity="stress",
+            reference=("Fy", Fy),
+            factors=fv,
+            partial_factors=gv,
+            sources=sv,
+            equation="f_v (peak) <= 0.6 Fy C_v1 / Omega_v",
+            location="",
+            x=combo.extremes.x_V_max_abs,
+            notes=("Peak shear stress compared with the average-stress rule "
+                          "(conservative).",)))
+    return out
+
+
+def _bearing(project: Project, section: Section, beam: BeamResult, design: DesignSpec,
+             warnings: list[Problem]) -> list[Check]:
+    lb = beam.spec.bearing_length
+    if lb is None:
+        return []
+    cand = bearing_candidates(section, "Fc_perp", design, warnings)
+    if not cand:
+        return []
+    area = sum(section.plies[i].width for i, _ in cand) * lb
+    i_min, fcp = min(cand, key=lambda t: t[1])
+    mat = section.materials[i_min]
+    names = " + ".join(section.plies[i].name for i, _ in cand)
+    layout = beam.model.layout
+    L = layout.length
+    out = []
+    for k, xs in enumerate(layout.support_positions()):
+        worst = max(beam.combinations, key=lambda c: float(c.solution.reactions[k]))
+        R = float(worst.solution.reactions[k])
+        at_end = xs <= 1e-9 or xs >= L - 1e-9
+        f = {"C_M": nds.C_M("Fc_perp", mat.product, design.wet_service),
+             "C_t": nds.C_t("Fc_perp", design.temperature, design.wet_service),
+             "C_i": nds.C_i("Fc_perp", design.incised), "C_b": nds.C_b(lb, at_end)}
+        s = {"Fc_perp": mat.source_of("Fc_perp"), "C_M": S_CM, "C_t": S_CT, "C_i": S_CI,
+             "C_b": "NDS 2018 3.10.4 (from memory)"}
+        apply_overrides(f, s, design, section.plies[i_min].name)
+        out.append(Check(
+            id="bearing",
+            ply=names,
+            combination=worst.name,
+            demand=max(R, 0.0) / area,
+            capacity=capacity_from(fcp, f),
+            quantity="stress",
+            reference=("Fc_perp", fcp),
+            factors=f,
+            partial_factors={},
+            sources=s,
+            equation="f_c_perp = R / (sum b x l_b) <= F'c_perp",
+            location=f"support {k + 1}",
+            x=xs,
+            notes=("Bearing area: timber plies at the bottom of the section times the "
+                          "bearing length.",)))
+    return out
+
+
+def _deflections(beam: BeamResult, section: Section, design: DesignSpec) -> list[Check]:
+    live, total, long_term = design.deflection_limits()
+    src = {"limit": "IBC 2018 Table 1604.3 (from memory) or the user's choice"}
+    out: list[Check] = []
+    EI = section.EI
+    for case in ("L", "Lr", "S", "W"):
+        if case in beam.cases:
+            out += deflection_checks("deflection-live", case, beam.extremes_of(case), beam,
+                                     EI, live,
+                                     src, ("Immediate deflection under the variable case "
+                                           "alone.",))
+    for combo in beam.combinations:
+        out += deflection_checks("deflection-total", combo.name, combo.extremes, beam, EI,
+                                 total, src, ("Immediate deflection of the whole combination.",))
+        out += deflection_checks(
+            "deflection-long-term", combo.name, combo.total, beam, EI, long_term,
+            {**src, "K_cr": "NDS 2018 3.5.2 (from memory)"},
+            (f"K_cr = {beam.creep_factor:g}: sustained part on the section with timber moduli "
+             "divided by K_cr, plus the short-term part.",))
+    return out
+
+
+def _bolts(section: Section, beam: BeamResult, design: DesignSpec, system: str) -> list[Check]:
+    joints = side_by_side_joints(section)
+    if not joints:
+        return []
+    bolt = design.bolt
+    D = bolt.diameter
+    L = beam.model.layout.length
+    stock = STOCK_SPACINGS_US if system == "US" else STOCK_SPACINGS_SI
+    out = []
+    for jt in joints:
+        steel = section.plies[jt.steel]
+        smat = section.materials[jt.steel]
+        Fu = smat.value("Fu")
+        timbers = [j for j in jt.timbers if section.materials[j].value("G") is not None]
+        if Fu is None or not timbers:
+            continue
+        G = min(section.materials[j].value("G") or 0.5 for j in timbers)
+        Fe_w = Fe_perpendicular(G, D)
+        Fe_s = Fe_steel(Fu)
+        thick = [_available_thickness(section, j) for j in timbers]
+        if jt.steel_is_main:
+            modes = nds_double_shear(D, steel.width, Fe_s, min(thick), Fe_w, bolt.Fyb, 90.0)
+            kind = "double shear, wood-steel-wood"
+        else:
+            modes = nds_single_shear(D, thick[0], Fe_w, steel.width, Fe_s, bolt.Fyb, 90.0)
+            kind = "single shear, steel on one face"
+        Z = modes.value
+        share = plate_share(section, jt.steel)
+        wood = section.materials[timbers[0]]
+        base = {"C_M": 0.7 if design.wet_service else 1.0,
+                "C_t": 1.0 if design.temperature == "normal" else (
+                    (0.7 if design.wet_service else 0.8) if design.temperature == "up-to-125F"
+                    else (0.5 if design.wet_service else 0.7)),
+                "C_g": 1.0, "C_Delta": 1.0}
+        worst_need = max(sum(float(r) for r in c.solution.reactions) * share /
+                         nds.C_D(c.duration) for c in beam.combinations)
+        s = pick_spacing(worst_need / L, bolt.rows * Z * math.prod(base.values()),
+                         bolt.spacing, stock, 4 * D)
+        n_loc = max(2, math.floor(L / s + 1e-9))
+        mode_text = ", ".join(f"{m} {fmt(v, 'force', system)}" for m, v in modes.modes.items())
+        for combo in beam.combinations:
+            W = sum(float(r) for r in combo.solution.reactions)
+            per_bolt = abs(W) * share / (n_loc * bolt.rows)
+            f = {"C_D": nds.C_D(combo.duration), **base}
+            src = {"Z": f"NDS 2018 12.3.1 yield limit equations, {kind}; G = {G:g} "
+                   f"({wood.source_of('G')}); Fyb from the user; Fe steel = 1.5 Fu "
+                   "(from memory)",
+                   "C_D": S_TABLE, "C_M": "NDS 2018 Table 11.3.3 (from memory)",
+                   "C_t": "NDS 2018 Table 11.3.4 (from memory)",
+                   "C_g": "group action taken as 1.0 (bolts staggered, few per row)",
+                   "C_Delta": "full edge, end and spacing distances assumed (see notes)"}
+            out.append(Check(
+                id="bolts",
+                ply=steel.name,
+                combination=combo.name,
+                demand=per_bolt,
+                capacity=capacity_from(Z, f),
+                quantity="force",
+                reference=("Z", Z),
+                factors=f,
+                partial_factors={},
+                sources=src,
+                equation="load per bolt = W x (E_p I_p / EI) / (bolt locations x rows) <= Z'",
+                location=f"one bolt location every {fmt(s, 'length', system, 3)} "
+                f"({n_loc} locations, {bolt.rows} per location)",
+                fasteners=Fasteners(locations=n_loc, rows=bolt.rows, count=n_loc * bolt.rows,
+                                    spacing=s),
+                x=None,
+                notes=(f"Yield modes: {mode_text}; governing mode {modes.governing}.",
+                 f"Plate's share of the load E_p I_p / EI = {share:.3f}.",
+                 *EDGE_END_REMINDERS, CAUTION)))
+    return out
+
+
+def _available_thickness(section: Section, j: int) -> float:
+    """A timber's thickness available to one plate: half where plates are on both of its
+    faces (NDS 12.3.7 multiple shear, each plane taking half the member, from memory).
+    """
+    joints = side_by_side_joints(section)
+    count = sum(1 for jt in joints if j in jt.timbers)
+    width = section.plies[j].width
+    return width / 2 if count >= 2 else width

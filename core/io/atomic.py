@@ -1,0 +1,77 @@
+"""Writing files so that a failed write never destroys what was there.
+
+The text goes to a temporary file in the target's folder, is flushed to disk, and is
+renamed over the target. A symbolic link is followed, so its target is replaced and
+the link stays; an existing file keeps its permission bits; a new file gets the mode
+the user's umask gives; a FIFO, device or folder is refused rather than replaced.
+"""
+
+from __future__ import annotations
+
+import os
+import stat
+import tempfile
+from pathlib import Path
+
+from ..model.errors import Problem, ProjectError
+
+
+def _current_umask() -> int:
+    mask = os.umask(0)
+    os.umask(mask)
+    return mask
+
+
+def _target(path: str | os.PathLike[str], field: str) -> Path:
+    raw = os.fspath(path)
+    if not raw:
+        raise ProjectError(Problem(field, "is empty: give a file name"))
+    target = Path(raw)
+    if target.is_symlink():
+        target = Path(os.path.realpath(target))
+    if target.exists() and not target.is_file():
+        kind = "a folder" if target.is_dir() else "not a regular file (a FIFO or device)"
+        raise ProjectError(Problem(field, f"{raw} is {kind}; give the name of a file"))
+    return target
+
+
+def write_bytes(path: str | os.PathLike[str], data: bytes, field: str = "output") -> None:
+    """Write ``data`` to ``path`` atomically (see the module's description)."""
+    target = _target(path, field)
+    folder = target.parent if str(target.parent) else Path(".")
+    try:
+        mode = stat.S_IMODE(target.stat().st_mode)
+    except FileNotFoundError:
+        mode = 0o666 & ~_current_umask()
+    fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=str(folder))
+    try:
+        with os.fdopen(fd, "wb") as fh:
+            fh.write(data)
+            fh.flush()
+            os.fsync(fh.fileno())
+        os.chmod(tmp, mode)
+        os.replace(tmp, target)
+    except BaseException:
+        try:
+            os.unlink(tmp)
+        except OSError:
+            pass
+        raise
+
+
+def write_text(path: str | os.PathLike[str], text: str, field: str = "output") -> None:
+    """Write UTF-8 ``text`` atomically; text that cannot be encoded is a named problem."""
+    try:
+        data = text.encode("utf-8")
+    except UnicodeEncodeError as exc:
+        raise ProjectError(Problem(field, "holds a character that cannot be written as UTF-8 "
+                                   f"(position {exc.start}); remove it")) from None
+    write_bytes(path, data, field)
+
+
+def write_text_new(path: str | os.PathLike[str], text: str, field: str = "output") -> None:
+    """Write ``text`` to a file that must not exist yet."""
+    if os.path.lexists(os.fspath(path)):
+        raise ProjectError(Problem(field, f"{os.fspath(path)} exists already; give a new "
+                                   "file name"))
+    write_text(path, text, field)

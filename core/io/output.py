@@ -1,0 +1,272 @@
+"""Machine-readable (SI) and readable (display units) output of an analysis."""
+
+from __future__ import annotations
+
+from dataclasses import fields
+from typing import Any
+
+import numpy as np
+
+from .. import __version__
+from ..actions.analysis import BeamResult
+from ..actions.beam import Extremes
+from ..model.caution import ASSUMPTIONS, CAUTION
+from ..model.units import fmt, sig
+from ..pipeline import Analysis
+from ..section.transformed import PlyResult, Section
+
+
+def _f(x: Any) -> Any:
+    if isinstance(x, float | np.floating):
+        v = float(x)
+        return v if np.isfinite(v) else None
+    return x
+
+
+def section_dict(section: Section) -> dict[str, Any]:
+    """Section properties (SI)."""
+    return {
+        "EA": section.EA,
+        "EI": section.EI,
+        "neutral_axis_y": section.neutral_axis_y,
+        "I_transformed": section.I_transformed,
+        "A_transformed": section.A_transformed,
+        "reference_material": section.reference_material,
+        "E_reference": section.E_ref,
+        "mass_per_length": section.mass_per_length,
+        "depth": section.depth,
+        "interfaces": [
+            {"y": itf.y, "plies": [[section.plies[i].name, section.plies[j].name]
+                                   for i, j in itf.pairs],
+             "length": float(itf.length), "Q": float(itf.Q)}
+            for itf in section.interfaces],
+    }
+
+
+def plies_list(section: Section, moment: float | None) -> list[dict[str, Any]]:
+    """Per-ply table (SI), with extreme-fibre stresses at ``moment`` where given."""
+    rows = []
+    top = bot = None
+    if moment is not None:
+        top, bot = section.ply_extreme_stresses(moment)
+    for i, r in enumerate(section.ply_results()):
+        row = {f.name: _f(getattr(r, f.name)) for f in fields(PlyResult)}
+        if top is not None and bot is not None:
+            row["stress_top"] = float(top[i])
+            row["stress_bottom"] = float(bot[i])
+        rows.append(row)
+    return rows
+
+
+def _ext(e: Extremes | None) -> dict[str, Any] | None:
+    return None if e is None else _extremes_dict(e)
+
+
+def _extremes_dict(e: Extremes) -> dict[str, Any]:
+    return {"M_max": e.M_max, "x_M_max": e.x_M_max, "M_min": e.M_min, "x_M_min": e.x_M_min,
+            "V_max_abs": e.V_max_abs, "x_V_max_abs": e.x_V_max_abs,
+            "deflection_max_abs": e.deflection_max_abs,
+            "x_deflection_max": e.x_deflection_max,
+            "deflection_by_region": [{"region": n, "deflection": w, "x": x}
+                                     for n, w, x in e.deflection_by_region]}
+
+
+def beam_dict(beam: BeamResult, section: Section) -> dict[str, Any]:
+    """Beam actions (SI): reactions by support and case, combinations, creep."""
+    lay = beam.spec.layout
+    reactions = []
+    for k, (x, kind) in enumerate(zip(lay.support_positions(), lay.support_kinds(),
+                                      strict=True)):
+        rec: dict[str, Any] = {"support": k + 1, "x": x, "type": kind}
+        for case, sol in beam.cases.items():
+            rec[case] = float(sol.reactions[k])
+        if kind == "fixed":
+            rec["moments"] = {case: float(sol.reaction_moments[k])
+                              for case, sol in beam.cases.items()}
+        reactions.append(rec)
+    combos = []
+    for c in beam.combinations:
+        top, bot = section.ply_extreme_stresses(c.M_governing)
+        ctop, cbot = beam.creep_section.ply_extreme_stresses(c.M_sustained)
+        e = c.extremes
+        combos.append({
+            "name": c.name,
+            "factors": dict(c.combination.factors),
+            "duration": c.duration,
+            "limit_state": c.combination.limit_state,
+            **_extremes_dict(e),
+            "reactions": [float(r) for r in c.solution.reactions],
+            "M_governing": c.M_governing,
+            "plies": [{"name": p.name, "stress_top": float(top[i]),
+                       "stress_bottom": float(bot[i])} for i, p in enumerate(section.plies)],
+            "creep": {
+                "sustained_factors": c.sustained_factors,
+                "deflection_short_term": (c.short_term_rest.deflection_max_abs
+                                          if c.short_term_rest else 0.0),
+                "deflection_long_term": (c.long_term.deflection_max_abs
+                                         if c.long_term else 0.0),
+                "deflection_total": c.total.deflection_max_abs,
+                "x_deflection_total": c.total.x_deflection_max,
+                "M_sustained": c.M_sustained,
+                "plies_sustained": [
+                    {"name": p.name, "stress_top": float(ctop[i]),
+                     "stress_bottom": float(cbot[i])} for i, p in enumerate(section.plies)],
+            },
+        })
+    return {
+        "length": lay.length,
+        "spans": list(lay.spans),
+        "supports": lay.supports,
+        "support_positions": list(lay.support_positions()),
+        "self_weight": beam.self_weight_line,
+        "reactions": reactions,
+        "cases": {c: _ext(e) for c, e in beam.case_extremes.items()},
+        "combinations": combos,
+        "creep": {
+            "factor": beam.creep_factor,
+            "symbol": "K_cr" if beam.basis == "US" else "1 + k_def",
+            "EI_long_term": beam.creep_section.EI,
+            "neutral_axis_y_long_term": beam.creep_section.neutral_axis_y,
+            "moment_share_short_term": {p.name: float(s) for p, s in
+                                        zip(section.plies, section.moment_shares(),
+                                            strict=True)},
+            "moment_share_long_term": {p.name: float(s) for p, s in
+                                       zip(section.plies, beam.creep_section.moment_shares(),
+                                           strict=True)},
+        },
+    }
+
+
+def check_json(a: Analysis, moment: float | None = None, shear: float | None = None
+               ) -> dict[str, Any]:
+    """The object printed by ``plystack check --json`` (SI base units)."""
+    out: dict[str, Any] = {"units": "SI", "program": f"Plystack {__version__}",
+                           "title": a.project.title}
+    out["section"] = section_dict(a.section)
+    out["plies"] = plies_list(a.section, moment)
+    if moment is not None:
+        out["moment"] = moment
+    if shear is not None:
+        out["shear"] = {
+            "V": shear,
+            "interfaces": [{"y": itf.y, "shear_flow": float(q)}
+                           for itf, q in a.section.interface_shear_flows(shear)],
+            "plies": _shear_by_ply(a.section, shear),
+        }
+    if a.beam is not None:
+        out["beam"] = beam_dict(a.beam, a.section)
+    if a.checks:
+        out["checks"] = [c.to_dict() for c in a.checks]
+        gov = max(a.checks, key=lambda c: c.ratio)
+        out["governing"] = {"id": gov.id, "ply": gov.ply, "combination": gov.combination,
+                            "ratio": gov.ratio, "ok": all(c.ok for c in a.checks)}
+        out["ok"] = all(c.ok for c in a.checks)
+        out["caution"] = CAUTION
+    out["assumptions"] = list(ASSUMPTIONS)
+    out["warnings"] = [str(w) for w in a.warnings]
+    return out
+
+
+def _shear_by_ply(section: Section, shear: float) -> list[dict[str, Any]]:
+    ys = shear_stations(section)
+    tau = section.shear_stress(shear, ys)
+    out = []
+    for i, p in enumerate(section.plies):
+        row = tau[i]
+        ok = np.isfinite(row)
+        if not ok.any():
+            out.append({"name": p.name, "tau_max": 0.0, "y": None})
+            continue
+        k = int(np.nanargmax(np.abs(np.where(ok, row, 0.0))))
+        out.append({"name": p.name, "tau_max": float(abs(row[k])), "y": float(ys[k])})
+    return out
+
+
+def shear_stations(section: Section, n: int = 200) -> np.ndarray:
+    """Heights for shear profiles: a fine grid plus every ply edge and the neutral axis."""
+    lo = float(section.y_bottom.min())
+    hi = float(section.y_top.max())
+    ys = np.concatenate([np.linspace(lo, hi, n), section.y_bottom, section.y_top,
+                         [section.neutral_axis_y]])
+    return np.unique(ys)
+
+
+def check_text(a: Analysis, moment: float | None = None, shear: float | None = None) -> str:
+    """Readable summary in the project's display units."""
+    s = a.section
+    u = a.project.display_units
+    lines = [f"Plystack {__version__}: {a.project.title}", ""]
+    lines.append("Section (transformed to " + s.reference_material + ")")
+    lines.append(f"  neutral axis y     {fmt(s.neutral_axis_y, 'length', u)}")
+    lines.append(f"  I transformed      {fmt(s.I_transformed, 'second_moment', u)}")
+    lines.append(f"  EA                 {fmt(s.EA, 'EA', u)}")
+    lines.append(f"  EI                 {fmt(s.EI, 'EI', u)}")
+    lines.append(f"  mass per length    {fmt(s.mass_per_length, 'mass_per_length', u)}")
+    lines.append("")
+    head = f"  {'ply':<18}{'material':<14}{'n':>8}{'area':>14}{'y bottom':>12}{'y top':>12}" \
+           f"{'M share':>9}"
+    if moment is not None:
+        head += f"{'stress top':>14}{'stress bot':>14}"
+    lines.append(head)
+    top = bot = None
+    if moment is not None:
+        top, bot = s.ply_extreme_stresses(moment)
+    for i, r in enumerate(s.ply_results()):
+        row = (f"  {r.name[:17]:<18}{r.material[:13]:<14}{sig(r.modular_ratio, 4):>8}"
+               f"{fmt(r.area, 'area', u, 4):>14}{fmt(r.y_bottom, 'length', u, 4):>12}"
+               f"{fmt(r.y_top, 'length', u, 4):>12}{r.moment_share * 100:>8.1f}%")
+        if top is not None and bot is not None:
+            row += f"{fmt(float(top[i]), 'stress', u):>14}{fmt(float(bot[i]), 'stress', u):>14}"
+        lines.append(row)
+    if moment is not None:
+        lines.append(f"  stresses at M = {fmt(moment, 'moment', u)} (tension positive)")
+    if shear is not None:
+        lines.append("")
+        lines.append(f"Shear V = {fmt(shear, 'force', u)}")
+        for itf, q in s.interface_shear_flows(shear):
+            lines.append(f"  interface at y = {fmt(itf.y, 'length', u)}: shear flow "
+                         f"{fmt(q, 'shear_flow', u)}")
+        for shear_row in _shear_by_ply(s, shear):
+            lines.append(f"  {shear_row['name']:<18} max shear stress "
+                         f"{fmt(shear_row['tau_max'], 'stress', u)}")
+    if a.beam is not None:
+        lines.extend(beam_text(a.beam, u))
+    if a.checks:
+        from ..design.text import checks_text
+
+        lines.extend(checks_text(a.checks, u))
+    if a.warnings:
+        lines.append("")
+        lines.append("Warnings")
+        lines.extend(f"  {w}" for w in a.warnings)
+    lines.append("")
+    lines.append("Assumptions: " + " ".join(ASSUMPTIONS))
+    return "\n".join(lines) + "\n"
+
+
+def beam_text(beam: BeamResult, u: str) -> list[str]:
+    """Readable beam actions."""
+    lay = beam.spec.layout
+    lines = ["", f"Beam: {lay.supports}, spans "
+             + ", ".join(fmt(s, 'span', u) for s in lay.spans)
+             + f", length {fmt(lay.length, 'span', u)}"]
+    if beam.self_weight_line:
+        lines.append(f"  self-weight (case D) {fmt(beam.self_weight_line, 'line_load', u)}")
+    lines.append("  Reactions (upward positive)")
+    for k, x in enumerate(lay.support_positions()):
+        parts = ", ".join(f"{c} {fmt(float(sol.reactions[k]), 'force', u)}"
+                          for c, sol in beam.cases.items())
+        lines.append(f"    support {k + 1} at {fmt(x, 'span', u)}: {parts}")
+    lines.append("  Combinations")
+    lines.append(f"    {'name':<28}{'M max':>14}{'M min':>14}{'|V| max':>12}{'defl.':>11}"
+                 f"{'defl. total':>13}")
+    for c in beam.combinations:
+        e = c.extremes
+        lines.append(f"    {c.name[:27]:<28}{fmt(e.M_max, 'moment', u):>14}"
+                     f"{fmt(e.M_min, 'moment', u):>14}{fmt(e.V_max_abs, 'force', u):>12}"
+                     f"{fmt(e.deflection_max_abs, 'deflection', u, 3):>11}"
+                     f"{fmt(c.total.deflection_max_abs, 'deflection', u, 3):>13}")
+    sym = "K_cr" if beam.basis == "US" else "1 + k_def"
+    lines.append(f"  Creep: {sym} = {beam.creep_factor:g}; long-term EI "
+                 f"{fmt(beam.creep_section.EI, 'EI', u)}; total = long-term + short-term")
+    return lines

@@ -1,0 +1,127 @@
+"""Writing the parts of a project file (quantities as strings that read back exactly)."""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from typing import TYPE_CHECKING, Any
+
+from ..model.design import Bolt, Connector, DesignSpec
+from ..model.materials import DENSITY_KEYS, Material
+from ..model.plies import Ply
+from ..model.units import exact_text
+
+if TYPE_CHECKING:
+    from ..model.member import BeamSpec
+
+
+def write_materials(materials: Mapping[str, Material], system: str) -> dict[str, Any]:
+    """Project materials as file records."""
+    out: dict[str, Any] = {}
+    for mid, m in materials.items():
+        rec: dict[str, Any] = {"kind": m.kind, "name": m.name,
+                               "E": exact_text(m.E, "modulus", system),
+                               "density": exact_text(m.density, "density", system)}
+        for key, v in m.values.items():
+            if key == "G":
+                rec[key] = v
+            elif key in DENSITY_KEYS:
+                rec[key] = exact_text(v, "density", system)
+            else:
+                rec[key] = exact_text(v, "stress", system)
+        rec["source"] = m.source
+        rec["product"] = m.product
+        if m.size_adjusted:
+            rec["size_adjusted"] = True
+        if m.sources:
+            rec["sources"] = dict(m.sources)
+        if m.notes:
+            rec["notes"] = m.notes
+        out[mid] = rec
+    return out
+
+
+def write_plies(plies: tuple[Ply, ...], system: str) -> list[dict[str, Any]]:
+    """Plies as file records."""
+    return [{"name": p.name, "material": p.material,
+             "x": exact_text(p.x, "length", system), "y": exact_text(p.y, "length", system),
+             "width": exact_text(p.width, "length", system),
+             "height": exact_text(p.height, "length", system)} for p in plies]
+
+
+def write_beam(beam: BeamSpec, system: str) -> dict[str, Any]:
+    """The "beam" object."""
+    lay = beam.layout
+    out: dict[str, Any] = {
+        "spans": [exact_text(s, "span", system) for s in lay.spans],
+        "supports": lay.supports,
+    }
+    if lay.overhang_left:
+        out["overhang_left"] = exact_text(lay.overhang_left, "span", system)
+    if lay.overhang_right:
+        out["overhang_right"] = exact_text(lay.overhang_right, "span", system)
+    if beam.bearing_length is not None:
+        out["bearing_length"] = exact_text(beam.bearing_length, "length", system)
+    out["self_weight"] = beam.self_weight
+    loads = []
+    for ld in beam.loads:
+        rec: dict[str, Any] = {"case": ld.case, "type": ld.type}
+        kind = {"area": "area_load", "line": "line_load", "point": "force"}[ld.type]
+        rec["value"] = exact_text(ld.value, kind, system)
+        if ld.tributary_width is not None:
+            rec["tributary_width"] = exact_text(ld.tributary_width, "length", system)
+        if ld.start is not None:
+            rec["from"] = exact_text(ld.start, "span", system)
+        if ld.end is not None:
+            rec["to"] = exact_text(ld.end, "span", system)
+        if ld.at is not None:
+            rec["at"] = exact_text(ld.at, "span", system)
+        loads.append(rec)
+    out["loads"] = loads
+    if beam.combinations is None:
+        pass
+    elif isinstance(beam.combinations, str):
+        out["combinations"] = beam.combinations
+    else:
+        out["combinations"] = [
+            {"name": c.name, "factors": dict(c.factors),
+             **({"duration": c.duration} if c.duration else {})}
+            for c in beam.combinations]
+    if beam.sustained_live_fraction is not None:
+        out["sustained_live_fraction"] = beam.sustained_live_fraction
+    return out
+
+
+def write_design(d: DesignSpec, system: str) -> dict[str, Any]:
+    """The "design" object (only what differs from the defaults, plus the basis)."""
+    out: dict[str, Any] = {"basis": d.basis}
+    default = DesignSpec(basis=d.basis)
+    for key in ("wet_service", "temperature", "repetitive_member", "incised",
+                "compression_edge_braced", "K_cr", "k_def", "steel_rule", "service_class",
+                "steel_bears"):
+        if getattr(d, key) != getattr(default, key):
+            out[key] = getattr(d, key)
+    if d.unbraced_length is not None:
+        out["unbraced_length"] = exact_text(d.unbraced_length, "span", system)
+    limits = {k: v for k, v in (("live", d.live_limit), ("total", d.total_limit),
+                                ("long_term", d.long_term_limit)) if v is not None}
+    if limits:
+        out["deflection_limits"] = limits
+    if d.psi:
+        out["psi"] = {k: list(v) for k, v in d.psi.items()}
+    if d.overrides:
+        out["overrides"] = {k: dict(v) for k, v in d.overrides.items()}
+    if d.connector != Connector():
+        c: dict[str, Any] = {"type": d.connector.type, "rows": d.connector.rows}
+        if d.connector.allowable is not None:
+            c["allowable"] = exact_text(d.connector.allowable, "force", system)
+        if d.connector.spacing is not None:
+            c["spacing"] = exact_text(d.connector.spacing, "length", system)
+        out["connector"] = c
+    if d.bolt != Bolt():
+        b: dict[str, Any] = {"diameter": exact_text(d.bolt.diameter, "length", system),
+                             "Fyb": exact_text(d.bolt.Fyb, "stress", system),
+                             "rows": d.bolt.rows, "fu": exact_text(d.bolt.fu, "stress", system)}
+        if d.bolt.spacing is not None:
+            b["spacing"] = exact_text(d.bolt.spacing, "length", system)
+        out["bolt"] = b
+    return out

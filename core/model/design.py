@@ -1,0 +1,116 @@
+"""The user's design-basis choices (the project file's "design" object).
+
+Both bases read the same object; keys that do not apply to a basis are ignored by it.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass, field
+
+BASES = ("US-ASD", "EU-LSD")
+STEEL_RULES = ("0.6Fy", "AISC-F11")
+TEMPERATURES = ("normal", "up-to-125F", "up-to-150F")
+
+
+@dataclass(frozen=True)
+class Connector:
+    """A connector for the interfaces of stacked plies: screw, nail or bolt, with the
+    allowable (US) or design (EU) lateral load per connector in N, as the user gives it
+    (already adjusted); None: the spacing check is not made. ``spacing`` in m; None: the
+    tool picks the largest stock spacing that works.
+    """
+
+    type: str = "screw"
+    allowable: float | None = None
+    rows: int = 1
+    spacing: float | None = None
+
+
+@dataclass(frozen=True)
+class Bolt:
+    """Through-bolt of a flitch beam (NDS 12.3.1 yield limit equations).
+
+    Attributes:
+        diameter: m.
+        Fyb: bolt bending yield strength, Pa (45,000 psi typical, from memory of NDS
+            Table 12.3.3 footnote).
+        rows: bolts across the depth at each bolt location.
+        fu: bolt tensile strength for EN 1995-1-1 (8.30), Pa (grade 4.6: 400 MPa,
+            EN 1993-1-8 Table 3.1, from memory).
+        spacing: spacing of bolt locations along the member, m; None: the tool picks the
+            largest stock spacing that works.
+
+    """
+
+    diameter: float = 0.0127
+    Fyb: float = 310.26e6
+    rows: int = 2
+    fu: float = 400e6
+    spacing: float | None = None
+
+
+@dataclass(frozen=True)
+class DesignSpec:
+    """Design basis and options.
+
+    Attributes:
+        basis: "US-ASD" or "EU-LSD".
+        wet_service: NDS C_M for wet service; K_cr 2.0 instead of 1.5.
+        temperature: NDS Table 2.3.3 range for C_t.
+        repetitive_member: NDS 4.3.9 C_r = 1.15.
+        incised: NDS 4.3.8 C_i.
+        compression_edge_braced: True gives C_L = 1.0 (the user's declaration).
+        unbraced_length: m, for C_L when the edge is not braced.
+        live_limit: span / this for live-load deflection.
+        total_limit: span / this for total-load deflection.
+        long_term_limit: span / this for long-term (creep) deflection.
+        K_cr: NDS 3.5.2 creep factor; None for the default (1.5, 2.0 wet).
+        k_def: EN 1995-1-1 Table 3.2; None for the default of the service class.
+        steel_rule: "0.6Fy" or "AISC-F11".
+        service_class: EN 1995-1-1 2.3.1.3 (1, 2 or 3).
+        psi: EN 1990 psi factors per case, overriding Table A1.1.
+        overrides: per ply name, factor symbol -> value, replacing what the tool derives.
+        connector: for the interfaces of stacked plies.
+        bolt: for flitch (side-by-side) plies.
+        steel_bears: True where steel plies bear on the supports (their own seats).
+
+    """
+
+    basis: str = "US-ASD"
+    wet_service: bool = False
+    temperature: str = "normal"
+    repetitive_member: bool = False
+    incised: bool = False
+    compression_edge_braced: bool = True
+    unbraced_length: float | None = None
+    live_limit: float | None = None
+    total_limit: float | None = None
+    long_term_limit: float | None = None
+    K_cr: float | None = None
+    k_def: float | None = None
+    steel_rule: str = "0.6Fy"
+    service_class: int = 1
+    psi: Mapping[str, tuple[float, float, float]] = field(default_factory=dict)
+    overrides: Mapping[str, Mapping[str, float]] = field(default_factory=dict)
+    connector: Connector = field(default_factory=Connector)
+    bolt: Bolt = field(default_factory=Bolt)
+    steel_bears: bool = False
+
+    @property
+    def us(self) -> bool:
+        """True for the US allowable stress basis."""
+        return self.basis == "US-ASD"
+
+    def deflection_limits(self) -> tuple[float, float, float]:
+        """(live, total, long-term) span ratios with the basis's defaults: US L/360 live and
+        L/240 total (IBC 2018 Table 1604.3, floors, from memory); EU L/300 (common
+        practice; national annexes vary).
+        """
+        if self.us:
+            live = self.live_limit or 360.0
+            total = self.total_limit or 240.0
+        else:
+            live = self.live_limit or 300.0
+            total = self.total_limit or 300.0
+        return live, total, self.long_term_limit or total

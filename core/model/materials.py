@@ -1,0 +1,164 @@
+"""Materials and the material library.
+
+A material record in a file uses the trade's own symbols as keys: "kind", "name", "E",
+"density", "source"; US timber reference values "Fb", "Ft", "Fv", "Fc", "Fc_perp",
+"Emin", "G"; European timber characteristic values "fm_k", "ft0_k", "fv_k", "fc0_k",
+"fc90_k", "rho_k"; steel "Fy", "Fu". Inside ``core`` all values are SI floats.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass, field
+from typing import Any
+
+from . import units
+from .errors import Problem
+
+KINDS = ("timber", "steel", "other")
+
+#: Design-value keys whose values are stresses (or moduli), parsed as stresses.
+STRESS_KEYS = (
+    "Fb", "Ft", "Fv", "Fc", "Fc_perp", "Emin",
+    "fm_k", "ft0_k", "fv_k", "fc0_k", "fc90_k", "E0_05",
+    "Fy", "Fu",
+)
+#: Keys parsed as densities.
+DENSITY_KEYS = ("rho_k",)
+#: Plain numbers.
+NUMBER_KEYS = ("G",)
+#: Text keys.
+TEXT_KEYS = ("name", "kind", "source", "product", "notes", "grade_rule")
+#: Flags.
+FLAG_KEYS = ("size_adjusted",)
+ALL_KEYS = frozenset(
+    ("E", "density", "sources", *STRESS_KEYS, *DENSITY_KEYS, *NUMBER_KEYS, *TEXT_KEYS,
+     *FLAG_KEYS)
+)
+
+#: Timber products: sawn lumber, glued laminated timber, laminated veneer lumber.
+PRODUCTS = ("sawn", "glulam", "lvl", "steel", "aluminium", "other")
+
+@dataclass(frozen=True)
+class Material:
+    """One material with its stiffness, density and design values (SI).
+
+    Attributes:
+        id: key used by plies.
+        name: readable name.
+        kind: "timber", "steel" or "other".
+        E: elastic modulus used for stiffness, Pa (mean/reference value).
+        density: mass density, kg/m^3.
+        source: where the record comes from, or "user".
+        values: design values keyed by the trade's symbol, Pa (G is dimensionless,
+            rho_k kg/m^3).
+        product: "sawn", "glulam", "lvl", "steel", "aluminium" or "other".
+        size_adjusted: True where tabulated values already include size (NDS Table 4B).
+        sources: per-value sources where they differ from ``source``.
+        notes: free text shown with the record.
+
+    """
+
+    id: str
+    name: str
+    kind: str
+    E: float
+    density: float
+    source: str = "user"
+    values: Mapping[str, float] = field(default_factory=dict)
+    product: str = "other"
+    size_adjusted: bool = False
+    sources: Mapping[str, str] = field(default_factory=dict)
+    notes: str = ""
+
+    def value(self, key: str) -> float | None:
+        """Return design value ``key`` or None where the record has none."""
+        return self.values.get(key)
+
+    def source_of(self, key: str) -> str:
+        """Return the source of value ``key`` (its own, or the record's)."""
+        return self.sources.get(key, self.source)
+
+
+def material_from_record(mid: str, record: Any, path: str) -> tuple[Material | None, list[Problem]]:
+    """Parse one material record from a file. Returns (material or None, problems)."""
+    problems: list[Problem] = []
+    if not isinstance(record, dict):
+        return None, [Problem(path, "must be an object with the material's values")]
+    for key in record:
+        if key not in ALL_KEYS:
+            problems.append(Problem(f"{path}.{key}", "is not a known material key"))
+    kind = record.get("kind")
+    if kind not in KINDS:
+        problems.append(Problem(f"{path}.kind", f"must be one of {', '.join(KINDS)}"))
+    E = density = 0.0
+    if "E" not in record:
+        problems.append(Problem(f"{path}.E", "is missing"))
+    else:
+        try:
+            E = units.parse(record["E"], "modulus", f"{path}.E")
+            if E <= 0:
+                problems.append(Problem(f"{path}.E", "must be greater than zero"))
+        except units.UnitError as exc:
+            problems.append(units.problem(exc))
+    if "density" in record:
+        try:
+            density = units.parse(record["density"], "density", f"{path}.density")
+            if density < 0:
+                problems.append(Problem(f"{path}.density", "must not be negative"))
+        except units.UnitError as exc:
+            problems.append(units.problem(exc))
+    values: dict[str, float] = {}
+    for key in STRESS_KEYS + DENSITY_KEYS:
+        if key in record:
+            dim = "density" if key in DENSITY_KEYS else "stress"
+            try:
+                v = units.parse(record[key], dim, f"{path}.{key}")
+                if v <= 0:
+                    problems.append(Problem(f"{path}.{key}", "must be greater than zero"))
+                values[key] = v
+            except units.UnitError as exc:
+                problems.append(units.problem(exc))
+    if "G" in record:
+        g = record["G"]
+        if isinstance(g, bool) or not isinstance(g, int | float) or not 0 < g < 2:
+            problems.append(Problem(f"{path}.G", "must be a plain number between 0 and 2"))
+        else:
+            values["G"] = float(g)
+    for key in ("name", "source", "product", "notes", "grade_rule"):
+        if key in record and not isinstance(record[key], str):
+            problems.append(Problem(f"{path}.{key}", "must be text"))
+    product = record.get("product", _default_product(kind))
+    if isinstance(product, str) and product not in PRODUCTS:
+        problems.append(Problem(f"{path}.product", f"must be one of {', '.join(PRODUCTS)}"))
+    size_adjusted = record.get("size_adjusted", False)
+    if not isinstance(size_adjusted, bool):
+        problems.append(Problem(f"{path}.size_adjusted", "must be true or false"))
+    sources = record.get("sources", {})
+    if not isinstance(sources, dict) or not all(
+        isinstance(k, str) and isinstance(v, str) for k, v in sources.items()
+    ):
+        problems.append(Problem(f"{path}.sources", "must map value keys to source text"))
+        sources = {}
+    if problems:
+        return None, problems
+    return (
+        Material(
+            id=mid,
+            name=str(record.get("name", mid)),
+            kind=str(kind),
+            E=E,
+            density=density,
+            source=str(record.get("source", "user")),
+            values=values,
+            product=str(product),
+            size_adjusted=bool(size_adjusted),
+            sources=dict(sources),
+            notes=str(record.get("notes", "")),
+        ),
+        [],
+    )
+
+
+def _default_product(kind: Any) -> str:
+    return {"timber": "sawn", "steel": "steel"}.get(kind if isinstance(kind, str) else "", "other")

@@ -1,0 +1,191 @@
+"""The member along its length: spans, supports and loads (plain frozen data, SI units).
+
+Positions are measured from the member's left end; loads are positive downward.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from .combination import Combination
+from .errors import Problem
+
+CASES = ("D", "L", "Lr", "S", "W")
+SUPPORTS = ("simple", "cantilever", "fixed-fixed", "propped")
+LOAD_TYPES = ("area", "line", "point")
+#: Positions closer than this fraction of the member length share one node.
+MERGE_TOLERANCE = 1e-7
+
+
+@dataclass(frozen=True)
+class Load:
+    """One load of one case. SI units; positive downward.
+
+    Attributes:
+        case: "D", "L", "Lr", "S" or "W" (ASCE 7 symbols).
+        type: "area" (value x tributary width), "line" or "point".
+        value: Pa for area, N/m for line, N for point loads.
+        tributary_width: m, area loads only.
+        start: m from the member's left end; None for the whole member.
+        end: m; None for the whole member.
+        at: m, point loads only.
+
+    """
+
+    case: str
+    type: str
+    value: float
+    tributary_width: float | None = None
+    start: float | None = None
+    end: float | None = None
+    at: float | None = None
+
+    @property
+    def line_value(self) -> float:
+        """Line load intensity, N/m (area loads times their tributary width)."""
+        if self.type == "area":
+            return self.value * (self.tributary_width or 0.0)
+        return self.value
+
+
+@dataclass(frozen=True)
+class BeamLayout:
+    """Spans and supports of the member.
+
+    Attributes:
+        spans: span lengths left to right, m.
+        supports: "simple" (several spans: continuous over pinned supports),
+            "cantilever" (fixed left, free right), "fixed-fixed", "propped"
+            (fixed left, pinned right).
+        overhang_left: m, simple/continuous only.
+        overhang_right: m, simple/continuous only.
+
+    """
+
+    spans: tuple[float, ...]
+    supports: str = "simple"
+    overhang_left: float = 0.0
+    overhang_right: float = 0.0
+
+    @property
+    def length(self) -> float:
+        """Total member length, m."""
+        return self.overhang_left + sum(self.spans) + self.overhang_right
+
+    def support_positions(self) -> tuple[float, ...]:
+        """X of every support, m."""
+        if self.supports == "cantilever":
+            return (0.0,)
+        xs = [self.overhang_left]
+        for s in self.spans:
+            xs.append(xs[-1] + s)
+        return tuple(xs)
+
+    def support_kinds(self) -> tuple[str, ...]:
+        """'pin' or 'fixed' for each support."""
+        n = len(self.support_positions())
+        if self.supports == "cantilever":
+            return ("fixed",)
+        if self.supports == "fixed-fixed":
+            return ("fixed", "fixed")
+        if self.supports == "propped":
+            return ("fixed", "pin")
+        return ("pin",) * n
+
+    def regions(self) -> list[tuple[str, float, float]]:
+        """Named parts of the member: overhangs and spans, (name, x0, x1)."""
+        out = []
+        if self.supports == "cantilever":
+            return [("cantilever", 0.0, self.spans[0])]
+        x = 0.0
+        if self.overhang_left > 0:
+            out.append(("left overhang", 0.0, self.overhang_left))
+        x = self.overhang_left
+        for i, s in enumerate(self.spans):
+            out.append((f"span {i + 1}", x, x + s))
+            x += s
+        if self.overhang_right > 0:
+            out.append(("right overhang", x, x + self.overhang_right))
+        return out
+
+
+def validate_layout(layout: BeamLayout, path: str = "beam") -> list[Problem]:
+    """Named problems of spans, supports and overhangs."""
+    problems = []
+    if not layout.spans:
+        problems.append(Problem(f"{path}.spans", "needs at least one span"))
+    for i, s in enumerate(layout.spans):
+        if not np.isfinite(s) or s <= 0:
+            problems.append(Problem(f"{path}.spans[{i}]", "must be greater than zero"))
+    if layout.supports not in SUPPORTS:
+        problems.append(Problem(f"{path}.supports", f'"{layout.supports}" is not one of '
+                                + ", ".join(SUPPORTS)))
+    elif layout.supports != "simple" and len(layout.spans) != 1:
+        problems.append(Problem(f"{path}.supports", f'"{layout.supports}" needs exactly one '
+                                f"span, not {len(layout.spans)}; several spans are "
+                                'continuous over pinned supports ("simple")'))
+    for side in ("overhang_left", "overhang_right"):
+        v = getattr(layout, side)
+        if not np.isfinite(v) or v < 0:
+            problems.append(Problem(f"{path}.{side}", "must be zero or more"))
+        elif v > 0 and layout.supports != "simple":
+            problems.append(Problem(f"{path}.{side}", "overhangs are only for simple or "
+                                    "continuous spans"))
+    return problems
+
+
+def validate_load(load: Load, length: float, path: str) -> list[Problem]:
+    """Named problems of one load on a member of ``length``."""
+    problems = []
+    tol = 1e-9 * max(length, 1.0)
+    if load.case not in CASES:
+        problems.append(Problem(f"{path}.case", f'"{load.case}" is not a load case; use one '
+                                "of " + ", ".join(CASES)))
+    if load.type not in LOAD_TYPES:
+        problems.append(Problem(f"{path}.type", f'"{load.type}" is not one of '
+                                + ", ".join(LOAD_TYPES)))
+        return problems
+    if not np.isfinite(load.value):
+        problems.append(Problem(f"{path}.value", "is not a finite number"))
+    if load.type == "point":
+        if load.at is None:
+            problems.append(Problem(f"{path}.at", "is missing (where the point load acts)"))
+        elif not -tol <= load.at <= length + tol:
+            problems.append(Problem(f"{path}.at", f"is outside the member (0 to {length:.4g} m)"))
+    else:
+        if load.type == "area" and (load.tributary_width is None or load.tributary_width <= 0):
+            problems.append(Problem(f"{path}.tributary_width", "must be greater than zero"))
+        start = 0.0 if load.start is None else load.start
+        end = length if load.end is None else load.end
+        if not -tol <= start <= length + tol:
+            problems.append(Problem(f"{path}.from", f"is outside the member (0 to {length:.4g} m)"))
+        if not -tol <= end <= length + tol:
+            problems.append(Problem(f"{path}.to", f"is outside the member (0 to {length:.4g} m)"))
+        if end <= start:
+            problems.append(Problem(f"{path}.to", "must be greater than from"))
+    return problems
+
+
+@dataclass(frozen=True)
+class BeamSpec:
+    """The beam: layout, loads and the choices that go with them.
+
+    Attributes:
+        layout: spans and supports.
+        loads: the loads, by case.
+        self_weight: add the member's weight as case D.
+        bearing_length: m, for the bearing check (None: not checked).
+        combinations: "ASD", "EN1990", an explicit tuple, or None for the design
+            basis's own set (ASD for US-ASD, EN1990 for EU-LSD).
+        sustained_live_fraction: part of L that is sustained (creep), 0 to 1.
+
+    """
+
+    layout: BeamLayout
+    loads: tuple[Load, ...] = ()
+    self_weight: bool = True
+    bearing_length: float | None = None
+    combinations: str | tuple[Combination, ...] | None = None
+    sustained_live_fraction: float | None = None

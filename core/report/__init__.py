@@ -1,0 +1,1 @@
+"""The PDF calculation sheet (reportlab): content and vector drawings."""

@@ -1,0 +1,3 @@
+"""The cross-section: clipping by stacking order, exact polygon moments, the transformed
+section, templates.
+"""

@@ -1,0 +1,208 @@
+"""Plies in the section plane, clipping by stacking order, and exact polygon properties.
+
+Coordinates: x to the right, y up, in metres. A ply is a rectangle given by its lower
+left corner, width and height. Later plies win where plies overlap: the earlier ply is
+clipped by shapely and may become a polygon with holes, or several polygons.
+
+Polygon area and moments use the shoelace (Green's theorem) formulas, exact for any
+polygon; the width of a ply at height y is piecewise linear in y, which gives exact
+first moments of the part above any horizontal cut (used for shear flow).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+import shapely
+from shapely.geometry import MultiPolygon, Polygon
+from shapely.geometry.base import BaseGeometry
+
+from ..model.plies import Ply
+
+#: Relative tolerance for "touching" tests, as a fraction of the section size.
+TOUCH_TOLERANCE = 1e-9
+
+
+def clip_plies(plies: tuple[Ply, ...] | list[Ply]) -> list[BaseGeometry]:
+    """Clip each ply by every later ply (later plies win). Returns one geometry per ply."""
+    rects = [p.rectangle() for p in plies]
+    out: list[BaseGeometry] = []
+    for i, rect in enumerate(rects):
+        later = [rects[j] for j in range(i + 1, len(plies)) if _overlap(plies[i], plies[j])]
+        if later:
+            cut = rect.difference(shapely.union_all(later))
+            out.append(_polygons_only(cut))
+        else:
+            out.append(rect)
+    return out
+
+
+def _overlap(a: Ply, b: Ply) -> bool:
+    """True where two rectangles share area (touching edges do not count)."""
+    return (min(a.x + a.width, b.x + b.width) > max(a.x, b.x)
+            and min(a.top, b.top) > max(a.y, b.y))
+
+
+def rectangles_touch(a: Ply, b: Ply, tol: float) -> bool:
+    """True where two rectangles overlap or share an edge or a corner (within tol)."""
+    return (min(a.x + a.width, b.x + b.width) >= max(a.x, b.x) - tol
+            and min(a.top, b.top) >= max(a.y, b.y) - tol)
+
+
+def _polygons_only(geom: BaseGeometry) -> BaseGeometry:
+    """Drop lines and points that a difference may leave behind."""
+    if isinstance(geom, Polygon | MultiPolygon):
+        return geom
+    polys = [g for g in getattr(geom, "geoms", []) if isinstance(g, Polygon) and g.area > 0]
+    return MultiPolygon(polys) if polys else Polygon()
+
+
+def _rings(geom: BaseGeometry) -> list[np.ndarray]:
+    """Return the rings of a (multi)polygon, exteriors counter-clockwise, holes clockwise."""
+    rings: list[np.ndarray] = []
+    polys = geom.geoms if isinstance(geom, MultiPolygon) else [geom]
+    for poly in polys:
+        if poly.is_empty:
+            continue
+        poly = shapely.geometry.polygon.orient(poly, sign=1.0)
+        rings.append(np.asarray(poly.exterior.coords))
+        rings.extend(np.asarray(r.coords) for r in poly.interiors)
+    return rings
+
+
+@dataclass(frozen=True)
+class PolygonMoments:
+    """Exact area moments of a (multi)polygon about the axes x = 0 and y = 0.
+
+    Attributes:
+        area: integral of dA, m^2.
+        first_y: integral of y dA, m^3.
+        second_y: integral of y^2 dA, m^4.
+        first_x: integral of x dA, m^3.
+
+    """
+
+    area: float
+    first_y: float
+    second_y: float
+    first_x: float
+
+
+def polygon_moments(geom: BaseGeometry) -> PolygonMoments:
+    """Shoelace formulas for area, first and second moments (exact for polygons)."""
+    area = sy = iy = sx = 0.0
+    for ring in _rings(geom):
+        x0, y0 = ring[:-1, 0], ring[:-1, 1]
+        x1, y1 = ring[1:, 0], ring[1:, 1]
+        cross = x0 * y1 - x1 * y0
+        area += float(cross.sum()) / 2
+        sy += float((cross * (y0 + y1)).sum()) / 6
+        sx += float((cross * (x0 + x1)).sum()) / 6
+        iy += float((cross * (y0 * y0 + y0 * y1 + y1 * y1)).sum()) / 12
+    return PolygonMoments(area, sy, iy, sx)
+
+
+@dataclass(frozen=True)
+class WidthProfile:
+    """The width of a geometry as a piecewise linear function of height.
+
+    Between consecutive breakpoints ``y[k]`` and ``y[k+1]`` the width runs linearly from
+    ``b_start[k]`` to ``b_end[k]``. Exact for polygons.
+    """
+
+    y: np.ndarray
+    b_start: np.ndarray
+    b_end: np.ndarray
+
+    def width_at(self, y: np.ndarray) -> np.ndarray:
+        """Width at heights ``y`` (midpoint rule at breakpoints: the mean of both sides)."""
+        y = np.asarray(y, dtype=float)
+        out = np.zeros_like(y)
+        if self.y.size < 2:
+            return out
+        for k in range(self.y.size - 1):
+            lo, hi = self.y[k], self.y[k + 1]
+            t = (y - lo) / (hi - lo)
+            inside = (y > lo) & (y < hi)
+            out = np.where(inside, self.b_start[k] + t * (self.b_end[k] - self.b_start[k]), out)
+            out = np.where(y == lo, out + self.b_start[k] / 2, out)
+            out = np.where(y == hi, out + self.b_end[k] / 2, out)
+        return out
+
+    def width_inside(self, y: np.ndarray) -> np.ndarray:
+        """Width at heights ``y``, taking the larger side at breakpoints (a cut's material)."""
+        y = np.asarray(y, dtype=float)
+        out = np.zeros_like(y)
+        for k in range(self.y.size - 1):
+            lo, hi = self.y[k], self.y[k + 1]
+            t = np.clip((y - lo) / (hi - lo), 0.0, 1.0)
+            inside = (y >= lo) & (y <= hi)
+            value = self.b_start[k] + t * (self.b_end[k] - self.b_start[k])
+            out = np.where(inside, np.maximum(out, value), out)
+        return out
+
+    def above(self, cut: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        """Area and first moment (about y = 0) of the part above each height in ``cut``."""
+        cut = np.asarray(cut, dtype=float)
+        area = np.zeros_like(cut)
+        first = np.zeros_like(cut)
+        for k in range(self.y.size - 1):
+            lo, hi = self.y[k], self.y[k + 1]
+            b0, b1 = self.b_start[k], self.b_end[k]
+            slope = (b1 - b0) / (hi - lo)
+            a = np.clip(cut, lo, hi)
+            # width b(y) = b0 + slope (y - lo); integrate from a to hi
+            ba = b0 + slope * (a - lo)
+            seg_area = (ba + b1) / 2 * (hi - a)
+            # integral of y b(y) dy from a to hi, exact for linear b (Simpson on a cubic)
+            mid = (a + hi) / 2
+            bm = b0 + slope * (mid - lo)
+            seg_first = (hi - a) / 6 * (a * ba + 4 * mid * bm + hi * b1)
+            area += seg_area
+            first += seg_first
+        return area, first
+
+
+def width_profile(geom: BaseGeometry) -> WidthProfile:
+    """Build the exact piecewise-linear width function of a (multi)polygon."""
+    if geom.is_empty:
+        empty = np.zeros(0)
+        return WidthProfile(empty, empty, empty)
+    if isinstance(geom, Polygon) and not geom.interiors and len(geom.exterior.coords) == 5:
+        minx, miny, maxx, maxy = geom.bounds
+        if abs(geom.area - (maxx - minx) * (maxy - miny)) <= 1e-12 * max(geom.area, 1e-30):
+            w = np.array([maxx - minx])
+            return WidthProfile(np.array([miny, maxy]), w, w.copy())
+    ys = np.unique(np.concatenate([ring[:, 1] for ring in _rings(geom)]))
+    b_start = np.zeros(max(ys.size - 1, 0))
+    b_end = np.zeros(max(ys.size - 1, 0))
+    minx, _, maxx, _ = geom.bounds
+    pad = (maxx - minx) + 1.0
+    for k in range(ys.size - 1):
+        lo, hi = ys[k], ys[k + 1]
+        y1 = lo + (hi - lo) / 4
+        y3 = lo + 3 * (hi - lo) / 4
+        w1 = _chord(geom, y1, minx - pad, maxx + pad)
+        w3 = _chord(geom, y3, minx - pad, maxx + pad)
+        slope = (w3 - w1) / (y3 - y1)
+        b_start[k] = w1 + slope * (lo - y1)
+        b_end[k] = w1 + slope * (hi - y1)
+    return WidthProfile(ys, b_start, b_end)
+
+
+def _chord(geom: BaseGeometry, y: float, x0: float, x1: float) -> float:
+    line = shapely.geometry.LineString([(x0, y), (x1, y)])
+    return float(geom.intersection(line).length)
+
+
+def touches_any(index: int, geoms: list[BaseGeometry], size: float) -> bool:
+    """True where geometry ``index`` touches or overlaps at least one other one."""
+    me = geoms[index]
+    if me.is_empty:
+        return False
+    tol = max(size, 1e-9) * 1e-7
+    grown = me.buffer(tol, join_style="mitre")
+    return any(
+        j != index and not g.is_empty and grown.intersects(g) for j, g in enumerate(geoms)
+    )

@@ -1,0 +1,1 @@
+"""Studies over many evaluations: alternatives side by side, sweeps, auto-sizing, longest span."""

@@ -1,0 +1,256 @@
+"""Alternatives side by side, sweeps of one ply dimension, auto-sizing and longest span.
+
+Evaluating one candidate is the full section, beam and check pipeline. The beam's mesh
+and stiffness do not depend on the section, and every load case is linear in the loads,
+so the pipeline's Evaluator solves each case once (self-weight as its own unit case)
+and only redoes the section, scaling and checks per candidate.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Sequence
+from dataclasses import dataclass, replace
+
+from ..model.errors import Problem, ProjectError
+from ..model.plies import Ply
+from ..model.project import Alternative, Project
+from ..pipeline import Analysis, Evaluator, run
+
+IN = 0.0254
+
+
+@dataclass(frozen=True)
+class Outcome:
+    """Summary of one candidate (SI)."""
+
+    value: float
+    governing_ratio: float
+    governing_id: str
+    deflection_max_abs: float
+    mass_per_length: float
+    ok: bool
+    EI: float
+
+    def to_dict(self) -> dict[str, object]:
+        """The row of ``sweep --json``."""
+        return {"value": self.value, "governing_ratio": self.governing_ratio,
+                "governing_id": self.governing_id,
+                "deflection_max_abs": self.deflection_max_abs,
+                "mass_per_length": self.mass_per_length, "ok": self.ok}
+
+
+def summarise(a: Analysis, value: float = math.nan) -> Outcome:
+    """Governing ratio, check, deflection and mass of an analysis."""
+    if not a.checks:
+        raise ProjectError(Problem("beam", "the project needs a beam with loads to be checked"))
+    gov = max(a.checks, key=lambda c: c.ratio)
+    defl = max((c.total.deflection_max_abs for c in a.beam.combinations), default=0.0) if (
+        a.beam) else 0.0
+    return Outcome(value, gov.ratio, gov.id, defl, a.section.mass_per_length,
+                   all(c.ok for c in a.checks), a.section.EI)
+
+
+class Candidates:
+    """Summaries of many ply sets of one project, the beam prepared once
+    (:class:`~plystack.core.pipeline.Evaluator`) and the beam extremes of all candidates
+    found in one batched pass.
+    """
+
+    def __init__(self, project: Project):
+        self.evaluator = Evaluator(project)
+
+    def evaluate(self, plies: Sequence[Ply], value: float = math.nan) -> Outcome:
+        """Summary for the project with these plies."""
+        return summarise(self.evaluator.analyse(plies), value)
+
+    def evaluate_many(self, candidates: Sequence[Sequence[Ply]],
+                      values: Sequence[float]) -> list[Outcome]:
+        """Summaries of many candidates, in order."""
+        analyses = self.evaluator.analyse_many(candidates)
+        return [summarise(a, v) for a, v in zip(analyses, values, strict=True)]
+
+
+def with_dimension(plies: Sequence[Ply], name: str, dimension: str, value: float
+                   ) -> tuple[Ply, ...]:
+    """Set one ply's width or height; plies that touched it on the growing side move so
+    that they still touch (those to the right for width, above for height).
+    """
+    index = ply_index(plies, name)
+    p = plies[index]
+    tol = 1e-9
+    out = list(plies)
+    if dimension == "width":
+        delta = value - p.width
+        edge = p.x + p.width
+        for i, q in enumerate(plies):
+            if i != index and q.x >= edge - tol:
+                out[i] = replace(q, x=q.x + delta)
+        out[index] = replace(p, width=value)
+    elif dimension == "height":
+        delta = value - p.height
+        edge = p.y + p.height
+        for i, q in enumerate(plies):
+            if i != index and q.y >= edge - tol:
+                out[i] = replace(q, y=q.y + delta)
+        out[index] = replace(p, height=value)
+    else:
+        raise ProjectError(Problem("--dimension", f'"{dimension}" must be width or height'))
+    return tuple(out)
+
+
+def ply_index(plies: Sequence[Ply], name: str) -> int:
+    """Index of the ply called ``name``."""
+    for i, p in enumerate(plies):
+        if p.name == name:
+            return i
+    names = ", ".join(f'"{p.name}"' for p in plies)
+    raise ProjectError(Problem("--ply", f'"{name}" is not a ply of this project ({names})'))
+
+
+def sweep(project: Project, name: str, dimension: str, values: Sequence[float]
+          ) -> list[Outcome]:
+    """Governing ratio, deflection and mass for each value of one ply dimension."""
+    for v in values:
+        if not v > 0:
+            raise ProjectError(Problem("--values", f"{v} must be greater than zero"))
+    candidates = [with_dimension(project.plies, name, dimension, v) for v in values]
+    return Candidates(project).evaluate_many(candidates, list(values))
+
+
+@dataclass(frozen=True)
+class SizeResult:
+    """Auto-size answer: the first passing option and the one before it."""
+
+    ply: str
+    dimension: str
+    chosen: Outcome | None
+    next_smaller: Outcome | None
+    message: str
+
+    def to_dict(self) -> dict[str, object]:
+        """``size --json``."""
+        nxt = None
+        if self.next_smaller is not None:
+            nxt = {**self.next_smaller.to_dict(),
+                   "why": f"{self.next_smaller.governing_id} ratio "
+                          f"{self.next_smaller.governing_ratio:.3f} > 1"}
+        return {"ply": self.ply, "dimension": self.dimension,
+                "value": self.chosen.value if self.chosen else None,
+                "ok": bool(self.chosen and self.chosen.ok),
+                "governing_id": self.chosen.governing_id if self.chosen else None,
+                "governing_ratio": self.chosen.governing_ratio if self.chosen else None,
+                "next_smaller": nxt, "message": self.message}
+
+
+def auto_size(project: Project, name: str, dimension: str, options: Sequence[float]
+              ) -> SizeResult:
+    """The smallest option (in ascending order) that passes every check."""
+    ordered = sorted(set(options))
+    ev = Candidates(project)
+    previous: Outcome | None = None
+    for v in ordered:
+        out = ev.evaluate(with_dimension(project.plies, name, dimension, v), v)
+        if out.ok:
+            return SizeResult(name, dimension, out, previous,
+                              "smallest passing option" if previous else
+                              "the smallest option in the list passes")
+        previous = out
+    return SizeResult(name, dimension, None, previous,
+                      f"no option passes: the largest, {ordered[-1]:.6g} m, still has "
+                      f"{previous.governing_id if previous else '?'} ratio "
+                      f"{previous.governing_ratio if previous else math.nan:.3f}")
+
+
+def scaled_spans(project: Project, span: float) -> Project:
+    """The project with its (first) span set to ``span``: several spans scale together,
+    overhangs and load positions scale with them.
+    """
+    spec = project.beam
+    if spec is None:
+        raise ProjectError(Problem("beam", "the project has no beam"))
+    lay = spec.layout
+    k = span / lay.spans[0]
+
+    def pos(x: float | None) -> float | None:
+        return None if x is None else x * k
+
+    loads = tuple(replace(ld, start=pos(ld.start), end=pos(ld.end), at=pos(ld.at))
+                  for ld in spec.loads)
+    layout = replace(lay, spans=tuple(s * k for s in lay.spans),
+                     overhang_left=lay.overhang_left * k, overhang_right=lay.overhang_right * k)
+    return replace(project, beam=replace(spec, layout=layout, loads=loads))
+
+
+@dataclass(frozen=True)
+class SpanResult:
+    """Longest span that passes, and the check that governs there."""
+
+    span: float
+    governing_id: str
+    governing_ratio: float
+    tolerance: float
+    next_fails: Outcome
+
+    def to_dict(self) -> dict[str, object]:
+        """``span --json``."""
+        return {"span": self.span, "governing_id": self.governing_id,
+                "governing_ratio": self.governing_ratio, "tolerance": self.tolerance,
+                "next_span": self.span + self.tolerance,
+                "next_governing_id": self.next_fails.governing_id,
+                "next_governing_ratio": self.next_fails.governing_ratio}
+
+
+def longest_span(project: Project, tolerance: float | None = None) -> SpanResult:
+    """Longest (first) span, a whole number of tolerance steps (1/8 in or 5 mm), that
+    passes every check, with the next step failing.
+    """
+    tol = tolerance or (IN / 8 if project.display_units == "US" else 0.005)
+
+    def outcome(n: int) -> Outcome:
+        return summarise(run(scaled_spans(project, n * tol)), n * tol)
+
+    lo = max(1, int(0.3 / tol))  # 0.3 m
+    if not outcome(lo).ok:
+        raise ProjectError(Problem("beam.spans", "even a 0.3 m span fails: the section or "
+                                   "loads need changing"))
+    hi = lo * 2
+    while outcome(hi).ok:
+        lo, hi = hi, hi * 2
+        if hi * tol > 200:
+            raise ProjectError(Problem("beam.spans", "passes beyond 200 m: check the loads"))
+    while hi - lo > 1:
+        mid = (lo + hi) // 2
+        if outcome(mid).ok:
+            lo = mid
+        else:
+            hi = mid
+    best = outcome(lo)
+    return SpanResult(lo * tol, best.governing_id, best.governing_ratio, tol, outcome(lo + 1))
+
+
+def span_table(project: Project, widths: Sequence[float]) -> list[dict[str, object]]:
+    """Longest span per alternative (current design first) and tributary width of the
+    area loads.
+    """
+    rows = []
+    for alt in alternatives_with_current(project):
+        p = project.with_plies(alt.plies)
+        for w in widths:
+            spec = p.beam
+            if spec is None:
+                continue
+            loads = tuple(replace(ld, tributary_width=w) if ld.type == "area" else ld
+                          for ld in spec.loads)
+            r = longest_span(replace(p, beam=replace(spec, loads=loads)))
+            rows.append({"alternative": alt.name, "tributary_width": w, "span": r.span,
+                         "governing_id": r.governing_id})
+    return rows
+
+
+def alternatives_with_current(project: Project) -> list[Alternative]:
+    """The file's alternatives, with the current design first unless it is one of them."""
+    alts = list(project.alternatives)
+    if not any(a.plies == project.plies for a in alts):
+        alts.insert(0, Alternative("current", project.plies))
+    return alts
