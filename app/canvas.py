@@ -35,10 +35,10 @@ from shapely.geometry.base import BaseGeometry
 from plystack.app.analysis_model import AnalysisModel
 from plystack.app.document import Document
 from plystack.app.interactions import DrawGesture, Gesture, MoveGesture, ResizeGesture
+from plystack.core.model.constants import INCH as IN
 from plystack.core.model.units import fmt
 from plystack.core.section.transformed import Section
 
-IN = 0.0254
 HANDLE_PX = 8
 
 #: Fills by material kind that read in greyscale print: timber light with diagonal grain
@@ -189,8 +189,7 @@ class SectionCanvas(QGraphicsView):
             item.setToolTip(f"{ply.name} ({ply.material})")
             scene.addItem(item)
             # dashed outline of the uncut rectangle where the ply is clipped
-            clipped = section is not None and abs(
-                section.area[i] - ply.width * ply.height) > 1e-12
+            clipped = section is not None and not section.is_unclipped(i)
             if clipped:
                 ghost = QGraphicsRectItem(self._rect(ply))
                 gp = QPen(QColor(120, 120, 120), 0, Qt.PenStyle.DotLine)

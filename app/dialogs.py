@@ -17,6 +17,7 @@ from PySide6.QtWidgets import (
 )
 
 from plystack.core.model import units
+from plystack.core.model.constants import INCH
 from plystack.core.model.materials import Material, material_from_record
 from plystack.core.section.templates import (
     LUMBER_SI,
@@ -81,7 +82,7 @@ class NewSectionDialog(QDialog):
     def plies(self):  # type: ignore[no-untyped-def]
         """The chosen template's plies."""
         thickness, depth = self.lumber.currentData()
-        inset = 0.25 * 0.0254 if self.units.currentText() == "US" else 0.006
+        inset = 0.25 * INCH if self.units.currentText() == "US" else 0.006
         choice = TemplateChoice(thickness, depth, self.plate.currentData(),
                                 self.timber.currentData(), self.steel.currentData(), inset)
         return build(self.template.currentText(), choice)

@@ -12,8 +12,6 @@ from typing import Protocol
 from plystack.app.document import Document, new_gesture_key
 from plystack.core.model.plies import Ply
 
-MM = 0.001
-
 
 class GestureHost(Protocol):
     """What a gesture needs from the view it runs in (the section canvas)."""

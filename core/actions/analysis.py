@@ -22,14 +22,13 @@ import numpy as np
 
 from ..codes import en1995, nds
 from ..model.combination import Combination, duration_of
+from ..model.constants import GRAVITY
 from ..model.design import DesignSpec
 from ..model.errors import Problem, ProjectError
 from ..model.member import BeamSpec
 from ..section.transformed import Section, with_moduli
 from .beam import BeamModel, CaseSolution, Extremes, combine, extremes_many
 from .combinations import asd_combinations, en1990_combinations
-
-GRAVITY = 9.80665
 
 
 @dataclass(frozen=True, eq=False)

@@ -10,8 +10,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-PSI = 6894.757293168361
-INCH = 0.0254
+from ..model.constants import INCH, PSI
 
 
 @dataclass(frozen=True)
@@ -29,11 +28,6 @@ class YieldModes:
     def value(self) -> float:
         """The lowest value, N."""
         return self.modes[self.governing]
-
-
-def Fe_parallel(G: float) -> float:
-    """NDS 2018 Table 12.3.3 footnote: Fe_parallel = 11200 G psi (D >= 1/4 in). Pa."""
-    return 11200.0 * G * PSI
 
 
 def Fe_perpendicular(G: float, D: float) -> float:

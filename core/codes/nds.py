@@ -8,13 +8,12 @@ from __future__ import annotations
 import math
 
 from ..model.combination import US_DURATIONS
+from ..model.constants import INCH, PSI
 
 #: NDS 2018 Table 2.3.2 load duration factors (from memory).
 C_D_TABLE = {"permanent": 0.9, "ten-years": 1.0, "two-months": 1.15, "seven-days": 1.25,
              "ten-minutes": 1.6, "impact": 2.0}
 
-INCH = 0.0254
-PSI = 6894.757293168361
 
 
 def C_D(duration: str) -> float:

@@ -10,15 +10,17 @@ import numpy as np
 
 from ..actions.analysis import BeamResult, CombinationResult
 from ..actions.beam import CaseSolution, Extremes, extremes
+from ..model.constants import INCH
 from ..model.design import DesignSpec
 from ..model.errors import Problem
 from ..model.units import fmt
+from ..section.geometry import TOUCH_TOLERANCE
 from ..section.transformed import Section
 from .check import Check, CheckId, Fasteners
 
 #: Stock spacings tried for fasteners, largest first, at most 24 in / 600 mm (common
 #: practice: the 16 in and 24 in framing modules and their fractions; metric equivalents).
-STOCK_SPACINGS_US = tuple(x * 0.0254 for x in (24, 16, 12, 8, 6, 4, 3, 2))
+STOCK_SPACINGS_US = tuple(x * INCH for x in (24, 16, 12, 8, 6, 4, 3, 2))
 STOCK_SPACINGS_SI = tuple(x / 1000 for x in (600, 400, 300, 200, 150, 100, 75, 50))
 
 
@@ -97,7 +99,7 @@ def side_by_side_joints(section: Section) -> list[Joint]:
     """Find steel plies with timber plies against their vertical faces."""
     joints = []
     size = section.depth
-    tol = size * 1e-7
+    tol = size * TOUCH_TOLERANCE
     for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):
         if mat.kind != "steel" or section.area[i] <= 0:
             continue
@@ -128,7 +130,7 @@ def plate_share(section: Section, i: int) -> float:
 def bearing_plies(section: Section) -> list[int]:
     """Timber plies that reach the bottom of the section (those that bear)."""
     bottom = float(section.y_bottom.min())
-    tol = section.depth * 1e-7
+    tol = section.depth * TOUCH_TOLERANCE
     return [i for i, m in enumerate(section.materials)
             if m.kind == "timber" and section.area[i] > 0
             and abs(float(section.y_bottom[i]) - bottom) <= tol]
@@ -137,7 +139,7 @@ def bearing_plies(section: Section) -> list[int]:
 def steel_at_bottom(section: Section) -> list[int]:
     """Steel plies that reach the bottom of the section (and so the supports)."""
     bottom = float(section.y_bottom.min())
-    tol = section.depth * 1e-7
+    tol = section.depth * TOUCH_TOLERANCE
     return [i for i, m in enumerate(section.materials)
             if m.kind == "steel" and abs(float(section.y_bottom[i]) - bottom) <= tol]
 

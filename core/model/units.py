@@ -249,11 +249,6 @@ def sig(value: float, digits: int = 4) -> str:
     return f"{value:.{decimals}f}"
 
 
-def from_display(value: float, kind: str, system: str) -> float:
-    """Convert a display-unit float back to SI."""
-    return value / DISPLAY[system][kind][1]
-
-
 def display_string(value: float, kind: str, system: str, digits: int = 6) -> str:
     """Return a parseable quantity string (used when writing files and filling entries)."""
     label = unit_label(kind, system)

@@ -20,8 +20,16 @@ from shapely.geometry.base import BaseGeometry
 
 from ..model.plies import Ply
 
-#: Relative tolerance for "touching" tests, as a fraction of the section size.
-TOUCH_TOLERANCE = 1e-9
+#: Relative tolerance for "touching" and "level with" tests, a fraction of the section size.
+TOUCH_TOLERANCE = 1e-7
+#: Relative tolerance of the "is this ply clipped" test, a fraction of its own area.
+CLIP_TOLERANCE = 1e-12
+
+
+def is_unclipped(area: float, ply: Ply) -> bool:
+    """True where ``area`` (after clipping) is the ply's whole rectangle."""
+    whole = ply.width * ply.height
+    return abs(area - whole) <= CLIP_TOLERANCE * max(whole, 1e-30)
 
 
 def clip_plies(plies: tuple[Ply, ...] | list[Ply]) -> list[BaseGeometry]:
@@ -115,21 +123,6 @@ class WidthProfile:
     b_start: np.ndarray
     b_end: np.ndarray
 
-    def width_at(self, y: np.ndarray) -> np.ndarray:
-        """Width at heights ``y`` (midpoint rule at breakpoints: the mean of both sides)."""
-        y = np.asarray(y, dtype=float)
-        out = np.zeros_like(y)
-        if self.y.size < 2:
-            return out
-        for k in range(self.y.size - 1):
-            lo, hi = self.y[k], self.y[k + 1]
-            t = (y - lo) / (hi - lo)
-            inside = (y > lo) & (y < hi)
-            out = np.where(inside, self.b_start[k] + t * (self.b_end[k] - self.b_start[k]), out)
-            out = np.where(y == lo, out + self.b_start[k] / 2, out)
-            out = np.where(y == hi, out + self.b_end[k] / 2, out)
-        return out
-
     def width_inside(self, y: np.ndarray) -> np.ndarray:
         """Width at heights ``y``, taking the larger side at breakpoints (a cut's material)."""
         y = np.asarray(y, dtype=float)
@@ -171,7 +164,8 @@ def width_profile(geom: BaseGeometry) -> WidthProfile:
         return WidthProfile(empty, empty, empty)
     if isinstance(geom, Polygon) and not geom.interiors and len(geom.exterior.coords) == 5:
         minx, miny, maxx, maxy = geom.bounds
-        if abs(geom.area - (maxx - minx) * (maxy - miny)) <= 1e-12 * max(geom.area, 1e-30):
+        if abs(geom.area - (maxx - minx) * (maxy - miny)) <= CLIP_TOLERANCE * max(
+                geom.area, 1e-30):
             w = np.array([maxx - minx])
             return WidthProfile(np.array([miny, maxy]), w, w.copy())
     ys = np.unique(np.concatenate([ring[:, 1] for ring in _rings(geom)]))
@@ -201,7 +195,7 @@ def touches_any(index: int, geoms: list[BaseGeometry], size: float) -> bool:
     me = geoms[index]
     if me.is_empty:
         return False
-    tol = max(size, 1e-9) * 1e-7
+    tol = max(size, 1e-9) * TOUCH_TOLERANCE
     grown = me.buffer(tol, join_style="mitre")
     return any(
         j != index and not g.is_empty and grown.intersects(g) for j, g in enumerate(geoms)

@@ -10,10 +10,10 @@ from __future__ import annotations
 from collections.abc import Callable
 from dataclasses import dataclass
 
+from ..model.constants import INCH, MM
 from ..model.plies import Ply
 
-IN = 0.0254
-MM = 0.001
+IN = INCH
 
 #: Nominal US lumber: name -> (thickness, depth), m.
 LUMBER_US: dict[str, tuple[float, float]] = {

@@ -27,8 +27,10 @@ from ..model.errors import Problem, ProjectError
 from ..model.materials import Material
 from ..model.plies import Ply, validate_ply
 from .geometry import (
+    TOUCH_TOLERANCE,
     WidthProfile,
     clip_plies,
+    is_unclipped,
     polygon_moments,
     rectangles_touch,
     touches_any,
@@ -110,6 +112,10 @@ class Section:
     warnings: tuple[Problem, ...]
 
     # --- per-ply results --------------------------------------------------------------
+
+    def is_unclipped(self, i: int) -> bool:
+        """True where ply i keeps its whole rectangle (no later ply cuts it)."""
+        return is_unclipped(float(self.area[i]), self.plies[i])
 
     @property
     def A_transformed(self) -> float:
@@ -304,12 +310,11 @@ def analyse(
             y_bottom[i], y_top[i] = ply.y, ply.top
         else:
             _, y_bottom[i], _, y_top[i] = g.bounds
-    unclipped = all(abs(a - p.width * p.height) <= 1e-12 * max(p.width * p.height, 1e-30)
-                    for a, p in zip(area, plies, strict=True))
+    unclipped = all(is_unclipped(float(a), p) for a, p in zip(area, plies, strict=True))
     if len(plies) > 1:
         for i, ply in enumerate(plies):
             if unclipped:
-                touching = any(j != i and rectangles_touch(ply, q, size * 1e-7)
+                touching = any(j != i and rectangles_touch(ply, q, size * TOUCH_TOLERANCE)
                                for j, q in enumerate(plies))
             else:
                 touching = area[i] > 0 and touches_any(i, list(geoms), size)
@@ -373,9 +378,8 @@ def _rectangle_contacts(section: Section, tol: float
                         ) -> dict[float, list[tuple[int, int, float]]] | None:
     """Horizontal contacts of unclipped rectangles (None where some ply is clipped)."""
     plies = section.plies
-    for a, p in zip(section.area, plies, strict=True):
-        if abs(a - p.width * p.height) > 1e-12 * max(p.width * p.height, 1e-30):
-            return None
+    if not all(section.is_unclipped(i) for i in range(len(plies))):
+        return None
     contacts: dict[float, list[tuple[int, int, float]]] = {}
     for i, lo in enumerate(plies):
         for j, up in enumerate(plies):

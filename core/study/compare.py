@@ -12,12 +12,13 @@ import math
 from collections.abc import Sequence
 from dataclasses import dataclass, replace
 
+from ..model.constants import INCH
 from ..model.errors import Problem, ProjectError
 from ..model.plies import Ply
 from ..model.project import Alternative, Project
 from ..pipeline import Analysis, Evaluator, run
 
-IN = 0.0254
+IN = INCH
 
 
 @dataclass(frozen=True)
