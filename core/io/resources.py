@@ -10,8 +10,8 @@ from importlib.resources.abc import Traversable
 
 from ..model.errors import Problem, ProjectError
 
-#: The package that holds the data files (``assets/`` in the source tree).
-ASSETS_PACKAGE = (__package__ or "plystack.core.io").split(".")[0] + ".assets"
+#: The package that holds the data files: the root package (``assets/`` in the source tree).
+ASSETS_PACKAGE = (__package__ or "plystack.core.io").split(".")[0]
 
 DEMOS = {
     "porch-header": "demo/porch-header.plystack.json",
