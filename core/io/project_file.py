@@ -18,9 +18,10 @@ from ..model.errors import Problem, ProjectError
 from ..model.materials import Material
 from ..model.project import Alternative, Project
 from .atomic import write_text
+from .design_file import read_design, write_design
 from .library import load_library
-from .project_read import read_beam, read_design, read_material_map, read_plies
-from .project_write import write_beam, write_design, write_materials, write_plies
+from .project_read import read_beam, read_material_map, read_plies
+from .project_write import write_beam, write_materials, write_plies
 
 FORMAT = "plystack"
 VERSION = 1

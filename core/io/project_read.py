@@ -7,7 +7,6 @@ from typing import TYPE_CHECKING, Any
 
 from ..model import units
 from ..model.combination import EU_DURATIONS, US_DURATIONS, Combination
-from ..model.design import BASES, STEEL_RULES, TEMPERATURES, Bolt, Connector, DesignSpec
 from ..model.errors import Problem
 from ..model.materials import Material, material_from_record
 from ..model.member import CASES, BeamLayout, Load, validate_layout, validate_load
@@ -20,12 +19,6 @@ PLY_KEYS = ("name", "material", "x", "y", "width", "height")
 BEAM_KEYS = frozenset({"spans", "supports", "overhang_left", "overhang_right", "bearing_length",
                        "self_weight", "loads", "combinations", "sustained_live_fraction"})
 LOAD_KEYS = frozenset({"case", "type", "value", "tributary_width", "from", "to", "at"})
-DESIGN_KEYS = frozenset({"basis", "wet_service", "temperature", "repetitive_member", "incised",
-                         "compression_edge_braced", "unbraced_length", "deflection_limits",
-                         "K_cr", "k_def", "steel_rule", "service_class", "psi", "overrides",
-                         "connector", "bolt", "steel_bears"})
-
-
 def _quantity(raw: Any, dimension: str, path: str, problems: list[Problem]) -> float | None:
     try:
         return units.parse(raw, dimension, path)
@@ -282,127 +275,3 @@ def read_combinations(raw: Any, path: str,
             duration = None
         out.append(Combination(name, fs, duration, "custom"))
     return tuple(out)
-
-
-def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | None:
-    """The "design" object."""
-    if not isinstance(raw, dict):
-        problems.append(Problem(path, "must be an object"))
-        return None
-    before = len(problems)
-    for key in raw:
-        if key not in DESIGN_KEYS:
-            problems.append(Problem(f"{path}.{key}", "is not a known key of the design"))
-    basis = raw.get("basis", "US-ASD")
-    if basis not in BASES:
-        problems.append(Problem(f"{path}.basis", f"{basis!r} must be one of " + ", ".join(BASES)))
-    kw: dict[str, Any] = {"basis": basis}
-    for key in ("wet_service", "repetitive_member", "incised", "compression_edge_braced",
-                "steel_bears"):
-        if key in raw:
-            kw[key] = _flag(raw[key], f"{path}.{key}", problems)
-    if "temperature" in raw:
-        if raw["temperature"] not in TEMPERATURES:
-            problems.append(Problem(f"{path}.temperature", "must be one of "
-                                    + ", ".join(TEMPERATURES)))
-        else:
-            kw["temperature"] = raw["temperature"]
-    if "steel_rule" in raw:
-        if raw["steel_rule"] not in STEEL_RULES:
-            problems.append(Problem(f"{path}.steel_rule", "must be one of "
-                                    + ", ".join(STEEL_RULES)))
-        else:
-            kw["steel_rule"] = raw["steel_rule"]
-    if "service_class" in raw:
-        if raw["service_class"] not in (1, 2, 3) or isinstance(raw["service_class"], bool):
-            problems.append(Problem(f"{path}.service_class", "must be 1, 2 or 3"))
-        else:
-            kw["service_class"] = int(raw["service_class"])
-    if "K_cr" in raw:
-        kw["K_cr"] = _number(raw["K_cr"], f"{path}.K_cr", problems, 1.0, 5.0)
-    if "k_def" in raw:
-        kw["k_def"] = _number(raw["k_def"], f"{path}.k_def", problems, 0.0, 5.0)
-    if "unbraced_length" in raw:
-        kw["unbraced_length"] = _quantity(raw["unbraced_length"], "length",
-                                          f"{path}.unbraced_length", problems)
-    limits = raw.get("deflection_limits", {})
-    if not isinstance(limits, dict):
-        problems.append(Problem(f"{path}.deflection_limits", 'must be an object such as '
-                                '{"live": 360, "total": 240}'))
-    else:
-        for key, value in limits.items():
-            if key not in ("live", "total", "long_term"):
-                problems.append(Problem(f"{path}.deflection_limits.{key}", "is not one of live, "
-                                        "total, long_term"))
-                continue
-            kw[f"{key}_limit"] = _number(value, f"{path}.deflection_limits.{key}", problems,
-                                         1.0, 100000.0)
-    psi = raw.get("psi", {})
-    if not isinstance(psi, dict):
-        problems.append(Problem(f"{path}.psi", "must map load cases to [psi0, psi1, psi2]"))
-    else:
-        out_psi = {}
-        for case, v in psi.items():
-            ok = (case in CASES and case != "D" and isinstance(v, list) and len(v) == 3
-                  and all(isinstance(x, int | float) and not isinstance(x, bool)
-                          and 0 <= x <= 1 for x in v))
-            if not ok:
-                problems.append(Problem(f"{path}.psi.{case}", "must be a variable load case "
-                                        "with [psi0, psi1, psi2], each 0 to 1"))
-            else:
-                out_psi[case] = (float(v[0]), float(v[1]), float(v[2]))
-        kw["psi"] = out_psi
-    overrides = raw.get("overrides", {})
-    if not isinstance(overrides, dict):
-        problems.append(Problem(f"{path}.overrides", "must map ply names to factors"))
-    else:
-        out_ov: dict[str, dict[str, float]] = {}
-        for ply, facs in overrides.items():
-            if not isinstance(facs, dict):
-                problems.append(Problem(f"{path}.overrides.{ply}", "must map factor symbols "
-                                        "to numbers"))
-                continue
-            out_ov[ply] = {}
-            for sym, v in facs.items():
-                num = _number(v, f"{path}.overrides.{ply}.{sym}", problems, 0.0, 10.0)
-                if num is not None:
-                    out_ov[ply][sym] = num
-        kw["overrides"] = out_ov
-    if "connector" in raw:
-        c = raw["connector"]
-        if not isinstance(c, dict):
-            problems.append(Problem(f"{path}.connector", "must be an object"))
-        else:
-            for key in c:
-                if key not in ("type", "allowable", "rows", "spacing"):
-                    problems.append(Problem(f"{path}.connector.{key}", "is not a known key"))
-            typ = c.get("type", "screw")
-            if typ not in ("screw", "bolt", "nail"):
-                problems.append(Problem(f"{path}.connector.type", "must be screw, bolt or nail"))
-            allow = (_positive(c["allowable"], "force", f"{path}.connector.allowable", problems)
-                     if "allowable" in c else None)
-            spacing = (_positive(c["spacing"], "length", f"{path}.connector.spacing", problems)
-                       if "spacing" in c else None)
-            rows = _number(c.get("rows", 1), f"{path}.connector.rows", problems, 1, 20)
-            if rows is not None:
-                kw["connector"] = Connector(str(typ), allow, int(rows), spacing)
-    if "bolt" in raw:
-        b = raw["bolt"]
-        if not isinstance(b, dict):
-            problems.append(Problem(f"{path}.bolt", "must be an object"))
-        else:
-            for key in b:
-                if key not in ("diameter", "Fyb", "rows", "fu", "spacing"):
-                    problems.append(Problem(f"{path}.bolt.{key}", "is not a known key"))
-            dia = _positive(b.get("diameter", "1/2 in"), "length", f"{path}.bolt.diameter",
-                            problems)
-            fyb = _quantity(b.get("Fyb", "45000 psi"), "stress", f"{path}.bolt.Fyb", problems)
-            fu = _quantity(b.get("fu", "400 MPa"), "stress", f"{path}.bolt.fu", problems)
-            rows = _number(b.get("rows", 2), f"{path}.bolt.rows", problems, 1, 20)
-            bsp = (_positive(b["spacing"], "length", f"{path}.bolt.spacing", problems)
-                   if "spacing" in b else None)
-            if dia is not None and fyb is not None and rows is not None and fu is not None:
-                kw["bolt"] = Bolt(dia, fyb, int(rows), fu, bsp)
-    if len(problems) > before:
-        return None
-    return DesignSpec(**kw)

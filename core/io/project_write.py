@@ -5,7 +5,6 @@ from __future__ import annotations
 from collections.abc import Mapping
 from typing import TYPE_CHECKING, Any
 
-from ..model.design import Bolt, Connector, DesignSpec
 from ..model.materials import DENSITY_KEYS, Material
 from ..model.plies import Ply
 from ..model.units import exact_text
@@ -88,40 +87,4 @@ def write_beam(beam: BeamSpec, system: str) -> dict[str, Any]:
             for c in beam.combinations]
     if beam.sustained_live_fraction is not None:
         out["sustained_live_fraction"] = beam.sustained_live_fraction
-    return out
-
-
-def write_design(d: DesignSpec, system: str) -> dict[str, Any]:
-    """The "design" object (only what differs from the defaults, plus the basis)."""
-    out: dict[str, Any] = {"basis": d.basis}
-    default = DesignSpec(basis=d.basis)
-    for key in ("wet_service", "temperature", "repetitive_member", "incised",
-                "compression_edge_braced", "K_cr", "k_def", "steel_rule", "service_class",
-                "steel_bears"):
-        if getattr(d, key) != getattr(default, key):
-            out[key] = getattr(d, key)
-    if d.unbraced_length is not None:
-        out["unbraced_length"] = exact_text(d.unbraced_length, "span", system)
-    limits = {k: v for k, v in (("live", d.live_limit), ("total", d.total_limit),
-                                ("long_term", d.long_term_limit)) if v is not None}
-    if limits:
-        out["deflection_limits"] = limits
-    if d.psi:
-        out["psi"] = {k: list(v) for k, v in d.psi.items()}
-    if d.overrides:
-        out["overrides"] = {k: dict(v) for k, v in d.overrides.items()}
-    if d.connector != Connector():
-        c: dict[str, Any] = {"type": d.connector.type, "rows": d.connector.rows}
-        if d.connector.allowable is not None:
-            c["allowable"] = exact_text(d.connector.allowable, "force", system)
-        if d.connector.spacing is not None:
-            c["spacing"] = exact_text(d.connector.spacing, "length", system)
-        out["connector"] = c
-    if d.bolt != Bolt():
-        b: dict[str, Any] = {"diameter": exact_text(d.bolt.diameter, "length", system),
-                             "Fyb": exact_text(d.bolt.Fyb, "stress", system),
-                             "rows": d.bolt.rows, "fu": exact_text(d.bolt.fu, "stress", system)}
-        if d.bolt.spacing is not None:
-            b["spacing"] = exact_text(d.bolt.spacing, "length", system)
-        out["bolt"] = b
     return out

@@ -8,6 +8,8 @@ from __future__ import annotations
 from collections.abc import Mapping
 from dataclasses import dataclass, field
 
+from .constants import PSI
+
 BASES = ("US-ASD", "EU-LSD")
 STEEL_RULES = ("0.6Fy", "AISC-F11")
 TEMPERATURES = ("normal", "up-to-125F", "up-to-150F")
@@ -44,7 +46,7 @@ class Bolt:
     """
 
     diameter: float = 0.0127
-    Fyb: float = 310.26e6
+    Fyb: float = 45000 * PSI
     rows: int = 2
     fu: float = 400e6
     spacing: float | None = None

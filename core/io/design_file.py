@@ -1,0 +1,136 @@
+"""The project file's "design" object: one field table shared by reader and writer."""
+
+from __future__ import annotations
+
+from dataclasses import replace
+from typing import Any
+
+from ..model.design import BASES, STEEL_RULES, TEMPERATURES, Bolt, Connector, DesignSpec
+from ..model.errors import Problem
+from ..model.member import CASES
+from .fields import FieldSpec, read_fields, unknown_keys, write_fields
+
+#: Scalar keys of the design object.
+DESIGN_FIELDS = (
+    FieldSpec("basis", "choice", choices=BASES, always=True),
+    FieldSpec("wet_service", "flag"),
+    FieldSpec("temperature", "choice", choices=TEMPERATURES),
+    FieldSpec("repetitive_member", "flag"),
+    FieldSpec("incised", "flag"),
+    FieldSpec("compression_edge_braced", "flag"),
+    FieldSpec("K_cr", "number", lo=1.0, hi=5.0),
+    FieldSpec("k_def", "number", lo=0.0, hi=5.0),
+    FieldSpec("steel_rule", "choice", choices=STEEL_RULES),
+    FieldSpec("service_class", "choice", choices=(1, 2, 3)),
+    FieldSpec("steel_bears", "flag"),
+    FieldSpec("unbraced_length", "positive", dimension="length", write_kind="span"),
+)
+CONNECTOR_FIELDS = (
+    FieldSpec("type", "choice", choices=("screw", "bolt", "nail"), always=True),
+    FieldSpec("allowable", "positive", dimension="force"),
+    FieldSpec("rows", "count", lo=1, hi=20, always=True),
+    FieldSpec("spacing", "positive", dimension="length"),
+)
+BOLT_FIELDS = (
+    FieldSpec("diameter", "positive", dimension="length", always=True),
+    FieldSpec("Fyb", "positive", dimension="stress", always=True),
+    FieldSpec("rows", "count", lo=1, hi=20, always=True),
+    FieldSpec("fu", "positive", dimension="stress", always=True),
+    FieldSpec("spacing", "positive", dimension="length"),
+)
+#: Keys holding objects, read by their own functions below.
+OBJECT_KEYS = ("deflection_limits", "psi", "overrides", "connector", "bolt")
+DESIGN_KEYS = frozenset({f.key for f in DESIGN_FIELDS} | set(OBJECT_KEYS))
+LIMIT_KEYS = ("live", "total", "long_term")
+
+
+def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | None:
+    """The "design" object (None, with named problems, where any part is wrong)."""
+    if not isinstance(raw, dict):
+        problems.append(Problem(path, "must be an object"))
+        return None
+    before = len(problems)
+    unknown_keys(raw, sorted(DESIGN_KEYS), path, "the design", problems)
+    kw = read_fields(raw, DESIGN_FIELDS, path, problems)
+    kw.update(_read_limits(raw.get("deflection_limits", {}), f"{path}.deflection_limits",
+                           problems))
+    kw["psi"] = _read_psi(raw.get("psi", {}), f"{path}.psi", problems)
+    kw["overrides"] = _read_overrides(raw.get("overrides", {}), f"{path}.overrides", problems)
+    if "connector" in raw:
+        kw["connector"] = _read_object(raw["connector"], Connector(), CONNECTOR_FIELDS,
+                                       f"{path}.connector", "the connector", problems)
+    if "bolt" in raw:
+        kw["bolt"] = _read_object(raw["bolt"], Bolt(), BOLT_FIELDS, f"{path}.bolt",
+                                  "the bolt", problems)
+    if len(problems) > before:
+        return None
+    return DesignSpec(**kw)
+
+
+def _read_object(raw: Any, default: Any, specs: tuple[FieldSpec, ...], path: str, what: str,
+                 problems: list[Problem]) -> Any:
+    if not isinstance(raw, dict):
+        problems.append(Problem(path, "must be an object"))
+        return default
+    unknown_keys(raw, [s.key for s in specs], path, what, problems)
+    return replace(default, **read_fields(raw, specs, path, problems))
+
+
+def _read_limits(raw: Any, path: str, problems: list[Problem]) -> dict[str, float]:
+    if not isinstance(raw, dict):
+        problems.append(Problem(path, 'must be an object such as {"live": 360, "total": 240}'))
+        return {}
+    unknown_keys(raw, LIMIT_KEYS, path, "the deflection limits (live, total, long_term)",
+                 problems)
+    specs = [FieldSpec(k, "number", attr=f"{k}_limit", lo=1.0, hi=100000.0) for k in LIMIT_KEYS]
+    return read_fields(raw, specs, path, problems)
+
+
+def _read_psi(raw: Any, path: str,
+              problems: list[Problem]) -> dict[str, tuple[float, float, float]]:
+    if not isinstance(raw, dict):
+        problems.append(Problem(path, "must map load cases to [psi0, psi1, psi2]"))
+        return {}
+    out = {}
+    for case, v in raw.items():
+        ok = (case in CASES and case != "D" and isinstance(v, list) and len(v) == 3
+              and all(isinstance(x, int | float) and not isinstance(x, bool)
+                      and 0 <= x <= 1 for x in v))
+        if not ok:
+            problems.append(Problem(f"{path}.{case}", "must be a variable load case with "
+                                    "[psi0, psi1, psi2], each 0 to 1"))
+        else:
+            out[case] = (float(v[0]), float(v[1]), float(v[2]))
+    return out
+
+
+def _read_overrides(raw: Any, path: str, problems: list[Problem]) -> dict[str, dict[str, float]]:
+    if not isinstance(raw, dict):
+        problems.append(Problem(path, "must map ply names to factors"))
+        return {}
+    out: dict[str, dict[str, float]] = {}
+    for ply, facs in raw.items():
+        if not isinstance(facs, dict):
+            problems.append(Problem(f"{path}.{ply}", "must map factor symbols to numbers"))
+            continue
+        specs = [FieldSpec(sym, "number", lo=0.0, hi=10.0) for sym in facs]
+        out[ply] = read_fields(facs, specs, f"{path}.{ply}", problems)
+    return out
+
+
+def write_design(d: DesignSpec, system: str) -> dict[str, Any]:
+    """The "design" object (only what differs from the defaults, plus the basis)."""
+    out = write_fields(d, DesignSpec(basis=d.basis), DESIGN_FIELDS, system)
+    limits = {k: getattr(d, f"{k}_limit") for k in LIMIT_KEYS
+              if getattr(d, f"{k}_limit") is not None}
+    if limits:
+        out["deflection_limits"] = limits
+    if d.psi:
+        out["psi"] = {k: list(v) for k, v in d.psi.items()}
+    if d.overrides:
+        out["overrides"] = {k: dict(v) for k, v in d.overrides.items()}
+    if d.connector != Connector():
+        out["connector"] = write_fields(d.connector, Connector(), CONNECTOR_FIELDS, system)
+    if d.bolt != Bolt():
+        out["bolt"] = write_fields(d.bolt, Bolt(), BOLT_FIELDS, system)
+    return out
