@@ -73,7 +73,7 @@ class AnalysisModel(QObject):
                 self.section = self._evaluator_for(project).section(project.plies)
             except ProjectError as exc:
                 self.section_error = "\n".join(str(p) for p in exc.problems)
-            except Exception as exc:  # noqa: BLE001 - never lose work over a computation
+            except Exception as exc:
                 self.section_error = f"The section could not be analysed ({exc})"
         self.section_changed.emit()
 
@@ -90,7 +90,7 @@ class AnalysisModel(QObject):
                 self.analysis = ev.analyse(project.plies)
         except ProjectError as exc:
             self.error = "\n".join(str(p) for p in exc.problems)
-        except Exception as exc:  # noqa: BLE001 - never lose work over a computation
+        except Exception as exc:
             self.error = f"The computation failed: {exc}"
         self.analysis_changed.emit()
 

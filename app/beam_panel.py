@@ -46,15 +46,15 @@ class ChoiceDelegate(QStyledItemDelegate):
         super().__init__(parent)
         self.choices = choices
 
-    def createEditor(self, parent, option, index):  # type: ignore[no-untyped-def]  # noqa: N802,D102
+    def createEditor(self, parent, option, index):  # type: ignore[no-untyped-def]  # noqa: D102
         box = QComboBox(parent)
         box.addItems(list(self.choices))
         return box
 
-    def setEditorData(self, editor, index):  # type: ignore[no-untyped-def]  # noqa: N802,D102
+    def setEditorData(self, editor, index):  # type: ignore[no-untyped-def]  # noqa: D102
         editor.setCurrentText(str(index.data() or self.choices[0]))
 
-    def setModelData(self, editor, model, index):  # type: ignore[no-untyped-def]  # noqa: N802,D102
+    def setModelData(self, editor, model, index):  # type: ignore[no-untyped-def]  # noqa: D102
         model.setData(index, editor.currentText())
 
 

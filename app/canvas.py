@@ -278,7 +278,7 @@ class SectionCanvas(QGraphicsView):
             h.setData(1, edges)
             self.scene().addItem(h)
 
-    def drawBackground(self, painter: QPainter, rect: QRectF) -> None:  # noqa: N802,D102
+    def drawBackground(self, painter: QPainter, rect: QRectF) -> None:  # noqa: D102
         painter.fillRect(rect, QColor(252, 252, 250))
         px_per_mm = self.transform().m11() or 1.0
         steps = ([25.4 / 16, 25.4 / 8, 25.4 / 4, 25.4 / 2, 25.4, 50.8, 152.4, 304.8]
@@ -298,7 +298,7 @@ class SectionCanvas(QGraphicsView):
                 painter.drawLine(QPointF(rect.left(), y), QPointF(rect.right(), y))
                 y += step
 
-    def drawForeground(self, painter: QPainter, rect: QRectF) -> None:  # noqa: N802,D102
+    def drawForeground(self, painter: QPainter, rect: QRectF) -> None:
         """A scale bar in the lower left corner of the view."""
         px_per_mm = self.transform().m11() or 1.0
         options = ([25.4 / 4, 25.4 / 2, 25.4, 50.8, 101.6, 152.4, 304.8]
@@ -345,7 +345,7 @@ class SectionCanvas(QGraphicsView):
                 return "ply", int(idx), None
         return "empty", None, None
 
-    def mousePressEvent(self, event: QMouseEvent) -> None:  # noqa: N802,D102
+    def mousePressEvent(self, event: QMouseEvent) -> None:  # noqa: D102
         if event.button() != Qt.MouseButton.LeftButton:
             return super().mousePressEvent(event)
         what, idx, edges = self._hit(event)
@@ -360,7 +360,7 @@ class SectionCanvas(QGraphicsView):
             self.gesture = DrawGesture(self, x, y)
         event.accept()
 
-    def mouseMoveEvent(self, event: QMouseEvent) -> None:  # noqa: N802,D102
+    def mouseMoveEvent(self, event: QMouseEvent) -> None:  # noqa: D102
         x, y = self.model_point(event)
         if self.gesture is not None:
             self.gesture.move(x, y)
@@ -377,7 +377,7 @@ class SectionCanvas(QGraphicsView):
             self.status.emit(f"{pos}. Drag to draw a new ply; Shift turns snapping off; "
                              "wheel zooms, F fits.")
 
-    def mouseReleaseEvent(self, event: QMouseEvent) -> None:  # noqa: N802,D102
+    def mouseReleaseEvent(self, event: QMouseEvent) -> None:  # noqa: D102
         if self.gesture is not None:
             x, y = self.model_point(event)
             self.gesture.release(x, y)
@@ -386,17 +386,17 @@ class SectionCanvas(QGraphicsView):
             return
         super().mouseReleaseEvent(event)
 
-    def wheelEvent(self, event: QWheelEvent) -> None:  # noqa: N802,D102
+    def wheelEvent(self, event: QWheelEvent) -> None:  # noqa: D102
         factor = 1.15 if event.angleDelta().y() > 0 else 1 / 1.15
         self.scale(factor, factor)
         self._user_zoomed = True
 
-    def resizeEvent(self, event) -> None:  # type: ignore[no-untyped-def]  # noqa: N802,D102
+    def resizeEvent(self, event) -> None:  # type: ignore[no-untyped-def]  # noqa: D102
         super().resizeEvent(event)
         if not getattr(self, "_user_zoomed", False):
             self.fit()
 
-    def keyPressEvent(self, event: QKeyEvent) -> None:  # noqa: N802,D102
+    def keyPressEvent(self, event: QKeyEvent) -> None:  # noqa: D102
         key = event.key()
         if key == Qt.Key.Key_F:
             self.fit()

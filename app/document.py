@@ -35,7 +35,7 @@ class EditCommand(QUndoCommand):
     def id(self) -> int:  # noqa: D102 - Qt API
         return _MERGE_ID if self.merge_key else -1
 
-    def mergeWith(self, other: QUndoCommand) -> bool:  # noqa: N802,D102 - Qt API
+    def mergeWith(self, other: QUndoCommand) -> bool:  # noqa: D102 - Qt API
         if not isinstance(other, EditCommand) or other.merge_key != self.merge_key:
             return False
         self.new = other.new

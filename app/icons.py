@@ -12,6 +12,6 @@ def app_icon() -> QIcon:
     pixmap = QPixmap()
     try:
         pixmap.loadFromData(read_bytes("icons/plystack.png", "the application icon"))
-    except Exception:  # noqa: BLE001 - a missing icon must never stop the program
+    except Exception:
         return QIcon()
     return QIcon(pixmap)

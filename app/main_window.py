@@ -506,7 +506,7 @@ class MainWindow(QMainWindow):
         except OSError:
             pass
 
-    def closeEvent(self, event: QCloseEvent) -> None:  # noqa: N802,D102
+    def closeEvent(self, event: QCloseEvent) -> None:  # noqa: D102
         if self.maybe_save():
             self._clear_autosave()
             event.accept()

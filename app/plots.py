@@ -52,7 +52,7 @@ class BlitCanvas(FigureCanvasQTAgg):
         self.full_draws = 0
         self.mpl_connect("draw_event", self._on_draw)
 
-    def resizeEvent(self, event: Any) -> None:  # noqa: N802,D102 - Qt API
+    def resizeEvent(self, event: Any) -> None:  # noqa: D102 - Qt API
         self.figure.set_layout_engine("constrained")
         self._background = None
         super().resizeEvent(event)

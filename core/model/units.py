@@ -59,7 +59,7 @@ def registry() -> Any:
     for line in _EXTRA_DEFINITIONS:
         try:
             ureg.define(line)
-        except Exception:  # noqa: BLE001 - pint may already define some of these
+        except Exception:
             pass
     return ureg
 
@@ -108,7 +108,7 @@ def _parse_cached(text: str, dimension: str) -> float:
     expr = _normalise(text)
     try:
         q = ureg.parse_expression(expr)
-    except Exception as exc:  # noqa: BLE001 - pint raises many kinds of errors
+    except Exception as exc:
         raise UnitError(f"cannot be read ({type(exc).__name__})") from None
     if not hasattr(q, "magnitude"):
         raise UnitError("has no unit")

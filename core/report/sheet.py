@@ -58,7 +58,7 @@ def _title_block_maker(project: Project, paper: tuple[float, float],
             super().__init__(*args, **kwargs)
             self._pages: list[dict[str, Any]] = []
 
-        def showPage(self) -> None:  # noqa: N802 - reportlab API
+        def showPage(self) -> None:
             self._pages.append(dict(self.__dict__))
             self._startPage()
 

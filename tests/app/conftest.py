@@ -7,8 +7,8 @@ import os
 
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 
-import pytest  # noqa: E402
-from PySide6.QtCore import QStandardPaths  # noqa: E402
+import pytest
+from PySide6.QtCore import QStandardPaths
 
 QStandardPaths.setTestModeEnabled(True)
 
