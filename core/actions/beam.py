@@ -5,17 +5,20 @@ left end of the member (the tip of a left overhang, where there is one). Loads a
 positive downward (gravity). Results: upward reactions positive; sagging moment
 positive; shear V(x) = sum of upward forces left of x; deflection positive downward.
 
-Every load either acts at a node (point loads) or is uniform over whole elements (line
-and area loads, with nodes at their ends), so the stiffness solution with consistent
-load vectors is exact at the nodes, and shear, moment (by statics inside each element)
-and deflection (Hermite shape functions plus the uniform-load particular solution
-q L^4 xi^2 (1 - xi)^2 / 24 EI) are exact everywhere.
+Every load either acts at a node (point loads) or is uniform or linearly varying over
+whole elements (line and area loads, with nodes at their ends), so the stiffness solution
+with consistent load vectors is exact at the nodes, and shear, moment (by statics inside
+each element) and deflection (Hermite shape functions plus the particular solution of
+the clamped element, q x^2 (L - x)^2 / 24 for the uniform part and
+dq (x^5 / 120 - L^2 x^3 / 40 + L^3 x^2 / 60) for the linear part q(x) = q + dq x, divided
+by EI) are exact everywhere.
 """
 
 from __future__ import annotations
 
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
+from typing import Any
 
 import numpy as np
 
@@ -27,9 +30,10 @@ from ..model.member import MERGE_TOLERANCE, BeamLayout, Load, validate_layout
 class CaseSolution:
     """Exact solution of one load (or load set) for EI = 1.
 
-    Per element e from ``nodes[e]`` to ``nodes[e+1]``: V(x) = V0 + q x and
-    M(x) = M0 + V0 x + q x^2 / 2 (x local, q upward positive), deflection (downward
-    positive) = -(Hermite(v1, t1, v2, t2) + q L^4 xi^2 (1 - xi)^2 / 24) / EI.
+    Per element e from ``nodes[e]`` to ``nodes[e+1]``, with x local and the load
+    q(x) = q + dq x upward positive: V(x) = V0 + q x + dq x^2 / 2,
+    M(x) = M0 + V0 x + q x^2 / 2 + dq x^3 / 6, deflection (downward positive) =
+    -(Hermite(v1, t1, v2, t2) + particular solution) / EI (see the module docstring).
     """
 
     V0: np.ndarray
@@ -38,17 +42,19 @@ class CaseSolution:
     u: np.ndarray
     reactions: np.ndarray
     reaction_moments: np.ndarray
+    dq: np.ndarray
 
     def scaled(self, factor: float) -> CaseSolution:
         """Return this solution times ``factor`` (the beam is linear)."""
         return CaseSolution(self.V0 * factor, self.M0 * factor, self.q * factor,
                             self.u * factor, self.reactions * factor,
-                            self.reaction_moments * factor)
+                            self.reaction_moments * factor, self.dq * factor)
 
     def __add__(self, other: CaseSolution) -> CaseSolution:
         return CaseSolution(self.V0 + other.V0, self.M0 + other.M0, self.q + other.q,
                             self.u + other.u, self.reactions + other.reactions,
-                            self.reaction_moments + other.reaction_moments)
+                            self.reaction_moments + other.reaction_moments,
+                            self.dq + other.dq)
 
 
 class BeamModel:
@@ -101,7 +107,7 @@ class BeamModel:
             next((n for n, a, b in regions if a <= m <= b), "member") for m in mids)
 
     def _restore_equilibrium(self, reactions: np.ndarray, moments: np.ndarray,
-                             point: np.ndarray, q_el: np.ndarray) -> None:
+                             point: np.ndarray, q_el: np.ndarray, dq_el: np.ndarray) -> None:
         """Make the reactions satisfy overall equilibrium exactly (in place).
 
         The stiffness solution meets equilibrium only to round-off, which grows with very
@@ -109,9 +115,13 @@ class BeamModel:
         the force and moment of a single fixed support) are re-solved by statics.
         """
         xs = self.nodes
-        mids = (xs[:-1] + xs[1:]) / 2
-        down = float(point.sum() - (q_el * self.lengths).sum())
-        arm = float((point * xs).sum() - (q_el * self.lengths * mids).sum())
+        le = self.lengths
+        x0 = xs[:-1]
+        # resultant and first moment of q + dq s over each element (s local)
+        force = q_el * le + dq_el * le**2 / 2
+        moment = q_el * le * (x0 + le / 2) + dq_el * (x0 * le**2 / 2 + le**3 / 3)
+        down = float(point.sum() - force.sum())
+        arm = float((point * xs).sum() - moment.sum())
         pos = np.array([xs[n] for n in self.support_nodes])
         if len(self.support_nodes) >= 2:
             i, j = 0, len(self.support_nodes) - 1
@@ -139,23 +149,29 @@ class BeamModel:
 
         """
         n_el = self.lengths.size
-        q_el = np.full(n_el, -float(extra_line))  # upward positive
+        q_el = np.full(n_el, -float(extra_line))  # upward positive, at each element's start
+        dq_el = np.zeros(n_el)  # slope of the upward load along each element
         F = np.zeros(2 * self.nodes.size)
+        x0 = self.nodes[:-1]
         mids = (self.nodes[:-1] + self.nodes[1:]) / 2
         L = self.layout.length
         for ld in loads:
             if ld.type == "point":
                 F[2 * self.node_index(float(ld.at or 0.0))] -= ld.value
-            else:
-                a = 0.0 if ld.start is None else ld.start
-                b = L if ld.end is None else ld.end
-                q_el[(mids > a) & (mids < b)] -= ld.line_value
+                continue
+            a = 0.0 if ld.start is None else ld.start
+            b = L if ld.end is None else ld.end
+            inside = (mids > a) & (mids < b)
+            q_el[inside] -= ld.line_value + (x0[inside] - a) * (
+                (ld.line_value_end - ld.line_value) / (b - a))
+            dq_el[inside] -= (ld.line_value_end - ld.line_value) / (b - a)
         le = self.lengths
         Fe = np.zeros_like(F)
-        np.add.at(Fe, 2 * np.arange(n_el), q_el * le / 2)
-        np.add.at(Fe, 2 * np.arange(n_el) + 1, q_el * le**2 / 12)
-        np.add.at(Fe, 2 * np.arange(n_el) + 2, q_el * le / 2)
-        np.add.at(Fe, 2 * np.arange(n_el) + 3, -q_el * le**2 / 12)
+        # consistent nodal loads of q + dq s: uniform part and linear part (Hermite shapes)
+        np.add.at(Fe, 2 * np.arange(n_el), q_el * le / 2 + dq_el * 3 * le**2 / 20)
+        np.add.at(Fe, 2 * np.arange(n_el) + 1, q_el * le**2 / 12 + dq_el * le**3 / 30)
+        np.add.at(Fe, 2 * np.arange(n_el) + 2, q_el * le / 2 + dq_el * 7 * le**2 / 20)
+        np.add.at(Fe, 2 * np.arange(n_el) + 3, -q_el * le**2 / 12 - dq_el * le**3 / 20)
         total = F + Fe
         u = np.zeros_like(F)
         rhs = total[self.free]
@@ -168,7 +184,7 @@ class BeamModel:
             for n, k in zip(self.support_nodes, kinds, strict=True)
         ])
         point = -F[0::2]  # downward point loads at nodes
-        self._restore_equilibrium(reactions, reaction_moments, point, q_el)
+        self._restore_equilibrium(reactions, reaction_moments, point, q_el, dq_el)
         # shear and moment by statics, walking from the left end
         node_force = point.copy() * -1.0
         node_couple = np.zeros(self.nodes.size)
@@ -181,9 +197,10 @@ class BeamModel:
         for e in range(n_el):
             V0[e] = v_end + node_force[e]
             M0[e] = m_end - node_couple[e]
-            v_end = V0[e] + q_el[e] * le[e]
-            m_end = M0[e] + V0[e] * le[e] + q_el[e] * le[e] ** 2 / 2
-        return CaseSolution(V0, M0, q_el, u, reactions, reaction_moments)
+            v_end = V0[e] + q_el[e] * le[e] + dq_el[e] * le[e] ** 2 / 2
+            m_end = (M0[e] + V0[e] * le[e] + q_el[e] * le[e] ** 2 / 2
+                     + dq_el[e] * le[e] ** 3 / 6)
+        return CaseSolution(V0, M0, q_el, u, reactions, reaction_moments, dq_el)
 
 
 def _element_stiffness(le: float) -> np.ndarray:
@@ -220,61 +237,61 @@ def element_polynomials(model: BeamModel, sol: CaseSolution,
     out = []
     for e, le in enumerate(model.lengths):
         v1, t1, v2, t2 = sol.u[2 * e : 2 * e + 4]
-        q = sol.q[e]
-        # Hermite cubic in local x
-        a0 = v1
-        a1 = t1
-        a2 = (3 * (v2 - v1) / le - 2 * t1 - t2) / le
-        a3 = (2 * (v1 - v2) / le + t1 + t2) / le**2
-        # particular q x^2 (L - x)^2 / 24 = q/24 (x^4 - 2 L x^3 + L^2 x^2)
-        p = q / 24
-        w_up = np.array([p, a3 - 2 * le * p, a2 + le * le * p, a1, a0])
+        q, dq = sol.q[e], sol.dq[e]
         out.append({
-            "V": np.array([q, sol.V0[e]]),
-            "M": np.array([q / 2, sol.V0[e], sol.M0[e]]),
-            "w": -w_up / EI,
+            "V": np.array([dq / 2, q, sol.V0[e]]),
+            "M": np.array([dq / 6, q / 2, sol.V0[e], sol.M0[e]]),
+            "w": -_w_up_coefficients(v1, t1, v2, t2, q, dq, le) / EI,
         })
     return out
 
 
-def _real_roots_batched(coeffs: np.ndarray, le: np.ndarray) -> np.ndarray:
-    """Real roots inside (0, le) of per-row cubics (n, 4), highest power first.
-
-    Returns (n, 3) local positions, NaN where there is no root. Each row is scaled to
-    t = x / le and normalised, so negligible leading terms are treated as zero.
+def _w_up_coefficients(v1: Any, t1: Any, v2: Any, t2: Any, q: Any, dq: Any,
+                       le: Any) -> np.ndarray:
+    """Upward deflection times EI in local x, coefficients highest power (x^5) first,
+    on the last axis: Hermite cubic plus the clamped particular solutions
+    q x^2 (L - x)^2 / 24 and dq (x^5 / 120 - L^2 x^3 / 40 + L^3 x^2 / 60).
     """
-    n = coeffs.shape[0]
-    out = np.full((n, 3), np.nan)
-    scaled = coeffs * le[:, None] ** np.array([3, 2, 1, 0])
+    a2 = (3 * (v2 - v1) / le - 2 * t1 - t2) / le
+    a3 = (2 * (v1 - v2) / le + t1 + t2) / le**2
+    p = q / 24
+    return np.stack(np.broadcast_arrays(
+        dq / 120, p + 0 * dq, a3 - 2 * le * p - dq * le**2 / 40,
+        a2 + le * le * p + dq * le**3 / 60, t1 + 0 * q, v1 + 0 * q), axis=-1)
+
+
+def _real_roots_batched(coeffs: np.ndarray, le: np.ndarray) -> np.ndarray:
+    """Real roots inside (0, le) of per-row polynomials (n, d + 1), highest power first.
+
+    Returns (n, d) local positions, NaN where there is no root. Each row is scaled to
+    t = x / le and normalised, so negligible leading terms are treated as zero; rows are
+    grouped by their true degree and solved by the eigenvalues of companion matrices.
+    """
+    n, d1 = coeffs.shape
+    d = d1 - 1
+    out = np.full((n, d), np.nan)
+    scaled = coeffs * le[:, None] ** np.arange(d, -1, -1)
     big = np.abs(scaled).max(axis=1)
     ok = np.isfinite(big) & (big > 0)
     scaled = np.where(ok[:, None], scaled / np.where(ok, big, 1.0)[:, None], 0.0)
     scaled = np.where(np.abs(scaled) < 1e-12, 0.0, scaled)
-    c3, c2, c1, c0 = scaled.T
-    cubic = ok & (c3 != 0)
-    if cubic.any():
-        k = np.flatnonzero(cubic)
-        comp = np.zeros((k.size, 3, 3))
-        comp[:, 0, 0] = -c2[k] / c3[k]
-        comp[:, 0, 1] = -c1[k] / c3[k]
-        comp[:, 0, 2] = -c0[k] / c3[k]
-        comp[:, 1, 0] = 1.0
-        comp[:, 2, 1] = 1.0
-        roots = np.linalg.eigvals(comp)
+    nonzero = scaled != 0
+    lead = np.where(nonzero.any(axis=1), np.argmax(nonzero, axis=1), d1)
+    degree = d - lead
+    for deg in range(1, d + 1):
+        k = np.flatnonzero(ok & (degree == deg))
+        if k.size == 0:
+            continue
+        c = scaled[k, d - deg:]
+        if deg == 1:
+            roots = (-c[:, 1] / c[:, 0])[:, None].astype(complex)
+        else:
+            comp = np.zeros((k.size, deg, deg))
+            comp[:, 0, :] = -c[:, 1:] / c[:, :1]
+            comp[:, np.arange(1, deg), np.arange(deg - 1)] = 1.0
+            roots = np.linalg.eigvals(comp)
         real = (np.abs(roots.imag) < 1e-9) & (roots.real > 0) & (roots.real < 1)
-        out[k] = np.where(real, roots.real, np.nan)
-    quad = ok & (c3 == 0) & (c2 != 0)
-    if quad.any():
-        k = np.flatnonzero(quad)
-        disc = c1[k] ** 2 - 4 * c2[k] * c0[k]
-        sq = np.sqrt(np.where(disc >= 0, disc, np.nan))
-        for j, r in enumerate(((-c1[k] + sq) / (2 * c2[k]), (-c1[k] - sq) / (2 * c2[k]))):
-            out[k, j] = np.where((r > 0) & (r < 1), r, np.nan)
-    lin = ok & (c3 == 0) & (c2 == 0) & (c1 != 0)
-    if lin.any():
-        k = np.flatnonzero(lin)
-        r = -c0[k] / c1[k]
-        out[k, 0] = np.where((r > 0) & (r < 1), r, np.nan)
+        out[k, :deg] = np.where(real, roots.real, np.nan)
     return np.asarray(out * le[:, None])
 
 
@@ -293,36 +310,41 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
     x0 = model.nodes[:-1]
     k, n = len(sols), le.size
     q = np.stack([s.q for s in sols])
+    dq = np.stack([s.dq for s in sols])
     V0 = np.stack([s.V0 for s in sols])
     M0 = np.stack([s.M0 for s in sols])
     U = np.stack([s.u for s in sols])
     EI = np.asarray(EIs, dtype=float).reshape(k, 1)
-    with np.errstate(divide="ignore", invalid="ignore"):
-        xr = np.where(q != 0, -V0 / q, 0.0)
-    valid = (q != 0) & (xr > 0) & (xr < le)
-    xm = np.empty((k, n, 3))
-    xm[..., 0] = 0.0
-    xm[..., 1] = le
-    xm[..., 2] = np.where(valid, xr, 0.0)
-    m = M0[..., None] + V0[..., None] * xm + q[..., None] * xm**2 / 2
-    ok = np.ones((k, n, 3), dtype=bool)
-    ok[..., 2] = valid
+    le_k = np.tile(le, k)
+    # moment: element ends and the roots of V = V0 + q x + dq x^2 / 2 inside the element
+    v_roots = _real_roots_batched(
+        np.stack([dq / 2, q, V0], axis=-1).reshape(k * n, 3), le_k).reshape(k, n, 2)
+    xm = np.concatenate([np.zeros((k, n, 1)), np.broadcast_to(le[:, None], (k, n, 1)),
+                         np.nan_to_num(v_roots)], axis=-1)
+    ok = np.concatenate([np.ones((k, n, 2), dtype=bool), ~np.isnan(v_roots)], axis=-1)
+    m = (M0[..., None] + V0[..., None] * xm + q[..., None] * xm**2 / 2
+         + dq[..., None] * xm**3 / 6)
     i_max = np.argmax(np.where(ok, m, -np.inf).reshape(k, -1), axis=1)
     i_min = np.argmin(np.where(ok, m, np.inf).reshape(k, -1), axis=1)
-    v = np.abs(np.stack([V0, V0 + q * le], axis=-1)).reshape(k, -1)
+    # |V|: element ends and where dV/dx = q + dq x = 0
+    with np.errstate(divide="ignore", invalid="ignore"):
+        xv_in = np.where(dq != 0, -q / dq, np.nan)
+    inside = (xv_in > 0) & (xv_in < le)
+    xv_loc = np.stack([np.zeros((k, n)), np.broadcast_to(le, (k, n)),
+                       np.where(inside, xv_in, 0.0)], axis=-1)
+    v_all = V0[..., None] + q[..., None] * xv_loc + dq[..., None] * xv_loc**2 / 2
+    v = np.where(np.concatenate([np.ones((k, n, 2), dtype=bool), inside[..., None]],
+                                axis=-1), np.abs(v_all), -1.0).reshape(k, -1)
     i_v = np.argmax(v, axis=1)
     v1, t1, v2, t2 = U[:, 0:-2:2], U[:, 1:-2:2], U[:, 2::2], U[:, 3::2]
-    a2 = (3 * (v2 - v1) / le - 2 * t1 - t2) / le
-    a3 = (2 * (v1 - v2) / le + t1 + t2) / le**2
-    p = q / 24
-    w_c = -np.stack([p, a3 - 2 * le * p, a2 + le * le * p, t1, v1], axis=-1) / EI[..., None]
-    dw = w_c[..., :4] * np.array([4.0, 3.0, 2.0, 1.0])
-    roots = _real_roots_batched(dw.reshape(k * n, 4), np.tile(le, k)).reshape(k, n, 3)
+    w_c = -_w_up_coefficients(v1, t1, v2, t2, q, dq, le) / EI[..., None]
+    dw = w_c[..., :5] * np.array([5.0, 4.0, 3.0, 2.0, 1.0])
+    roots = _real_roots_batched(dw.reshape(k * n, 5), le_k).reshape(k, n, 4)
     xw = np.concatenate([np.zeros((k, n, 1)), np.broadcast_to(le[:, None], (k, n, 1)),
                          roots], axis=-1)
     xw_safe = np.nan_to_num(xw)
     w = np.zeros_like(xw_safe)
-    for j in range(5):
+    for j in range(6):
         w = w * xw_safe + w_c[..., j : j + 1]
     w = np.where(np.isnan(xw), 0.0, w)
     aw = np.abs(w)
@@ -334,8 +356,7 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
     pos_w = x0[None, :, None] + xw_safe
     out = []
     xm_flat = (x0[None, :, None] + xm).reshape(k, -1)
-    xv_flat = np.stack([np.broadcast_to(x0, (k, n)), np.broadcast_to(x0 + le, (k, n))],
-                       axis=-1).reshape(k, -1)
+    xv_flat = (x0[None, :, None] + xv_loc).reshape(k, -1)
     for c in range(k):
         m_flat = m[c].reshape(-1)
         m_max, m_min = float(m_flat[i_max[c]]), float(m_flat[i_min[c]])

@@ -14,8 +14,10 @@ from collections.abc import Mapping
 from pathlib import Path
 from typing import Any
 
+from ..model.design import DesignSpec
 from ..model.errors import Problem, ProjectError
 from ..model.materials import Material
+from ..model.member import BeamSpec
 from ..model.project import Alternative, Project
 from .atomic import write_text
 from .design_file import read_design, write_design
@@ -107,6 +109,7 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
                     problems.append(Problem(f"{p}.{k}", "is not a known key"))
             alternatives.append(Alternative(alt["name"], read_plies(
                 alt.get("plies", []), f"{p}.plies", known, problems)))
+    problems.extend(_combination_kinds(beam_spec, design))
     current = data.get("current_alternative")
     if current is not None and not isinstance(current, str):
         problems.append(Problem("current_alternative", "must be text (an alternative's name)"))
@@ -117,6 +120,16 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
                    reference_material=ref, beam=beam_spec, design=design, info=info,
                    alternatives=tuple(alternatives), current_alternative=current,
                    library=lib)
+
+
+def _combination_kinds(beam: BeamSpec | None, design: DesignSpec | None) -> list[Problem]:
+    """On the EU basis every combination of the user's list must say its kind."""
+    if beam is None or design is None or design.us or not isinstance(beam.combinations, tuple):
+        return []
+    return [Problem(f"beam.combinations[{i}].kind", "is missing: on the EU-LSD basis every "
+                    "combination says what it is for (ULS, SLS-characteristic, SLS-frequent "
+                    "or SLS-quasi-permanent)")
+            for i, c in enumerate(beam.combinations) if c.kind is None]
 
 
 def to_dict(project: Project) -> dict[str, Any]:

@@ -6,7 +6,7 @@ from collections.abc import Mapping
 from typing import TYPE_CHECKING, Any
 
 from ..model import units
-from ..model.combination import EU_DURATIONS, US_DURATIONS, Combination
+from ..model.combination import EU_DURATIONS, KINDS, US_DURATIONS, Combination
 from ..model.errors import Problem
 from ..model.materials import Material, material_from_record
 from ..model.member import CASES, BeamLayout, Load, validate_layout, validate_load
@@ -17,8 +17,10 @@ if TYPE_CHECKING:
 
 PLY_KEYS = ("name", "material", "x", "y", "width", "height")
 BEAM_KEYS = frozenset({"spans", "supports", "overhang_left", "overhang_right", "bearing_length",
-                       "self_weight", "loads", "combinations", "sustained_live_fraction"})
-LOAD_KEYS = frozenset({"case", "type", "value", "tributary_width", "from", "to", "at"})
+                       "self_weight", "loads", "combinations", "sustained_live_fraction",
+                       "pattern_live_load", "hold_down"})
+LOAD_KEYS = frozenset({"case", "type", "value", "tributary_width", "from", "to", "at",
+                       "value_end"})
 def _quantity(raw: Any, dimension: str, path: str, problems: list[Problem]) -> float | None:
     try:
         return units.parse(raw, dimension, path)
@@ -157,9 +159,13 @@ def read_beam(raw: Any, path: str, problems: list[Problem]) -> BeamSpec | None:
     if "sustained_live_fraction" in raw:
         frac = _number(raw["sustained_live_fraction"], f"{path}.sustained_live_fraction",
                        problems, 0.0, 1.0)
+    pattern = _flag(raw.get("pattern_live_load", True), f"{path}.pattern_live_load", problems)
+    hold_down = None
+    if "hold_down" in raw:
+        hold_down = _positive(raw["hold_down"], "force", f"{path}.hold_down", problems)
     if len(problems) > before:
         return None
-    return BeamSpec(layout, loads, self_weight, bearing, combos, frac)
+    return BeamSpec(layout, loads, self_weight, bearing, combos, frac, pattern, hold_down)
 
 
 def _read_loads(raw: Any, path: str, layout: BeamLayout,
@@ -191,7 +197,7 @@ def _read_loads(raw: Any, path: str, layout: BeamLayout,
             problems.append(Problem(f"{p}.value", "is missing"))
             continue
         value = _quantity(rec["value"], dims[typ], f"{p}.value", problems)
-        trib = start = end = at = None
+        trib = start = end = at = value_end = None
         if typ == "area":
             if "tributary_width" not in rec:
                 problems.append(Problem(f"{p}.tributary_width", "is missing (an area load "
@@ -214,13 +220,18 @@ def _read_loads(raw: Any, path: str, layout: BeamLayout,
             if "at" in rec:
                 problems.append(Problem(f"{p}.at", 'only applies to point loads; use "from" '
                                         'and "to"'))
+            if "value_end" in rec:
+                value_end = _quantity(rec["value_end"], dims[typ], f"{p}.value_end", problems)
             if "from" in rec:
                 start = _quantity(rec["from"], "length", f"{p}.from", problems)
             if "to" in rec:
                 end = _quantity(rec["to"], "length", f"{p}.to", problems)
         if len(problems) > before or value is None:
             continue
-        load = Load(str(case), str(typ), value, trib, start, end, at)
+        if typ == "point" and "value_end" in rec:
+            problems.append(Problem(f"{p}.value_end", "only applies to area and line loads"))
+            continue
+        load = Load(str(case), str(typ), value, trib, start, end, at, value_end)
         if length > 0:
             probs = validate_load(load, length, p)
             problems.extend(probs)
@@ -249,7 +260,7 @@ def read_combinations(raw: Any, path: str,
             problems.append(Problem(p, 'must be an object with "name" and "factors"'))
             continue
         for key in rec:
-            if key not in ("name", "factors", "duration"):
+            if key not in ("name", "factors", "duration", "kind"):
                 problems.append(Problem(f"{p}.{key}", "is not a known key of a combination"))
         name = rec.get("name")
         if not isinstance(name, str) or not name:
@@ -273,5 +284,10 @@ def read_combinations(raw: Any, path: str,
             problems.append(Problem(f"{p}.duration", f"{duration!r} is not a load duration; use "
                                     "one of " + ", ".join(US_DURATIONS + EU_DURATIONS)))
             duration = None
-        out.append(Combination(name, fs, duration, "custom"))
+        kind = rec.get("kind")
+        if kind is not None and kind not in KINDS:
+            problems.append(Problem(f"{p}.kind", f"{kind!r} is not a kind of combination; use "
+                                    "one of " + ", ".join(KINDS)))
+            kind = None
+        out.append(Combination(name, fs, duration, kind, custom=True))
     return tuple(out)

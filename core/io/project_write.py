@@ -74,6 +74,8 @@ def write_beam(beam: BeamSpec, system: str) -> dict[str, Any]:
             rec["to"] = exact_text(ld.end, "span", system)
         if ld.at is not None:
             rec["at"] = exact_text(ld.at, "span", system)
+        if ld.value_end is not None:
+            rec["value_end"] = exact_text(ld.value_end, kind, system)
         loads.append(rec)
     out["loads"] = loads
     if beam.combinations is None:
@@ -83,8 +85,13 @@ def write_beam(beam: BeamSpec, system: str) -> dict[str, Any]:
     else:
         out["combinations"] = [
             {"name": c.name, "factors": dict(c.factors),
-             **({"duration": c.duration} if c.duration else {})}
+             **({"duration": c.duration} if c.duration else {}),
+             **({"kind": c.kind} if c.kind else {})}
             for c in beam.combinations]
     if beam.sustained_live_fraction is not None:
         out["sustained_live_fraction"] = beam.sustained_live_fraction
+    if not beam.pattern_live_load:
+        out["pattern_live_load"] = False
+    if beam.hold_down is not None:
+        out["hold_down"] = exact_text(beam.hold_down, "force", system)
     return out

@@ -26,6 +26,14 @@ EN1990_PSI: dict[str, tuple[float, float, float]] = {
 }
 
 
+#: What a combination is for. ASD (US allowable stress design) serves strength and
+#: deflection; ULS strength; the SLS kinds deflection (EN 1990 6.5.3).
+KINDS = ("ASD", "ULS", "SLS-characteristic", "SLS-frequent", "SLS-quasi-permanent")
+STRENGTH_KINDS = frozenset({"ASD", "ULS"})
+SERVICEABILITY_KINDS = frozenset({"ASD", "SLS-characteristic", "SLS-frequent",
+                                  "SLS-quasi-permanent"})
+
+
 @dataclass(frozen=True)
 class Combination:
     """A load combination.
@@ -34,19 +42,40 @@ class Combination:
         name: e.g. "D + L".
         factors: load factor per case.
         duration: load-duration class (None: from the shortest case in it).
-        limit_state: "ASD" (US: strength and deflection), "ULS", "SLS-characteristic" or
-            "SLS-quasi-permanent" (EU).
+        kind: one of KINDS; None for a combination of the user's list that gives none
+            (ASD on the US basis; refused on the EU basis).
+        custom: True for a combination of the user's own list.
 
     """
 
     name: str
     factors: Mapping[str, float] = field(default_factory=dict)
     duration: str | None = None
-    limit_state: str = "ASD"
+    kind: str | None = "ASD"
+    custom: bool = False
 
     def cases(self) -> tuple[str, ...]:
         """Cases with a nonzero factor."""
         return tuple(c for c, f in self.factors.items() if f != 0)
+
+    @property
+    def limit_state(self) -> str:
+        """"custom" for the user's own combinations, else the kind (the JSON key)."""
+        return "custom" if self.custom else (self.kind or "ASD")
+
+    def kind_on(self, basis: str) -> str:
+        """The kind, with the US default (ASD) for a combination that gives none."""
+        if self.kind is None:
+            return "ASD" if basis == "US" else "ULS"
+        return self.kind
+
+    def for_strength(self, basis: str) -> bool:
+        """True where strength checks use this combination."""
+        return self.kind_on(basis) in STRENGTH_KINDS
+
+    def for_serviceability(self, basis: str) -> bool:
+        """True where deflection checks, diagrams and studies use this combination."""
+        return self.kind_on(basis) in SERVICEABILITY_KINDS
 
 
 def duration_of(combo: Combination, basis: str) -> str:

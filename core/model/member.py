@@ -13,7 +13,9 @@ from .combination import Combination
 from .errors import Problem
 
 CASES = ("D", "L", "Lr", "S", "W")
-SUPPORTS = ("simple", "cantilever", "fixed-fixed", "propped")
+SUPPORTS = ("simple", "continuous", "cantilever", "fixed-fixed", "propped")
+#: Supports that may have several spans and overhangs (pinned supports throughout).
+PINNED = ("simple", "continuous")
 LOAD_TYPES = ("area", "line", "point")
 #: Positions closer than this fraction of the member length share one node.
 MERGE_TOLERANCE = 1e-7
@@ -31,6 +33,8 @@ class Load:
         start: m from the member's left end; None for the whole member.
         end: m; None for the whole member.
         at: m, point loads only.
+        value_end: intensity at ``end`` for a load varying linearly from ``value`` at
+            ``start`` (None: uniform).
 
     """
 
@@ -41,13 +45,32 @@ class Load:
     start: float | None = None
     end: float | None = None
     at: float | None = None
+    value_end: float | None = None
 
     @property
     def line_value(self) -> float:
-        """Line load intensity, N/m (area loads times their tributary width)."""
+        """Line load intensity at the start, N/m (area loads times their tributary width)."""
         if self.type == "area":
             return self.value * (self.tributary_width or 0.0)
         return self.value
+
+    @property
+    def line_value_end(self) -> float:
+        """Line load intensity at the end, N/m (the start's for a uniform load)."""
+        if self.value_end is None:
+            return self.line_value
+        if self.type == "area":
+            return self.value_end * (self.tributary_width or 0.0)
+        return self.value_end
+
+    def intensity_at(self, x: float, length: float) -> float:
+        """Line load intensity at ``x`` (m from the member's left end), N/m."""
+        a = 0.0 if self.start is None else self.start
+        b = length if self.end is None else self.end
+        if b <= a:
+            return self.line_value
+        t = (x - a) / (b - a)
+        return self.line_value + t * (self.line_value_end - self.line_value)
 
 
 @dataclass(frozen=True)
@@ -56,7 +79,8 @@ class BeamLayout:
 
     Attributes:
         spans: span lengths left to right, m.
-        supports: "simple" (several spans: continuous over pinned supports),
+        supports: "simple" (several spans: continuous over pinned supports), "continuous"
+            (the same member, as engineers call it),
             "cantilever" (fixed left, free right), "fixed-fixed", "propped"
             (fixed left, pinned right).
         overhang_left: m, simple/continuous only.
@@ -101,13 +125,13 @@ class BeamLayout:
             return [("cantilever", 0.0, self.spans[0])]
         x = 0.0
         if self.overhang_left > 0:
-            out.append(("left overhang", 0.0, self.overhang_left))
+            out.append(("overhang left", 0.0, self.overhang_left))
         x = self.overhang_left
         for i, s in enumerate(self.spans):
             out.append((f"span {i + 1}", x, x + s))
             x += s
         if self.overhang_right > 0:
-            out.append(("right overhang", x, x + self.overhang_right))
+            out.append(("overhang right", x, x + self.overhang_right))
         return out
 
 
@@ -122,7 +146,7 @@ def validate_layout(layout: BeamLayout, path: str = "beam") -> list[Problem]:
     if layout.supports not in SUPPORTS:
         problems.append(Problem(f"{path}.supports", f'"{layout.supports}" is not one of '
                                 + ", ".join(SUPPORTS)))
-    elif layout.supports != "simple" and len(layout.spans) != 1:
+    elif layout.supports not in PINNED and len(layout.spans) != 1:
         problems.append(Problem(f"{path}.supports", f'"{layout.supports}" needs exactly one '
                                 f"span, not {len(layout.spans)}; several spans are "
                                 'continuous over pinned supports ("simple")'))
@@ -130,7 +154,7 @@ def validate_layout(layout: BeamLayout, path: str = "beam") -> list[Problem]:
         v = getattr(layout, side)
         if not np.isfinite(v) or v < 0:
             problems.append(Problem(f"{path}.{side}", "must be zero or more"))
-        elif v > 0 and layout.supports != "simple":
+        elif v > 0 and layout.supports not in PINNED:
             problems.append(Problem(f"{path}.{side}", "overhangs are only for simple or "
                                     "continuous spans"))
     return problems
@@ -149,6 +173,9 @@ def validate_load(load: Load, length: float, path: str) -> list[Problem]:
         return problems
     if not np.isfinite(load.value):
         problems.append(Problem(f"{path}.value", "is not a finite number"))
+    if load.value_end is not None and (load.type == "point" or not np.isfinite(load.value_end)):
+        problems.append(Problem(f"{path}.value_end", "only applies to area and line loads"
+                                if load.type == "point" else "is not a finite number"))
     if load.type == "point":
         if load.at is None:
             problems.append(Problem(f"{path}.at", "is missing (where the point load acts)"))
@@ -180,6 +207,9 @@ class BeamSpec:
         combinations: "ASD", "EN1990", an explicit tuple, or None for the design
             basis's own set (ASD for US-ASD, EN1990 for EU-LSD).
         sustained_live_fraction: part of L that is sustained (creep), 0 to 1.
+        pattern_live_load: load each span and overhang with the variable cases or not
+            and envelope (ASCE 7-16 4.3.3, 7.5; EN 1991-1-1 6.2.1).
+        hold_down: N, the uplift a support's hold-down resists (None: none).
 
     """
 
@@ -189,3 +219,5 @@ class BeamSpec:
     bearing_length: float | None = None
     combinations: str | tuple[Combination, ...] | None = None
     sustained_live_fraction: float | None = None
+    pattern_live_load: bool = True
+    hold_down: float | None = None
