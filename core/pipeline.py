@@ -65,7 +65,8 @@ class Evaluator:
         self.project = project
         self.design = project.design_or_default()
         self.materials: Mapping[str, Material] = project.all_materials()
-        self.beam = PreparedBeam.of(project.beam) if project.beam is not None else None
+        self.beam = (PreparedBeam.of(project.beam, self.design) if project.beam is not None
+                     else None)
 
     def section(self, plies: Sequence[Ply], reference: str | None = None) -> Section:
         """The transformed section of ``plies``."""

@@ -7,21 +7,28 @@ section with timber moduli divided by the creep factor (NDS 2018 3.5.2 K_cr, or
 re-transformed and the steel takes a larger share of that moment. The rest acts on the
 short-term section. Total deflection = long-term part + short-term part.
 
+Sustained part (from memory): US, NDS 2018 3.5.2: the combination's D plus
+``sustained_live_fraction`` of its L. EU, EN 1995-1-1 2.2.3(5) and 2.3.2.2: all of G and
+psi2 of each variable action the combination holds, so that
+u_fin = u_inst,G (1 + k_def) + u_inst,Q1 (1 + psi2,1 k_def) + sum u_inst,Qi (psi0,i +
+psi2,i k_def) for a homogeneous member, with the steel's share taken by re-transforming.
+
 The beam's mesh and stiffness do not depend on the section and every case is linear in
-its loads, so :class:`PreparedBeam` solves each case once (self-weight as a unit case);
-:func:`analyse_beams` then scales and combines them for any number of sections and
-reduces every solution to its extremes in one batched pass.
+its loads, so :class:`PreparedBeam` solves each case once (self-weight as a unit case),
+splits the patterned cases by span (actions.patterns) and finds the arrangements worth
+solving; :func:`analyse_beams` then scales and combines them for any number of sections
+and reduces every solution to its extremes in one batched pass.
 """
 
 from __future__ import annotations
 
 from collections.abc import Mapping, Sequence
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 import numpy as np
 
 from ..codes import en1995, nds
-from ..model.combination import Combination, duration_of
+from ..model.combination import EN1990_PSI, Combination, duration_of
 from ..model.constants import GRAVITY
 from ..model.design import DesignSpec
 from ..model.errors import Problem, ProjectError
@@ -29,28 +36,38 @@ from ..model.member import BeamSpec
 from ..section.transformed import Section, with_moduli
 from .beam import BeamModel, CaseSolution, Extremes, combine, extremes_many
 from .combinations import asd_combinations, en1990_combinations
+from .patterns import PATTERNED, Plan, RegionParts, plan, reaction_envelope, region_parts
 
 
 @dataclass(frozen=True, eq=False)
 class CombinationResult:
-    """Actions of one combination (SI; deflection positive downward).
+    """Actions of one combination (SI; deflection positive downward), enveloped over the
+    pattern arrangements where the variable cases are patterned.
 
     Attributes:
         combination: the combination.
         duration: its load-duration class.
-        solution: the combination on the short-term section.
-        extremes: extremes of ``solution`` (short-term EI).
+        solution: the combination with every region loaded, short-term section.
+        extremes: envelope of the extremes (short-term EI).
         sustained_factors: factors of its sustained part, per case.
-        sustained: the sustained part, or None.
-        rest: the part that is not sustained, or None.
-        total: extremes of the total with creep (sustained part on the creep section).
-        total_solution: the solution whose deflection is that total.
-        long_term: extremes of the sustained part on the creep section, or None.
-        short_term_rest: extremes of the rest on the short-term section, or None.
-        M_governing: the moment of largest magnitude, N m.
+        sustained: the sustained part (every region loaded), or None.
+        rest: the part that is not sustained (every region loaded), or None.
+        total: envelope of the total with creep (sustained part on the creep section).
+        total_solution: the total with creep, every region loaded.
+        long_term: extremes of the sustained part on the creep section, for the
+            arrangement that governs the total deflection, or None.
+        short_term_rest: extremes of the rest, same arrangement, or None.
+        M_governing: the moment of largest magnitude of the envelope, N m.
         model: the beam mesh.
         EI: short-term stiffness, N m^2.
         EI_creep: stiffness of the creep section, N m^2.
+        reactions_max: largest reaction of each support over the arrangements, N.
+        reactions_min: smallest reaction of each support (negative: uplift), N.
+        governing_patterns: for "M_max", "M_min" and "deflection_max_abs", the regions
+            loaded in the arrangement that governs it.
+        patterns_tried: how many arrangements were solved.
+        variable_only: envelope of the variable actions alone (EU characteristic
+            combinations), or None.
 
     """
 
@@ -69,11 +86,21 @@ class CombinationResult:
     model: BeamModel
     EI: float
     EI_creep: float
+    reactions_max: np.ndarray = field(default_factory=lambda: np.zeros(0))
+    reactions_min: np.ndarray = field(default_factory=lambda: np.zeros(0))
+    governing_patterns: Mapping[str, tuple[str, ...]] = field(default_factory=dict)
+    patterns_tried: int = 1
+    variable_only: Extremes | None = None
 
     @property
     def name(self) -> str:
         """The combination's name."""
         return self.combination.name
+
+    @property
+    def kind(self) -> str:
+        """The combination's kind (ASD, ULS, SLS-...)."""
+        return self.combination.kind_on("US" if self.combination.kind == "ASD" else "EU")
 
     @property
     def M_sustained(self) -> float:
@@ -84,6 +111,32 @@ class CombinationResult:
         return e.M_max if abs(e.M_max) >= abs(e.M_min) else e.M_min
 
 
+@dataclass(frozen=True)
+class ReactionBound:
+    """The envelope of one support's reaction over every combination and arrangement.
+
+    Attributes:
+        support: 1-based support number.
+        x: its position, m.
+        max: largest reaction (upward positive), N.
+        min: smallest reaction, N (negative: uplift).
+        combination_max: the combination giving ``max``.
+        combination_min: the combination giving ``min``.
+        strength_min: smallest reaction over the strength combinations, N.
+        strength_combination_min: the strength combination giving it.
+
+    """
+
+    support: int
+    x: float
+    max: float
+    min: float
+    combination_max: str
+    combination_min: str
+    strength_min: float
+    strength_combination_min: str
+
+
 @dataclass(frozen=True, eq=False)
 class BeamResult:
     """Beam actions for every case and combination.
@@ -91,14 +144,17 @@ class BeamResult:
     Attributes:
         spec: the beam as entered.
         model: the mesh.
-        cases: solution of every load case alone (EI = 1 scaling as in CaseSolution).
-        case_extremes: extremes of every case alone (short-term EI).
+        cases: solution of every load case alone, every region loaded.
+        case_extremes: envelope of every case alone over the arrangements (short-term EI).
         combinations: every combination that carries a load.
         creep_factor: K_cr or 1 + k_def.
         creep_section: the section with crept timber moduli.
         self_weight_line: self-weight, N/m.
         basis: "US" or "EU".
         EI: short-term stiffness, N m^2.
+        reaction_envelope: per support, over every combination and arrangement.
+        patterned_cases: the cases loaded region by region (empty: no patterns).
+        regions: the region labels of the member.
 
     """
 
@@ -112,39 +168,22 @@ class BeamResult:
     self_weight_line: float
     basis: str
     EI: float
+    reaction_envelope: tuple[ReactionBound, ...] = ()
+    patterned_cases: tuple[str, ...] = ()
+    regions: tuple[str, ...] = ()
 
     def extremes_of(self, case: str) -> Extremes:
-        """Extremes of one load case alone (short-term EI)."""
+        """Extremes of one load case alone (short-term EI), enveloped over arrangements."""
         return self.case_extremes[case]
 
+    def serviceability(self) -> tuple[CombinationResult, ...]:
+        """Combinations that deflection checks, diagrams and studies use (ASD, SLS)."""
+        return tuple(c for c in self.combinations
+                     if c.combination.for_serviceability(self.basis))
 
-@dataclass(frozen=True, eq=False)
-class PreparedBeam:
-    """A beam solved once for every section: mesh, each case without self-weight, and
-    the solution of a unit self-weight (1 N/m) where the member's weight counts.
-    """
-
-    spec: BeamSpec
-    model: BeamModel
-    cases: Mapping[str, CaseSolution]
-    unit_self_weight: CaseSolution | None
-
-    @staticmethod
-    def of(spec: BeamSpec) -> PreparedBeam:
-        """Mesh the beam and solve each of its load cases."""
-        model = BeamModel(spec.layout, spec.loads)
-        cases = {c: model.solve([ld for ld in spec.loads if ld.case == c])
-                 for c in sorted({ld.case for ld in spec.loads})}
-        unit = model.solve([], extra_line=1.0) if spec.self_weight else None
-        return PreparedBeam(spec, model, cases, unit)
-
-    def cases_with_self_weight(self, self_weight: float) -> dict[str, CaseSolution]:
-        """Every case's solution, the self-weight (N/m) added to case D."""
-        cases = dict(self.cases)
-        if self.unit_self_weight is not None:
-            own = self.unit_self_weight.scaled(self_weight)
-            cases["D"] = cases["D"] + own if "D" in cases else own
-        return cases
+    def strength(self) -> tuple[CombinationResult, ...]:
+        """Combinations that strength checks use (ASD, ULS)."""
+        return tuple(c for c in self.combinations if c.combination.for_strength(self.basis))
 
 
 def combinations_for(spec: BeamSpec, basis: str, design: DesignSpec) -> tuple[Combination, ...]:
@@ -157,7 +196,7 @@ def combinations_for(spec: BeamSpec, basis: str, design: DesignSpec) -> tuple[Co
         chosen = "ASD" if basis == "US" else "EN1990"
     if isinstance(chosen, str):
         if chosen == "EN1990":
-            return en1990_combinations(present, design.psi)
+            return en1990_combinations(present, design.psi, design.en1990_expression)
         return asd_combinations(present)
     return chosen
 
@@ -178,35 +217,131 @@ def creep_moduli(section: Section, factor: float) -> np.ndarray:
     return np.array([m.E / factor if m.kind == "timber" else m.E for m in section.materials])
 
 
-@dataclass(frozen=True)
-class _Parts:
-    """A combination split into its sustained part and the rest."""
+def sustained_factors(combo: Combination, basis: str, design: DesignSpec,
+                      frac: float, present: Sequence[str]) -> dict[str, float]:
+    """The factors of a combination's sustained part (see the module docstring)."""
+    f = combo.factors
+    if basis == "US":
+        return {c: v * (1.0 if c == "D" else frac) for c, v in f.items()
+                if c in ("D", "L") and c in present}
+    psi = {**EN1990_PSI, **design.psi}
+    return {c: (v if c == "D" else min(v, psi[c][2]) if v > 0 else v)
+            for c, v in f.items() if c in present and (c == "D" or psi.get(c, (0, 0, 0))[2])}
 
-    solution: CaseSolution
-    sustained_factors: dict[str, float]
-    sustained: CaseSolution | None
-    rest: CaseSolution | None
-    total_solution: CaseSolution
+
+@dataclass(frozen=True, eq=False)
+class _Planned:
+    """A combination with its arrangements and sustained factors."""
+
+    combination: Combination
+    plan: Plan
+    sustained: dict[str, float]
+    variable_plan: Plan | None
 
 
-def _combination_parts(cases: Mapping[str, CaseSolution], combo: Combination, frac: float,
-                       EI: float, EI_c: float) -> _Parts | None:
-    """A combination's solution, its sustained factors and part, the rest, and the
-    solution whose deflection is the total with creep (sustained part scaled by
-    EI / EI_creep). None when the beam carries none of its cases.
+@dataclass(frozen=True, eq=False)
+class PreparedBeam:
+    """A beam solved once for every section: mesh, each case without self-weight, the
+    solution of a unit self-weight (1 N/m) where the member's weight counts, the
+    patterned cases by region, and the arrangements of every combination.
     """
-    sol = combine(cases, combo.factors)
+
+    spec: BeamSpec
+    model: BeamModel
+    cases: Mapping[str, CaseSolution]
+    unit_self_weight: CaseSolution | None
+    basis: str
+    parts: RegionParts | None
+    planned: tuple[_Planned, ...]
+    case_plans: Mapping[str, Plan]
+
+    @staticmethod
+    def of(spec: BeamSpec, design: DesignSpec) -> PreparedBeam:
+        """Mesh the beam, solve each load case and plan the arrangements."""
+        basis = "US" if design.us else "EU"
+        model = BeamModel(spec.layout, spec.loads)
+        cases = {c: model.solve([ld for ld in spec.loads if ld.case == c])
+                 for c in sorted({ld.case for ld in spec.loads})}
+        unit = model.solve([], extra_line=1.0) if spec.self_weight else None
+        present = sorted(set(cases) | ({"D"} if spec.self_weight else set()))
+        parts = None
+        if spec.pattern_live_load and len(spec.layout.regions()) > 1:
+            patterned = [c for c in PATTERNED[basis] if c in cases]
+            if patterned:
+                parts = region_parts(model, spec, patterned)
+        empty = RegionParts((), {})
+        frac = spec.sustained_live_fraction or 0.0
+        planned = []
+        for combo in combinations_for(spec, basis, design):
+            if not any(c in present for c in combo.cases()):
+                continue
+            var = None
+            if basis == "EU" and combo.kind == "SLS-characteristic":
+                var = plan(model, parts or empty, {c: f for c, f in combo.factors.items()
+                                                   if c != "D"})
+            planned.append(_Planned(combo, plan(model, parts or empty, combo.factors),
+                                    sustained_factors(combo, basis, design, frac, present),
+                                    var))
+        case_plans = {c: plan(model, parts or empty, {c: 1.0}) for c in present}
+        return PreparedBeam(spec, model, cases, unit, basis, parts, tuple(planned),
+                            case_plans)
+
+    def cases_with_self_weight(self, self_weight: float) -> dict[str, CaseSolution]:
+        """Every case's solution, the self-weight (N/m) added to case D."""
+        cases = dict(self.cases)
+        if self.unit_self_weight is not None:
+            own = self.unit_self_weight.scaled(self_weight)
+            cases["D"] = cases["D"] + own if "D" in cases else own
+        return cases
+
+
+def _build(prepared: PreparedBeam, cases: Mapping[str, CaseSolution], plan_: Plan,
+           mask: tuple[bool, ...], g: Mapping[str, float]) -> CaseSolution:
+    """The solution of factors ``g`` with the arrangement ``mask`` of ``plan_``."""
+    parts = prepared.parts
+    patterned = set(parts.parts) if parts is not None else set()
+    sol = combine(cases, {c: v for c, v in g.items() if c not in patterned})
+    for unit, on in zip(plan_.units, mask, strict=True):
+        if on and g.get(unit.case) and parts is not None:
+            s = parts.part(unit).scaled(g[unit.case])
+            sol = s if sol is None else sol + s
     if sol is None:
-        return None
-    sus_f = {c: f * (1.0 if c == "D" else frac) for c, f in combo.factors.items()
-             if c in ("D", "L") and c in cases}
-    sus = combine(cases, sus_f)
-    rest = combine(cases, {c: f - sus_f.get(c, 0.0) for c, f in combo.factors.items()})
-    if sus is not None:
-        total_sol = sus.scaled(EI / EI_c) if rest is None else sus.scaled(EI / EI_c) + rest
-    else:
-        total_sol = sol
-    return _Parts(sol, sus_f, sus, rest, total_sol)
+        return next(iter(cases.values())).scaled(0.0)
+    return sol
+
+
+def envelope(ext: Sequence[Extremes]) -> tuple[Extremes, dict[str, int]]:
+    """The worst of several extremes, and which one governs M_max, M_min, the shear and
+    the deflection.
+    """
+    i_max = max(range(len(ext)), key=lambda i: ext[i].M_max)
+    i_min = min(range(len(ext)), key=lambda i: ext[i].M_min)
+    i_v = max(range(len(ext)), key=lambda i: ext[i].V_max_abs)
+    i_w = max(range(len(ext)), key=lambda i: ext[i].deflection_max_abs)
+    by_region = []
+    for r, (name, _, _) in enumerate(ext[0].deflection_by_region):
+        best = max(ext, key=lambda e: abs(e.deflection_by_region[r][1]))
+        by_region.append((name, best.deflection_by_region[r][1], best.deflection_by_region[r][2]))
+    e = Extremes(M_max=ext[i_max].M_max, x_M_max=ext[i_max].x_M_max,
+                 M_min=ext[i_min].M_min, x_M_min=ext[i_min].x_M_min,
+                 V_max_abs=ext[i_v].V_max_abs, x_V_max_abs=ext[i_v].x_V_max_abs,
+                 deflection_max_abs=ext[i_w].deflection_max_abs,
+                 x_deflection_max=ext[i_w].x_deflection_max,
+                 deflection_by_region=tuple(by_region))
+    return e, {"M_max": i_max, "M_min": i_min, "V_max_abs": i_v, "deflection_max_abs": i_w}
+
+
+class _Batch:
+    """Solutions waiting for one batched extremes pass."""
+
+    def __init__(self) -> None:
+        self.solutions: list[CaseSolution] = []
+        self.stiffness: list[float] = []
+
+    def ask(self, sol: CaseSolution, EI: float) -> int:
+        self.solutions.append(sol)
+        self.stiffness.append(EI)
+        return len(self.solutions) - 1
 
 
 def analyse_beam(prepared: PreparedBeam, section: Section, design: DesignSpec) -> BeamResult:
@@ -217,60 +352,130 @@ def analyse_beam(prepared: PreparedBeam, section: Section, design: DesignSpec) -
 def analyse_beams(prepared: PreparedBeam, sections: Sequence[Section],
                   design: DesignSpec) -> list[BeamResult]:
     """Solve every case and combination of the beam for each section; the extremes of
-    every solution of every section come from one batched pass.
+    every solution of every section and arrangement come from one batched pass.
     """
-    spec = prepared.spec
-    basis = "US" if design.us else "EU"
-    combos = combinations_for(spec, basis, design)
-    frac = spec.sustained_live_fraction or 0.0
-    solutions: list[CaseSolution] = []
-    stiffness: list[float] = []
+    if not prepared.planned:
+        raise ProjectError(Problem("beam.combinations", "no combination has a load case "
+                                   "that the beam carries"))
+    batch = _Batch()
+    jobs = [_ask_section(prepared, section, design, batch) for section in sections]
+    ext = extremes_many(prepared.model, batch.solutions, batch.stiffness)
+    return [_finish_section(prepared, section, job, ext)
+            for section, job in zip(sections, jobs, strict=True)]
 
-    def ask(sol: CaseSolution, EI: float) -> int:
-        solutions.append(sol)
-        stiffness.append(EI)
-        return len(solutions) - 1
 
-    plans = []
-    for section in sections:
-        sw = section.mass_per_length * GRAVITY if spec.self_weight else 0.0
-        cases = prepared.cases_with_self_weight(sw)
-        factor = creep_factor(section, design)
-        creep_section = with_moduli(section, creep_moduli(section, factor))
-        EI, EI_c = section.EI, creep_section.EI
-        case_idx = {c: ask(s, EI) for c, s in cases.items()}
-        combo_plans = []
-        for combo in combos:
-            parts = _combination_parts(cases, combo, frac, EI, EI_c)
-            if parts is None:
-                continue
-            idx = (ask(parts.solution, EI), ask(parts.total_solution, EI),
-                   None if parts.sustained is None else ask(parts.sustained, EI_c),
-                   None if parts.rest is None else ask(parts.rest, EI))
-            combo_plans.append((combo, parts, idx))
-        if not combo_plans:
-            raise ProjectError(Problem("beam.combinations", "no combination has a load case "
-                                       "that the beam carries"))
-        plans.append((sw, cases, factor, creep_section, case_idx, combo_plans))
-    ext = extremes_many(prepared.model, solutions, stiffness)
+@dataclass(frozen=True, eq=False)
+class _Job:
+    """What one section asked of the batch."""
+
+    sw: float
+    cases: dict[str, CaseSolution]
+    factor: float
+    creep_section: Section
+    case_idx: dict[str, list[int]]
+    combo_idx: list[dict[str, list[int | None]]]
+
+
+def _ask_section(prepared: PreparedBeam, section: Section, design: DesignSpec,
+                 batch: _Batch) -> _Job:
+    sw = section.mass_per_length * GRAVITY if prepared.spec.self_weight else 0.0
+    cases = prepared.cases_with_self_weight(sw)
+    factor = creep_factor(section, design)
+    creep_section = with_moduli(section, creep_moduli(section, factor))
+    EI, EI_c = section.EI, creep_section.EI
+    case_idx = {c: [batch.ask(_build(prepared, cases, pl, m, {c: 1.0}), EI) for m in pl.masks]
+                for c, pl in prepared.case_plans.items() if c in cases}
+    combo_idx = []
+    for item in prepared.planned:
+        f, sus = dict(item.combination.factors), item.sustained
+        total = {c: sus.get(c, 0.0) * EI / EI_c + v - sus.get(c, 0.0) for c, v in f.items()}
+        rest = {c: v - sus.get(c, 0.0) for c, v in f.items()}
+        idx: dict[str, list[int | None]] = {"solution": [], "total": [], "sustained": [],
+                                            "rest": [], "variable": []}
+        for m in item.plan.masks:
+            idx["solution"].append(batch.ask(_build(prepared, cases, item.plan, m, f), EI))
+            idx["total"].append(batch.ask(_build(prepared, cases, item.plan, m, total), EI))
+            idx["sustained"].append(batch.ask(_build(prepared, cases, item.plan, m, sus), EI_c)
+                                    if any(sus.values()) else None)
+            idx["rest"].append(batch.ask(_build(prepared, cases, item.plan, m, rest), EI)
+                               if any(rest.values()) else None)
+        if item.variable_plan is not None:
+            var = {c: v for c, v in f.items() if c != "D"}
+            idx["variable"] = [batch.ask(_build(prepared, cases, item.variable_plan, m, var), EI)
+                               for m in item.variable_plan.masks]
+        combo_idx.append(idx)
+    return _Job(sw, cases, factor, creep_section, case_idx, combo_idx)
+
+
+def _finish_section(prepared: PreparedBeam, section: Section, job: _Job,
+                    ext: list[Extremes]) -> BeamResult:
+    basis = prepared.basis
+    names = prepared.parts.names if prepared.parts is not None else ()
+    n_sup = len(prepared.spec.layout.support_positions())
+    results = []
+    for item, idx in zip(prepared.planned, job.combo_idx, strict=True):
+        sol_ext = [ext[i] for i in idx["solution"] if i is not None]
+        env, gov = envelope(sol_ext)
+        tot_ext = [ext[i] for i in idx["total"] if i is not None]
+        total, tgov = envelope(tot_ext)
+        j = tgov["deflection_max_abs"]
+        sus_i, rest_i = idx["sustained"][j], idx["rest"][j]
+        f = dict(item.combination.factors)
+        base = combine(job.cases, {c: v for c, v in f.items()
+                                   if prepared.parts is None or c not in prepared.parts.parts})
+        hi, lo = (reaction_envelope(base, prepared.parts, item.plan, n_sup)
+                  if prepared.parts is not None else _reactions(job.cases, f, n_sup))
+        masks = item.plan.masks
+        variable = (envelope([ext[i] for i in idx["variable"] if i is not None])[0]
+                    if idx["variable"] else None)
+        sus = item.sustained
+        rest = {c: v - sus.get(c, 0.0) for c, v in f.items()}
+        results.append(CombinationResult(
+            combination=item.combination, duration=duration_of(item.combination, basis),
+            solution=_build(prepared, job.cases, item.plan, masks[0], f), extremes=env,
+            sustained_factors=sus,
+            sustained=combine(job.cases, sus) if any(sus.values()) else None,
+            rest=combine(job.cases, rest) if any(rest.values()) else None,
+            total=total, total_solution=_build(prepared, job.cases, item.plan, masks[0], {
+                c: sus.get(c, 0.0) * section.EI / job.creep_section.EI + v - sus.get(c, 0.0)
+                for c, v in f.items()}),
+            long_term=None if sus_i is None else ext[sus_i],
+            short_term_rest=None if rest_i is None else ext[rest_i],
+            M_governing=env.M_max if abs(env.M_max) >= abs(env.M_min) else env.M_min,
+            model=prepared.model, EI=section.EI, EI_creep=job.creep_section.EI,
+            reactions_max=hi, reactions_min=lo,
+            governing_patterns={
+                "M_max": tuple(item.plan.labels(masks[gov["M_max"]], names)),
+                "M_min": tuple(item.plan.labels(masks[gov["M_min"]], names)),
+                "deflection_max_abs": tuple(item.plan.labels(
+                    masks[gov["deflection_max_abs"]], names))},
+            patterns_tried=len(masks), variable_only=variable))
+    case_ext = {c: envelope([ext[i] for i in idx])[0] for c, idx in job.case_idx.items()}
+    return BeamResult(
+        spec=prepared.spec, model=prepared.model, cases=job.cases, case_extremes=case_ext,
+        combinations=tuple(results), creep_factor=job.factor, creep_section=job.creep_section,
+        self_weight_line=job.sw, basis=basis, EI=section.EI,
+        reaction_envelope=_reaction_bounds(prepared, results),
+        patterned_cases=tuple(prepared.parts.parts) if prepared.parts is not None else (),
+        regions=tuple(n for n, _, _ in prepared.spec.layout.regions()))
+
+
+def _reactions(cases: Mapping[str, CaseSolution], f: Mapping[str, float],
+               n_sup: int) -> tuple[np.ndarray, np.ndarray]:
+    sol = combine(cases, f)
+    r = np.zeros(n_sup) if sol is None else sol.reactions.copy()
+    return r, r.copy()
+
+
+def _reaction_bounds(prepared: PreparedBeam,
+                     results: Sequence[CombinationResult]) -> tuple[ReactionBound, ...]:
     out = []
-    for section, (sw, cases, factor, creep_section, case_idx, combo_plans) in zip(
-            sections, plans, strict=True):
-        results = []
-        for combo, parts, (i_sol, i_tot, i_sus, i_rest) in combo_plans:
-            e = ext[i_sol]
-            results.append(CombinationResult(
-                combination=combo, duration=duration_of(combo, basis), solution=parts.solution,
-                extremes=e, sustained_factors=parts.sustained_factors,
-                sustained=parts.sustained, rest=parts.rest, total=ext[i_tot],
-                total_solution=parts.total_solution,
-                long_term=None if i_sus is None else ext[i_sus],
-                short_term_rest=None if i_rest is None else ext[i_rest],
-                M_governing=e.M_max if abs(e.M_max) >= abs(e.M_min) else e.M_min,
-                model=prepared.model, EI=section.EI, EI_creep=creep_section.EI))
-        out.append(BeamResult(
-            spec=spec, model=prepared.model, cases=cases,
-            case_extremes={c: ext[i] for c, i in case_idx.items()},
-            combinations=tuple(results), creep_factor=factor, creep_section=creep_section,
-            self_weight_line=sw, basis=basis, EI=section.EI))
-    return out
+    strength = [c for c in results if c.combination.for_strength(prepared.basis)] or list(results)
+    for k, x in enumerate(prepared.spec.layout.support_positions()):
+        top = max(results, key=lambda c: c.reactions_max[k])
+        low = min(results, key=lambda c: c.reactions_min[k])
+        slow = min(strength, key=lambda c: c.reactions_min[k])
+        out.append(ReactionBound(k + 1, x, float(top.reactions_max[k]),
+                                 float(low.reactions_min[k]), top.name, low.name,
+                                 float(slow.reactions_min[k]), slow.name))
+    return tuple(out)

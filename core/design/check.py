@@ -13,7 +13,7 @@ from typing import Any, Literal
 
 #: Every kind of check (the ``id`` of a check in JSON output).
 CheckId = Literal["bending", "shear", "bearing", "deflection-live", "deflection-total",
-                  "deflection-long-term", "bolts", "connectors"]
+                  "deflection-long-term", "bolts", "connectors", "uplift"]
 #: What a check's demand and capacity measure (selects the display unit).
 Quantity = Literal["stress", "deflection", "force", "shear_flow"]
 #: The limit state a check belongs to.

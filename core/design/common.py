@@ -206,8 +206,7 @@ def connector_checks(section: Section, beam: BeamResult, design: DesignSpec, sys
     if not section.interfaces:
         return []
     conn = design.connector
-    combos = [c for c in beam.combinations
-              if c.combination.limit_state in ("ASD", "ULS", "custom")] or list(beam.combinations)
+    combos = list(beam.strength()) or list(beam.combinations)
     V = max(c.extremes.V_max_abs for c in combos)
     worst = max(combos, key=lambda c: c.extremes.V_max_abs)
     stock = STOCK_SPACINGS_US if system == "US" else STOCK_SPACINGS_SI
@@ -243,3 +242,41 @@ def connector_checks(section: Section, beam: BeamResult, design: DesignSpec, sys
             x=itf.y,
             notes=(f"Shear flow q = {float(q):.1f} N/m at |V| = {V:.1f} N; Q = {itf.Q:.4e} m^3.",)))
     return out
+
+
+def uplift_checks(beam: BeamResult, system: str) -> list[Check]:
+    """A support whose smallest reaction over the strength combinations and pattern
+    arrangements is negative must be held down: demand = the uplift force, capacity =
+    ``beam.hold_down`` where the user gives one, else 0 (NOT OK until a hold-down is
+    designed). Sign: reactions upward positive (the project's convention).
+    """
+    out = []
+    capacity = beam.spec.hold_down or 0.0
+    for rb in beam.reaction_envelope:
+        if rb.strength_min >= 0:
+            continue
+        uplift = -rb.strength_min
+        where = f"support {rb.support}"
+        out.append(Check(
+            id="uplift", ply=None, combination=rb.strength_combination_min, demand=uplift,
+            capacity=capacity, quantity="force", reference=("hold-down", capacity),
+            sources={"hold-down": "beam.hold_down, the user's value" if beam.spec.hold_down
+                     else "none given"},
+            equation="uplift = -R_min <= hold-down capacity",
+            location=where, x=rb.x,
+            notes=(f"{where} (x = {fmt(rb.x, 'length', system)}) lifts by "
+                   f"{fmt(uplift, 'force', system)} under {rb.strength_combination_min}"
+                   + ("" if beam.spec.hold_down else "; no hold-down is given "
+                      "(beam.hold_down), so the support must be anchored") + ".",)))
+    return out
+
+
+def pattern_notes(beam: BeamResult) -> list[Problem]:
+    """Say how the variable actions were placed (ASCE 7-16 4.3.3, 7.5; EN 1991-1-1 6.2.1)."""
+    regions = beam.model.layout.regions()
+    if len(regions) < 2:
+        return []
+    if not beam.spec.pattern_live_load:
+        return [Problem("beam.pattern_live_load", "is false: the variable cases load every "
+                        "span and overhang at once; pattern (skip) loading is not checked")]
+    return []

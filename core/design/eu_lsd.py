@@ -13,7 +13,6 @@ from __future__ import annotations
 import math
 
 from ..actions.analysis import BeamResult
-from ..actions.beam import CaseSolution, combine
 from ..codes import en1995 as ec5
 from ..codes.dowels import en_f_h_k, en_M_y, en_steel_centre, en_thin_steel_single
 from ..model.caution import CAUTION
@@ -32,10 +31,12 @@ from .common import (
     bending_demand,
     connector_checks,
     deflection_checks,
+    pattern_notes,
     pick_spacing,
     plate_share,
     side_by_side_joints,
     unit_shear_stress,
+    uplift_checks,
 )
 
 S_KMOD = "EN 1995-1-1 Table 3.1 (from memory)"
@@ -47,7 +48,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
     """Every EU-LSD check of the project."""
     checks: list[Check] = []
     warnings: list[Problem] = []
-    uls = [c for c in beam.combinations if c.combination.limit_state in ("ULS", "custom")]
+    uls = list(beam.strength())
     if not uls:
         warnings.append(Problem("beam.combinations", 'no ULS combination: use "EN1990" for '
                                 "the EU basis; strength checks are skipped"))
@@ -149,9 +150,11 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
             warnings.append(Problem(f"plies[{i}].material", f'"{mat.id}" is neither timber nor '
                                     "steel: its stresses are reported but not checked"))
     checks += _bearing(section, beam, design, uls, warnings)
-    checks += _deflections(section, beam, design)
+    checks += _deflections(section, beam, design, warnings)
     checks += _bolts(section, beam, design, uls, project.display_units)
     checks += connector_checks(section, beam, design, project.display_units, warnings)
+    checks += uplift_checks(beam, project.display_units)
+    warnings += pattern_notes(beam)
     return tuple(checks), warnings
 
 
@@ -180,7 +183,7 @@ def _bearing(section: Section, beam: BeamResult, design: DesignSpec, uls: list, 
         l_ef = lb + (0.03 if at_end else 0.06)
         best = None
         for combo in uls:
-            R = max(float(combo.solution.reactions[k]), 0.0)
+            R = max(float(combo.reactions_max[k]), 0.0)
             km = ec5.k_mod(_eu_duration(combo.duration), design.service_class)
             f = {"k_mod": km, "k_c,90": 1.0}
             g = {"gamma_M": ec5.gamma_M(mat.product)}
@@ -210,34 +213,37 @@ def _bearing(section: Section, beam: BeamResult, design: DesignSpec, uls: list, 
     return out
 
 
-def _deflections(section: Section, beam: BeamResult, design: DesignSpec) -> list[Check]:
+def _deflections(section: Section, beam: BeamResult, design: DesignSpec,
+                 warnings: list[Problem]) -> list[Check]:
+    """w_inst of each characteristic combination and of its variable actions alone, and
+    w_fin by EN 1995-1-1 2.2.3(5) with psi2 (the same number as the creep block of the
+    JSON output and the sheet), all enveloped over the pattern arrangements.
+    """
     live, total, fin = design.deflection_limits()
     EI = section.EI
-    EI_c = beam.creep_section.EI
     src = {"limit": "EN 1995-1-1 7.2 Table 7.2 range, the user's choice (national annexes "
            "vary)"}
-    chars = [c for c in beam.combinations if c.combination.limit_state == "SLS-characteristic"]
-    qps = [c for c in beam.combinations if c.combination.limit_state == "SLS-quasi-permanent"]
-    if not chars:
-        chars = [c for c in beam.combinations if c.combination.limit_state == "custom"]
-    qp = qps[0].solution if qps else None
+    chars = [c for c in beam.combinations if c.combination.kind == "SLS-characteristic"]
+    if isinstance(beam.spec.combinations, tuple) and not any(
+            c.combination.kind == "SLS-quasi-permanent" for c in beam.combinations):
+        warnings.append(Problem("beam.combinations", "no SLS-quasi-permanent combination in "
+                                "the list: creep (w_fin) uses psi2 of design.psi, else of "
+                                "EN 1990 Table A1.1"))
     out: list[Check] = []
     for combo in chars:
         out += deflection_checks("deflection-total", combo.name, combo.extremes, beam, EI, total,
                                  src, ("w_inst of the characteristic combination.",))
-        q_only = {c: f for c, f in combo.combination.factors.items() if c != "D"}
-        sol_q = combine(beam.cases, q_only)
-        if sol_q is not None:
-            out += deflection_checks("deflection-live", combo.name, sol_q, beam, EI, live, src,
-                                     ("w_inst of the variable actions alone.",))
-        fin_sol: CaseSolution = combo.solution
-        if qp is not None:
-            fin_sol = combo.solution + qp.scaled(EI / EI_c) + qp.scaled(-1.0)
+        if combo.variable_only is not None and any(
+                f for c, f in combo.combination.factors.items() if c != "D"):
+            out += deflection_checks("deflection-live", combo.name, combo.variable_only, beam,
+                                     EI, live, src, ("w_inst of the variable actions alone.",))
+        psi2 = ", ".join(f"{c} {v:g}" for c, v in combo.sustained_factors.items() if c != "D")
         out += deflection_checks(
-            "deflection-long-term", combo.name, fin_sol, beam, EI, fin,
-            {**src, "k_def": "EN 1995-1-1 Table 3.2 (from memory)"},
-            (f"w_fin = w_inst,char + creep of the quasi-permanent load, timber moduli / "
-             f"(1 + k_def), 1 + k_def = {beam.creep_factor:g}.",))
+            "deflection-long-term", combo.name, combo.total, beam, EI, fin,
+            {**src, "k_def": "EN 1995-1-1 Table 3.2 (from memory)",
+             "psi2": "EN 1990 Table A1.1 or design.psi (from memory)"},
+            (f"w_fin = w_inst + creep of G and psi2 Q (EN 1995-1-1 2.2.3(5)); timber moduli / "
+             f"(1 + k_def), 1 + k_def = {beam.creep_factor:g}; psi2: {psi2 or 'none'}.",))
     return out
 
 

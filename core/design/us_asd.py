@@ -31,10 +31,12 @@ from .common import (
     bending_demand,
     connector_checks,
     deflection_checks,
+    pattern_notes,
     pick_spacing,
     plate_share,
     side_by_side_joints,
     unit_shear_stress,
+    uplift_checks,
 )
 
 S_TABLE = "NDS 2018 Table 2.3.2 (from memory)"
@@ -51,9 +53,9 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
     checks: list[Check] = []
     warnings: list[Problem] = []
     wet, temp = design.wet_service, design.temperature
-    combos = beam.combinations
+    combos = beam.strength()
     tau_unit = unit_shear_stress(section)
-    if not any(c.combination.limit_state in ("ASD", "custom") for c in combos):
+    if not combos:
         warnings.append(Problem("beam.combinations", 'no ASD combination: use "ASD" (or your '
                                 "own list) with the US basis; timber strength checks are "
                                 "skipped"))
@@ -97,8 +99,6 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
                               "member width (plies bolted together), from memory")
                 notes.append(f"C_L from unbraced length {lu:.3f} m")
             for combo in combos:
-                if combo.combination.limit_state not in ("ASD", "custom"):
-                    continue
                 f = {"C_D": nds.C_D(combo.duration), **base}
                 if mat.product == "glulam":
                     f["C_V" if size_val <= c_l else "C_L"] = min(size_val, c_l)
@@ -153,6 +153,8 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
     checks.extend(_deflections(beam, section, design))
     checks.extend(_bolts(section, beam, design, project.display_units))
     checks.extend(connector_checks(section, beam, design, project.display_units, warnings))
+    checks += uplift_checks(beam, project.display_units)
+    warnings += pattern_notes(beam)
     return tuple(checks), warnings
 
 
@@ -182,7 +184,7 @@ def _steel_checks(i: int, section: Section, beam: BeamResult, design: DesignSpec
     sv = {"Fy": mat.source_of("Fy"), "0.6": "AISC 360-16 G2.1 (from memory)",
           "C_v1": "AISC 360-16 G2.1(b), k_v = 5.34 (from memory)",
           "Omega_v": "AISC 360-16 G1 (from memory)"}
-    for combo in beam.combinations:
+    for combo in beam.strength():
         demand, x = bending_demand(section, combo, i)
         out.append(Check(
             id="bending",
@@ -234,8 +236,9 @@ def _bearing(project: Project, section: Section, beam: BeamResult, design: Desig
     L = layout.length
     out = []
     for k, xs in enumerate(layout.support_positions()):
-        worst = max(beam.combinations, key=lambda c: float(c.solution.reactions[k]))
-        R = float(worst.solution.reactions[k])
+        worst = max(beam.strength() or beam.combinations,
+                    key=lambda c: float(c.reactions_max[k]))
+        R = float(worst.reactions_max[k])
         at_end = xs <= 1e-9 or xs >= L - 1e-9
         f = {"C_M": nds.C_M("Fc_perp", mat.product, design.wet_service),
              "C_t": nds.C_t("Fc_perp", design.temperature, design.wet_service),
@@ -273,7 +276,7 @@ def _deflections(beam: BeamResult, section: Section, design: DesignSpec) -> list
                                      EI, live,
                                      src, ("Immediate deflection under the variable case "
                                            "alone.",))
-    for combo in beam.combinations:
+    for combo in beam.serviceability():
         out += deflection_checks("deflection-total", combo.name, combo.extremes, beam, EI,
                                  total, src, ("Immediate deflection of the whole combination.",))
         out += deflection_checks(
@@ -319,12 +322,12 @@ def _bolts(section: Section, beam: BeamResult, design: DesignSpec, system: str) 
                     else (0.5 if design.wet_service else 0.7)),
                 "C_g": 1.0, "C_Delta": 1.0}
         worst_need = max(sum(float(r) for r in c.solution.reactions) * share /
-                         nds.C_D(c.duration) for c in beam.combinations)
+                         nds.C_D(c.duration) for c in beam.strength() or beam.combinations)
         s = pick_spacing(worst_need / L, bolt.rows * Z * math.prod(base.values()),
                          bolt.spacing, stock, 4 * D)
         n_loc = max(2, math.floor(L / s + 1e-9))
         mode_text = ", ".join(f"{m} {fmt(v, 'force', system)}" for m, v in modes.modes.items())
-        for combo in beam.combinations:
+        for combo in beam.strength():
             W = sum(float(r) for r in combo.solution.reactions)
             per_bolt = abs(W) * share / (n_loc * bolt.rows)
             f = {"C_D": nds.C_D(combo.duration), **base}

@@ -24,6 +24,7 @@ DESIGN_FIELDS = (
     FieldSpec("service_class", "choice", choices=(1, 2, 3)),
     FieldSpec("steel_bears", "flag"),
     FieldSpec("unbraced_length", "positive", dimension="length", write_kind="span"),
+    FieldSpec("en1990_expression", "choice", choices=("6.10", "6.10a/b")),
 )
 CONNECTOR_FIELDS = (
     FieldSpec("type", "choice", choices=("screw", "bolt", "nail"), always=True),

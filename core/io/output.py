@@ -94,8 +94,12 @@ def beam_dict(beam: BeamResult, section: Section) -> dict[str, Any]:
             "factors": dict(c.combination.factors),
             "duration": c.duration,
             "limit_state": c.combination.limit_state,
+            "kind": c.combination.kind_on(beam.basis),
             **_extremes_dict(e),
-            "reactions": [float(r) for r in c.solution.reactions],
+            "reactions": [float(r) for r in c.reactions_max],
+            "reactions_min": [float(r) for r in c.reactions_min],
+            "governing_patterns": {k: list(v) for k, v in c.governing_patterns.items()},
+            "patterns_tried": c.patterns_tried,
             "M_governing": c.M_governing,
             "plies": [{"name": p.name, "stress_top": float(top[i]),
                        "stress_bottom": float(bot[i])} for i, p in enumerate(section.plies)],
@@ -122,6 +126,13 @@ def beam_dict(beam: BeamResult, section: Section) -> dict[str, Any]:
         "reactions": reactions,
         "cases": {c: _ext(e) for c, e in beam.case_extremes.items()},
         "combinations": combos,
+        "pattern_live_load": beam.spec.pattern_live_load,
+        "patterned_cases": list(beam.patterned_cases),
+        "regions": list(beam.regions),
+        "reaction_envelope": [{"support": rb.support, "x": rb.x, "max": rb.max, "min": rb.min,
+                               "combination_max": rb.combination_max,
+                               "combination_min": rb.combination_min}
+                              for rb in beam.reaction_envelope],
         "creep": {
             "factor": beam.creep_factor,
             "symbol": "K_cr" if beam.basis == "US" else "1 + k_def",
@@ -258,14 +269,22 @@ def beam_text(beam: BeamResult, u: str) -> list[str]:
                           for c, sol in beam.cases.items())
         lines.append(f"    support {k + 1} at {fmt(x, 'span', u)}: {parts}")
     lines.append("  Combinations")
-    lines.append(f"    {'name':<28}{'M max':>14}{'M min':>14}{'|V| max':>12}{'defl.':>11}"
-                 f"{'defl. total':>13}")
+    lines.append(f"    {'name':<34}{'kind':<22}{'M max':>14}{'M min':>14}{'|V| max':>12}"
+                 f"{'defl.':>11}{'defl. total':>13}")
     for c in beam.combinations:
         e = c.extremes
-        lines.append(f"    {c.name[:27]:<28}{fmt(e.M_max, 'moment', u):>14}"
+        lines.append(f"    {c.name[:33]:<34}{c.combination.kind_on(beam.basis):<22}"
+                     f"{fmt(e.M_max, 'moment', u):>14}"
                      f"{fmt(e.M_min, 'moment', u):>14}{fmt(e.V_max_abs, 'force', u):>12}"
                      f"{fmt(e.deflection_max_abs, 'deflection', u, 3):>11}"
                      f"{fmt(c.total.deflection_max_abs, 'deflection', u, 3):>13}")
+    if beam.patterned_cases:
+        lines.append(f"  Pattern loading: {', '.join(beam.patterned_cases)} placed on each of "
+                     f"{', '.join(beam.regions)} or not; the envelope is shown")
+    for rb in beam.reaction_envelope:
+        lines.append(f"  support {rb.support}: reaction from {fmt(rb.min, 'force', u)} "
+                     f"({rb.combination_min}) to {fmt(rb.max, 'force', u)} "
+                     f"({rb.combination_max})")
     sym = "K_cr" if beam.basis == "US" else "1 + k_def"
     lines.append(f"  Creep: {sym} = {beam.creep_factor:g}; long-term EI "
                  f"{fmt(beam.creep_section.EI, 'EI', u)}; total = long-term + short-term")

@@ -76,6 +76,7 @@ class DesignSpec:
         connector: for the interfaces of stacked plies.
         bolt: for flitch (side-by-side) plies.
         steel_bears: True where steel plies bear on the supports (their own seats).
+        en1990_expression: "6.10" or "6.10a/b" (EN 1990 6.4.3.2(3), from memory).
 
     """
 
@@ -98,6 +99,7 @@ class DesignSpec:
     connector: Connector = field(default_factory=Connector)
     bolt: Bolt = field(default_factory=Bolt)
     steel_bears: bool = False
+    en1990_expression: str = "6.10"
 
     @property
     def us(self) -> bool:

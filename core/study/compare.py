@@ -46,8 +46,8 @@ def summarise(a: Analysis, value: float = math.nan) -> Outcome:
     if not a.checks:
         raise ProjectError(Problem("beam", "the project needs a beam with loads to be checked"))
     gov = max(a.checks, key=lambda c: c.ratio)
-    defl = max((c.total.deflection_max_abs for c in a.beam.combinations), default=0.0) if (
-        a.beam) else 0.0
+    defl = max((c.total.deflection_max_abs for c in a.beam.serviceability()),
+               default=0.0) if a.beam else 0.0
     return Outcome(value, gov.ratio, gov.id, defl, a.section.mass_per_length,
                    all(c.ok for c in a.checks), a.section.EI)
 

@@ -1,0 +1,157 @@
+"""Pattern (skip) loading of the variable actions, span by span, enveloped exactly.
+
+ASCE 7-16 4.3.3 (live load placed where most unfavourable, also on parts of the member)
+and 7.5 (snow on continuous members); EN 1991-1-1 6.2.1 (imposed loads in the most
+unfavourable positions); all from memory. The patterned cases (US: L, Lr, S; EU: every
+variable case) are split into their parts on each span and overhang (a *region*); each
+part is loaded or not, independently, and the worst arrangement is found for every
+quantity. The beam is linear, so each region's part is solved once and superposed.
+
+The arrangement that governs a quantity at a point loads exactly the parts whose
+contribution there has the unfavourable sign. Sampling every element at its ends and
+quarter points gives the arrangements that can govern anywhere; each of those is then
+solved exactly (true extrema inside elements), and the envelope is the worst of them.
+Reactions are enveloped exactly, support by support.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping, Sequence
+from dataclasses import dataclass, replace
+
+import numpy as np
+
+from ..model.member import BeamSpec, Load
+from .beam import BeamModel, CaseSolution
+
+#: Cases loaded span by span, by basis.
+PATTERNED = {"US": ("L", "Lr", "S"), "EU": ("L", "Lr", "S", "W")}
+#: Sample points per element (local fraction of its length).
+SAMPLES = np.array([0.0, 0.25, 0.5, 0.75, 1.0])
+
+
+def clipped(load: Load, x0: float, x1: float, length: float, last: bool) -> Load | None:
+    """The part of ``load`` on [x0, x1] (a point load belongs to the region that holds
+    it, the right end only for the last region); None where nothing is left.
+    """
+    if load.type == "point":
+        at = float(load.at or 0.0)
+        return load if (x0 <= at < x1 or (last and at == x1)) else None
+    a = 0.0 if load.start is None else load.start
+    b = length if load.end is None else load.end
+    lo, hi = max(a, x0), min(b, x1)
+    if hi <= lo:
+        return None
+    value, value_end = load.value, load.value_end
+    if value_end is not None:
+        t0, t1 = (lo - a) / (b - a), (hi - a) / (b - a)
+        value, value_end = (load.value + t0 * (value_end - load.value),
+                            load.value + t1 * (value_end - load.value))
+    return replace(load, start=lo, end=hi, value=value, value_end=value_end)
+
+
+@dataclass(frozen=True, eq=False)
+class RegionParts:
+    """The patterned cases split by region.
+
+    Attributes:
+        names: region labels ("span 1", "overhang left", ...).
+        parts: per patterned case, its solution on each region (None: no load there).
+
+    """
+
+    names: tuple[str, ...]
+    parts: Mapping[str, tuple[CaseSolution | None, ...]]
+
+    def part(self, unit: Unit) -> CaseSolution:
+        """The solution of one unit's part (units only exist where there is a load)."""
+        sol = self.parts[unit.case][unit.region]
+        if sol is None:
+            raise ValueError(f"no load of case {unit.case} on {self.names[unit.region]}")
+        return sol
+
+
+def region_parts(model: BeamModel, spec: BeamSpec, cases: Sequence[str]) -> RegionParts:
+    """Solve each patterned case's part on each region of the member."""
+    regions = model.layout.regions()
+    length = model.layout.length
+    parts: dict[str, tuple[CaseSolution | None, ...]] = {}
+    for case in cases:
+        loads = [ld for ld in spec.loads if ld.case == case]
+        per: list[CaseSolution | None] = []
+        for r, (_, x0, x1) in enumerate(regions):
+            mine = [c for ld in loads
+                    if (c := clipped(ld, x0, x1, length, r == len(regions) - 1)) is not None]
+            per.append(model.solve(mine) if mine else None)
+        parts[case] = tuple(per)
+    return RegionParts(tuple(n for n, _, _ in regions), parts)
+
+
+@dataclass(frozen=True)
+class Unit:
+    """One patterned case on one region, with its factor in a combination."""
+
+    case: str
+    region: int
+    factor: float
+
+
+@dataclass(frozen=True, eq=False)
+class Plan:
+    """The arrangements worth solving for one set of factors.
+
+    Attributes:
+        units: the patterned parts that the factors load.
+        masks: candidate arrangements, each a tuple of booleans over ``units``; the
+            first is "everything loaded".
+
+    """
+
+    units: tuple[Unit, ...]
+    masks: tuple[tuple[bool, ...], ...]
+
+    def labels(self, mask: tuple[bool, ...], names: Sequence[str]) -> list[str]:
+        """The regions loaded by an arrangement (in member order)."""
+        loaded = {u.region for u, on in zip(self.units, mask, strict=True) if on}
+        return [names[r] for r in sorted(loaded)]
+
+
+def _samples(model: BeamModel, sol: CaseSolution) -> np.ndarray:
+    """Moment, shear and deflection (EI = 1) at the sample points of every element."""
+    from .beam import element_polynomials
+
+    out = []
+    for e, poly in enumerate(element_polynomials(model, sol, 1.0)):
+        x = SAMPLES * model.lengths[e]
+        out.append(np.concatenate([np.polyval(poly["M"], x), np.polyval(poly["V"], x),
+                                   np.polyval(poly["w"], x)]))
+    return np.concatenate(out)
+
+
+def plan(model: BeamModel, parts: RegionParts, factors: Mapping[str, float]) -> Plan:
+    """The candidate arrangements for a combination's factors (see the module text)."""
+    units = tuple(Unit(c, r, f) for c, f in factors.items() if f and c in parts.parts
+                  for r, sol in enumerate(parts.parts[c]) if sol is not None)
+    if not units:
+        return Plan((), ((),))
+    values = np.stack([u.factor * _samples(model, parts.part(u)) for u in units])
+    masks: dict[tuple[bool, ...], None] = {tuple([True] * len(units)): None}
+    scale = np.abs(values).max(axis=0, initial=0.0)
+    significant = np.abs(values) > 1e-9 * np.where(scale > 0, scale, 1.0)
+    for sign in (1.0, -1.0):
+        chosen = (sign * values > 0) & significant
+        for col in np.unique(chosen.T, axis=0):
+            masks.setdefault(tuple(bool(b) for b in col), None)
+    return Plan(units, tuple(masks))
+
+
+def reaction_envelope(base: CaseSolution | None, parts: RegionParts, plan_: Plan,
+                      n_supports: int) -> tuple[np.ndarray, np.ndarray]:
+    """Largest and smallest reaction of every support over every arrangement (exact)."""
+    lo = np.zeros(n_supports) if base is None else base.reactions.copy()
+    hi = lo.copy()
+    for u in plan_.units:
+        r = u.factor * parts.part(u).reactions
+        hi += np.maximum(r, 0.0)
+        lo += np.minimum(r, 0.0)
+    return hi, lo
