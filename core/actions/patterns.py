@@ -21,7 +21,7 @@ from dataclasses import dataclass, replace
 
 import numpy as np
 
-from ..model.member import BeamSpec, Load
+from ..model.member import MERGE_TOLERANCE, BeamSpec, Load
 from .beam import BeamModel, CaseSolution
 
 #: Cases loaded span by span, by basis.
@@ -34,9 +34,10 @@ def clipped(load: Load, x0: float, x1: float, length: float, last: bool) -> Load
     """The part of ``load`` on [x0, x1] (a point load belongs to the region that holds
     it, the right end only for the last region); None where nothing is left.
     """
+    tol = MERGE_TOLERANCE * max(length, 1.0)  # positions this close share a beam node
     if load.type == "point":
         at = float(load.at or 0.0)
-        return load if (x0 <= at < x1 or (last and at == x1)) else None
+        return load if (x0 - tol <= at < x1 - tol or (last and at >= x1 - tol)) else None
     a = 0.0 if load.start is None else load.start
     b = length if load.end is None else load.end
     lo, hi = max(a, x0), min(b, x1)
