@@ -16,9 +16,9 @@ from plystack.core.pipeline import run
 L, b, h = 4.0, 0.045, 0.220
 G, Q = 400.0, 900.0  # N/m
 E = 11.0e9
-I = b * h**3 / 12
-u_G = 5 * G * L**4 / (384 * E * I)
-u_Q = 5 * Q * L**4 / (384 * E * I)
+I_joist = b * h**3 / 12
+u_G = 5 * G * L**4 / (384 * E * I_joist)
+u_Q = 5 * Q * L**4 / (384 * E * I_joist)
 u_fin = u_G * (1 + 0.6) + u_Q * (1 + 0.3 * 0.6)
 
 
