@@ -34,7 +34,7 @@ from ..model.design import DesignSpec
 from ..model.errors import Problem, ProjectError
 from ..model.member import BeamSpec
 from ..section.transformed import Section, with_moduli
-from .beam import BeamModel, CaseSolution, Extremes, combine, extremes_many
+from .beam import BeamModel, CaseSolution, Extremes, combine, extremes_many, moment_at
 from .combinations import asd_combinations, en1990_combinations
 from .patterns import PATTERNED, Plan, RegionParts, plan, reaction_envelope, region_parts
 
@@ -68,6 +68,9 @@ class CombinationResult:
         patterns_tried: how many arrangements were solved.
         variable_only: envelope of the variable actions alone (EU characteristic
             combinations), or None.
+        M_sustained_at_max: the sustained part's moment where M_max occurs, in the
+            arrangement that governs M_max, N m (for stresses with creep).
+        M_sustained_at_min: the same where M_min occurs, N m.
 
     """
 
@@ -91,6 +94,8 @@ class CombinationResult:
     governing_patterns: Mapping[str, tuple[str, ...]] = field(default_factory=dict)
     patterns_tried: int = 1
     variable_only: Extremes | None = None
+    M_sustained_at_max: float = 0.0
+    M_sustained_at_min: float = 0.0
 
     @property
     def name(self) -> str:
@@ -430,6 +435,10 @@ def _finish_section(prepared: PreparedBeam, section: Section, job: _Job,
                     if idx["variable"] else None)
         sus = item.sustained
         rest = {c: v - sus.get(c, 0.0) for c, v in f.items()}
+        m_sus = [moment_at(prepared.model, _build(prepared, job.cases, item.plan,
+                                                  masks[gov[k]], sus), x)
+                 if any(sus.values()) else 0.0
+                 for k, x in (("M_max", env.x_M_max), ("M_min", env.x_M_min))]
         results.append(CombinationResult(
             combination=item.combination, duration=duration_of(item.combination, basis),
             solution=_build(prepared, job.cases, item.plan, masks[0], f), extremes=env,
@@ -449,7 +458,8 @@ def _finish_section(prepared: PreparedBeam, section: Section, job: _Job,
                 "M_min": tuple(item.plan.labels(masks[gov["M_min"]], names)),
                 "deflection_max_abs": tuple(item.plan.labels(
                     masks[gov["deflection_max_abs"]], names))},
-            patterns_tried=len(masks), variable_only=variable))
+            patterns_tried=len(masks), variable_only=variable,
+            M_sustained_at_max=m_sus[0], M_sustained_at_min=m_sus[1]))
     case_ext = {c: envelope([ext[i] for i in idx])[0] for c, idx in job.case_idx.items()}
     return BeamResult(
         spec=prepared.spec, model=prepared.model, cases=job.cases, case_extremes=case_ext,

@@ -153,7 +153,6 @@ class BeamModel:
         dq_el = np.zeros(n_el)  # slope of the upward load along each element
         F = np.zeros(2 * self.nodes.size)
         x0 = self.nodes[:-1]
-        mids = (self.nodes[:-1] + self.nodes[1:]) / 2
         L = self.layout.length
         for ld in loads:
             if ld.type == "point":
@@ -161,10 +160,15 @@ class BeamModel:
                 continue
             a = 0.0 if ld.start is None else ld.start
             b = L if ld.end is None else ld.end
-            inside = (mids > a) & (mids < b)
-            q_el[inside] -= ld.line_value + (x0[inside] - a) * (
-                (ld.line_value_end - ld.line_value) / (b - a))
-            dq_el[inside] -= (ld.line_value_end - ld.line_value) / (b - a)
+            # share of each element the load covers: 1 inside, a fraction where a load
+            # end was merged into a node (keeps the resultant exact)
+            x1 = self.nodes[1:]
+            cover = np.clip(np.minimum(b, x1) - np.maximum(a, x0), 0.0, None) / self.lengths
+            cover = np.where((a <= x0) & (b >= x1), 1.0, cover)
+            inside = cover > 0
+            slope = (ld.line_value_end - ld.line_value) / (b - a)
+            q_el[inside] -= (ld.line_value + (x0[inside] - a) * slope) * cover[inside]
+            dq_el[inside] -= slope * cover[inside]
         le = self.lengths
         Fe = np.zeros_like(F)
         # consistent nodal loads of q + dq s: uniform part and linear part (Hermite shapes)
@@ -436,6 +440,14 @@ def _roots_inside(poly: np.ndarray, le: float) -> list[float]:
         if abs(r.imag) < 1e-9 and 0 < r.real < 1:
             out.append(float(r.real) * le)
     return out
+
+
+def moment_at(model: BeamModel, sol: CaseSolution, x: float) -> float:
+    """The bending moment of ``sol`` at ``x`` (m from the left end), N m."""
+    e = int(np.clip(np.searchsorted(model.nodes, x, side="right") - 1, 0,
+                    model.lengths.size - 1))
+    s = x - float(model.nodes[e])
+    return float(sol.M0[e] + sol.V0[e] * s + sol.q[e] * s**2 / 2 + sol.dq[e] * s**3 / 6)
 
 
 def combine(solutions: Mapping[str, CaseSolution],

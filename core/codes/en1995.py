@@ -59,3 +59,45 @@ def k_def(service_class: int) -> float:
 
 GAMMA_M0 = 1.0  # EN 1993-1-1 6.1 recommended value
 GAMMA_M_CONNECTION = 1.3  # EN 1995-1-1 Table 2.3, connections
+
+
+def sigma_m_crit(b: float, h: float, E_005: float, l_ef: float) -> float:
+    """EN 1995-1-1 6.3.3 (6.32), rectangular softwood section (from memory):
+    sigma_m,crit = 0.78 b^2 E_0,05 / (h l_ef). b, h, l_ef in m; E in Pa; returns Pa.
+    """
+    return 0.78 * b**2 * E_005 / (h * l_ef)
+
+
+def lambda_rel_m(f_mk: float, sigma_crit: float) -> float:
+    """EN 1995-1-1 6.3.3 (6.30): lambda_rel,m = sqrt(f_m,k / sigma_m,crit)."""
+    return float((f_mk / sigma_crit) ** 0.5)
+
+
+def k_crit(lambda_rel: float) -> float:
+    """EN 1995-1-1 6.3.3 (6.34), from memory: 1 (lambda <= 0.75),
+    1.56 - 0.75 lambda (0.75 < lambda <= 1.4), 1 / lambda^2 (lambda > 1.4).
+    """
+    if lambda_rel <= 0.75:
+        return 1.0
+    if lambda_rel <= 1.4:
+        return 1.56 - 0.75 * lambda_rel
+    return 1.0 / lambda_rel**2
+
+
+#: EN 1995-1-1 Table 6.1 l_ef / l (from memory).
+L_EF_RATIO = {"simply supported, uniform load": 0.9, "simply supported, point load at centre":
+              0.8, "constant moment": 1.0, "cantilever, uniform load": 0.5,
+              "cantilever, point load at free end": 0.8}
+
+
+def l_ef(length: float, case: str, h: float, load_on: str = "compression edge") -> float:
+    """EN 1995-1-1 Table 6.1 and 6.3.3(3) effective length (from memory): l_ef/l by case,
+    plus 2h where the load acts on the compression edge, less 0.5h on the tension edge.
+    m.
+    """
+    base = L_EF_RATIO[case] * length
+    if load_on == "compression edge":
+        return base + 2 * h
+    if load_on == "tension edge":
+        return base - 0.5 * h
+    return base

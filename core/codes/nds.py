@@ -54,32 +54,40 @@ def C_t(value: str, temperature: str, wet: bool) -> float:
     return 0.5 if wet else 0.7
 
 
-def C_F(depth: float, product: str, size_adjusted: bool, grade_rule: str = "") -> float:
+def C_F(depth: float, product: str, size_adjusted: bool, grade_rule: str = "",
+        thickness: float | None = None) -> float:
     """Size factor for bending.
 
-    Sawn visually graded dimension lumber, 2 in to 4 in thick (NDS Supplement Table 4A,
-    Select Structural to No.3, from memory), by actual depth: up to 3.5 in (2x4) 1.5;
-    4.5 in 1.4; 5.5 in (2x6) 1.3; 7.25 in (2x8) 1.2; 9.25 in (2x10) 1.1; 11.25 in (2x12)
-    1.0; deeper 0.9. Size-adjusted values (Table 4B Southern Pine) 1.0 up to 12 in, deeper
+    Sawn visually graded dimension lumber (NDS Supplement Table 4A, Select Structural to
+    No.3, from memory), by the width of the face that is the depth in bending (actual
+    sizes): 2 in and 3 in thick: up to 3.5 in (2x4) 1.5; 4.5 in 1.4; 5.5 in (2x6) 1.3;
+    7.25 in (2x8) 1.2; 9.25 in (2x10) 1.1; 11.25 in (2x12) 1.0; deeper 0.9. 4 in thick:
+    up to 3.5 in 1.5, 4.5 in 1.4, 5.5 in 1.3, 7.25 in 1.3, 9.25 in 1.2, 11.25 in 1.1,
+    wider 1.0. Size-adjusted values (Table 4B Southern Pine) 1.0 up to 12 in, deeper
     (12/d)^(1/9) (NDS 4.3.6.2). LVL: (12/d)^(1/9), typical of manufacturers (their
     values govern). Glulam uses C_V instead (returns 1.0).
 
     Args:
-        depth: the ply's depth (height), m.
+        depth: the width of the member's face that lies in the plane of bending: the
+            ply's height when edgewise; for flat use the wider face (C_fu applies), m.
+        thickness: the other dimension, m (None: 2x-3x lumber).
 
     """
     d = depth / INCH
+    four_inch = thickness is not None and 3.0 + 1e-6 < thickness / INCH <= 4.0 + 1e-6
     if product == "glulam":
         return 1.0
     if product == "lvl" or size_adjusted:
         return 1.0 if d <= 12 else (12 / d) ** (1 / 9)
     if product != "sawn":
         return 1.0
-    for limit, factor in ((3.5, 1.5), (4.5, 1.4), (5.5, 1.3), (7.25, 1.2), (9.25, 1.1),
-                          (11.25, 1.0)):
+    table = ((3.5, 1.5), (4.5, 1.4), (5.5, 1.3), (7.25, 1.3), (9.25, 1.2), (11.25, 1.1)) if (
+        four_inch) else ((3.5, 1.5), (4.5, 1.4), (5.5, 1.3), (7.25, 1.2), (9.25, 1.1),
+                         (11.25, 1.0))
+    for limit, factor in table:
         if d <= limit + 1e-6:
             return factor
-    return 0.9
+    return 1.0 if four_inch else 0.9
 
 
 def C_V(length: float, depth: float, width: float, southern_pine: bool = False) -> float:
@@ -120,22 +128,50 @@ def C_b(bearing_length: float, at_end: bool) -> float:
     return (lb + 0.375) / lb
 
 
-def effective_length(unbraced: float, depth: float) -> float:
-    """NDS 2018 Table 3.3.3, single span, uniformly distributed load (from memory):
-    l_e = 2.06 l_u where l_u/d < 7, else 1.63 l_u + 3 d. m.
+#: NDS 2018 Table 3.3.3 effective-length cases (from memory).
+LE_CASES = ("single span, uniform load", "single span, point load at centre",
+            "cantilever, uniform load", "cantilever, point load at free end", "any other case")
+
+
+def effective_length(unbraced: float, depth: float,
+                     case: str = "single span, uniform load") -> float:
+    """NDS 2018 Table 3.3.3 effective length l_e (from memory), m.
+
+    single span, uniform load: 2.06 l_u (l_u/d < 7), 1.63 l_u + 3d (l_u/d >= 7); single
+    span, point load at centre: 1.80 l_u / 1.37 l_u + 3d; cantilever, uniform load:
+    1.33 l_u / 0.90 l_u + 3d; cantilever, point load at the free end: 1.87 l_u /
+    1.44 l_u + 3d; any other case: 2.06 l_u (l_u/d < 7), 1.63 l_u + 3d (7 <= l_u/d <=
+    14.3), 1.84 l_u (l_u/d > 14.3).
     """
-    if unbraced / depth < 7:
-        return 2.06 * unbraced
-    return 1.63 * unbraced + 3 * depth
+    ratio = unbraced / depth
+    short, long_a = {
+        "single span, uniform load": (2.06, 1.63), "single span, point load at centre":
+        (1.80, 1.37), "cantilever, uniform load": (1.33, 0.90),
+        "cantilever, point load at free end": (1.87, 1.44), "any other case": (2.06, 1.63),
+    }[case]
+    if ratio < 7:
+        return short * unbraced
+    if case == "any other case" and ratio > 14.3:
+        return 1.84 * unbraced
+    return long_a * unbraced + 3 * depth
 
 
-def C_L(Fb_star: float, Emin_adj: float, depth: float, breadth: float, unbraced: float) -> float:
+def R_B(effective: float, depth: float, breadth: float) -> float:
+    """NDS 2018 3.3.3.6 slenderness ratio R_B = sqrt(l_e d / b^2) (3.3-5), from memory;
+    it shall not exceed 50 (3.3.3.7). Dimensionless.
+    """
+    return math.sqrt(effective * depth / breadth**2)
+
+
+def C_L(Fb_star: float, Emin_adj: float, depth: float, breadth: float, unbraced: float,
+        case: str = "single span, uniform load") -> float:
     """NDS 2018 3.3.3 beam stability factor (3.3-6), from memory:
     R_B = sqrt(l_e d / b^2), F_bE = 1.20 E'min / R_B^2,
-    C_L = (1 + F_bE/Fb*)/1.9 - sqrt(((1 + F_bE/Fb*)/1.9)^2 - (F_bE/Fb*)/0.95).
-    Stresses in Pa, lengths in m.
+    C_L = (1 + F_bE/Fb*)/1.9 - sqrt(((1 + F_bE/Fb*)/1.9)^2 - (F_bE/Fb*)/0.95), with Fb*
+    the reference value times every factor but C_fu, C_V and C_L (the combination's C_D
+    included). Stresses in Pa, lengths in m.
     """
-    le = effective_length(unbraced, depth)
+    le = effective_length(unbraced, depth, case)
     RB2 = le * depth / breadth**2
     FbE = 1.20 * Emin_adj / RB2
     a = FbE / Fb_star
@@ -143,8 +179,56 @@ def C_L(Fb_star: float, Emin_adj: float, depth: float, breadth: float, unbraced:
     return float(k - math.sqrt(k * k - a / 0.95))
 
 
+def C_fu(width: float, thickness: float) -> float:
+    """NDS Supplement Table 4A flat use factor (dimension lumber used flatwise, from
+    memory), by the wide face ``width`` and the ``thickness``, m: 2-3 in thick: width
+    2-3 in 1.0, 4 in 1.1, 5 in 1.1, 6 in 1.15, 8 in 1.15, 10 in and wider 1.2; 4 in
+    thick: 4 in 1.0, 5-8 in 1.05, 10 in and wider 1.1.
+    """
+    w, t = width / INCH, thickness / INCH
+    if t <= 3.0 + 1e-6:
+        for limit, f in ((3.5, 1.0), (4.5, 1.1), (5.5, 1.15), (7.25, 1.15)):
+            if w <= limit + 1e-6:
+                return f
+        return 1.2
+    for limit, f in ((3.5, 1.0), (7.25, 1.05)):
+        if w <= limit + 1e-6:
+            return f
+    return 1.1
+
+
 def K_cr(wet_service: bool) -> float:
     """NDS 2018 3.5.2 creep factor (from memory): 1.5 for seasoned lumber and glulam in
     dry service, 2.0 in wet service. Dimensionless.
     """
     return 2.0 if wet_service else 1.5
+
+
+def C_F_compression(width: float) -> float:
+    """NDS Supplement Table 4A size factor for Fc of 2 in to 4 in thick dimension lumber
+    (from memory), by the wide face: up to 4 in 1.15, 5 in 1.1, 6 in 1.1, 8 in 1.05,
+    10 in and 12 in 1.0, wider 0.9.
+    """
+    w = width / INCH
+    for limit, f in ((3.5, 1.15), (4.5, 1.1), (5.5, 1.1), (7.25, 1.05), (11.25, 1.0)):
+        if w <= limit + 1e-6:
+            return f
+    return 0.9
+
+
+def C_P(Fc_star: float, Emin_adj: float, effective: float, least: float,
+        product: str) -> float:
+    """NDS 2018 3.7.1 column stability factor (3.7-1), from memory: F_cE = 0.822 E'min /
+    (l_e / d)^2, C_P = (1 + F_cE/Fc*)/(2c) - sqrt(((1 + F_cE/Fc*)/(2c))^2 - (F_cE/Fc*)/c),
+    c = 0.8 sawn lumber, 0.9 glulam and structural composite lumber.
+    """
+    FcE = 0.822 * Emin_adj / (effective / least) ** 2
+    c = 0.8 if product == "sawn" else 0.9
+    a = FcE / Fc_star
+    k = (1 + a) / (2 * c)
+    return float(k - math.sqrt(k * k - a / c))
+
+
+def F_cE(Emin_adj: float, effective: float, least: float) -> float:
+    """NDS 2018 3.7.1 / 3.9.2 critical buckling design value 0.822 E'min / (l_e/d)^2, Pa."""
+    return 0.822 * Emin_adj / (effective / least) ** 2

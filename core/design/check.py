@@ -13,9 +13,10 @@ from typing import Any, Literal
 
 #: Every kind of check (the ``id`` of a check in JSON output).
 CheckId = Literal["bending", "shear", "bearing", "deflection-live", "deflection-total",
-                  "deflection-long-term", "bolts", "connectors", "uplift"]
+                  "deflection-long-term", "bolts", "connectors", "uplift", "tension-bending",
+                  "compression-bending"]
 #: What a check's demand and capacity measure (selects the display unit).
-Quantity = Literal["stress", "deflection", "force", "shear_flow"]
+Quantity = Literal["stress", "deflection", "force", "shear_flow", "ratio"]
 #: The limit state a check belongs to.
 LimitState = Literal["strength", "serviceability"]
 SERVICEABILITY_IDS = frozenset({"deflection-live", "deflection-total", "deflection-long-term"})
@@ -96,7 +97,7 @@ class Check:
     @property
     def ok(self) -> bool:
         """True where the ratio is at most 1 (within 1e-9)."""
-        return self.ratio <= 1.0 + 1e-9
+        return bool(self.ratio <= 1.0 + 1e-9)
 
     def to_dict(self) -> dict[str, Any]:
         """The check as a JSON object (SI)."""

@@ -12,7 +12,7 @@ from ..actions.analysis import BeamResult, CombinationResult
 from ..actions.beam import CaseSolution, Extremes, extremes
 from ..model.constants import INCH
 from ..model.design import DesignSpec
-from ..model.errors import Problem
+from ..model.errors import MissingCheck, Problem
 from ..model.units import fmt
 from ..section.geometry import TOUCH_TOLERANCE
 from ..section.transformed import Section
@@ -213,7 +213,7 @@ def connector_checks(section: Section, beam: BeamResult, design: DesignSpec, sys
     out = []
     for itf, q in section.interface_shear_flows(V):
         if conn.allowable is None:
-            warnings.append(Problem("design.connector.allowable", "not given: the interface "
+            warnings.append(MissingCheck("design.connector.allowable", "not given: the interface "
                                     f"at y = {fmt(itf.y, 'length', system)} carries a shear "
                                     f"flow of {fmt(float(q), 'shear_flow', system)} at the "
                                     "largest shear; give the connector's allowable load to get "

@@ -17,7 +17,7 @@ from ..codes import en1995 as ec5
 from ..codes.dowels import en_f_h_k, en_M_y, en_steel_centre, en_thin_steel_single
 from ..model.caution import CAUTION
 from ..model.design import DesignSpec
-from ..model.errors import Problem
+from ..model.errors import MissingCheck, Problem
 from ..model.project import Project
 from ..model.units import fmt
 from ..section.transformed import Section
@@ -50,7 +50,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
     warnings: list[Problem] = []
     uls = list(beam.strength())
     if not uls:
-        warnings.append(Problem("beam.combinations", 'no ULS combination: use "EN1990" for '
+        warnings.append(MissingCheck("beam.combinations", 'no ULS combination: use "EN1990" for '
                                 "the EU basis; strength checks are skipped"))
     sc = design.service_class
     tau_unit = unit_shear_stress(section)
@@ -60,7 +60,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
         if mat.kind == "timber":
             fm, fv = mat.value("fm_k"), mat.value("fv_k")
             if fm is None or fv is None:
-                warnings.append(Problem(f"plies[{i}].material", f'"{mat.id}" has no EN '
+                warnings.append(MissingCheck(f"plies[{i}].material", f'"{mat.id}" has no EN '
                                         "characteristic values (fm_k, fv_k); its timber checks "
                                         "are skipped on the EU basis"))
                 continue
@@ -147,8 +147,9 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
                     location="",
                     x=combo.extremes.x_V_max_abs))
         else:
-            warnings.append(Problem(f"plies[{i}].material", f'"{mat.id}" is neither timber nor '
-                                    "steel: its stresses are reported but not checked"))
+            warnings.append(MissingCheck(f"plies[{i}].material", f'"{mat.id}" is neither '
+                                         "timber nor steel: its stresses are reported but not "
+                                         "checked"))
     checks += _bearing(section, beam, design, uls, warnings)
     checks += _deflections(section, beam, design, warnings)
     checks += _bolts(section, beam, design, uls, project.display_units)

@@ -17,7 +17,7 @@ from ..codes import nds
 from ..codes.dowels import Fe_perpendicular, Fe_steel, nds_double_shear, nds_single_shear
 from ..model.caution import CAUTION
 from ..model.design import DesignSpec
-from ..model.errors import Problem
+from ..model.errors import MissingCheck, Problem
 from ..model.project import Project
 from ..model.units import fmt
 from ..section.transformed import Section
@@ -38,6 +38,7 @@ from .common import (
     unit_shear_stress,
     uplift_checks,
 )
+from .us_timber import bending_check, interaction_check
 
 S_TABLE = "NDS 2018 Table 2.3.2 (from memory)"
 S_CM = "NDS Supplement Table 4A/5A wet service factors (from memory)"
@@ -56,7 +57,7 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
     combos = beam.strength()
     tau_unit = unit_shear_stress(section)
     if not combos:
-        warnings.append(Problem("beam.combinations", 'no ASD combination: use "ASD" (or your '
+        warnings.append(MissingCheck("beam.combinations", 'no ASD combination: use "ASD" (or your '
                                 "own list) with the US basis; timber strength checks are "
                                 "skipped"))
     member_width = max(p.x + p.width for p in section.plies) - min(p.x for p in section.plies)
@@ -64,65 +65,19 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
         if section.area[i] <= 0:
             continue
         if mat.kind == "timber":
-            Fb, Fv, Emin = mat.value("Fb"), mat.value("Fv"), mat.value("Emin")
+            Fb, Fv = mat.value("Fb"), mat.value("Fv")
             if Fb is None or Fv is None:
-                warnings.append(Problem(f"plies[{i}].material", f'"{mat.id}" has no NDS '
+                warnings.append(MissingCheck(f"plies[{i}].material", f'"{mat.id}" has no NDS '
                                         "reference values (Fb, Fv); its timber checks are "
                                         "skipped on the US basis"))
                 continue
-            cf = nds.C_F(ply.height, mat.product, mat.size_adjusted)
-            base = {"C_M": nds.C_M("Fb", mat.product, wet, Fb * cf),
-                    "C_t": nds.C_t("Fb", temp, wet),
-                    "C_i": nds.C_i("Fb", design.incised),
-                    "C_r": nds.C_r(design.repetitive_member, mat.product)}
-            src = {"Fb": mat.source_of("Fb"), "C_D": S_TABLE, "C_M": S_CM, "C_t": S_CT,
-                   "C_i": S_CI, "C_r": S_CR}
-            if mat.product == "glulam":
-                size_sym, size_val = "C_V", nds.C_V(beam.model.layout.length, ply.height,
-                                                    ply.width)
-                src["C_V"] = "NDS 2018 5.3.6 (from memory)"
-            else:
-                size_sym, size_val = "C_F", cf
-                src["C_F"] = S_CF if mat.product == "sawn" else (
-                    "NDS 2018 4.3.6.2 / typical LVL size factor (from memory)")
-            c_l = 1.0
-            notes: list[str] = []
-            if design.compression_edge_braced:
-                src["C_L"] = "compression edge braced (user's declaration), NDS 3.3.3"
-            else:
-                lu = design.unbraced_length or beam.model.layout.length
-                Emin_adj = (Emin or mat.E * 0.36) * nds.C_M("Emin", mat.product, wet) * \
-                    nds.C_t("Emin", temp, wet) * nds.C_i("Emin", design.incised)
-                fb_star = Fb * nds.C_D("ten-years") * math.prod(base.values()) * size_val
-                c_l = nds.C_L(fb_star, Emin_adj, ply.height, member_width, lu)
-                src["C_L"] = ("NDS 2018 3.3.3, l_e per Table 3.3.3 (uniform load), b = whole "
-                              "member width (plies bolted together), from memory")
-                notes.append(f"C_L from unbraced length {lu:.3f} m")
             for combo in combos:
-                f = {"C_D": nds.C_D(combo.duration), **base}
-                if mat.product == "glulam":
-                    f["C_V" if size_val <= c_l else "C_L"] = min(size_val, c_l)
-                else:
-                    f["C_L"] = c_l
-                    f[size_sym] = size_val
-                s = dict(src)
-                apply_overrides(f, s, design, ply.name)
-                demand, x = bending_demand(section, combo, i)
-                checks.append(Check(
-                    id="bending",
-                    ply=ply.name,
-                    combination=combo.name,
-                    demand=demand,
-                    capacity=capacity_from(Fb, f),
-                    quantity="stress",
-                    reference=("Fb", Fb),
-                    factors=f,
-                    partial_factors={},
-                    sources=s,
-                    equation="f_b = n M c / I_t <= F'b = Fb x factors",
-                    location="",
-                    x=x,
-                    notes=tuple(notes)))
+                bend = bending_check(i, section, beam, combo, design, member_width, warnings)
+                if bend is not None:
+                    checks.append(bend)
+                inter = interaction_check(i, section, beam, combo, design, warnings)
+                if inter is not None:
+                    checks.append(inter)
                 fv = {"C_D": nds.C_D(combo.duration), "C_M": nds.C_M("Fv", mat.product, wet),
                       "C_t": nds.C_t("Fv", temp, wet), "C_i": nds.C_i("Fv", design.incised)}
                 sv = {"Fv": mat.source_of("Fv"), "C_D": S_TABLE, "C_M": S_CM, "C_t": S_CT,
@@ -147,8 +102,9 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
         elif mat.kind == "steel":
             checks.extend(_steel_checks(i, section, beam, design, tau_unit))
         else:
-            warnings.append(Problem(f"plies[{i}].material", f'"{mat.id}" is neither timber nor '
-                                    "steel: its stresses are reported but not checked"))
+            warnings.append(MissingCheck(f"plies[{i}].material", f'"{mat.id}" is neither '
+                                         "timber nor steel: its stresses are reported but not "
+                                         "checked"))
     checks.extend(_bearing(project, section, beam, design, warnings))
     checks.extend(_deflections(beam, section, design))
     checks.extend(_bolts(section, beam, design, project.display_units))

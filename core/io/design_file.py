@@ -25,6 +25,10 @@ DESIGN_FIELDS = (
     FieldSpec("steel_bears", "flag"),
     FieldSpec("unbraced_length", "positive", dimension="length", write_kind="span"),
     FieldSpec("en1990_expression", "choice", choices=("6.10", "6.10a/b")),
+    FieldSpec("unbraced_length_bottom", "positive", dimension="length", write_kind="span"),
+    FieldSpec("bottom_edge_braced", "flag"),
+    FieldSpec("stability_width", "choice", choices=("ply", "member")),
+    FieldSpec("plate_unbraced_length", "positive", dimension="length", write_kind="span"),
 )
 CONNECTOR_FIELDS = (
     FieldSpec("type", "choice", choices=("screw", "bolt", "nail"), always=True),

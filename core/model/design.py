@@ -63,7 +63,14 @@ class DesignSpec:
         repetitive_member: NDS 4.3.9 C_r = 1.15.
         incised: NDS 4.3.8 C_i.
         compression_edge_braced: True gives C_L = 1.0 (the user's declaration).
-        unbraced_length: m, for C_L when the edge is not braced.
+        unbraced_length: m, for C_L / k_crit where an edge is not braced (both edges
+            unless ``unbraced_length_bottom`` is given).
+        unbraced_length_bottom: m, for the bottom edge in compression (hogging moment).
+        bottom_edge_braced: True where the bottom edge is braced (the user's declaration).
+        stability_width: "ply" (each timber ply's own width) or "member" (the user
+            declares the plies act as one for lateral stability).
+        plate_unbraced_length: m, L_b of steel plates (None: braced between two timbers,
+            the fastener spacing on a face).
         live_limit: span / this for live-load deflection.
         total_limit: span / this for total-load deflection.
         long_term_limit: span / this for long-term (creep) deflection.
@@ -87,6 +94,10 @@ class DesignSpec:
     incised: bool = False
     compression_edge_braced: bool = True
     unbraced_length: float | None = None
+    unbraced_length_bottom: float | None = None
+    bottom_edge_braced: bool = False
+    stability_width: str = "ply"
+    plate_unbraced_length: float | None = None
     live_limit: float | None = None
     total_limit: float | None = None
     long_term_limit: float | None = None

@@ -22,6 +22,13 @@ class Problem:
         return f"{self.path}: {self.message}" if self.path else self.message
 
 
+@dataclass(frozen=True)
+class MissingCheck(Problem):
+    """A check that the design basis requires but that could not be made (the verdict is
+    then INCOMPLETE, never OK); ``path`` names the field that would make it possible.
+    """
+
+
 class ProjectError(ValueError):
     """Input that cannot be analysed; carries one :class:`Problem` per fault."""
 

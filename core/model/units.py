@@ -198,6 +198,7 @@ DISPLAY: dict[str, dict[str, tuple[str, float]]] = {
         "EI": ("lbf*in^2", 1 / (4.4482216152605 * 0.0254**2)),
         "shear_flow": ("lbf/in", 0.0254 / 4.4482216152605),
         "deflection": ("in", 1 / 0.0254),
+        "ratio": ("", 1.0),
     },
     "SI": {
         "length": ("mm", 1000.0),
@@ -217,6 +218,7 @@ DISPLAY: dict[str, dict[str, tuple[str, float]]] = {
         "EI": ("kN*m^2", 1e-3),
         "shear_flow": ("N/mm", 1e-3),
         "deflection": ("mm", 1000.0),
+        "ratio": ("", 1.0),
     },
 }
 
@@ -233,7 +235,7 @@ def unit_label(kind: str, system: str) -> str:
 
 def fmt(value: float, kind: str, system: str, digits: int = 4) -> str:
     """Format an SI float in display units with ``digits`` significant figures and unit."""
-    return f"{sig(to_display(value, kind, system), digits)} {unit_label(kind, system)}"
+    return f"{sig(to_display(value, kind, system), digits)} {unit_label(kind, system)}".rstrip()
 
 
 def sig(value: float, digits: int = 4) -> str:
