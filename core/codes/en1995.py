@@ -101,3 +101,25 @@ def l_ef(length: float, case: str, h: float, load_on: str = "compression edge") 
     if load_on == "tension edge":
         return base - 0.5 * h
     return base
+
+
+def k_c(lambda_rel_c: float, product: str) -> float:
+    """EN 1995-1-1 6.3.2 (6.25)-(6.29), from memory: k = 0.5 (1 + beta_c (lambda_rel -
+    0.3) + lambda_rel^2), k_c = 1 / (k + sqrt(k^2 - lambda_rel^2)); beta_c 0.2 solid timber,
+    0.1 glulam and LVL; k_c = 1 where lambda_rel <= 0.3.
+    """
+    if lambda_rel_c <= 0.3:
+        return 1.0
+    beta = 0.2 if product == "sawn" else 0.1
+    k = 0.5 * (1 + beta * (lambda_rel_c - 0.3) + lambda_rel_c**2)
+    return float(1.0 / (k + (k * k - lambda_rel_c**2) ** 0.5))
+
+
+def lambda_rel_c(l_ef: float, least: float, f_c0k: float, E_005: float) -> float:
+    """EN 1995-1-1 6.3.2 (6.21): lambda = l_ef / i with i = b / sqrt(12) for a rectangle,
+    lambda_rel,c = (lambda / pi) sqrt(f_c,0,k / E_0,05).
+    """
+    import math
+
+    lam = l_ef / (least / math.sqrt(12))
+    return float(lam / math.pi * math.sqrt(f_c0k / E_005))

@@ -13,6 +13,7 @@ from __future__ import annotations
 import math
 
 from ..actions.analysis import BeamResult
+from ..codes import en1993
 from ..codes import en1995 as ec5
 from ..codes.dowels import en_f_h_k, en_M_y, en_steel_centre, en_thin_steel_single
 from ..model.caution import CAUTION
@@ -28,7 +29,6 @@ from .common import (
     STOCK_SPACINGS_US,
     apply_overrides,
     bearing_candidates,
-    bending_demand,
     connector_checks,
     deflection_checks,
     pattern_notes,
@@ -38,6 +38,10 @@ from .common import (
     unit_shear_stress,
     uplift_checks,
 )
+from .demands import eu_uls_section, ply_demands
+from .eu_timber import bending_check as eu_bending
+from .eu_timber import interaction_check as eu_interaction
+from .plates import eu_plate_chi, plate_bracing
 
 S_KMOD = "EN 1995-1-1 Table 3.1 (from memory)"
 S_GM = "EN 1995-1-1 Table 2.3 (from memory)"
@@ -54,6 +58,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
                                 "the EU basis; strength checks are skipped"))
     sc = design.service_class
     tau_unit = unit_shear_stress(section)
+    member_width = max(p.x + p.width for p in section.plies) - min(p.x for p in section.plies)
     for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):
         if section.area[i] <= 0:
             continue
@@ -65,30 +70,15 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
                                         "are skipped on the EU basis"))
                 continue
             gm = ec5.gamma_M(mat.product)
+            g = {"gamma_M": gm}
             for combo in uls:
                 km = ec5.k_mod(_eu_duration(combo.duration), sc)
-                f = {"k_mod": km, "k_h": ec5.k_h(ply.height, mat.product), "k_crit": 1.0}
-                s = {"fm_k": mat.source_of("fm_k"), "k_mod": S_KMOD, "gamma_M": S_GM,
-                     "k_h": "EN 1995-1-1 3.2(3) / 3.3(3) (from memory)",
-                     "k_crit": "EN 1995-1-1 6.3.3, compression edge braced (user's "
-                     "declaration)"}
-                g = {"gamma_M": gm}
-                apply_overrides(f, s, design, ply.name)
-                demand, x = bending_demand(section, combo, i)
-                checks.append(Check(
-                    id="bending",
-                    ply=ply.name,
-                    combination=combo.name,
-                    demand=demand,
-                    capacity=capacity_from(fm, f, g),
-                    quantity="stress",
-                    reference=("fm_k", fm),
-                    factors=f,
-                    partial_factors=g,
-                    sources=s,
-                    equation="sigma_m,d <= k_mod k_h f_m,k / gamma_M",
-                    location="",
-                    x=x))
+                bend = eu_bending(i, section, beam, combo, design, member_width, warnings)
+                if bend is not None:
+                    checks.append(bend)
+                inter = eu_interaction(i, section, beam, combo, design, warnings)
+                if inter is not None:
+                    checks.append(inter)
                 fvf = {"k_mod": km, "k_cr": ec5.k_cr(mat.product)}
                 sv = {"fv_k": mat.source_of("fv_k"), "k_mod": S_KMOD, "gamma_M": S_GM,
                       "k_cr": "EN 1995-1-1 6.1.7(2), b_ef = k_cr b (from memory)"}
@@ -112,24 +102,29 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
             if fy is None:
                 continue
             g0 = {"gamma_M0": ec5.GAMMA_M0}
+            bracing = plate_bracing(section, i, design)
+            chi, lam = eu_plate_chi(fy, mat.E, ply.height, ply.width, bracing.L_b)
+            fb_f = {"chi_LT": chi}
+            gb = {"gamma_M1": en1993.GAMMA_M1} if bracing.L_b is not None else g0
             for combo in uls:
-                demand, x = bending_demand(section, combo, i)
+                final = eu_uls_section(section, beam, combo, design)
+                ds = ply_demands(section, beam, combo, i, design, eu_final=final)
+                if not ds:
+                    continue
+                d = max(ds, key=lambda q: q.stress)
                 checks.append(Check(
-                    id="bending",
-                    ply=ply.name,
-                    combination=combo.name,
-                    demand=demand,
-                    capacity=capacity_from(fy, {}, g0),
-                    quantity="stress",
-                    reference=("f_y", fy),
-                    factors={},
-                    partial_factors=g0,
+                    id="bending", ply=ply.name, combination=combo.name, demand=d.stress,
+                    capacity=capacity_from(fy, fb_f, gb), quantity="stress",
+                    reference=("f_y", fy), factors=fb_f, partial_factors=gb,
                     sources={"f_y": mat.source_of("Fy"),
-                             "gamma_M0": "EN 1993-1-1 6.1 (from memory)"},
-                    equation="sigma_Ed <= f_y / gamma_M0 (EN 1993-1-1 6.2.1(5), elastic)",
-                    location="",
-                    x=x,
-                    notes=("Plate assumed braced against lateral buckling by the timbers.",)))
+                             "gamma_M0": "EN 1993-1-1 6.1 (from memory)",
+                             "chi_LT": "EN 1993-1-1 6.3.2.2, curve d, C1 = 1.0, "
+                             f"lambda_LT = {lam:.3f}; {bracing.note} (from memory)"},
+                    equation="sigma_Ed <= chi_LT f_y / gamma_M (EN 1993-1-1 6.2.1(5), "
+                    "6.3.2, elastic)",
+                    location="" if bracing.L_b is None else f"L_b = {bracing.L_b:.4g} m",
+                    x=d.x, notes=(f"{bracing.note}; demand {d.state} (final: timber E_mean / "
+                                  "(1 + psi2 k_def), EN 1995-1-1 2.3.2.2(2)).",)))
                 fs = {"1/sqrt(3)": 1 / math.sqrt(3)}
                 checks.append(Check(
                     id="shear",

@@ -13,7 +13,7 @@ import math
 import numpy as np
 
 from ..actions.analysis import BeamResult
-from ..codes import nds
+from ..codes import aisc, nds
 from ..codes.dowels import Fe_perpendicular, Fe_steel, nds_double_shear, nds_single_shear
 from ..model.caution import CAUTION
 from ..model.design import DesignSpec
@@ -28,7 +28,6 @@ from .common import (
     STOCK_SPACINGS_US,
     apply_overrides,
     bearing_candidates,
-    bending_demand,
     connector_checks,
     deflection_checks,
     pattern_notes,
@@ -38,6 +37,8 @@ from .common import (
     unit_shear_stress,
     uplift_checks,
 )
+from .demands import ply_demands
+from .plates import plate_bracing, us_plate_allowable
 from .us_timber import bending_check, interaction_check
 
 S_TABLE = "NDS 2018 Table 2.3.2 (from memory)"
@@ -121,17 +122,25 @@ def _steel_checks(i: int, section: Section, beam: BeamResult, design: DesignSpec
     if Fy is None:
         return []
     out = []
+    bracing = plate_bracing(section, i, design)
+    allow, governs = us_plate_allowable(Fy, mat.E, ply.height, ply.width, bracing.L_b)
+    lb_text = "braced" if bracing.L_b is None else f"L_b = {bracing.L_b:.4g} m"
     if design.steel_rule == "AISC-F11":
-        f: dict[str, float] = {"Z/S": 1.5}
-        g = {"Omega_b": 1.67}
-        src = {"Fy": mat.source_of("Fy"), "Z/S": "rectangle, Mn = Fy Z <= 1.6 Fy S, AISC 360-16 "
-               "F11.1 (from memory)", "Omega_b": "AISC 360-16 F1 (from memory)"}
-        eq = "f_b = n M c / I_t <= Fy (Z/S) / Omega_b"
+        ratio = allow * aisc.OMEGA_B / Fy
+        f: dict[str, float] = {"Z/S": 1.5} if bracing.L_b is None or ratio >= 1.5 else {
+            "M_n/M_y": ratio}
+        g = {"Omega_b": aisc.OMEGA_B}
+        src = {"Fy": mat.source_of("Fy"), next(iter(f)): f"AISC 360-16 {governs}, rectangular "
+               f"bar, C_b = 1.0; {bracing.note} (from memory)",
+               "Omega_b": "AISC 360-16 F1 (from memory)"}
+        eq = "f_b = n M c / I_t <= (M_n / S) / Omega_b (AISC 360-16 F11)"
     else:
-        f, g = {"F_b/F_y": 0.6}, {}
+        cap = min(0.6, allow / Fy)
+        f, g = {"F_b/F_y": cap}, {}
         src = {"Fy": mat.source_of("Fy"), "F_b/F_y": "traditional allowable 0.6 Fy for plates "
-               "braced by the timbers (common practice)"}
-        eq = "f_b = n M c / I_t <= 0.6 Fy"
+               "(common practice)" + ("" if cap >= 0.6 else f", limited by lateral torsional "
+                                      f"buckling, AISC 360-16 {governs}") + f"; {bracing.note}"}
+        eq = "f_b = n M c / I_t <= min(0.6 Fy, (M_n / S) / Omega_b)"
     h, t = max(ply.height, ply.width), min(ply.height, ply.width)
     kv_limit = 1.10 * math.sqrt(5.34 * mat.E / Fy)
     cv1 = 1.0 if h / t <= kv_limit else kv_limit / (h / t)
@@ -141,7 +150,11 @@ def _steel_checks(i: int, section: Section, beam: BeamResult, design: DesignSpec
           "C_v1": "AISC 360-16 G2.1(b), k_v = 5.34 (from memory)",
           "Omega_v": "AISC 360-16 G1 (from memory)"}
     for combo in beam.strength():
-        demand, x = bending_demand(section, combo, i)
+        ds = ply_demands(section, beam, combo, i, design)
+        if not ds:
+            continue
+        d = max(ds, key=lambda q: q.stress)
+        demand, x = d.stress, d.x
         out.append(Check(
             id="bending",
             ply=ply.name,
@@ -156,7 +169,7 @@ def _steel_checks(i: int, section: Section, beam: BeamResult, design: DesignSpec
             equation=eq,
             location="",
             x=x,
-            notes=("Plate assumed braced against lateral buckling by the timbers.",)))
+            notes=(f"Plate {lb_text}: {bracing.note}; demand {d.state}.",)))
         out.append(Check(
             id="shear",
             ply=ply.name,
