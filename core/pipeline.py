@@ -16,7 +16,7 @@ from .design.check import Check
 from .design.eu_lsd import eu_checks
 from .design.us_asd import us_checks
 from .model.design import DesignSpec
-from .model.errors import Problem
+from .model.errors import MissingCheck, Problem
 from .model.materials import Material
 from .model.plies import Ply
 from .model.project import Project
@@ -43,6 +43,27 @@ class Analysis:
     design: DesignSpec
     checks: tuple[Check, ...]
     warnings: tuple[Problem, ...]
+
+    @property
+    def incomplete_reasons(self) -> tuple[Problem, ...]:
+        """Checks the basis requires that could not be made, each naming its field."""
+        reasons = tuple(w for w in self.warnings if isinstance(w, MissingCheck))
+        if self.beam is None:
+            reasons += (MissingCheck("beam", "is not given: no design checks are made"),)
+        elif not self.checks:
+            reasons += (MissingCheck("beam.loads", "no check could be made"),)
+        return reasons
+
+    @property
+    def verdict(self) -> str:
+        """"NOT OK" where a check fails, else "INCOMPLETE" where a required check could not
+        be made, else "OK".
+        """
+        if any(not c.ok for c in self.checks):
+            return "NOT OK"
+        if self.incomplete_reasons:
+            return "INCOMPLETE"
+        return "OK"
 
 
 def run_checks(project: Project, section: Section, beam: BeamResult,

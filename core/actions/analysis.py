@@ -219,7 +219,8 @@ def creep_factor(section: Section, design: DesignSpec) -> float:
 
 def creep_moduli(section: Section, factor: float) -> np.ndarray:
     """Per-ply moduli under sustained load: timber divided by the creep factor."""
-    return np.array([m.E / factor if m.kind == "timber" else m.E for m in section.materials])
+    return np.array([e / factor if m.kind == "timber" else e
+                     for m, e in zip(section.materials, section.E, strict=True)])
 
 
 def sustained_factors(combo: Combination, basis: str, design: DesignSpec,

@@ -75,7 +75,7 @@ def eu_uls_section(section: Section, beam: BeamResult, combo: CombinationResult,
     variables = {c: f for c, f in combo.combination.factors.items() if c != "D" and f > 0}
     psi2 = psi[max(variables, key=lambda c: variables[c])][2] if variables else 1.0
     k_def = beam.creep_factor - 1.0
-    moduli = np.array([m.E / (1 + psi2 * k_def) if m.kind == "timber" and e > 0 else e
+    moduli = np.array([e / (1 + psi2 * k_def) if m.kind == "timber" else e
                        for m, e in zip(section.materials, section.E, strict=True)])
     return with_moduli(section, moduli)
 

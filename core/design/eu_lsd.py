@@ -60,7 +60,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
     tau_unit = unit_shear_stress(section)
     member_width = max(p.x + p.width for p in section.plies) - min(p.x for p in section.plies)
     for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):
-        if section.area[i] <= 0:
+        if section.area[i] <= 0 or not section.is_connected(i):
             continue
         if mat.kind == "timber":
             fm, fv = mat.value("fm_k"), mat.value("fv_k")

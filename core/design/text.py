@@ -20,8 +20,11 @@ def governing_per_group(checks: tuple[Check, ...] | list[Check]) -> list[Check]:
     return sorted(best.values(), key=lambda c: -c.ratio)
 
 
-def checks_text(checks: tuple[Check, ...], system: str) -> list[str]:
-    """Lines of the checks table, the governing check first, with the caution."""
+def checks_text(checks: tuple[Check, ...], system: str, verdict: str | None = None,
+                incomplete: tuple[str, ...] = ()) -> list[str]:
+    """Lines of the checks table, the governing check first, the verdict (OK, NOT OK or
+    INCOMPLETE with its reasons) and the caution.
+    """
     lines = ["", "Checks (governing combination of each; all combinations in --json)"]
     lines.append(f"  {'check':<22}{'ply / place':<26}{'combination':<26}{'demand':>14}"
                  f"{'capacity':>14}{'ratio':>8}  verdict")
@@ -36,10 +39,16 @@ def checks_text(checks: tuple[Check, ...], system: str) -> list[str]:
         if c.id in ("bolts", "connectors"):
             lines.append(f"      {c.location}")
     gov = governing(checks)
-    if gov is not None:
+    if verdict is None:
         verdict = "OK" if all(c.ok for c in checks) else "NOT OK"
+    if gov is not None:
         lines.append("")
         lines.append(f"Governing: {gov.id} in {gov.ply or gov.location} under {gov.combination},"
                      f" ratio {gov.ratio:.3f}. Verdict: {verdict}")
+    else:
+        lines.append(f"Verdict: {verdict}")
+    if incomplete:
+        lines.append("Incomplete, these required checks could not be made:")
+        lines.extend(f"  {r}" for r in incomplete)
     lines.append(CAUTION)
     return lines

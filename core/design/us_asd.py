@@ -63,7 +63,7 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
                                 "skipped"))
     member_width = max(p.x + p.width for p in section.plies) - min(p.x for p in section.plies)
     for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):
-        if section.area[i] <= 0:
+        if section.area[i] <= 0 or not section.is_connected(i):
             continue
         if mat.kind == "timber":
             Fb, Fv = mat.value("Fb"), mat.value("Fv")

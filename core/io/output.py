@@ -171,8 +171,11 @@ def check_json(a: Analysis, moment: float | None = None, shear: float | None = N
         gov = max(a.checks, key=lambda c: c.ratio)
         out["governing"] = {"id": gov.id, "ply": gov.ply, "combination": gov.combination,
                             "ratio": gov.ratio, "ok": all(c.ok for c in a.checks)}
-        out["ok"] = all(c.ok for c in a.checks)
         out["caution"] = CAUTION
+    out["verdict"] = a.verdict
+    out["ok"] = a.verdict == "OK"
+    out["incomplete_reasons"] = [{"field": p.path, "message": p.message, "text": str(p)}
+                                 for p in a.incomplete_reasons]
     out["assumptions"] = list(ASSUMPTIONS)
     out["warnings"] = [str(w) for w in a.warnings]
     return out
@@ -242,10 +245,11 @@ def check_text(a: Analysis, moment: float | None = None, shear: float | None = N
                          f"{fmt(shear_row['tau_max'], 'stress', u)}")
     if a.beam is not None:
         lines.extend(beam_text(a.beam, u))
-    if a.checks:
+    if a.checks or a.beam is not None:
         from ..design.text import checks_text
 
-        lines.extend(checks_text(a.checks, u))
+        lines.extend(checks_text(a.checks, u, a.verdict,
+                                 tuple(str(p) for p in a.incomplete_reasons)))
     if a.warnings:
         lines.append("")
         lines.append("Warnings")

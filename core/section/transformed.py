@@ -23,7 +23,7 @@ import numpy as np
 from shapely import affinity
 from shapely.geometry.base import BaseGeometry
 
-from ..model.errors import Problem, ProjectError
+from ..model.errors import MissingCheck, Problem, ProjectError
 from ..model.materials import Material
 from ..model.plies import Ply, validate_ply
 from .geometry import (
@@ -113,6 +113,10 @@ class Section:
 
     # --- per-ply results --------------------------------------------------------------
 
+    def is_connected(self, i: int) -> bool:
+        """False for a ply left out of the composite section (it touches no other ply)."""
+        return bool(self.E[i] > 0)
+
     def is_unclipped(self, i: int) -> bool:
         """True where ply i keeps its whole rectangle (no later ply cuts it)."""
         return is_unclipped(float(self.area[i]), self.plies[i])
@@ -153,8 +157,8 @@ class Section:
                     I_own=i_own,
                     I_na=float(self.I_na[i]),
                     moment_share=float(self.E[i] * self.I_na[i] / self.EI),
-                    S_top=self.EI / (e * c_top) if c_top > 0 else float("inf"),
-                    S_bottom=self.EI / (e * c_bot) if c_bot > 0 else float("inf"),
+                    S_top=self.EI / (e * c_top) if c_top > 0 and e > 0 else float("inf"),
+                    S_bottom=self.EI / (e * c_bot) if c_bot > 0 and e > 0 else float("inf"),
                 )
             )
         return tuple(out)
@@ -311,6 +315,7 @@ def analyse(
         else:
             _, y_bottom[i], _, y_top[i] = g.bounds
     unclipped = all(is_unclipped(float(a), p) for a, p in zip(area, plies, strict=True))
+    loose: list[int] = []
     if len(plies) > 1:
         for i, ply in enumerate(plies):
             if unclipped:
@@ -319,8 +324,14 @@ def analyse(
             else:
                 touching = area[i] > 0 and touches_any(i, list(geoms), size)
             if area[i] > 0 and not touching:
-                warnings.append(Problem(f"plies[{i}]", f'"{ply.name}" touches no other ply; '
-                                        "nothing connects it to the rest of the section"))
+                loose.append(i)
+                warnings.append(MissingCheck(f"plies[{i}]", f'"{ply.name}" touches no other '
+                                             "ply; nothing connects it to the rest of the "
+                                             "section, so it is left out of the composite "
+                                             "section and not checked as part of it"))
+    if loose and len(loose) < sum(1 for a in area if a > 0):
+        E = E.copy()
+        E[loose] = 0.0
     profiles = tuple(width_profile(g) for g in geoms)
     return _assemble(plies, mats, reference, E_ref, E, area, first_y, second_y, y_bottom, y_top,
                      geoms, profiles, tuple(warnings), size)
