@@ -109,7 +109,9 @@ def _parse_cached(text: str, dimension: str) -> float:
     try:
         q = ureg.parse_expression(expr)
     except Exception as exc:  # noqa: BLE001 - pint raises many kinds of errors
-        raise UnitError(f"cannot be read ({type(exc).__name__})") from None
+        unknown = type(exc).__name__ == "UndefinedUnitError"
+        raise UnitError("has a unit this program does not know" if unknown
+                        else "cannot be read as a number with a unit") from None
     if not hasattr(q, "magnitude"):
         raise UnitError("has no unit")
     want = DIMENSIONS[dimension]
