@@ -12,6 +12,7 @@ from __future__ import annotations
 import os
 from collections.abc import Callable, Iterable, Mapping, Sequence
 from concurrent.futures import ProcessPoolExecutor
+from concurrent.futures.process import BrokenProcessPool
 from dataclasses import dataclass
 from typing import Any, TypeVar
 
@@ -301,11 +302,16 @@ def run_rows(worker: Callable[[J], R], jobs: Sequence[J], processes: int = 1,
                 progress()
         return out
     chunk = max(1, min(16, len(jobs) // (processes * 8)))
-    with ProcessPoolExecutor(max_workers=processes) as pool:
-        for result in pool.map(worker, jobs, chunksize=chunk):
-            out.append(result)
-            if progress is not None:
-                progress()
+    try:
+        with ProcessPoolExecutor(max_workers=processes) as pool:
+            for result in pool.map(worker, jobs, chunksize=chunk):
+                out.append(result)
+                if progress is not None:
+                    progress()
+    except (BrokenProcessPool, OSError):
+        # A worker process died (or the system cannot start one): the rows are run
+        # again here, where a fault is that row's own named problem.
+        return out + run_rows(worker, jobs[len(out):], 1, progress)
     return out
 
 

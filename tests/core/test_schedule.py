@@ -92,6 +92,7 @@ FORMS = [
     (US, "beam.spans", "14 ft", ["14 ft"], _set_spans),
     (US, "beam.spans", "9 ft; 9 ft", ["9 ft", "9 ft"], _set_spans),
     (EU, "beam.spans", "4.2 m", ["4.2 m"], _set_spans),
+    (US, "beam.spans", "13'-6\"", ["13'-6\""], _set_spans),
     (US, "beam.supports", "fixed-fixed", "fixed-fixed", _set_supports),
     (US, "beam.loads[1].value", "55 psf", "55 psf", _set_load_value),
     (EU, "beam.loads[1].value", "2.5 kPa", "2.5 kPa", _set_load_value),
@@ -414,3 +415,22 @@ def test_convert_follows_the_form_in_the_file():
     assert overrides.convert(None, "2", "info") == "2"
     with pytest.raises(overrides.OverrideError):
         overrides.convert(None, "[1, 2")
+
+
+def _square(x: int) -> int:
+    return x * x
+
+
+def test_rows_run_in_order_and_here_when_no_process_can_start(monkeypatch):
+    from plystack.core.study import schedule
+
+    ticks: list[int] = []
+    assert schedule.run_rows(_square, list(range(7)), 2, lambda: ticks.append(1)) == [
+        k * k for k in range(7)]
+    assert len(ticks) == 7
+
+    def refuse(*_a, **_k):
+        raise OSError(38, "Function not implemented")
+
+    monkeypatch.setattr(schedule, "ProcessPoolExecutor", refuse)
+    assert schedule.run_rows(_square, list(range(5)), 2) == [k * k for k in range(5)]
