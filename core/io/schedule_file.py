@@ -361,7 +361,7 @@ def result_cells(r: MemberResult) -> dict[str, str]:
     s: MemberSummary | None = r.summary
     gov = s.governing if s else None
     defl = s.deflection if s else None
-    notes = [str(p) for p in r.problems] + (list(s.reasons) if s else [])
+    notes = [p.within_row() for p in r.problems] + (list(s.reasons) if s else [])
     return {
         "row": str(r.row), "mark": r.mark, "base": r.base, "alternative": r.alternative or "",
         "verdict": r.verdict,

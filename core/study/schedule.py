@@ -57,6 +57,10 @@ class RowProblem:
         where = f"row {self.row}" + (f", column {self.column}" if self.column else "")
         return f"{where}: {self.message}"
 
+    def within_row(self) -> str:
+        """The problem without its row number (for a cell of that row)."""
+        return f"column {self.column}: {self.message}" if self.column else self.message
+
     def to_dict(self) -> dict[str, Any]:
         """The problem as a JSON object."""
         return {"row": self.row, "column": self.column, "message": self.message}
