@@ -193,8 +193,10 @@ def prepare(schedule: Schedule, with_check: bool = False,
     names: set[str] = set()
     for r in schedule.rows:
         mark, base, alt = r.get(MARK), r.get(BASE), r.get(ALTERNATIVE) or None
-        problems = [RowProblem(r.row, None, f"has {len(r.extra)} more cells than the header "
-                               "has columns") for _ in r.extra[:1]]
+        problems = []
+        if r.extra:
+            problems.append(RowProblem(r.row, None, f"has {len(r.extra)} more cells than the "
+                                       "header has columns"))
         if not mark:
             problems.append(RowProblem(r.row, MARK, "is empty; every member needs a mark"))
         changes = tuple((c, v) for c, v in r.cells if c not in RESERVED)
@@ -289,14 +291,21 @@ def _choose_alternative(data: dict[str, Any], name: str) -> None:
     data["current_alternative"] = name
 
 
+def _within(inner: str, outer: str) -> bool:
+    """True when the project path ``inner`` is ``outer`` or lies inside it."""
+    return inner == outer or (inner.startswith(outer) and inner[len(outer)] in ".[")
+
+
 def column_of(path: str, paths: Mapping[str, str]) -> str | None:
-    """The column whose change a problem at ``path`` is in (the most specific one)."""
-    best: tuple[int, str | None] = (-1, None)
-    for changed, column in paths.items():
-        if path == changed or (path.startswith(changed) and path[len(changed)] in ".["):
-            if len(changed) > best[0]:
-                best = (len(changed), column)
-    return best[1]
+    """The column whose change a problem at ``path`` is in: the most specific change that
+    holds the path, else a change inside it (an unknown key the column added, such as
+    ``colour`` for a column ``colour.red``).
+    """
+    holding = [(len(c), col) for c, col in paths.items() if _within(path, c)]
+    if holding:
+        return max(holding)[1]
+    inside = [(len(c), col) for c, col in paths.items() if path and _within(c, path)]
+    return min(inside)[1] if inside else None
 
 
 def member_project(job: MemberJob) -> Project:

@@ -185,6 +185,26 @@ def test_bad_rows_are_named_and_the_rest_run(tmp_path, capsys):
         assert word not in captured.err
 
 
+def test_unknown_keys_at_any_depth_name_their_column(tmp_path, capsys):
+    path = _csv(tmp_path, f"mark,base,colour.red,colour\nU-1,{US},1,\nU-2,{US},,blue\n"
+                          f"U-3,{US},,\n")
+    code, rows = _schedule_json(capsys, path)
+    assert code == 1
+    assert [(p["column"], p["message"]) for p in rows[0]["problems"]] == [
+        ("colour.red", "colour: is not a known key of a project file")]
+    assert [(p["column"], p["message"]) for p in rows[1]["problems"]] == [
+        ("colour", "is not a known key of a project file")]
+    assert rows[2]["ran"]
+
+
+def test_extra_cells_are_named(tmp_path, capsys):
+    path = _csv(tmp_path, f"mark,base\nE-1,{US},stray\nE-2,{US}\n")
+    code, rows = _schedule_json(capsys, path)
+    assert code == 1
+    assert "more cells than the header" in rows[0]["problems"][0]["message"]
+    assert rows[1]["ran"] and rows[1]["verdict"] == OK
+
+
 def test_problem_outside_the_changed_key_keeps_its_path(tmp_path, capsys):
     """An area load without a tributary width is named by its own path (no column)."""
     path = _csv(tmp_path, f"mark,base,beam.loads[2].type\nP-1,{US},area\n")
