@@ -454,3 +454,16 @@ def test_rows_run_in_order_and_here_when_no_process_can_start(monkeypatch):
 
     monkeypatch.setattr(schedule, "ProcessPoolExecutor", refuse)
     assert schedule.run_rows(_square, list(range(5)), 2) == [k * k for k in range(5)]
+
+
+def test_demo_members_without_overrides_equal_check_of_the_demo_files(capsys):
+    code, rows = _schedule_json(capsys, DEMO / "renovation-schedule.csv")
+    assert code == 1  # the demo has members that fail (H-5, T-4)
+    by_mark = {r["mark"]: r for r in rows}
+    assert {m for m, r in by_mark.items() if r["verdict"] == NOT_OK} == {"H-5", "T-4"}
+    for mark, base in (("H-1", US), ("T-1", EU)):
+        assert main(["check", str(base), "--json"]) == 0
+        expected = json.loads(capsys.readouterr().out)
+        member = {k: v for k, v in by_mark[mark].items()
+                  if "verdict" in expected or k != "verdict"}
+        assert _as_check(member) == expected
