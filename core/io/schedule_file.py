@@ -280,13 +280,13 @@ def member_data(job: MemberJob) -> tuple[dict[str, Any], dict[str, str]]:
 
 
 def _choose_alternative(data: dict[str, Any], name: str) -> None:
-    alts = data.get("alternatives")
-    names = [a.get("name") for a in alts if isinstance(a, dict)] if isinstance(alts, list) else []
-    if name not in names:
-        listed = ", ".join(f'"{n}"' for n in names) or "none"
+    raw = data.get("alternatives")
+    alts = [a for a in raw if isinstance(a, dict)] if isinstance(raw, list) else []
+    chosen = next((a for a in alts if a.get("name") == name), None)
+    if chosen is None:
+        listed = ", ".join(f'"{a.get("name")}"' for a in alts) or "none"
         raise overrides.OverrideError(f'"{name}" is not an alternative of the base '
                                       f"(alternatives: {listed})")
-    chosen = alts[names.index(name)]  # type: ignore[index]
     data["plies"] = copy.deepcopy(chosen.get("plies", []))
     data["current_alternative"] = name
 
