@@ -30,6 +30,7 @@ from plystack.app.icons import app_icon
 from plystack.app.plots import DiagramPlot, ProfilePlot
 from plystack.app.ply_panel import PlyPanel
 from plystack.app.results import ResultsPanel
+from plystack.app.schedule_view import open_schedule
 from plystack.core.io.project_file import dumps, load
 from plystack.core.model.errors import ProjectError
 from plystack.core.model.project import Project
@@ -126,6 +127,7 @@ class MainWindow(QMainWindow):
                      QKeySequence.StandardKey.New)
         self._action(f, "&Open\u2026", self.open_dialog, QKeySequence.StandardKey.Open)
         self.recent_menu = f.addMenu("Open &recent")
+        self._action(f, "Open sc&hedule\u2026", lambda: open_schedule(self))
         self._action(f, "&Save", self.save, QKeySequence.StandardKey.Save)
         self._action(f, "Save &as\u2026", self.save_as, QKeySequence.StandardKey.SaveAs)
         self._action(f, "&Export calculation sheet (PDF)\u2026", self.export_sheet, "Ctrl+E")

@@ -10,6 +10,7 @@ import argparse
 import json
 import sys
 from collections.abc import Callable
+from typing import Any
 
 from . import __version__
 from .io.resources import DEFAULT_DEMO, DEMOS, DataFileError, demo_text
@@ -63,6 +64,16 @@ def build_parser() -> argparse.ArgumentParser:
     sh.add_argument("--alternative", metavar="NAME")
     sh.add_argument("--paper", choices=["letter", "a4"], default=None,
                     help="paper size (default: letter for US units, a4 for SI)")
+    sc = sub.add_parser("schedule", help="check every member of a schedule (CSV) in one run")
+    sc.add_argument("file", metavar="SCHEDULE.csv")
+    sc.add_argument("-o", "--output", metavar="RESULTS.csv",
+                    help="write the results here (default: standard output)")
+    sc.add_argument("--json", action="store_true",
+                    help="one object per member, keys as check --json plus the mark")
+    sc.add_argument("--sheets", metavar="DIR", help="write each member's calculation sheet "
+                    "and one combined PDF (schedule.pdf, summary first) into DIR")
+    sc.add_argument("--jobs", type=_jobs, default=None, metavar="N",
+                    help="processes to use (default: the number of CPUs; 1 runs in-process)")
     d = sub.add_parser("demo", help="copy a bundled demo project to a file you can edit")
     d.add_argument("output", metavar="OUT.plystack.json")
     d.add_argument("--name", choices=sorted(DEMOS), default=DEFAULT_DEMO,
@@ -71,6 +82,16 @@ def build_parser() -> argparse.ArgumentParser:
     g.add_argument("file", nargs="?")
     g.add_argument("--screenshot", metavar="OUT.png", help="render the window to a PNG and exit")
     return p
+
+
+def _jobs(text: str) -> int:
+    try:
+        value = int(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f'"{text}" is not a whole number') from None
+    if value < 1:
+        raise argparse.ArgumentTypeError(f"{value} must be 1 or more")
+    return value
 
 
 def _fail(messages: list[str]) -> int:
@@ -235,6 +256,73 @@ def cmd_sheet(args: argparse.Namespace) -> int:
     return 0
 
 
+def cmd_schedule(args: argparse.Namespace) -> int:
+    """``plystack schedule``: exit 0 when every member ran and is OK, 1 when any is NOT OK,
+    INCOMPLETE or could not run, 2 when the schedule file cannot be read.
+    """
+    from pathlib import Path
+
+    from .io.atomic import write_text
+    from .io.schedule_file import (
+        MemberJob,
+        ScheduleError,
+        evaluate,
+        prepare,
+        read_schedule,
+        result_json,
+        results_csv,
+    )
+    from .study.schedule import MemberResult, default_jobs, exit_status, run_rows
+
+    try:
+        schedule = read_schedule(args.file)
+    except ScheduleError as exc:
+        return _fail([f"{args.file}: {m}" for m in exc.messages])
+    sheets = Path(args.sheets) if args.sheets else None
+    if sheets is not None:
+        try:
+            sheets.mkdir(parents=True, exist_ok=True)
+        except OSError as exc:
+            return _fail([f"--sheets {sheets}: {exc.strerror or exc}"])
+    prepared = prepare(schedule, with_check=args.json, sheets=sheets)
+    jobs = [j for j in prepared if isinstance(j, MemberJob)]
+    worker = evaluate
+    if sheets is not None:
+        from .report.schedule_pdf import evaluate_with_sheet
+
+        worker = evaluate_with_sheet
+    bar = _progress(len(jobs)) if sys.stderr.isatty() and not args.json else None
+    try:
+        done = iter(run_rows(worker, jobs, args.jobs or default_jobs(),
+                             bar.update if bar is not None else None))
+    finally:
+        if bar is not None:
+            bar.close()
+    results: list[MemberResult] = [next(done) if isinstance(j, MemberJob) else j
+                                   for j in prepared]
+    for r in results:
+        for problem in r.problems:
+            print(f"{args.file}: {problem}", file=sys.stderr)
+    text = (json.dumps([result_json(r) for r in results], indent=1) + "\n" if args.json
+            else results_csv(results))
+    if args.output:
+        write_text(args.output, text, "-o")
+    else:
+        sys.stdout.write(text)
+    if sheets is not None:
+        from .report.schedule_pdf import write_combined
+
+        combined, pages = write_combined(results, sheets, schedule.path.name)
+        print(f"wrote {combined}: {pages} pages", file=sys.stderr)
+    return exit_status(results)
+
+
+def _progress(total: int) -> Any:
+    from tqdm import tqdm
+
+    return tqdm(total=total, unit="member", file=sys.stderr, leave=False)
+
+
 def cmd_demo(args: argparse.Namespace) -> int:
     """Copy a bundled demo project to ``args.output`` (never over an existing file)."""
     from .io.atomic import write_text_new
@@ -255,7 +343,8 @@ def main(argv: list[str] | None = None,
         argv = ["gui"]
     args = parser.parse_args(argv)
     commands = {"check": cmd_check, "compare": cmd_compare, "sweep": cmd_sweep,
-                "size": cmd_size, "span": cmd_span, "sheet": cmd_sheet, "demo": cmd_demo}
+                "size": cmd_size, "span": cmd_span, "sheet": cmd_sheet, "demo": cmd_demo,
+                "schedule": cmd_schedule}
     if args.command in commands:
         try:
             return commands[args.command](args)

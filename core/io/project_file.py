@@ -155,18 +155,28 @@ def to_dict(project: Project) -> dict[str, Any]:
     return out
 
 
-def loads(text: str) -> Project:
-    """Parse a project from JSON text."""
+def parse_json(text: str) -> Any:
+    """The parsed JSON of a project file's text (not yet read as a project)."""
     try:
-        data = json.loads(text)
+        return json.loads(text)
     except json.JSONDecodeError as exc:
         raise ProjectError(Problem("", f"not valid JSON: {exc.msg} at line {exc.lineno}, "
                                    f"column {exc.colno}")) from None
-    return from_dict(data)
+
+
+def loads(text: str) -> Project:
+    """Parse a project from JSON text."""
+    return from_dict(parse_json(text))
 
 
 def load(path: str | os.PathLike[str]) -> Project:
-    """Read a project file. Raises ProjectError (file problems included).
+    """Read a project file. Raises ProjectError (file problems included)."""
+    return from_dict(load_data(path))
+
+
+def load_data(path: str | os.PathLike[str]) -> Any:
+    """The parsed JSON of a project file, before it is read as a project (for callers
+    that change keys first, as a member schedule does). Raises ProjectError.
 
     Only a regular file is read: a FIFO, device or folder is refused at once (reading a
     FIFO would wait for ever).
@@ -183,7 +193,7 @@ def load(path: str | os.PathLike[str]) -> Project:
     except UnicodeDecodeError:
         raise ProjectError(Problem("", f"cannot read {os.fspath(path)}: it is not UTF-8 "
                                    "text")) from None
-    return loads(text)
+    return parse_json(text)
 
 
 def dumps(project: Project) -> str:

@@ -70,12 +70,17 @@ class Combination:
         return self.kind
 
     def for_strength(self, basis: str) -> bool:
-        """True where strength checks use this combination."""
-        return self.kind_on(basis) in STRENGTH_KINDS
+        """True where strength checks use this combination: ASD on the US basis (allowable
+        stress design), ULS on the EU basis (limit states).
+        """
+        return self.kind_on(basis) == ("ASD" if basis == "US" else "ULS")
 
     def for_serviceability(self, basis: str) -> bool:
-        """True where deflection checks, diagrams and studies use this combination."""
-        return self.kind_on(basis) in SERVICEABILITY_KINDS
+        """True where deflection checks, diagrams and studies use this combination: ASD
+        on the US basis, the SLS kinds on the EU basis.
+        """
+        kind = self.kind_on(basis)
+        return kind == "ASD" if basis == "US" else kind.startswith("SLS")
 
 
 def duration_of(combo: Combination, basis: str) -> str:

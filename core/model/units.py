@@ -108,8 +108,10 @@ def _parse_cached(text: str, dimension: str) -> float:
     expr = _normalise(text)
     try:
         q = ureg.parse_expression(expr)
-    except Exception as exc:
-        raise UnitError(f"cannot be read ({type(exc).__name__})") from None
+    except Exception as exc:  # pint raises many kinds of errors
+        unknown = type(exc).__name__ == "UndefinedUnitError"
+        raise UnitError("has a unit this program does not know" if unknown
+                        else "cannot be read as a number with a unit") from None
     if not hasattr(q, "magnitude"):
         raise UnitError("has no unit")
     want = DIMENSIONS[dimension]

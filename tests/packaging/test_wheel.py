@@ -33,6 +33,7 @@ def test_wheel_holds_one_package_and_every_data_file(wheel):
                    "plystack/fonts/DejaVuSans-Bold.ttf",
                    "plystack/demo/porch-header.plystack.json",
                    "plystack/demo/stair-trimmer-eu.plystack.json",
+                   "plystack/demo/renovation-schedule.csv",
                    "plystack/icons/plystack.png", "plystack/icons/plystack.svg",
                    "plystack/plystack.desktop", "plystack/core/py.typed",
                    "plystack/app/main_window.py", "plystack/core/pipeline.py"):
