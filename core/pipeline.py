@@ -15,6 +15,7 @@ from .actions.analysis import BeamResult, PreparedBeam, analyse_beams
 from .design.check import Check
 from .design.eu_lsd import eu_checks
 from .design.us_asd import us_checks
+from .design.vibration import vibration_checks
 from .model.design import DesignSpec
 from .model.errors import Problem
 from .model.materials import Material
@@ -49,8 +50,11 @@ def run_checks(project: Project, section: Section, beam: BeamResult,
                design: DesignSpec) -> tuple[tuple[Check, ...], list[Problem]]:
     """Every check of the project's design basis, with warnings."""
     if design.us:
-        return us_checks(project, section, beam, design)
-    return eu_checks(project, section, beam, design)
+        checks, warnings = us_checks(project, section, beam, design)
+    else:
+        checks, warnings = eu_checks(project, section, beam, design)
+    checks += vibration_checks(project, section, beam, design, warnings)
+    return checks, warnings
 
 
 class Evaluator:

@@ -7,7 +7,8 @@ from ..model.units import fmt
 from .check import Check, governing
 
 QUANTITY_KIND = {"stress": "stress", "deflection": "deflection", "force": "force",
-                 "shear_flow": "shear_flow"}
+                 "shear_flow": "shear_flow", "frequency": "frequency",
+                 "compliance": "compliance", "velocity_response": "velocity_response"}
 
 
 def governing_per_group(checks: tuple[Check, ...] | list[Check]) -> list[Check]:

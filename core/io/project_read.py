@@ -12,6 +12,7 @@ from ..model.errors import Problem
 from ..model.materials import Material, material_from_record
 from ..model.member import CASES, BeamLayout, Load, validate_layout, validate_load
 from ..model.plies import Ply, validate_ply
+from .vibration_file import read_vibration
 
 if TYPE_CHECKING:
     from ..model.member import BeamSpec
@@ -23,7 +24,7 @@ LOAD_KEYS = frozenset({"case", "type", "value", "tributary_width", "from", "to",
 DESIGN_KEYS = frozenset({"basis", "wet_service", "temperature", "repetitive_member", "incised",
                          "compression_edge_braced", "unbraced_length", "deflection_limits",
                          "K_cr", "k_def", "steel_rule", "service_class", "psi", "overrides",
-                         "connector", "bolt", "steel_bears"})
+                         "connector", "bolt", "steel_bears", "vibration"})
 
 
 def _quantity(raw: Any, dimension: str, path: str, problems: list[Problem]) -> float | None:
@@ -403,6 +404,8 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
                    if "spacing" in b else None)
             if dia is not None and fyb is not None and rows is not None and fu is not None:
                 kw["bolt"] = Bolt(dia, fyb, int(rows), fu, bsp)
+    if "vibration" in raw:
+        kw["vibration"] = read_vibration(raw["vibration"], f"{path}.vibration", problems)
     if len(problems) > before:
         return None
     return DesignSpec(**kw)

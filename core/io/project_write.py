@@ -9,6 +9,7 @@ from ..model.design import Bolt, Connector, DesignSpec
 from ..model.materials import DENSITY_KEYS, Material
 from ..model.plies import Ply
 from ..model.units import exact_text
+from .vibration_file import write_vibration
 
 if TYPE_CHECKING:
     from ..model.member import BeamSpec
@@ -124,4 +125,6 @@ def write_design(d: DesignSpec, system: str) -> dict[str, Any]:
         if d.bolt.spacing is not None:
             b["spacing"] = exact_text(d.bolt.spacing, "length", system)
         out["bolt"] = b
+    if d.vibration is not None:
+        out["vibration"] = write_vibration(d.vibration, system)
     return out

@@ -51,6 +51,37 @@ class Bolt:
 
 
 @dataclass(frozen=True)
+class VibrationSpec:
+    """Floor vibration inputs (the design file's "vibration" object; SI).
+
+    Attributes:
+        spacing: joist spacing s, m: the floor's mass and stiffness per metre width are
+            the member's divided by it.
+        floor_width: b, the floor's width across the joists, m (EN 7.3.3 velocity).
+        damping: modal damping ratio zeta (EN 1995-1-1 7.3.1(5): 0.01).
+        transverse_EI: (EI)_b, the floor's bending stiffness across the joists per metre
+            of length, N m^2/m (EN 7.3.3 velocity).
+        a: EN 1995-1-1 (7.3) limit of w/F, m/N; None for the stated default.
+        b: EN 1995-1-1 (7.4) constant b; None for the stated default.
+        frequency_min: US common-practice minimum frequency, Hz; None for the default.
+        point_load: US common-practice concentrated load, N; None for the default.
+        point_deflection_limit: US common-practice deflection limit under that load, m;
+            None for the default.
+
+    """
+
+    spacing: float
+    floor_width: float | None = None
+    damping: float = 0.01
+    transverse_EI: float | None = None
+    a: float | None = None
+    b: float | None = None
+    frequency_min: float | None = None
+    point_load: float | None = None
+    point_deflection_limit: float | None = None
+
+
+@dataclass(frozen=True)
 class DesignSpec:
     """Design basis and options.
 
@@ -74,6 +105,7 @@ class DesignSpec:
         connector: for the interfaces of stacked plies.
         bolt: for flitch (side-by-side) plies.
         steel_bears: True where steel plies bear on the supports (their own seats).
+        vibration: floor vibration inputs; None: no vibration checks.
 
     """
 
@@ -96,6 +128,7 @@ class DesignSpec:
     connector: Connector = field(default_factory=Connector)
     bolt: Bolt = field(default_factory=Bolt)
     steel_bears: bool = False
+    vibration: VibrationSpec | None = None
 
     @property
     def us(self) -> bool:
