@@ -14,6 +14,7 @@ from dataclasses import dataclass
 from .actions.analysis import BeamResult, PreparedBeam, analyse_beams
 from .design.check import Check
 from .design.eu_lsd import eu_checks
+from .design.material_notes import material_warnings
 from .design.us_asd import us_checks
 from .design.vibration import vibration_checks
 from .model.design import DesignSpec
@@ -106,6 +107,7 @@ class Evaluator:
             if beam is not None:
                 checks, check_warnings = run_checks(project, section, beam, self.design)
                 warnings.extend(check_warnings)
+            warnings += material_warnings(section, beam, project.display_units)
             out.append(Analysis(project, section, beam, self.design, checks, tuple(warnings)))
         return out
 
