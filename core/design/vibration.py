@@ -126,9 +126,9 @@ def vibration_checks(project: Project, section: Section, beam: BeamResult,
     system = project.display_units
     mass, reason = floor_mass(beam, spec.spacing, system)
     if mass is None:
-        warnings.append(Problem(WARNING_PATH, "vibration-frequency"
-                                + ("" if design.us else " and vibration-velocity")
-                                + f" cannot be made: {reason}; these checks are missing"))
+        which = ("vibration-frequency cannot be made", "this check is") if design.us else (
+            "vibration-frequency and vibration-velocity cannot be made", "these checks are")
+        warnings.append(Problem(WARNING_PATH, f"{which[0]}: {reason}; {which[1]} missing"))
     if design.us:
         return _us(spec, section.EI, lay.spans[0], mass, system)
     return _eu(spec, section.EI, lay.spans[0], mass, system, warnings)

@@ -206,6 +206,9 @@ def existing_from_record(mid: str, record: dict[str, Any], known: Mapping[str, M
     if assumed is None or assumed.kind != "timber":
         problems.append(Problem(f"{path}.existing.assumed", f"{grade!r} is not a known timber "
                                 "grade (the lower-bound grade the existing timber is taken as)"))
+    elif assumed.existing is not None:
+        problems.append(Problem(f"{path}.existing.assumed", f"{grade!r} is itself existing "
+                                "timber; assume a graded material"))
     k = spec.get("condition_factor", 1.0)
     if isinstance(k, bool) or not isinstance(k, int | float) or not 0 < k <= 1:
         problems.append(Problem(f"{path}.existing.condition_factor", f"{k!r} must be a plain "
@@ -240,3 +243,39 @@ def existing_material(mid: str, assumed: Material, factor: float, name: str | No
 def default_existing_name(assumed: Material) -> str:
     """The name of an existing-timber material that was given none."""
     return f"existing, assumed {assumed.name}"
+
+
+#: Order of the groups a material browser lists (basis, then product).
+BASIS_ORDER = ("US", "EU", "US and EU", "any")
+PRODUCT_WORDS = {"sawn": "sawn timber", "glulam": "glued laminated timber",
+                 "lvl": "structural composite lumber (LVL, PSL)", "steel": "steel",
+                 "aluminium": "aluminium", "other": "other"}
+
+
+def basis_of(m: Material) -> str:
+    """The design basis a material's values serve: timber by its values (NDS reference
+    values "US", EN characteristic values "EU"), metals by the standard their source
+    names (ASTM "US", EN "EU"); "any" otherwise.
+    """
+    if m.kind == "timber":
+        us, eu = "Fb" in m.values, "fm_k" in m.values
+        return "US and EU" if us and eu else "US" if us else "EU" if eu else "any"
+    text = f"{m.name} {m.source}"
+    if "ASTM" in text:
+        return "US"
+    if "EN " in text:
+        return "EU"
+    return "any"
+
+
+def grouped(materials: Mapping[str, Material]) -> list[tuple[str, str, list[Material]]]:
+    """Materials in groups (basis, product words, materials by id), in a browser's order."""
+    groups: dict[tuple[str, str], list[Material]] = {}
+    for mid in sorted(materials):
+        m = materials[mid]
+        groups.setdefault((basis_of(m), m.product), []).append(m)
+    products = list(PRODUCT_WORDS)
+    order = sorted(groups, key=lambda k: (BASIS_ORDER.index(k[0]),
+                                          products.index(k[1]) if k[1] in products else 99))
+    return [(basis, PRODUCT_WORDS.get(product, product), groups[(basis, product)])
+            for basis, product in order]

@@ -131,3 +131,16 @@ def test_glulam_fbx_minus_is_warned_under_negative_moment(material, supports, sp
     a = run(from_dict(data))
     found = [w for w in a.warnings if w.path == "plies[0].material" and "Fbx-" in w.message]
     assert bool(found) == warned
+
+
+def test_existing_timber_cannot_assume_existing_timber():
+    from plystack.core.io.library import load_library
+    from plystack.core.model.materials import existing_from_record, existing_material
+
+    lib = load_library()
+    first = existing_material("old", lib["DFL-No2"], 0.9)
+    m, problems = existing_from_record("older", {"existing": {"assumed": "old"}},
+                                       {**lib, "old": first}, "materials.older")
+    assert m is None
+    assert [p.path for p in problems] == ["materials.older.existing.assumed"]
+    assert "itself existing timber" in problems[0].message
