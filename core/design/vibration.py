@@ -220,7 +220,7 @@ def _velocity(spec: VibrationSpec, width: float, EI_b: float, EI_l: float, span:
                f"zeta = {zeta:g}; b = {b:g}.", n40_text + ".",
                f"v = 4 (0.4 + 0.6 x {n40:.4g}) / ({mass.per_area:.5g} x {width:.4g} x "
                f"{span:.4g} + 200) = {v:.4g} m/(N s^2); limit {b:g}^({f1:.4g} x {zeta:g} - 1)"
-               f" = {v_lim:.4g} m/(N s^2)."))
+               f" = {v_lim:.4g} m/(N s^2).", "The criterion applies where f_1 > 8 Hz."))
 
 
 def _us(spec: VibrationSpec, EI: float, span: float, mass: FloorMass | None,
