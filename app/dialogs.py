@@ -18,7 +18,12 @@ from PySide6.QtWidgets import (
 
 from plystack.core.model import units
 from plystack.core.model.constants import INCH
-from plystack.core.model.materials import Material, material_from_record
+from plystack.core.model.materials import (
+    Material,
+    existing_from_record,
+    grouped,
+    material_from_record,
+)
 from plystack.core.section.templates import (
     LUMBER_SI,
     LUMBER_US,
@@ -89,7 +94,10 @@ class NewSectionDialog(QDialog):
 
 
 class MaterialsDialog(QDialog):
-    """Browse the library (with sources) and add a project material."""
+    """Browse the library grouped by design basis and product (with sources) and add a
+    project material: a record of values, or existing timber of unknown grade taken as
+    an assumed grade (``{"existing": {"assumed": "DFL-No2", "condition_factor": 0.9}}``).
+    """
 
     def __init__(self, materials: dict[str, Material], system: str, parent=None):  # type: ignore[no-untyped-def]
         super().__init__(parent)
@@ -97,13 +105,26 @@ class MaterialsDialog(QDialog):
         self.resize(900, 500)
         self.added: Material | None = None
         self.system = system
-        table = QTableWidget(len(materials), 5)
+        self.materials = materials
+        groups = grouped(materials)
+        table = QTableWidget(len(materials) + len(groups), 5)
         table.setHorizontalHeaderLabels(["Id", "Name", "Kind", "E", "Source"])
-        for r, (mid, m) in enumerate(sorted(materials.items())):
-            for c, text in enumerate((mid, m.name, m.kind, units.fmt(m.E, "modulus", system),
-                                      m.source)):
-                table.setItem(r, c, QTableWidgetItem(text))
+        r = 0
+        for basis, product, members in groups:
+            head = QTableWidgetItem(f"{basis} \u2014 {product} ({len(members)})")
+            font = head.font()
+            font.setBold(True)
+            head.setFont(font)
+            table.setItem(r, 0, head)
+            table.setSpan(r, 0, 1, 5)
+            r += 1
+            for m in members:
+                for c, text in enumerate((m.id, m.name, m.kind,
+                                          units.fmt(m.E, "modulus", system), m.source)):
+                    table.setItem(r, c, QTableWidgetItem(text))
+                r += 1
         table.resizeColumnsToContents()
+        self.table = table
         self.new_id = QLineEdit()
         self.record = QLineEdit('{"kind": "timber", "name": "My grade", "E": "1400000 psi", '
                                 '"density": "30 pcf", "Fb": "850 psi", "Fv": "150 psi", '
@@ -136,7 +157,10 @@ class MaterialsDialog(QDialog):
         except json.JSONDecodeError as exc:
             self.message.setText(f"record: not valid JSON ({exc.msg})")
             return
-        m, problems = material_from_record(mid, rec, f"materials.{mid}")
+        if isinstance(rec, dict) and "existing" in rec:
+            m, problems = existing_from_record(mid, rec, self.materials, f"materials.{mid}")
+        else:
+            m, problems = material_from_record(mid, rec, f"materials.{mid}")
         if problems or m is None:
             self.message.setText("\n".join(str(p) for p in problems))
             return

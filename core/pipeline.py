@@ -14,7 +14,9 @@ from dataclasses import dataclass
 from .actions.analysis import BeamResult, PreparedBeam, analyse_beams
 from .design.check import Check
 from .design.eu_lsd import eu_checks
+from .design.material_notes import material_warnings
 from .design.us_asd import us_checks
+from .design.vibration import vibration_checks
 from .model.design import DesignSpec
 from .model.errors import MissingCheck, Problem
 from .model.materials import Material
@@ -70,8 +72,11 @@ def run_checks(project: Project, section: Section, beam: BeamResult,
                design: DesignSpec) -> tuple[tuple[Check, ...], list[Problem]]:
     """Every check of the project's design basis, with warnings."""
     if design.us:
-        return us_checks(project, section, beam, design)
-    return eu_checks(project, section, beam, design)
+        checks, warnings = us_checks(project, section, beam, design)
+    else:
+        checks, warnings = eu_checks(project, section, beam, design)
+    checks += vibration_checks(project, section, beam, design, warnings)
+    return checks, warnings
 
 
 class Evaluator:
@@ -124,6 +129,7 @@ class Evaluator:
             if beam is not None:
                 checks, check_warnings = run_checks(project, section, beam, self.design)
                 warnings.extend(check_warnings)
+            warnings += material_warnings(section, beam, project.display_units)
             out.append(Analysis(project, section, beam, self.design, checks, tuple(warnings)))
         return out
 

@@ -5,6 +5,8 @@ Values are the recommended ones; national annexes may change them.
 
 from __future__ import annotations
 
+import math
+
 from ..model.combination import EU_DURATIONS
 
 #: EN 1995-1-1 Table 3.1: k_mod for solid timber, glulam and LVL, service classes 1 and
@@ -123,3 +125,79 @@ def lambda_rel_c(l_ef: float, least: float, f_c0k: float, E_005: float) -> float
 
     lam = l_ef / (least / math.sqrt(12))
     return float(lam / math.pi * math.sqrt(f_c0k / E_005))
+# --- EN 1995-1-1 7.3.3: residential floors (vibration), from memory ------------------
+
+#: EN 1995-1-1 7.3.3(1): below this fundamental frequency a special investigation is
+#: needed (the method of 7.3.3(2)-(5) does not apply). Hz.
+F_1_LIMIT = 8.0
+#: The static point load of the stiffness criterion (7.3), N.
+F_POINT = 1000.0
+
+
+def f_1(span: float, EI_l: float, m: float) -> float:
+    """EN 1995-1-1 7.3.3(3), Eq. (7.5): fundamental frequency of a rectangular floor
+    simply supported along its four edges (or two), f_1 = (pi / (2 l^2)) sqrt((EI)_l / m).
+
+    Args:
+        span: l, m.
+        EI_l: equivalent plate bending stiffness about an axis perpendicular to the
+            beams, N m^2/m.
+        m: mass per unit area, kg/m^2.
+
+    Returns:
+        Hz.
+
+    """
+    return math.pi / (2 * span**2) * math.sqrt(EI_l / m)
+
+
+def w_over_F(span: float, EI: float) -> float:
+    """Instantaneous deflection per unit static point load of one simply supported
+    member under a load at midspan, w / F = l^3 / (48 EI) (beam formula), used for the
+    stiffness criterion of EN 1995-1-1 7.3.3(2), Eq. (7.3), without the floor's lateral
+    distribution (conservative). span m, EI N m^2. Returns m/N.
+    """
+    return span**3 / (48 * EI)
+
+
+def n_40(f1: float, width: float, span: float, EI_l: float, EI_b: float) -> float:
+    """EN 1995-1-1 7.3.3(5), Eq. (7.7): number of first-order modes with natural
+    frequencies up to 40 Hz, n_40 = {((40/f_1)^2 - 1)(b/l)^4 (EI)_l/(EI)_b}^0.25.
+    Where f_1 >= 40 Hz no mode lies below 40 Hz and 0 is returned.
+
+    Args:
+        f1: fundamental frequency, Hz.
+        width: b, floor width, m.
+        span: l, m.
+        EI_l: bending stiffness along the beams, N m^2/m.
+        EI_b: bending stiffness across the beams, N m^2/m.
+
+    """
+    bracket = (40.0 / f1) ** 2 - 1.0
+    if bracket <= 0:
+        return 0.0
+    return float((bracket * (width / span) ** 4 * EI_l / EI_b) ** 0.25)
+
+
+def v_unit_impulse(n40: float, m: float, width: float, span: float) -> float:
+    """EN 1995-1-1 7.3.3(5), Eq. (7.6): unit impulse velocity response,
+    v = 4 (0.4 + 0.6 n_40) / (m b l + 200), m/(N s^2); m kg/m^2, b and l in m.
+    """
+    return 4.0 * (0.4 + 0.6 * n40) / (m * width * span + 200.0)
+
+
+def v_limit(b: float, f1: float, zeta: float) -> float:
+    """EN 1995-1-1 7.3.3(2), Eq. (7.4): limit of the unit impulse velocity response,
+    b^(f_1 zeta - 1), m/(N s^2); b from Figure 7.2 or the national annex, zeta the modal
+    damping ratio (7.3.1(5): 0.01 unless other values are proven).
+    """
+    return float(b ** (f1 * zeta - 1.0))
+
+#: Defaults of the 7.3.3(2) criteria where the user gives none: a = 1.5 mm/kN and
+#: b = 100, a pair inside the recommended ranges of EN 1995-1-1 Figure 7.2 and on its
+#: a-b relation (b = 160 - 40 a for a > 1 mm/kN), national-annex style values recalled
+#: from memory. National annexes set their own: give yours in design.vibration.
+A_DEFAULT = 1.5e-6  # m/N (1.5 mm/kN)
+B_DEFAULT = 100.0
+#: EN 1995-1-1 7.3.1(5): modal damping ratio unless other values are proven.
+ZETA_DEFAULT = 0.01

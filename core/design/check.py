@@ -14,12 +14,16 @@ from typing import Any, Literal
 #: Every kind of check (the ``id`` of a check in JSON output).
 CheckId = Literal["bending", "shear", "bearing", "deflection-live", "deflection-total",
                   "deflection-long-term", "bolts", "connectors", "uplift", "tension-bending",
-                  "compression-bending"]
+                  "compression-bending", "vibration-frequency", "vibration-stiffness",
+                  "vibration-velocity"]
 #: What a check's demand and capacity measure (selects the display unit).
-Quantity = Literal["stress", "deflection", "force", "shear_flow", "ratio"]
+Quantity = Literal["stress", "deflection", "force", "shear_flow", "ratio", "frequency",
+                   "compliance", "velocity_response"]
 #: The limit state a check belongs to.
 LimitState = Literal["strength", "serviceability"]
-SERVICEABILITY_IDS = frozenset({"deflection-live", "deflection-total", "deflection-long-term"})
+SERVICEABILITY_IDS = frozenset({"deflection-live", "deflection-total", "deflection-long-term",
+                                "vibration-frequency", "vibration-stiffness",
+                                "vibration-velocity"})
 
 
 @dataclass(frozen=True)
@@ -47,14 +51,18 @@ class Check:
 
     Attributes:
         id: kind of check: "bending", "shear", "bearing", "deflection-live",
-            "deflection-total", "deflection-long-term", "bolts", "connectors".
+            "deflection-total", "deflection-long-term", "bolts", "connectors",
+            "vibration-frequency", "vibration-stiffness", "vibration-velocity".
         ply: the ply (or plies) checked, None for the whole member.
         combination: the load combination (or case) name.
-        demand: SI (Pa for stresses, m for deflections, N for fastener loads).
+        demand: SI (Pa for stresses, m for deflections, N for fastener loads; for a
+            frequency check the required frequency, Hz, against the capacity the
+            member's frequency, so that the ratio is f_required / f_1).
         capacity: same unit as demand.
         ratio: demand / capacity.
         ok: ratio <= 1.
-        quantity: "stress", "deflection", "force" or "shear_flow" (for display units).
+        quantity: "stress", "deflection", "force", "shear_flow", "frequency" (Hz),
+            "compliance" (m/N) or "velocity_response" (m/(N s^2)), for display units.
         reference: symbol and SI value of the reference design value.
         factors: factors that multiply the reference value.
         partial_factors: factors that divide it.

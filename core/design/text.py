@@ -7,7 +7,8 @@ from ..model.units import fmt
 from .check import Check, governing
 
 QUANTITY_KIND = {"stress": "stress", "deflection": "deflection", "force": "force",
-                 "shear_flow": "shear_flow", "ratio": "ratio"}
+                 "shear_flow": "shear_flow", "ratio": "ratio", "frequency": "frequency",
+                 "compliance": "compliance", "velocity_response": "velocity_response"}
 
 
 def governing_per_group(checks: tuple[Check, ...] | list[Check]) -> list[Check]:
@@ -26,15 +27,15 @@ def checks_text(checks: tuple[Check, ...], system: str, verdict: str | None = No
     INCOMPLETE with its reasons) and the caution.
     """
     lines = ["", "Checks (governing combination of each; all combinations in --json)"]
-    lines.append(f"  {'check':<22}{'ply / place':<26}{'combination':<26}{'demand':>14}"
-                 f"{'capacity':>14}{'ratio':>8}  verdict")
+    lines.append(f"  {'check':<22}{'ply / place':<26}{'combination':<26}{'demand':>18}"
+                 f"{'capacity':>18}{'ratio':>8}  verdict")
     for c in governing_per_group(checks):
         kind = QUANTITY_KIND[c.quantity]
         where = c.ply or c.location
         if c.ply and c.location and c.id in ("bearing",):
             where = f"{c.location}: {c.ply}"
         lines.append(f"  {c.id:<22}{where[:25]:<26}{(c.combination or '')[:25]:<26}"
-                     f"{fmt(c.demand, kind, system):>14}{fmt(c.capacity, kind, system):>14}"
+                     f"{fmt(c.demand, kind, system):>18}{fmt(c.capacity, kind, system):>18}"
                      f"{c.ratio:>8.3f}  {'OK' if c.ok else 'NOT OK'}")
         if c.id in ("bolts", "connectors"):
             lines.append(f"      {c.location}")

@@ -9,6 +9,7 @@ from ..model.design import BASES, STEEL_RULES, TEMPERATURES, Bolt, Connector, De
 from ..model.errors import Problem
 from ..model.member import CASES
 from .fields import FieldSpec, read_fields, unknown_keys, write_fields
+from .vibration_file import read_vibration, write_vibration
 
 #: Scalar keys of the design object.
 DESIGN_FIELDS = (
@@ -44,7 +45,7 @@ BOLT_FIELDS = (
     FieldSpec("spacing", "positive", dimension="length"),
 )
 #: Keys holding objects, read by their own functions below.
-OBJECT_KEYS = ("deflection_limits", "psi", "overrides", "connector", "bolt")
+OBJECT_KEYS = ("deflection_limits", "psi", "overrides", "connector", "bolt", "vibration")
 DESIGN_KEYS = frozenset({f.key for f in DESIGN_FIELDS} | set(OBJECT_KEYS))
 LIMIT_KEYS = ("live", "total", "long_term")
 
@@ -67,6 +68,8 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
     if "bolt" in raw:
         kw["bolt"] = _read_object(raw["bolt"], Bolt(), BOLT_FIELDS, f"{path}.bolt",
                                   "the bolt", problems)
+    if "vibration" in raw:
+        kw["vibration"] = read_vibration(raw["vibration"], f"{path}.vibration", problems)
     if len(problems) > before:
         return None
     return DesignSpec(**kw)
@@ -138,4 +141,6 @@ def write_design(d: DesignSpec, system: str) -> dict[str, Any]:
         out["connector"] = write_fields(d.connector, Connector(), CONNECTOR_FIELDS, system)
     if d.bolt != Bolt():
         out["bolt"] = write_fields(d.bolt, Bolt(), BOLT_FIELDS, system)
+    if d.vibration is not None:
+        out["vibration"] = write_vibration(d.vibration, system)
     return out

@@ -10,7 +10,7 @@ import numpy as np
 from .. import __version__
 from ..actions.analysis import BeamResult
 from ..actions.beam import Extremes
-from ..model.caution import ASSUMPTIONS, CAUTION
+from ..model.caution import ASSUMPTIONS, CAUTION, FIRE_NOTE
 from ..model.units import fmt, sig
 from ..pipeline import Analysis
 from ..section.transformed import PlyResult, Section
@@ -177,6 +177,7 @@ def check_json(a: Analysis, moment: float | None = None, shear: float | None = N
     out["incomplete_reasons"] = [{"field": p.path, "message": p.message, "text": str(p)}
                                  for p in a.incomplete_reasons]
     out["assumptions"] = list(ASSUMPTIONS)
+    out["fire_note"] = FIRE_NOTE
     out["warnings"] = [str(w) for w in a.warnings]
     return out
 
@@ -256,6 +257,8 @@ def check_text(a: Analysis, moment: float | None = None, shear: float | None = N
         lines.extend(f"  {w}" for w in a.warnings)
     lines.append("")
     lines.append("Assumptions: " + " ".join(ASSUMPTIONS))
+    lines.append("")
+    lines.append(FIRE_NOTE)
     return "\n".join(lines) + "\n"
 
 

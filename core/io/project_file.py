@@ -66,7 +66,7 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
     if units not in ("US", "SI"):
         problems.append(Problem("display_units", 'must be "US" or "SI"'))
         units = "US"
-    materials = read_material_map(data.get("materials", {}), "materials", problems)
+    materials = read_material_map(data.get("materials", {}), "materials", problems, lib)
     known = {**lib, **materials}
     if "plies" not in data:
         problems.append(Problem("plies", "is missing"))

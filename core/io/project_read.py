@@ -8,7 +8,7 @@ from typing import TYPE_CHECKING, Any
 from ..model import units
 from ..model.combination import EU_DURATIONS, KINDS, US_DURATIONS, Combination
 from ..model.errors import Problem
-from ..model.materials import Material, material_from_record
+from ..model.materials import Material, existing_from_record, material_from_record
 from ..model.member import CASES, BeamLayout, Load, validate_layout, validate_load
 from ..model.plies import Ply, validate_ply
 
@@ -59,18 +59,31 @@ def _flag(raw: Any, path: str, problems: list[Problem]) -> bool:
     return raw
 
 
-def read_material_map(raw: Any, path: str, problems: list[Problem]) -> dict[str, Material]:
-    """The project's own materials."""
+def read_material_map(raw: Any, path: str, problems: list[Problem],
+                      library: Mapping[str, Material] | None = None) -> dict[str, Material]:
+    """The project's own materials; existing-timber records resolved against the library
+    and the project's ordinary records.
+    """
     if not isinstance(raw, dict):
         problems.append(Problem(path, "must be an object of material records by id"))
         return {}
     out = {}
     for mid, rec in raw.items():
+        if isinstance(rec, dict) and "existing" in rec:
+            continue
         m, probs = material_from_record(mid, rec, f"{path}.{mid}")
         problems.extend(probs)
         if m is not None:
             out[mid] = m
-    return out
+    known = {**(library or {}), **out}
+    resolved = {}
+    for mid, rec in raw.items():
+        if isinstance(rec, dict) and "existing" in rec:
+            m, probs = existing_from_record(mid, rec, known, f"{path}.{mid}")
+            problems.extend(probs)
+            if m is not None:
+                resolved[mid] = m
+    return {mid: out.get(mid) or resolved[mid] for mid in raw if mid in out or mid in resolved}
 
 
 def read_plies(raw: Any, path: str, known: Mapping[str, Material],

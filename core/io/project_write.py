@@ -5,7 +5,7 @@ from __future__ import annotations
 from collections.abc import Mapping
 from typing import TYPE_CHECKING, Any
 
-from ..model.materials import DENSITY_KEYS, Material
+from ..model.materials import DENSITY_KEYS, Existing, Material
 from ..model.plies import Ply
 from ..model.units import exact_text
 
@@ -17,6 +17,9 @@ def write_materials(materials: Mapping[str, Material], system: str) -> dict[str,
     """Project materials as file records."""
     out: dict[str, Any] = {}
     for mid, m in materials.items():
+        if m.existing is not None:
+            out[mid] = _existing_record(m, m.existing)
+            continue
         rec: dict[str, Any] = {"kind": m.kind, "name": m.name,
                                "E": exact_text(m.E, "modulus", system),
                                "density": exact_text(m.density, "density", system)}
@@ -37,6 +40,16 @@ def write_materials(materials: Mapping[str, Material], system: str) -> dict[str,
             rec["notes"] = m.notes
         out[mid] = rec
     return out
+
+
+def _existing_record(m: Material, existing: Existing) -> dict[str, Any]:
+    """An existing-timber record: the assumed grade and condition factor, not the values."""
+    rec: dict[str, Any] = {"existing": {"assumed": existing.assumed,
+                                        "condition_factor": existing.condition_factor},
+                           "name": m.name}
+    if m.notes:
+        rec["notes"] = m.notes
+    return rec
 
 
 def write_plies(plies: tuple[Ply, ...], system: str) -> list[dict[str, Any]]:

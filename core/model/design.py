@@ -53,6 +53,37 @@ class Bolt:
 
 
 @dataclass(frozen=True)
+class VibrationSpec:
+    """Floor vibration inputs (the design file's "vibration" object; SI).
+
+    Attributes:
+        spacing: joist spacing s, m: the floor's mass and stiffness per metre width are
+            the member's divided by it.
+        floor_width: b, the floor's width across the joists, m (EN 7.3.3 velocity).
+        damping: modal damping ratio zeta (EN 1995-1-1 7.3.1(5): 0.01).
+        transverse_EI: (EI)_b, the floor's bending stiffness across the joists per metre
+            of length, N m^2/m (EN 7.3.3 velocity).
+        a: EN 1995-1-1 (7.3) limit of w/F, m/N; None for the stated default.
+        b: EN 1995-1-1 (7.4) constant b; None for the stated default.
+        frequency_min: US common-practice minimum frequency, Hz; None for the default.
+        point_load: US common-practice concentrated load, N; None for the default.
+        point_deflection_limit: US common-practice deflection limit under that load, m;
+            None for the default.
+
+    """
+
+    spacing: float
+    floor_width: float | None = None
+    damping: float = 0.01
+    transverse_EI: float | None = None
+    a: float | None = None
+    b: float | None = None
+    frequency_min: float | None = None
+    point_load: float | None = None
+    point_deflection_limit: float | None = None
+
+
+@dataclass(frozen=True)
 class DesignSpec:
     """Design basis and options.
 
@@ -84,6 +115,7 @@ class DesignSpec:
         bolt: for flitch (side-by-side) plies.
         steel_bears: True where steel plies bear on the supports (their own seats).
         en1990_expression: "6.10" or "6.10a/b" (EN 1990 6.4.3.2(3), from memory).
+        vibration: floor vibration inputs; None: no vibration checks.
 
     """
 
@@ -111,6 +143,7 @@ class DesignSpec:
     bolt: Bolt = field(default_factory=Bolt)
     steel_bears: bool = False
     en1990_expression: str = "6.10"
+    vibration: VibrationSpec | None = None
 
     @property
     def us(self) -> bool:

@@ -19,7 +19,7 @@ KINDS = ("timber", "steel", "other")
 
 #: Design-value keys whose values are stresses (or moduli), parsed as stresses.
 STRESS_KEYS = (
-    "Fb", "Ft", "Fv", "Fc", "Fc_perp", "Emin",
+    "Fb", "Fb_neg", "Ft", "Fv", "Fc", "Fc_perp", "Emin",
     "fm_k", "ft0_k", "fv_k", "fc0_k", "fc90_k", "E0_05",
     "Fy", "Fu",
 )
@@ -38,6 +38,24 @@ ALL_KEYS = frozenset(
 
 #: Timber products: sawn lumber, glued laminated timber, laminated veneer lumber.
 PRODUCTS = ("sawn", "glulam", "lvl", "steel", "aluminium", "other")
+#: Strength values an existing-timber condition factor multiplies (not moduli, density,
+#: G or rho_k).
+STRENGTH_KEYS = ("Fb", "Fb_neg", "Ft", "Fv", "Fc", "Fc_perp",
+                 "fm_k", "ft0_k", "fv_k", "fc0_k", "fc90_k")
+#: Keys of an existing-timber record.
+EXISTING_KEYS = ("existing", "name", "notes")
+VERIFY_ON_SITE = "existing timber: verify its grade and condition on site"
+
+
+@dataclass(frozen=True)
+class Existing:
+    """Existing timber of unknown grade, taken as the grade ``assumed`` (a material id)
+    with its strengths times ``condition_factor`` (0 < factor <= 1, the user's judgement).
+    """
+
+    assumed: str
+    condition_factor: float = 1.0
+
 
 @dataclass(frozen=True)
 class Material:
@@ -56,6 +74,8 @@ class Material:
         size_adjusted: True where tabulated values already include size (NDS Table 4B).
         sources: per-value sources where they differ from ``source``.
         notes: free text shown with the record.
+        existing: for existing timber of unknown grade, the assumed grade and condition
+            factor its values come from; None otherwise.
 
     """
 
@@ -70,6 +90,7 @@ class Material:
     size_adjusted: bool = False
     sources: Mapping[str, str] = field(default_factory=dict)
     notes: str = ""
+    existing: Existing | None = None
 
     def value(self, key: str) -> float | None:
         """Return design value ``key`` or None where the record has none."""
@@ -162,3 +183,99 @@ def material_from_record(mid: str, record: Any, path: str) -> tuple[Material | N
 
 def _default_product(kind: Any) -> str:
     return {"timber": "sawn", "steel": "steel"}.get(kind if isinstance(kind, str) else "", "other")
+
+
+def existing_from_record(mid: str, record: dict[str, Any], known: Mapping[str, Material],
+                         path: str) -> tuple[Material | None, list[Problem]]:
+    """Resolve an existing-timber record against the materials it may assume (the library
+    and the project's own ordinary records). Returns (material or None, problems).
+    """
+    problems = [Problem(f"{path}.{key}", "is not a key of an existing-timber record (its "
+                        "values come from the assumed grade); use " + ", ".join(EXISTING_KEYS))
+                for key in record if key not in EXISTING_KEYS]
+    spec = record["existing"]
+    if not isinstance(spec, dict):
+        return None, [*problems, Problem(f"{path}.existing", 'must be an object such as '
+                                         '{"assumed": "DFL-No2", "condition_factor": 0.9}')]
+    for key in spec:
+        if key not in ("assumed", "condition_factor"):
+            problems.append(Problem(f"{path}.existing.{key}", "is not one of assumed, "
+                                    "condition_factor"))
+    grade = spec.get("assumed")
+    assumed = known.get(grade) if isinstance(grade, str) else None
+    if assumed is None or assumed.kind != "timber":
+        problems.append(Problem(f"{path}.existing.assumed", f"{grade!r} is not a known timber "
+                                "grade (the lower-bound grade the existing timber is taken as)"))
+    elif assumed.existing is not None:
+        problems.append(Problem(f"{path}.existing.assumed", f"{grade!r} is itself existing "
+                                "timber; assume a graded material"))
+    k = spec.get("condition_factor", 1.0)
+    if isinstance(k, bool) or not isinstance(k, int | float) or not 0 < k <= 1:
+        problems.append(Problem(f"{path}.existing.condition_factor", f"{k!r} must be a plain "
+                                "number greater than 0 and at most 1"))
+    for key in ("name", "notes"):
+        if key in record and not isinstance(record[key], str):
+            problems.append(Problem(f"{path}.{key}", "must be text"))
+    if problems or assumed is None:
+        return None, problems
+    return existing_material(mid, assumed, float(k), record.get("name"),
+                             str(record.get("notes", ""))), []
+
+
+def existing_material(mid: str, assumed: Material, factor: float, name: str | None = None,
+                      notes: str = "") -> Material:
+    """Existing timber taken as grade ``assumed`` with its strengths times ``factor``."""
+    said = f"condition factor {factor:g} (the user's judgement); {VERIFY_ON_SITE}"
+    values = {key: v * factor if key in STRENGTH_KEYS else v
+              for key, v in assumed.values.items()}
+    sources = {key: f"{assumed.source_of(key)}; assumed grade {assumed.id} of existing timber, "
+               f"times {said}" for key in values if key in STRENGTH_KEYS}
+    return Material(
+        id=mid, name=name if name is not None else default_existing_name(assumed),
+        kind="timber", E=assumed.E, density=assumed.density,
+        source=f"existing timber of unknown grade, assumed {assumed.name} ({assumed.id}: "
+               f"{assumed.source}), strengths times {said}",
+        values=values, product=assumed.product, size_adjusted=assumed.size_adjusted,
+        sources={**assumed.sources, **sources}, notes=notes,
+        existing=Existing(assumed.id, factor))
+
+
+def default_existing_name(assumed: Material) -> str:
+    """The name of an existing-timber material that was given none."""
+    return f"existing, assumed {assumed.name}"
+
+
+#: Order of the groups a material browser lists (basis, then product).
+BASIS_ORDER = ("US", "EU", "US and EU", "any")
+PRODUCT_WORDS = {"sawn": "sawn timber", "glulam": "glued laminated timber",
+                 "lvl": "structural composite lumber (LVL, PSL)", "steel": "steel",
+                 "aluminium": "aluminium", "other": "other"}
+
+
+def basis_of(m: Material) -> str:
+    """The design basis a material's values serve: timber by its values (NDS reference
+    values "US", EN characteristic values "EU"), metals by the standard their source
+    names (ASTM "US", EN "EU"); "any" otherwise.
+    """
+    if m.kind == "timber":
+        us, eu = "Fb" in m.values, "fm_k" in m.values
+        return "US and EU" if us and eu else "US" if us else "EU" if eu else "any"
+    text = f"{m.name} {m.source}"
+    if "ASTM" in text:
+        return "US"
+    if "EN " in text:
+        return "EU"
+    return "any"
+
+
+def grouped(materials: Mapping[str, Material]) -> list[tuple[str, str, list[Material]]]:
+    """Materials in groups (basis, product words, materials by id), in a browser's order."""
+    groups: dict[tuple[str, str], list[Material]] = {}
+    for mid in sorted(materials):
+        m = materials[mid]
+        groups.setdefault((basis_of(m), m.product), []).append(m)
+    products = list(PRODUCT_WORDS)
+    order = sorted(groups, key=lambda k: (BASIS_ORDER.index(k[0]),
+                                          products.index(k[1]) if k[1] in products else 99))
+    return [(basis, PRODUCT_WORDS.get(product, product), groups[(basis, product)])
+            for basis, product in order]

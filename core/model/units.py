@@ -26,6 +26,7 @@ DIMENSIONS: dict[str, str] = {
     "density": "[mass] / [length] ** 3",
     "moment": "[force] * [length]",
     "mass_per_length": "[mass] / [length]",
+    "EI_per_width": "[force] * [length] ** 2 / [length]",
 }
 
 #: Words used in messages for each dimension.
@@ -39,6 +40,7 @@ DIMENSION_WORDS: dict[str, str] = {
     "density": "a density (mass per volume)",
     "moment": "a moment (force times length)",
     "mass_per_length": "a mass per length",
+    "EI_per_width": "a bending stiffness per width (force times length squared per length)",
 }
 
 _EXTRA_DEFINITIONS = (
@@ -175,6 +177,7 @@ _EXAMPLES: dict[str, str] = {
     "density": "490 pcf",
     "moment": "12 kip*ft",
     "mass_per_length": "10 kg/m",
+    "EI_per_width": "1200 kN*m^2/m",
 }
 
 
@@ -201,6 +204,10 @@ DISPLAY: dict[str, dict[str, tuple[str, float]]] = {
         "shear_flow": ("lbf/in", 0.0254 / 4.4482216152605),
         "deflection": ("in", 1 / 0.0254),
         "ratio": ("", 1.0),
+        "EI_per_width": ("lbf*in^2/ft", 0.3048 / (4.4482216152605 * 0.0254**2)),
+        "frequency": ("Hz", 1.0),
+        "compliance": ("in/kip", 4448.2216152605 / 0.0254),
+        "velocity_response": ("m/(N*s^2)", 1.0),
     },
     "SI": {
         "length": ("mm", 1000.0),
@@ -221,6 +228,10 @@ DISPLAY: dict[str, dict[str, tuple[str, float]]] = {
         "shear_flow": ("N/mm", 1e-3),
         "deflection": ("mm", 1000.0),
         "ratio": ("", 1.0),
+        "EI_per_width": ("kN*m^2/m", 1e-3),
+        "frequency": ("Hz", 1.0),
+        "compliance": ("mm/kN", 1e6),
+        "velocity_response": ("m/(N*s^2)", 1.0),
     },
 }
 
@@ -264,12 +275,14 @@ def display_string(value: float, kind: str, system: str, digits: int = 6) -> str
 #: Units used when writing files: the display units of the kinds a file holds.
 FILE_UNITS: dict[str, dict[str, tuple[str, float]]] = {
     system: {kind: table[kind] for kind in ("length", "span", "force", "stress", "modulus",
-                                            "line_load", "area_load", "density")}
+                                            "line_load", "area_load", "density",
+                                            "EI_per_width")}
     for system, table in DISPLAY.items()
 }
 
 _SI_TEXT = {"length": "m", "span": "m", "force": "N", "stress": "Pa", "modulus": "Pa",
-            "line_load": "N/m", "area_load": "Pa", "density": "kg/m^3"}
+            "line_load": "N/m", "area_load": "Pa", "density": "kg/m^3",
+            "EI_per_width": "N*m^2/m"}
 
 
 def exact_text(value: float, kind: str, system: str) -> str:
