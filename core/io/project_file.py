@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import json
 import os
+import re
 import stat
 from collections.abc import Mapping
 from pathlib import Path
@@ -19,7 +20,7 @@ from ..model.materials import Material
 from ..model.project import Alternative, Project
 from .atomic import write_text
 from .library import load_library
-from .project_read import read_beam, read_design, read_material_map, read_plies
+from .project_read import read_beam, read_design, read_material_map, read_plies, shown, unique_names
 from .project_write import write_beam, write_design, write_materials, write_plies
 
 FORMAT = "plystack"
@@ -28,6 +29,86 @@ TOP_KEYS = frozenset({"format", "version", "title", "display_units", "materials"
                       "reference_material", "beam", "design", "info", "alternatives",
                       "current_alternative"})
 INFO_KEYS = ("member", "prepared_by", "checked_by", "date", "revision", "description")
+#: Largest project file read, in bytes (the bundled demos are about 5 kB).
+MAX_FILE_BYTES = 16 * 1024 * 1024
+#: Deepest nesting of JSON objects and lists (a project needs 6).
+MAX_DEPTH = 32
+#: Most digits of a whole number in the JSON text.
+MAX_INT_DIGITS = 30
+#: Most alternatives in one project (each is analysed by ``compare``).
+MAX_ALTERNATIVES = 100
+
+_JSON_TOKEN = re.compile(r'"(?:[^"\\]|\\.)*"|[\[\]{}]')
+
+
+class _JsonLimit(Exception):
+    """A bound of the JSON text was exceeded (turned into a named problem)."""
+
+
+def _json_depth_ok(text: str) -> None:
+    depth = 0
+    for m in _JSON_TOKEN.finditer(text):
+        c = m.group()
+        if c in "[{":
+            depth += 1
+            if depth > MAX_DEPTH:
+                raise _JsonLimit(f"objects and lists are nested more than {MAX_DEPTH} deep "
+                                 f"(line {text.count(chr(10), 0, m.start()) + 1})")
+        elif c in "]}":
+            depth -= 1
+
+
+def _int(text: str) -> int:
+    if len(text.lstrip("-")) > MAX_INT_DIGITS:
+        raise _JsonLimit(f"holds a number of more than {MAX_INT_DIGITS} digits")
+    return int(text)
+
+
+def _object(pairs: list[tuple[str, Any]]) -> dict[str, Any]:
+    out: dict[str, Any] = {}
+    for key, value in pairs:
+        if key in out:
+            raise _JsonLimit(f'the key "{shown(key)[1:-1]}" appears twice in one object; '
+                             "give every key once (every material id, every name)")
+        out[key] = value
+    return out
+
+
+def _text_problems(data: Any) -> list[Problem]:
+    """Nesting deeper than MAX_DEPTH and text that cannot be written as UTF-8 (a lone
+    surrogate such as U+D800), each at its path. Walks without recursion.
+    """
+    problems: list[Problem] = []
+    stack: list[tuple[str, Any, int]] = [("", data, 0)]
+    while stack:
+        path, value, depth = stack.pop()
+        if depth > MAX_DEPTH:
+            problems.append(Problem(path, f"is nested more than {MAX_DEPTH} deep"))
+            continue
+        items: list[tuple[str, Any]] = []
+        if isinstance(value, dict):
+            items = [(f"{path}.{k}" if path else str(k), v) for k, v in value.items()]
+            for k in value:
+                if isinstance(k, str) and not _encodable(k):
+                    problems.append(Problem(path or "(top level)", _SURROGATE))
+        elif isinstance(value, list):
+            items = [(f"{path}[{i}]", v) for i, v in enumerate(value)]
+        elif isinstance(value, str) and not _encodable(value):
+            problems.append(Problem(path, _SURROGATE))
+        stack.extend((p, v, depth + 1) for p, v in reversed(items))
+    return problems
+
+
+_SURROGATE = ("holds a character that cannot be written as UTF-8 (a lone surrogate such "
+              'as "\\ud800"); remove it')
+
+
+def _encodable(text: str) -> bool:
+    try:
+        text.encode("utf-8")
+    except UnicodeEncodeError:
+        return False
+    return True
 
 
 def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Project:
@@ -42,11 +123,14 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
     problems: list[Problem] = []
     if not isinstance(data, dict):
         raise ProjectError(Problem("", "a project file must hold one JSON object"))
+    bad_text = _text_problems(data)
+    if bad_text:
+        raise ProjectError(bad_text)
     for key in data:
         if key not in TOP_KEYS:
             problems.append(Problem(key, "is not a known key of a project file"))
     if data.get("format") != FORMAT:
-        problems.append(Problem("format", f'must be "{FORMAT}" (got {data.get("format")!r})'))
+        problems.append(Problem("format", f'must be "{FORMAT}" (got {shown(data.get("format"))})'))
     version = data.get("version")
     if isinstance(version, bool) or not isinstance(version, int):
         problems.append(Problem("version", "must be a whole number"))
@@ -70,7 +154,7 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
     plies = read_plies(data.get("plies", []), "plies", known, problems)
     ref = data.get("reference_material")
     if ref is not None and (not isinstance(ref, str) or ref not in known):
-        problems.append(Problem("reference_material", f"{ref!r} is not a known material"))
+        problems.append(Problem("reference_material", f"{shown(ref)} is not a known material"))
         ref = None
     beam_spec = None
     if "beam" in data:
@@ -95,6 +179,9 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
     raw_alt = data.get("alternatives", [])
     if not isinstance(raw_alt, list):
         problems.append(Problem("alternatives", "must be a list"))
+    elif len(raw_alt) > MAX_ALTERNATIVES:
+        problems.append(Problem("alternatives", f"has {len(raw_alt)} alternatives; at most "
+                                f"{MAX_ALTERNATIVES}"))
     else:
         for i, alt in enumerate(raw_alt):
             p = f"alternatives[{i}]"
@@ -116,6 +203,24 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
                    reference_material=ref, beam=beam_spec, design=design, info=info,
                    alternatives=tuple(alternatives), current_alternative=current,
                    library=lib)
+
+
+def name_problems(project: Project) -> list[Problem]:
+    """Names used twice: plies (in the design and in each alternative), alternatives and
+    combinations. The file reader accepts them (the desktop program can make them while
+    editing, and must open what it saved); commands that pick a ply, an alternative or a
+    combination by name refuse them, since the name would be ambiguous.
+    """
+    problems: list[Problem] = []
+    unique_names([p.name for p in project.plies], "plies", "ply", problems)
+    for i, alt in enumerate(project.alternatives):
+        unique_names([p.name for p in alt.plies], f"alternatives[{i}].plies", "ply", problems)
+    unique_names([a.name for a in project.alternatives], "alternatives", "alternative",
+                 problems)
+    combos = project.beam.combinations if project.beam is not None else None
+    if isinstance(combos, tuple):
+        unique_names([c.name for c in combos], "beam.combinations", "combination", problems)
+    return problems
 
 
 def to_dict(project: Project) -> dict[str, Any]:
@@ -144,10 +249,15 @@ def to_dict(project: Project) -> dict[str, Any]:
 def loads(text: str) -> Project:
     """Parse a project from JSON text."""
     try:
-        data = json.loads(text)
+        _json_depth_ok(text)
+        data = json.loads(text, object_pairs_hook=_object, parse_int=_int)
     except json.JSONDecodeError as exc:
         raise ProjectError(Problem("", f"not valid JSON: {exc.msg} at line {exc.lineno}, "
                                    f"column {exc.colno}")) from None
+    except _JsonLimit as exc:
+        raise ProjectError(Problem("", f"the file cannot be read: {exc}")) from None
+    except (ValueError, RecursionError):
+        raise ProjectError(Problem("", "not valid JSON: a value cannot be read")) from None
     return from_dict(data)
 
 
@@ -162,6 +272,10 @@ def load(path: str | os.PathLike[str]) -> Project:
         if not stat.S_ISREG(info.st_mode):
             kind = "a folder" if stat.S_ISDIR(info.st_mode) else "not a regular file"
             raise ProjectError(Problem("", f"cannot read {os.fspath(path)}: it is {kind}"))
+        if info.st_size > MAX_FILE_BYTES:
+            raise ProjectError(Problem("", f"cannot read {os.fspath(path)}: it is larger than "
+                                       f"{MAX_FILE_BYTES // (1024 * 1024)} MB, more than a "
+                                       "project file holds"))
         text = Path(path).read_text(encoding="utf-8")
     except OSError as exc:
         raise ProjectError(Problem("", f"cannot read {os.fspath(path)}: "
@@ -180,5 +294,14 @@ def dumps(project: Project) -> str:
 def save(project: Project, path: str | os.PathLike[str]) -> None:
     """Write a project atomically (temporary file in the same folder, then rename),
     through a symbolic link to its target, keeping the file's permission bits.
+
+    Raises:
+        ProjectError: text that cannot be written as UTF-8, naming its field (nothing is
+            written); or a target that is a folder, FIFO or device.
+
     """
-    write_text(path, dumps(project), "file")
+    data = to_dict(project)
+    bad_text = _text_problems(data)
+    if bad_text:
+        raise ProjectError(bad_text)
+    write_text(path, json.dumps(data, indent=2, ensure_ascii=False) + "\n", "file")

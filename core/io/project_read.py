@@ -2,7 +2,8 @@
 
 from __future__ import annotations
 
-from collections.abc import Mapping
+import math
+from collections.abc import Mapping, Sequence
 from typing import TYPE_CHECKING, Any
 
 from ..model import units
@@ -12,6 +13,7 @@ from ..model.errors import Problem
 from ..model.materials import Material, material_from_record
 from ..model.member import CASES, BeamLayout, Load, validate_layout, validate_load
 from ..model.plies import Ply, validate_ply
+from ..pipeline import MAX_PLIES
 
 if TYPE_CHECKING:
     from ..model.member import BeamSpec
@@ -24,6 +26,49 @@ DESIGN_KEYS = frozenset({"basis", "wet_service", "temperature", "repetitive_memb
                          "compression_edge_braced", "unbraced_length", "deflection_limits",
                          "K_cr", "k_def", "steel_rule", "service_class", "psi", "overrides",
                          "connector", "bolt", "steel_bears"})
+
+
+#: Where the trade has a range for a bolt diameter: the NDS 2018 12.3 yield limit
+#: equations with the Table 12.3.1B reduction terms hold for bolts 1/4 in <= D <= 1 in;
+#: EN 1995-1-1 8.5.1.1 gives the embedment strength (8.32) for bolts up to 30 mm, and
+#: 8.6(3) asks dowels for more than 6 mm (both from memory). Per basis, (min, max) in m.
+BOLT_DIAMETERS = {"US-ASD": (0.25 * 0.0254, 1.0 * 0.0254), "EU-LSD": (0.006, 0.030)}
+#: Load factors of a combination: from 0 to 10 (ASCE 7-16 2.4 and EN 1990 Table A1.2
+#: use at most 1.6; the bound only keeps the analysis finite).
+FACTOR_RANGE = (0.0, 10.0)
+
+
+def shown(raw: Any) -> str:
+    """A value as quoted in a message: short, whatever its type or size."""
+    if isinstance(raw, dict):
+        return "an object"
+    if isinstance(raw, list):
+        return "a list"
+    if isinstance(raw, int) and not isinstance(raw, bool) and raw.bit_length() > 64:
+        return "a very large number"
+    if isinstance(raw, float) and not math.isfinite(raw):
+        return "NaN" if raw != raw else ("Infinity" if raw > 0 else "-Infinity")
+    text = repr(raw)
+    return text if len(text) <= 40 else text[:37] + "..."
+
+
+def _text(raw: Any, path: str, problems: list[Problem], what: str = "text") -> str | None:
+    """A string (None, with a problem, otherwise)."""
+    if not isinstance(raw, str):
+        problems.append(Problem(path, f"{shown(raw)} must be {what}"))
+        return None
+    return raw
+
+
+def unique_names(names: Sequence[str], path: str, what: str, problems: list[Problem]
+                 ) -> None:
+    """One problem per name used twice (``path[i].name``)."""
+    seen: set[str] = set()
+    for i, name in enumerate(names):
+        if name in seen:
+            problems.append(Problem(f"{path}[{i}].name", f'"{name}" is the name of an earlier '
+                                    f"{what}; every {what} needs its own name"))
+        seen.add(name)
 
 
 def _quantity(raw: Any, dimension: str, path: str, problems: list[Problem]) -> float | None:
@@ -44,15 +89,23 @@ def _positive(raw: Any, dimension: str, path: str, problems: list[Problem]) -> f
 
 
 def _number(raw: Any, path: str, problems: list[Problem], lo: float | None = None,
-            hi: float | None = None) -> float | None:
+            hi: float | None = None, whole: bool = False) -> float | None:
+    """A finite plain number within [lo, hi]; ``whole``: a whole number (a count)."""
     if isinstance(raw, bool) or not isinstance(raw, int | float):
-        problems.append(Problem(path, f"{raw!r} must be a plain number"))
+        problems.append(Problem(path, f"{shown(raw)} must be a plain number"))
         return None
-    v = float(raw)
-    if v != v or (lo is not None and v < lo) or (hi is not None and v > hi):
+    try:
+        v = float(raw)
+    except OverflowError:
+        v = math.inf
+    if not math.isfinite(v) or (lo is not None and v < lo) or (hi is not None and v > hi):
         rng = f" between {lo:g} and {hi:g}" if lo is not None and hi is not None else (
-            f" of at least {lo:g}" if lo is not None else "")
-        problems.append(Problem(path, f"{raw!r} must be a number{rng}"))
+            f" of at least {lo:g}" if lo is not None else " (finite)")
+        word = "a whole number" if whole else "a number"
+        problems.append(Problem(path, f"{shown(raw)} must be {word}{rng}"))
+        return None
+    if whole and not v.is_integer():
+        problems.append(Problem(path, f"{shown(raw)} must be a whole number (a count)"))
         return None
     return v
 
@@ -84,6 +137,10 @@ def read_plies(raw: Any, path: str, known: Mapping[str, Material],
     if not isinstance(raw, list):
         problems.append(Problem(path, "must be a list of plies"))
         return ()
+    if len(raw) > MAX_PLIES:
+        problems.append(Problem(path, f"has {len(raw)} plies; Plystack analyses at most "
+                                f"{MAX_PLIES}"))
+        return ()
     out = []
     for i, rec in enumerate(raw):
         p = f"{path}[{i}]"
@@ -103,8 +160,8 @@ def read_plies(raw: Any, path: str, known: Mapping[str, Material],
             problems.append(Problem(f"{p}.name", "must be text"))
         mat = rec.get("material")
         if "material" in rec and (not isinstance(mat, str) or mat not in known):
-            problems.append(Problem(f"{p}.material", f"{mat!r} is not a known material (not "
-                                    "in the project's materials nor the library)"))
+            problems.append(Problem(f"{p}.material", f"{shown(mat)} is not a known material "
+                                    "(not in the project's materials nor the library)"))
         dims = {k: _quantity(rec[k], "length", f"{p}.{k}", problems)
                 for k in ("x", "y", "width", "height") if k in rec}
         if len(problems) > before:
@@ -187,12 +244,13 @@ def _read_loads(raw: Any, path: str, layout: BeamLayout,
                 problems.append(Problem(f"{p}.{key}", "is not a known key of a load"))
         case = rec.get("case")
         if case not in CASES:
-            problems.append(Problem(f"{p}.case", f"{case!r} is not a load case; use one of "
+            problems.append(Problem(f"{p}.case", f"{shown(case)} is not a load case; use one of "
                                     + ", ".join(CASES)))
         typ = rec.get("type")
         dims = {"area": "area_load", "line": "line_load", "point": "force"}
-        if typ not in dims:
-            problems.append(Problem(f"{p}.type", f"{typ!r} is not one of area, line, point"))
+        if not isinstance(typ, str) or typ not in dims:
+            problems.append(Problem(f"{p}.type", f"{shown(typ)} is not one of area, line, "
+                                    "point"))
             continue
         if "value" not in rec:
             problems.append(Problem(f"{p}.value", "is missing"))
@@ -204,7 +262,7 @@ def _read_loads(raw: Any, path: str, layout: BeamLayout,
                 problems.append(Problem(f"{p}.tributary_width", "is missing (an area load "
                                         "needs the width it is collected from)"))
             else:
-                trib = _quantity(rec["tributary_width"], "length", f"{p}.tributary_width",
+                trib = _positive(rec["tributary_width"], "length", f"{p}.tributary_width",
                                  problems)
         elif "tributary_width" in rec:
             problems.append(Problem(f"{p}.tributary_width", "only applies to area loads"))
@@ -272,12 +330,13 @@ def read_combinations(raw: Any, path: str,
                 problems.append(Problem(f"{p}.factors.{case}", "is not a load case; use one of "
                                         + ", ".join(CASES)))
                 continue
-            v = _number(f, f"{p}.factors.{case}", problems)
+            v = _number(f, f"{p}.factors.{case}", problems, *FACTOR_RANGE)
             if v is not None:
                 fs[case] = v
         duration = rec.get("duration")
         if duration is not None and duration not in US_DURATIONS + EU_DURATIONS:
-            problems.append(Problem(f"{p}.duration", f"{duration!r} is not a load duration; use "
+            problems.append(Problem(f"{p}.duration", f"{shown(duration)} is not a load duration; "
+                                    "use "
                                     "one of " + ", ".join(US_DURATIONS + EU_DURATIONS)))
             duration = None
         out.append(Combination(name, fs, duration, "custom"))
@@ -295,7 +354,8 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
             problems.append(Problem(f"{path}.{key}", "is not a known key of the design"))
     basis = raw.get("basis", "US-ASD")
     if basis not in BASES:
-        problems.append(Problem(f"{path}.basis", f"{basis!r} must be one of " + ", ".join(BASES)))
+        problems.append(Problem(f"{path}.basis", f"{shown(basis)} must be one of "
+                                + ", ".join(BASES)))
     kw: dict[str, Any] = {"basis": basis}
     for key in ("wet_service", "repetitive_member", "incised", "compression_edge_braced",
                 "steel_bears"):
@@ -323,7 +383,7 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
     if "k_def" in raw:
         kw["k_def"] = _number(raw["k_def"], f"{path}.k_def", problems, 0.0, 5.0)
     if "unbraced_length" in raw:
-        kw["unbraced_length"] = _quantity(raw["unbraced_length"], "length",
+        kw["unbraced_length"] = _positive(raw["unbraced_length"], "length",
                                           f"{path}.unbraced_length", problems)
     limits = raw.get("deflection_limits", {})
     if not isinstance(limits, dict):
@@ -383,7 +443,7 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
                      if "allowable" in c else None)
             spacing = (_positive(c["spacing"], "length", f"{path}.connector.spacing", problems)
                        if "spacing" in c else None)
-            rows = _number(c.get("rows", 1), f"{path}.connector.rows", problems, 1, 20)
+            rows = _number(c.get("rows", 1), f"{path}.connector.rows", problems, 1, 20, True)
             if rows is not None:
                 kw["connector"] = Connector(str(typ), allow, int(rows), spacing)
     if "bolt" in raw:
@@ -394,11 +454,11 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
             for key in b:
                 if key not in ("diameter", "Fyb", "rows", "fu", "spacing"):
                     problems.append(Problem(f"{path}.bolt.{key}", "is not a known key"))
-            dia = _positive(b.get("diameter", "1/2 in"), "length", f"{path}.bolt.diameter",
-                            problems)
-            fyb = _quantity(b.get("Fyb", "45000 psi"), "stress", f"{path}.bolt.Fyb", problems)
-            fu = _quantity(b.get("fu", "400 MPa"), "stress", f"{path}.bolt.fu", problems)
-            rows = _number(b.get("rows", 2), f"{path}.bolt.rows", problems, 1, 20)
+            dia = _bolt_diameter(b.get("diameter", "1/2 in"), basis, f"{path}.bolt.diameter",
+                                 problems)
+            fyb = _positive(b.get("Fyb", "45000 psi"), "stress", f"{path}.bolt.Fyb", problems)
+            fu = _positive(b.get("fu", "400 MPa"), "stress", f"{path}.bolt.fu", problems)
+            rows = _number(b.get("rows", 2), f"{path}.bolt.rows", problems, 1, 20, True)
             bsp = (_positive(b["spacing"], "length", f"{path}.bolt.spacing", problems)
                    if "spacing" in b else None)
             if dia is not None and fyb is not None and rows is not None and fu is not None:
@@ -406,3 +466,19 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
     if len(problems) > before:
         return None
     return DesignSpec(**kw)
+
+
+def _bolt_diameter(raw: Any, basis: Any, path: str, problems: list[Problem]) -> float | None:
+    """A bolt diameter within the range of the basis's dowel equations (BOLT_DIAMETERS)."""
+    d = _positive(raw, "length", path, problems)
+    if d is None or not isinstance(basis, str) or basis not in BOLT_DIAMETERS:
+        return d
+    lo, hi = BOLT_DIAMETERS[basis]
+    if not lo * (1 - 1e-9) <= d <= hi * (1 + 1e-9):
+        words = ("1/4 in to 1 in (NDS 2018 12.3, Table 12.3.1B)" if basis == "US-ASD"
+                 else "6 mm to 30 mm (EN 1995-1-1 8.5.1.1 and 8.6)")
+        size = f"{d / 0.0254:.4g} in" if basis == "US-ASD" else f"{d * 1000:.4g} mm"
+        problems.append(Problem(path, f"{size} is outside the bolt diameters the equations "
+                                f"hold for: {words}"))
+        return None
+    return d

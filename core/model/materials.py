@@ -56,6 +56,7 @@ class Material:
         size_adjusted: True where tabulated values already include size (NDS Table 4B).
         sources: per-value sources where they differ from ``source``.
         notes: free text shown with the record.
+        grade_rule: the grading rule the values belong to (text), kept for the file.
 
     """
 
@@ -70,6 +71,7 @@ class Material:
     size_adjusted: bool = False
     sources: Mapping[str, str] = field(default_factory=dict)
     notes: str = ""
+    grade_rule: str = ""
 
     def value(self, key: str) -> float | None:
         """Return design value ``key`` or None where the record has none."""
@@ -155,6 +157,7 @@ def material_from_record(mid: str, record: Any, path: str) -> tuple[Material | N
             size_adjusted=bool(size_adjusted),
             sources=dict(sources),
             notes=str(record.get("notes", "")),
+            grade_rule=str(record.get("grade_rule", "")),
         ),
         [],
     )
