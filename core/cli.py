@@ -7,7 +7,6 @@ function that opens the desktop program.
 from __future__ import annotations
 
 import argparse
-import json
 import sys
 import warnings
 from collections.abc import Callable
@@ -86,12 +85,9 @@ def _fail(messages: list[str]) -> int:
 
 def _print_json(value: Any) -> None:
     """Print strict JSON: NaN or Infinity anywhere is a named problem, never printed."""
-    try:
-        text = json.dumps(value, indent=1, allow_nan=False)
-    except ValueError:
-        raise ProjectError(Problem("", "the results hold a number that is not finite; "
-                                   "nothing is printed")) from None
-    print(text)
+    from .io.output import dumps
+
+    print(dumps(value))
 
 
 def _load(path: str) -> Project:
