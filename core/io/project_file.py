@@ -11,7 +11,7 @@ import json
 import os
 import re
 import stat
-from collections.abc import Mapping
+from collections.abc import Mapping, Sequence
 from pathlib import Path
 from typing import Any
 
@@ -20,7 +20,7 @@ from ..model.materials import Material
 from ..model.project import Alternative, Project
 from .atomic import write_text
 from .library import load_library
-from .project_read import read_beam, read_design, read_material_map, read_plies, shown, unique_names
+from .project_read import read_beam, read_design, read_material_map, read_plies, shown
 from .project_write import write_beam, write_design, write_materials, write_plies
 
 FORMAT = "plystack"
@@ -203,6 +203,17 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
                    reference_material=ref, beam=beam_spec, design=design, info=info,
                    alternatives=tuple(alternatives), current_alternative=current,
                    library=lib)
+
+
+def unique_names(names: Sequence[str], path: str, what: str, problems: list[Problem]
+                 ) -> None:
+    """One problem per name used twice (``path[i].name``)."""
+    seen: set[str] = set()
+    for i, name in enumerate(names):
+        if name in seen:
+            problems.append(Problem(f"{path}[{i}].name", f"{shown(name)} is the name of an "
+                                    f"earlier {what}; every {what} needs its own name"))
+        seen.add(name)
 
 
 def name_problems(project: Project) -> list[Problem]:

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 import math
-from collections.abc import Mapping, Sequence
+from collections.abc import Mapping
 from typing import TYPE_CHECKING, Any
 
 from ..model import units
@@ -50,25 +50,6 @@ def shown(raw: Any) -> str:
         return "NaN" if raw != raw else ("Infinity" if raw > 0 else "-Infinity")
     text = repr(raw)
     return text if len(text) <= 40 else text[:37] + "..."
-
-
-def _text(raw: Any, path: str, problems: list[Problem], what: str = "text") -> str | None:
-    """A string (None, with a problem, otherwise)."""
-    if not isinstance(raw, str):
-        problems.append(Problem(path, f"{shown(raw)} must be {what}"))
-        return None
-    return raw
-
-
-def unique_names(names: Sequence[str], path: str, what: str, problems: list[Problem]
-                 ) -> None:
-    """One problem per name used twice (``path[i].name``)."""
-    seen: set[str] = set()
-    for i, name in enumerate(names):
-        if name in seen:
-            problems.append(Problem(f"{path}[{i}].name", f'"{name}" is the name of an earlier '
-                                    f"{what}; every {what} needs its own name"))
-        seen.add(name)
 
 
 def _quantity(raw: Any, dimension: str, path: str, problems: list[Problem]) -> float | None:

@@ -66,8 +66,10 @@ CASES = [
     ("us-bolt-rows-fractional.plystack.json",  # 17
      "design.bolt.rows: 1.9 must be a whole number (a count)"),
     ("duplicate-ply-names.plystack.json",  # 17
-     'plies[2].name: "left 2x10" is the name of an earlier ply'),
+     "plies[2].name: 'left 2x10' is the name of an earlier ply"),
     ("ply-x-1e308-in.plystack.json", 'plies[2].x: "1e308 in" is out of range'),  # 18
+    ("span-1e-9-m-singular.plystack.json",  # 9 (LinAlgError), 18 (numpy warnings)
+     "beam: the analysis cannot be completed for these inputs: the beam's equations"),
 ]
 
 
@@ -95,7 +97,8 @@ def test_hostile_file_named_problem_exit_2(name, expected, command, capsys, tmp_
 
 
 def test_every_hostile_file_is_tested():
-    named = {name for name, _ in CASES} | {"grade-rule-and-current-alternative.plystack.json"}
+    named = {name for name, _ in CASES} | {"grade-rule-and-current-alternative.plystack.json",
+                                           "modulus-1e-300-pa-overflow.plystack.json"}
     assert {p.name for p in HOSTILE.iterdir()} == named
 
 
@@ -318,3 +321,25 @@ def test_singular_beam_stops_with_a_named_problem():
 
     with pytest.raises(ProjectError, match="the analysis cannot be completed for these inputs"):
         run(from_dict(data))
+
+
+@pytest.mark.parametrize("name,code", [("span-1e-9-m-singular.plystack.json", 2),
+                                       ("modulus-1e-300-pa-overflow.plystack.json", 0)])
+def test_numpy_warnings_never_printed(name, code):
+    """Both inputs make numpy warn (divide by zero, overflow) inside the analysis; with
+    every warning shown (-W always) nothing but the named problem reaches stderr.
+    """
+    import subprocess
+    import sys
+
+    r = subprocess.run([sys.executable, "-W", "always", "-m", "plystack.core.cli", "check",
+                        str(HOSTILE / name), "--json"], capture_output=True, text=True,
+                       timeout=120)
+    assert r.returncode == code, r.stderr
+    assert "Warning" not in r.stderr
+    if code == 0:
+        assert r.stderr == ""
+        json.loads(r.stdout, parse_constant=lambda token: pytest.fail(token))
+    else:
+        assert r.stdout == ""
+        assert r.stderr.count("\n") == 1
