@@ -27,10 +27,11 @@ from .model.project import Project
 from .section.transformed import Section, analyse
 
 #: Most plies analysed at once, far more than any built-up member has. The checks of
-#: side-by-side plies grow with the cube of their number: 1,000 such plies took more
-#: than 300 s, 400 about 64 s and 200 about 3.4 s (one run each, one desktop core), so
-#: the bound is 200 until that growth is removed.
-MAX_PLIES = 200
+#: side-by-side plies grow with the cube of their number (one run each, one desktop
+#: core): 1,000 such plies took more than 300 s, 400 about 64 s, 200 about 3.4 s and 100
+#: about 0.44 s for one analysis; ``span`` (a search over many analyses) about 25 s at
+#: 100. So the bound is 100 until that growth is removed.
+MAX_PLIES = 100
 
 
 @dataclass(frozen=True, eq=False)

@@ -57,12 +57,27 @@ def write_bytes(path: str | os.PathLike[str], data: bytes, field: str = "output"
         os.chmod(tmp, mode)
         _keep_owner(tmp, owner)
         os.replace(tmp, target)
+        _sync_folder(folder)
     except BaseException:
         try:
             os.unlink(tmp)
         except OSError:
             pass
         raise
+
+
+def _sync_folder(folder: Path) -> None:
+    """Flush the rename to disk where the system allows opening a folder (POSIX)."""
+    try:
+        fd = os.open(folder, os.O_RDONLY)
+    except OSError:
+        return
+    try:
+        os.fsync(fd)
+    except OSError:
+        pass
+    finally:
+        os.close(fd)
 
 
 def _keep_owner(tmp: str, owner: tuple[int, int] | None) -> None:

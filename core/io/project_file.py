@@ -37,6 +37,8 @@ MAX_DEPTH = 32
 MAX_INT_DIGITS = 30
 #: Most alternatives in one project (each is analysed by ``compare``).
 MAX_ALTERNATIVES = 100
+#: Most plies in one file, the design's and every alternative's together.
+MAX_TOTAL_PLIES = 1000
 
 _JSON_TOKEN = re.compile(r'"(?:[^"\\]|\\.)*"|[\[\]{}]')
 
@@ -103,6 +105,14 @@ _SURROGATE = ("holds a character that cannot be written as UTF-8 (a lone surroga
               'as "\\ud800"); remove it')
 
 
+def _ply_count(data: dict[str, Any]) -> int:
+    lists = [data.get("plies")]
+    alternatives = data.get("alternatives")
+    if isinstance(alternatives, list):
+        lists += [a.get("plies") for a in alternatives if isinstance(a, dict)]
+    return sum(len(p) for p in lists if isinstance(p, list))
+
+
 def _encodable(text: str) -> bool:
     try:
         text.encode("utf-8")
@@ -126,6 +136,10 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
     bad_text = _text_problems(data)
     if bad_text:
         raise ProjectError(bad_text)
+    total = _ply_count(data)
+    if total > MAX_TOTAL_PLIES:
+        raise ProjectError(Problem("plies", f"the design and its alternatives hold {total} "
+                                   f"plies; a project file holds at most {MAX_TOTAL_PLIES}"))
     for key in data:
         if key not in TOP_KEYS:
             problems.append(Problem(key, "is not a known key of a project file"))

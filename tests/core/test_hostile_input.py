@@ -343,3 +343,27 @@ def test_numpy_warnings_never_printed(name, code):
     else:
         assert r.stdout == ""
         assert r.stderr.count("\n") == 1
+
+
+def test_total_plies_of_a_file_bounded():
+    data = json.loads((HOSTILE / "plies-1000-side-by-side.plystack.json").read_text())
+    plies = data["plies"][:MAX_PLIES]
+    data["plies"] = plies
+    data["alternatives"] = [{"name": f"a{i}", "plies": plies} for i in range(10)]
+    start = time.monotonic()
+    msgs = _problems(json.dumps(data))
+    assert time.monotonic() - start < FAST
+    assert msgs == [f"plies: the design and its alternatives hold {11 * MAX_PLIES} plies; a "
+                    "project file holds at most 1000"]
+
+
+def test_the_most_plies_allowed_are_analysed_without_hanging(capsys):
+    """MAX_PLIES side-by-side plies (the worst case of the cubic checks) finish; the bound
+    is generous for a slow machine (about 0.5 s on a desktop).
+    """
+    data = json.loads((HOSTILE / "plies-1000-side-by-side.plystack.json").read_text())
+    data["plies"] = data["plies"][:MAX_PLIES]
+    start = time.monotonic()
+    analysis = run(loads(json.dumps(data)))
+    assert time.monotonic() - start < 30
+    assert len(analysis.section.plies) == MAX_PLIES

@@ -141,7 +141,7 @@ def projects(draw: st.DrawFn) -> Project:
         current_alternative=draw(st.none() | words))
 
 
-@settings(max_examples=150, deadline=None, suppress_health_check=[HealthCheck.too_slow],
+@settings(max_examples=100, deadline=None, suppress_health_check=[HealthCheck.too_slow],
           derandomize=True)
 @given(projects())
 def test_load_of_save_is_the_same_project(project):
@@ -161,7 +161,7 @@ def _quantities(data):
                     if k in load)
 
 
-@settings(max_examples=60, deadline=None, suppress_health_check=[HealthCheck.too_slow],
+@settings(max_examples=30, deadline=None, suppress_health_check=[HealthCheck.too_slow],
           derandomize=True)
 @given(projects())
 def test_quantity_text_is_short(project):
