@@ -105,6 +105,17 @@ _SURROGATE = ("holds a character that cannot be written as UTF-8 (a lone surroga
               'as "\\ud800"); remove it')
 
 
+def _refuse_hostile(data: dict[str, Any]) -> None:
+    """Nesting, text and size that would make reading or analysing fail or hang."""
+    bad_text = _text_problems(data)
+    if bad_text:
+        raise ProjectError(bad_text)
+    total = _ply_count(data)
+    if total > MAX_TOTAL_PLIES:
+        raise ProjectError(Problem("plies", f"the design and its alternatives hold {total} "
+                                   f"plies; a project file holds at most {MAX_TOTAL_PLIES}"))
+
+
 def _ply_count(data: dict[str, Any]) -> int:
     lists = [data.get("plies")]
     alternatives = data.get("alternatives")
@@ -133,13 +144,7 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
     problems: list[Problem] = []
     if not isinstance(data, dict):
         raise ProjectError(Problem("", "a project file must hold one JSON object"))
-    bad_text = _text_problems(data)
-    if bad_text:
-        raise ProjectError(bad_text)
-    total = _ply_count(data)
-    if total > MAX_TOTAL_PLIES:
-        raise ProjectError(Problem("plies", f"the design and its alternatives hold {total} "
-                                   f"plies; a project file holds at most {MAX_TOTAL_PLIES}"))
+    _refuse_hostile(data)
     for key in data:
         if key not in TOP_KEYS:
             problems.append(Problem(key, "is not a known key of a project file"))
