@@ -367,3 +367,37 @@ def test_the_most_plies_allowed_are_analysed_without_hanging(capsys):
     analysis = run(loads(json.dumps(data)))
     assert time.monotonic() - start < 30
     assert len(analysis.section.plies) == MAX_PLIES
+
+
+EU_DEMO = DEMO.parent / "stair-trimmer-eu.plystack.json"
+
+
+@pytest.mark.parametrize("demo,change,expected", [
+    (EU_DEMO, {"diameter": 0.1}, "a division by zero"),
+    (EU_DEMO, {"diameter": 1.0}, "an equation is used outside its range"),
+    (EU_DEMO, {"fu": -400e6}, "an equation is used outside its range"),
+    (DEMO, {"Fyb": -310e6}, "an equation is used outside its range"),
+    (DEMO, {"diameter": 1e306}, "a number grows too large"),
+])
+def test_pipeline_names_faults_of_projects_built_in_memory(demo, change, expected):
+    """The desktop program builds projects without the file reader: the pipeline turns
+    the arithmetic faults of out-of-range bolts into a named problem.
+    """
+    from dataclasses import replace
+
+    p = load(demo)
+    d = p.design_or_default()
+    p = replace(p, design=replace(d, bolt=replace(d.bolt, **change)))
+    with pytest.raises(ProjectError, match=expected) as info:
+        run(p)
+    assert str(info.value).startswith("the analysis cannot be completed for these inputs")
+
+
+def test_negative_capacity_is_a_named_problem():
+    from dataclasses import replace
+
+    p = load(DEMO)
+    d = p.design_or_default()
+    p = replace(p, design=replace(d, compression_edge_braced=False, unbraced_length=-0.0254))
+    with pytest.raises(ProjectError, match=r"the capacity of the bending check .* is negative"):
+        run(p)
