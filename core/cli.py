@@ -9,14 +9,18 @@ from __future__ import annotations
 import argparse
 import json
 import sys
+import warnings
 from collections.abc import Callable
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from . import __version__
 from .io.resources import DEFAULT_DEMO, DEMOS, DataFileError, demo_text
 from .model.caution import CAUTION
-from .model.errors import ProjectError
+from .model.errors import Problem, ProjectError
 from .model.units import UnitError
+
+if TYPE_CHECKING:
+    from .model.project import Project
 
 
 class _Parser(argparse.ArgumentParser):
@@ -100,47 +104,82 @@ def _fail(messages: list[str]) -> int:
     return 2
 
 
+def _print_json(value: Any) -> None:
+    """Print strict JSON: NaN or Infinity anywhere is a named problem, never printed."""
+    from .io.output import dumps
+
+    print(dumps(value))
+
+
+def _load(path: str) -> Project:
+    """Read a project for a command: names used twice are refused (they would be
+    ambiguous for --ply, --alternative and the per-ply results).
+    """
+    from .io.project_file import load, name_problems
+
+    project = load(path)
+    problems = name_problems(project)
+    if problems:
+        raise ProjectError(problems)
+    return project
+
+
+def _empty_arguments(args: argparse.Namespace) -> list[str]:
+    """Messages for every argument given as empty text."""
+    out = []
+    for key, value in vars(args).items():
+        if isinstance(value, str) and not value.strip():
+            positional = {"file": "FILE", "output": ("-o/--output" if args.command == "sheet"
+                                                     else "OUT")}
+            name = positional.get(key, f"--{key.replace('_', '-')}")
+            out.append(f"plystack: {name}: is empty; give a value")
+    return out
+
+
 def cmd_check(args: argparse.Namespace) -> int:
     """``plystack check``."""
     from .io.output import check_json, check_text
-    from .io.project_file import load
     from .model import units
     from .pipeline import run
 
-    project = load(args.file)
-    moment = units.parse(args.moment, "moment", "--moment") if args.moment else None
-    shear = units.parse(args.shear, "force", "--shear") if args.shear else None
+    project = _load(args.file)
+    moment = units.parse(args.moment, "moment", "--moment") if args.moment is not None else None
+    shear = units.parse(args.shear, "force", "--shear") if args.shear is not None else None
     analysis = run(project, reference=args.reference)
     if args.json:
-        print(json.dumps(check_json(analysis, moment, shear), indent=1))
+        _print_json(check_json(analysis, moment, shear))
     else:
         sys.stdout.write(check_text(analysis, moment, shear))
     return 0
 
 
 def _values(text: str, field: str) -> list[float]:
+    """Lengths separated by commas, each greater than zero."""
     from .model import units
 
     out = []
     for i, part in enumerate(text.split(",")):
-        out.append(units.parse(part.strip(), "length", f"{field}[{i}]"))
+        value = units.parse(part.strip(), "length", f"{field}[{i}]")
+        if value <= 0:
+            raise ProjectError(Problem(f"{field}[{i}]", f'"{part.strip()}" must be greater '
+                                       "than zero"))
+        out.append(value)
     return out
 
 
 def cmd_compare(args: argparse.Namespace) -> int:
     """``plystack compare``: one object per alternative, keys as ``check --json``."""
     from .io.output import check_json
-    from .io.project_file import load
     from .model.units import fmt
     from .pipeline import run
     from .study.compare import alternatives_with_current, summarise
 
-    project = load(args.file)
+    project = _load(args.file)
     alts = alternatives_with_current(project)
     results = [(alt, run(project.with_plies(alt.plies))) for alt in alts]
     rows = [(alt, a, summarise(a)) for alt, a in results]
     if args.json:
-        print(json.dumps([{"name": alt.name, **check_json(a)} for alt, a, _ in rows], indent=1))
+        _print_json([{"name": alt.name, **check_json(a)} for alt, a, _ in rows])
         return 0
     u = project.display_units
     print(f"{'alternative':<24}{'EI':>18}{'mass/length':>16}{'governs':>22}{'ratio':>8}"
@@ -156,16 +195,15 @@ def cmd_compare(args: argparse.Namespace) -> int:
 
 def cmd_sweep(args: argparse.Namespace) -> int:
     """``plystack sweep``."""
-    from .io.project_file import load
     from .model import units
     from .study.compare import sweep
 
-    project = load(args.file)
+    project = _load(args.file)
     values = _values(args.values, "--values")
     rows = sweep(project, args.ply, args.dimension, values)
     if args.json:
-        print(json.dumps({"units": "SI", "ply": args.ply, "dimension": args.dimension,
-                          "rows": [r.to_dict() for r in rows]}, indent=1))
+        _print_json({"units": "SI", "ply": args.ply, "dimension": args.dimension,
+                     "rows": [r.to_dict() for r in rows]})
         return 0
     u = project.display_units
     print(f"{args.ply}: {args.dimension}")
@@ -184,13 +222,12 @@ def cmd_sweep(args: argparse.Namespace) -> int:
 
 def cmd_size(args: argparse.Namespace) -> int:
     """``plystack size``: exit 1 when no option passes."""
-    from .io.project_file import load
     from .model import units
     from .section.templates import PLATES_SI, PLATES_US
     from .study.compare import auto_size, ply_index
 
-    project = load(args.file)
-    if args.values:
+    project = _load(args.file)
+    if args.values is not None:
         options = _values(args.values, "--values")
     elif args.dimension == "width":
         options = list((PLATES_US if project.display_units == "US" else PLATES_SI).values())
@@ -201,7 +238,7 @@ def cmd_size(args: argparse.Namespace) -> int:
         options = [step * k for k in range(2, int(top / step) + 2)] or [ply.height]
     result = auto_size(project, args.ply, args.dimension, options)
     if args.json:
-        print(json.dumps({"units": "SI", **result.to_dict()}, indent=1))
+        _print_json({"units": "SI", **result.to_dict()})
     else:
         u = project.display_units
         if result.chosen is None:
@@ -220,16 +257,15 @@ def cmd_size(args: argparse.Namespace) -> int:
 
 def cmd_span(args: argparse.Namespace) -> int:
     """``plystack span``."""
-    from .io.project_file import load
     from .model import units
     from .study.compare import longest_span, span_table
 
-    project = load(args.file)
+    project = _load(args.file)
     result = longest_span(project)
     table = (span_table(project, _values(args.tributary_widths, "--tributary-widths"))
-             if args.tributary_widths else [])
+             if args.tributary_widths is not None else [])
     if args.json:
-        print(json.dumps({"units": "SI", **result.to_dict(), "table": table}, indent=1))
+        _print_json({"units": "SI", **result.to_dict(), "table": table})
         return 0
     u = project.display_units
     print(f"Longest span that passes every check: {units.fmt(result.span, 'span', u)} "
@@ -246,12 +282,16 @@ def cmd_span(args: argparse.Namespace) -> int:
 
 def cmd_sheet(args: argparse.Namespace) -> int:
     """``plystack sheet``: refuses (exit 2) a project that cannot be analysed."""
-    from .io.project_file import load
+    from io import BytesIO
+
+    from .io.atomic import write_bytes
     from .report.sheet import build_sheet
 
-    project = load(args.file)
+    project = _load(args.file)
     paper = args.paper or ("letter" if project.display_units == "US" else "a4")
-    pages = build_sheet(project, args.output, paper, args.alternative)
+    buffer = BytesIO()
+    pages = build_sheet(project, buffer, paper, args.alternative)
+    write_bytes(args.output, buffer.getvalue(), "-o/--output")
     print(f"wrote {args.output}: {pages} pages ({paper})")
     return 0
 
@@ -303,7 +343,8 @@ def cmd_schedule(args: argparse.Namespace) -> int:
     for r in results:
         for problem in r.problems:
             print(f"{args.file}: {problem}", file=sys.stderr)
-    text = (json.dumps([result_json(r) for r in results], indent=1) + "\n" if args.json
+    text = (json.dumps([result_json(r) for r in results], indent=1, allow_nan=False) + "\n"
+            if args.json
             else results_csv(results))
     if args.output:
         write_text(args.output, text, "-o")
@@ -342,12 +383,21 @@ def main(argv: list[str] | None = None,
     if not argv:
         argv = ["gui"]
     args = parser.parse_args(argv)
+    for stream in (sys.stdout, sys.stderr):  # text that cannot be encoded is escaped
+        reconfigure = getattr(stream, "reconfigure", None)
+        if reconfigure is not None:
+            reconfigure(errors="backslashreplace")
+    empty = _empty_arguments(args)
+    if empty:
+        return _fail(empty)
     commands = {"check": cmd_check, "compare": cmd_compare, "sweep": cmd_sweep,
                 "size": cmd_size, "span": cmd_span, "sheet": cmd_sheet, "demo": cmd_demo,
                 "schedule": cmd_schedule}
     if args.command in commands:
         try:
-            return commands[args.command](args)
+            with warnings.catch_warnings():
+                warnings.simplefilter("ignore", RuntimeWarning)
+                return commands[args.command](args)
         except DataFileError as exc:  # a fault of the installation, not of the input
             return _fail([f"plystack: {p}" for p in exc.problems])
         except ProjectError as exc:

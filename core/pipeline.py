@@ -8,8 +8,12 @@ sweeps, sizing and the desktop program use it.
 
 from __future__ import annotations
 
-from collections.abc import Mapping, Sequence
+import math
+from collections.abc import Iterator, Mapping, Sequence
+from contextlib import contextmanager
 from dataclasses import dataclass
+
+import numpy as np
 
 from .actions.analysis import BeamResult, PreparedBeam, analyse_beams
 from .design.check import Check
@@ -18,11 +22,18 @@ from .design.material_notes import material_warnings
 from .design.us_asd import us_checks
 from .design.vibration import vibration_checks
 from .model.design import DesignSpec
-from .model.errors import MissingCheck, Problem
+from .model.errors import MissingCheck, Problem, ProjectError
 from .model.materials import Material
 from .model.plies import Ply
 from .model.project import Project
 from .section.transformed import Section, analyse
+
+#: Most plies analysed at once, far more than any built-up member has. The checks of
+#: side-by-side plies grow with the cube of their number (one run each, one desktop
+#: core): 1,000 such plies took more than 300 s, 400 about 64 s, 200 about 3.4 s and 100
+#: about 0.44 s for one analysis; ``span`` (a search over many analyses) about 25 s at
+#: 100. So the bound is 100 until that growth is removed.
+MAX_PLIES = 100
 
 
 @dataclass(frozen=True, eq=False)
@@ -91,8 +102,9 @@ class Evaluator:
         self.project = project
         self.design = project.design_or_default()
         self.materials: Mapping[str, Material] = project.all_materials()
-        self.beam = (PreparedBeam.of(project.beam, self.design) if project.beam is not None
-                     else None)
+        with _guarded():
+            self.beam = (PreparedBeam.of(project.beam, self.design) if project.beam is not None
+                         else None)
 
     def section(self, plies: Sequence[Ply], reference: str | None = None) -> Section:
         """The transformed section of ``plies``."""
@@ -110,11 +122,24 @@ class Evaluator:
     def analyse_many(self, candidates: Sequence[Sequence[Ply]],
                      reference: str | None = None) -> list[Analysis]:
         """Analyses of many ply sets; the beam extremes of all of them in one pass."""
-        sections = [self.section(p, reference) for p in candidates]
+        for plies in candidates:
+            if len(plies) > MAX_PLIES:
+                raise ProjectError(Problem("plies", f"has {len(plies)} plies; Plystack "
+                                           f"analyses at most {MAX_PLIES}"))
+        with _guarded():
+            sections = [self.section(p, reference) for p in candidates]
         return self._finish([tuple(p) for p in candidates], sections)
 
     def _finish(self, candidates: list[tuple[Ply, ...]],
                 sections: list[Section]) -> list[Analysis]:
+        with _guarded():
+            out = self._finish_unguarded(candidates, sections)
+        for a in out:
+            _require_finite(a)
+        return out
+
+    def _finish_unguarded(self, candidates: list[tuple[Ply, ...]],
+                          sections: list[Section]) -> list[Analysis]:
         beams: list[BeamResult | None]
         if self.beam is None:
             beams = [None] * len(sections)
@@ -153,3 +178,71 @@ def run(project: Project, reference: str | None = None) -> Analysis:
 
     """
     return Evaluator(project).analyse(project.plies, reference)
+
+
+_CANNOT = "the analysis cannot be completed for these inputs: "
+
+
+@contextmanager
+def _guarded() -> Iterator[None]:
+    """Numpy warnings silenced (the results are checked instead) and arithmetic faults
+    turned into a named problem.
+    """
+    with np.errstate(all="ignore"):
+        try:
+            yield
+        except np.linalg.LinAlgError:
+            raise ProjectError(Problem("beam", _CANNOT + "the beam's equations cannot be "
+                                       "solved (spans, overhangs or stiffness too far "
+                                       "apart in size)")) from None
+        except ZeroDivisionError:
+            raise ProjectError(Problem("", _CANNOT + "a division by zero (a value at the "
+                                       "edge of its range)")) from None
+        except (OverflowError, FloatingPointError):
+            raise ProjectError(Problem("", _CANNOT + "a number grows too large")) from None
+        except ValueError as exc:
+            if "math domain" not in str(exc):
+                raise
+            raise ProjectError(Problem("", _CANNOT + "an equation is used outside its "
+                                       "range (a negative or zero value where the trade "
+                                       "has none)")) from None
+
+
+def _finite_fields(a: Analysis) -> Iterator[tuple[str, object]]:
+    """(what, value) of every number a result reports."""
+    s = a.section
+    for name in ("EA", "EI", "neutral_axis_y", "I_transformed", "mass_per_length"):
+        yield f"section {name}", getattr(s, name)
+    for name in ("E", "n", "area", "I_na", "y_bottom", "y_top"):
+        yield f"section {name}", getattr(s, name)
+    if a.beam is not None:
+        b = a.beam
+        yield "self-weight", b.self_weight_line
+        yield "long-term EI", b.creep_section.EI
+        for case, sol in b.cases.items():
+            yield f"reactions of case {case}", sol.reactions
+            yield f"reaction moments of case {case}", sol.reaction_moments
+        for c in b.combinations:
+            for e in (c.extremes, c.total, c.long_term, c.short_term_rest):
+                if e is None:
+                    continue
+                for name in ("M_max", "M_min", "V_max_abs", "deflection_max_abs"):
+                    yield f"{name} of {c.name}", getattr(e, name)
+            yield f"reactions of {c.name}", c.solution.reactions
+    for k in a.checks:
+        label = f"{k.id} check ({k.ply or 'member'}, {k.combination})"
+        yield f"demand of the {label}", k.demand
+        yield f"capacity of the {label}", k.capacity
+        for sym, v in {**k.factors, **k.partial_factors}.items():
+            yield f"factor {sym} of the {label}", v
+
+
+def _require_finite(a: Analysis) -> None:
+    """A named problem where any reported number is NaN or infinite."""
+    for what, value in _finite_fields(a):
+        arr = np.asarray(value, dtype=float)
+        if not np.isfinite(arr).all():
+            raise ProjectError(Problem("", _CANNOT + f"the {what} is not a finite number "
+                                       "(check spans, loads, factors and materials)"))
+        if what.startswith("capacity") and math.isfinite(float(arr)) and float(arr) < 0:
+            raise ProjectError(Problem("", _CANNOT + f"the {what} is negative"))

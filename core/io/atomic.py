@@ -2,8 +2,10 @@
 
 The text goes to a temporary file in the target's folder, is flushed to disk, and is
 renamed over the target. A symbolic link is followed, so its target is replaced and
-the link stays; an existing file keeps its permission bits; a new file gets the mode
-the user's umask gives; a FIFO, device or folder is refused rather than replaced.
+the link stays; an existing file keeps its permission bits (and its owner where the
+user may give it, as root may); a new file gets the mode the user's umask gives; a FIFO,
+device or folder is refused rather than replaced. Other hard links of the file keep the
+old text: the name saved to is given a new file.
 """
 
 from __future__ import annotations
@@ -39,8 +41,11 @@ def write_bytes(path: str | os.PathLike[str], data: bytes, field: str = "output"
     """Write ``data`` to ``path`` atomically (see the module's description)."""
     target = _target(path, field)
     folder = target.parent if str(target.parent) else Path(".")
+    owner: tuple[int, int] | None = None
     try:
-        mode = stat.S_IMODE(target.stat().st_mode)
+        info = target.stat()
+        mode = stat.S_IMODE(info.st_mode)
+        owner = (info.st_uid, info.st_gid)
     except FileNotFoundError:
         mode = 0o666 & ~_current_umask()
     fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=str(folder))
@@ -50,13 +55,44 @@ def write_bytes(path: str | os.PathLike[str], data: bytes, field: str = "output"
             fh.flush()
             os.fsync(fh.fileno())
         os.chmod(tmp, mode)
+        _keep_owner(tmp, owner)
         os.replace(tmp, target)
+        _sync_folder(folder)
     except BaseException:
         try:
             os.unlink(tmp)
         except OSError:
             pass
         raise
+
+
+def _sync_folder(folder: Path) -> None:
+    """Flush the rename to disk where the system allows opening a folder (POSIX)."""
+    try:
+        fd = os.open(folder, os.O_RDONLY)
+    except OSError:
+        return
+    try:
+        os.fsync(fd)
+    except OSError:
+        pass
+    finally:
+        os.close(fd)
+
+
+def _keep_owner(tmp: str, owner: tuple[int, int] | None) -> None:
+    """Give the new file the old one's owner and group where they differ and the user may
+    (a save by root keeps the user's ownership; others cannot give files away).
+    """
+    if owner is None or not hasattr(os, "chown"):
+        return
+    info = os.stat(tmp)
+    if (info.st_uid, info.st_gid) == owner:
+        return
+    try:
+        os.chown(tmp, *owner)
+    except OSError:
+        pass
 
 
 def write_text(path: str | os.PathLike[str], text: str, field: str = "output") -> None:

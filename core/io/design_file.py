@@ -9,6 +9,7 @@ from ..model.design import BASES, STEEL_RULES, TEMPERATURES, Bolt, Connector, De
 from ..model.errors import Problem
 from ..model.member import CASES
 from .fields import FieldSpec, read_fields, unknown_keys, write_fields
+from .project_read import BOLT_DIAMETERS
 from .vibration_file import read_vibration, write_vibration
 
 #: Scalar keys of the design object.
@@ -68,11 +69,25 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
     if "bolt" in raw:
         kw["bolt"] = _read_object(raw["bolt"], Bolt(), BOLT_FIELDS, f"{path}.bolt",
                                   "the bolt", problems)
+        _bolt_diameter_in_range(kw["bolt"].diameter, kw.get("basis", "US-ASD"),
+                                f"{path}.bolt.diameter", problems)
     if "vibration" in raw:
         kw["vibration"] = read_vibration(raw["vibration"], f"{path}.vibration", problems)
     if len(problems) > before:
         return None
     return DesignSpec(**kw)
+
+
+def _bolt_diameter_in_range(d: float, basis: str, path: str,
+                            problems: list[Problem]) -> None:
+    """A bolt diameter within the range of the basis's dowel equations (BOLT_DIAMETERS)."""
+    lo, hi = BOLT_DIAMETERS.get(basis, (0.0, float("inf")))
+    if not lo * (1 - 1e-9) <= d <= hi * (1 + 1e-9):
+        words = ("1/4 in to 1 in (NDS 2018 12.3, Table 12.3.1B)" if basis == "US-ASD"
+                 else "6 mm to 30 mm (EN 1995-1-1 8.5.1.1 and 8.6)")
+        size = f"{d / 0.0254:.4g} in" if basis == "US-ASD" else f"{d * 1000:.4g} mm"
+        problems.append(Problem(path, f"{size} is outside the bolt diameters the equations "
+                                f"hold for: {words}"))
 
 
 def _read_object(raw: Any, default: Any, specs: tuple[FieldSpec, ...], path: str, what: str,

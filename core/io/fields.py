@@ -15,6 +15,13 @@ from typing import Any, Literal
 from ..model import units
 from ..model.errors import Problem
 
+
+def shown(raw: Any) -> str:
+    """A value as quoted in a message (see project_read.shown)."""
+    from .project_read import shown as _shown
+
+    return _shown(raw)
+
 Kind = Literal["flag", "choice", "count", "number", "quantity", "positive"]
 
 
@@ -63,7 +70,7 @@ class FieldSpec:
         elif self.kind == "choice":
             if any(raw == c and type(raw) is type(c) for c in self.choices):
                 return True, raw
-            problems.append(Problem(where, f"{raw!r} must be one of "
+            problems.append(Problem(where, f"{shown(raw)} must be one of "
                                     + ", ".join(str(c) for c in self.choices)))
         elif self.kind in ("count", "number"):
             return self._read_number(raw, where, problems)
@@ -83,13 +90,17 @@ class FieldSpec:
         whole = self.kind == "count"
         ok_type = isinstance(raw, int) if whole else isinstance(raw, int | float)
         if isinstance(raw, bool) or not ok_type:
-            word = "a whole number" if whole else "a plain number"
-            problems.append(Problem(where, f"{raw!r} must be {word}{self._range()}"))
+            word = "a whole number (a count)" if whole else "a plain number"
+            problems.append(Problem(where, f"{shown(raw)} must be {word}{self._range()}"))
+            return False, None
+        if whole and abs(raw) > 10**9:
+            problems.append(Problem(where, f"{shown(raw)} must be a number{self._range()}"))
             return False, None
         value = int(raw) if whole else float(raw)
-        if value != value or (self.lo is not None and value < self.lo) or (
+        finite = value == value and value not in (float("inf"), float("-inf"))
+        if not finite or (self.lo is not None and value < self.lo) or (
                 self.hi is not None and value > self.hi):
-            problems.append(Problem(where, f"{raw!r} must be a number{self._range()}"))
+            problems.append(Problem(where, f"{shown(raw)} must be a number{self._range()}"))
             return False, None
         return True, value
 

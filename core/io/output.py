@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import json
 from dataclasses import fields
 from typing import Any
 
@@ -11,6 +12,7 @@ from .. import __version__
 from ..actions.analysis import BeamResult
 from ..actions.beam import Extremes
 from ..model.caution import ASSUMPTIONS, CAUTION, FIRE_NOTE
+from ..model.errors import Problem, ProjectError
 from ..model.units import fmt, sig
 from ..pipeline import Analysis
 from ..section.transformed import PlyResult, Section
@@ -21,6 +23,21 @@ def _f(x: Any) -> Any:
         v = float(x)
         return v if np.isfinite(v) else None
     return x
+
+
+def dumps(value: Any) -> str:
+    """Strict JSON text of an output object (``allow_nan=False``: NaN or Infinity is an
+    error here, never invalid JSON on the screen).
+
+    Raises:
+        ProjectError: a number in ``value`` is not finite.
+
+    """
+    try:
+        return json.dumps(value, indent=1, allow_nan=False)
+    except ValueError:
+        raise ProjectError(Problem("", "the results hold a number that is not finite; "
+                                   "nothing is printed")) from None
 
 
 def section_dict(section: Section) -> dict[str, Any]:
@@ -170,7 +187,7 @@ def check_json(a: Analysis, moment: float | None = None, shear: float | None = N
         out["checks"] = [c.to_dict() for c in a.checks]
         gov = max(a.checks, key=lambda c: c.ratio)
         out["governing"] = {"id": gov.id, "ply": gov.ply, "combination": gov.combination,
-                            "ratio": gov.ratio, "ok": all(c.ok for c in a.checks)}
+                            "ratio": _f(gov.ratio), "ok": all(c.ok for c in a.checks)}
         out["caution"] = CAUTION
     out["verdict"] = a.verdict
     out["ok"] = a.verdict == "OK"

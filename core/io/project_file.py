@@ -9,8 +9,9 @@ from __future__ import annotations
 
 import json
 import os
+import re
 import stat
-from collections.abc import Mapping
+from collections.abc import Mapping, Sequence
 from pathlib import Path
 from typing import Any
 
@@ -22,7 +23,7 @@ from ..model.project import Alternative, Project
 from .atomic import write_text
 from .design_file import read_design, write_design
 from .library import load_library
-from .project_read import read_beam, read_material_map, read_plies
+from .project_read import read_beam, read_material_map, read_plies, shown
 from .project_write import write_beam, write_materials, write_plies
 
 FORMAT = "plystack"
@@ -31,6 +32,107 @@ TOP_KEYS = frozenset({"format", "version", "title", "display_units", "materials"
                       "reference_material", "beam", "design", "info", "alternatives",
                       "current_alternative"})
 INFO_KEYS = ("member", "prepared_by", "checked_by", "date", "revision", "description")
+#: Largest project file read, in bytes (the bundled demos are about 5 kB).
+MAX_FILE_BYTES = 16 * 1024 * 1024
+#: Deepest nesting of JSON objects and lists (a project needs 6).
+MAX_DEPTH = 32
+#: Most digits of a whole number in the JSON text.
+MAX_INT_DIGITS = 30
+#: Most alternatives in one project (each is analysed by ``compare``).
+MAX_ALTERNATIVES = 100
+#: Most plies in one file, the design's and every alternative's together.
+MAX_TOTAL_PLIES = 1000
+
+_JSON_TOKEN = re.compile(r'"(?:[^"\\]|\\.)*"|[\[\]{}]')
+
+
+class _JsonLimit(Exception):
+    """A bound of the JSON text was exceeded (turned into a named problem)."""
+
+
+def _json_depth_ok(text: str) -> None:
+    depth = 0
+    for m in _JSON_TOKEN.finditer(text):
+        c = m.group()
+        if c in "[{":
+            depth += 1
+            if depth > MAX_DEPTH:
+                raise _JsonLimit(f"objects and lists are nested more than {MAX_DEPTH} deep "
+                                 f"(line {text.count(chr(10), 0, m.start()) + 1})")
+        elif c in "]}":
+            depth -= 1
+
+
+def _int(text: str) -> int:
+    if len(text.lstrip("-")) > MAX_INT_DIGITS:
+        raise _JsonLimit(f"holds a number of more than {MAX_INT_DIGITS} digits")
+    return int(text)
+
+
+def _object(pairs: list[tuple[str, Any]]) -> dict[str, Any]:
+    out: dict[str, Any] = {}
+    for key, value in pairs:
+        if key in out:
+            raise _JsonLimit(f'the key "{shown(key)[1:-1]}" appears twice in one object; '
+                             "give every key once (every material id, every name)")
+        out[key] = value
+    return out
+
+
+def _text_problems(data: Any) -> list[Problem]:
+    """Nesting deeper than MAX_DEPTH and text that cannot be written as UTF-8 (a lone
+    surrogate such as U+D800), each at its path. Walks without recursion.
+    """
+    problems: list[Problem] = []
+    stack: list[tuple[str, Any, int]] = [("", data, 0)]
+    while stack:
+        path, value, depth = stack.pop()
+        if depth > MAX_DEPTH:
+            problems.append(Problem(path, f"is nested more than {MAX_DEPTH} deep"))
+            continue
+        items: list[tuple[str, Any]] = []
+        if isinstance(value, dict):
+            items = [(f"{path}.{k}" if path else str(k), v) for k, v in value.items()]
+            for k in value:
+                if isinstance(k, str) and not _encodable(k):
+                    problems.append(Problem(path or "(top level)", _SURROGATE))
+        elif isinstance(value, list):
+            items = [(f"{path}[{i}]", v) for i, v in enumerate(value)]
+        elif isinstance(value, str) and not _encodable(value):
+            problems.append(Problem(path, _SURROGATE))
+        stack.extend((p, v, depth + 1) for p, v in reversed(items))
+    return problems
+
+
+_SURROGATE = ("holds a character that cannot be written as UTF-8 (a lone surrogate such "
+              'as "\\ud800"); remove it')
+
+
+def _refuse_hostile(data: dict[str, Any]) -> None:
+    """Nesting, text and size that would make reading or analysing fail or hang."""
+    bad_text = _text_problems(data)
+    if bad_text:
+        raise ProjectError(bad_text)
+    total = _ply_count(data)
+    if total > MAX_TOTAL_PLIES:
+        raise ProjectError(Problem("plies", f"the design and its alternatives hold {total} "
+                                   f"plies; a project file holds at most {MAX_TOTAL_PLIES}"))
+
+
+def _ply_count(data: dict[str, Any]) -> int:
+    lists = [data.get("plies")]
+    alternatives = data.get("alternatives")
+    if isinstance(alternatives, list):
+        lists += [a.get("plies") for a in alternatives if isinstance(a, dict)]
+    return sum(len(p) for p in lists if isinstance(p, list))
+
+
+def _encodable(text: str) -> bool:
+    try:
+        text.encode("utf-8")
+    except UnicodeEncodeError:
+        return False
+    return True
 
 
 def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Project:
@@ -45,11 +147,12 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
     problems: list[Problem] = []
     if not isinstance(data, dict):
         raise ProjectError(Problem("", "a project file must hold one JSON object"))
+    _refuse_hostile(data)
     for key in data:
         if key not in TOP_KEYS:
             problems.append(Problem(key, "is not a known key of a project file"))
     if data.get("format") != FORMAT:
-        problems.append(Problem("format", f'must be "{FORMAT}" (got {data.get("format")!r})'))
+        problems.append(Problem("format", f'must be "{FORMAT}" (got {shown(data.get("format"))})'))
     version = data.get("version")
     if isinstance(version, bool) or not isinstance(version, int):
         problems.append(Problem("version", "must be a whole number"))
@@ -73,7 +176,7 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
     plies = read_plies(data.get("plies", []), "plies", known, problems)
     ref = data.get("reference_material")
     if ref is not None and (not isinstance(ref, str) or ref not in known):
-        problems.append(Problem("reference_material", f"{ref!r} is not a known material"))
+        problems.append(Problem("reference_material", f"{shown(ref)} is not a known material"))
         ref = None
     beam_spec = None
     if "beam" in data:
@@ -81,23 +184,14 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
     design = None
     if "design" in data:
         design = read_design(data["design"], "design", problems)
-    info: dict[str, str] = {}
-    raw_info = data.get("info", {})
-    if not isinstance(raw_info, dict):
-        problems.append(Problem("info", "must be an object"))
-    else:
-        for k, v in raw_info.items():
-            if k not in INFO_KEYS:
-                problems.append(Problem(f"info.{k}", "is not a known key; use one of "
-                                        + ", ".join(INFO_KEYS)))
-            elif not isinstance(v, str):
-                problems.append(Problem(f"info.{k}", "must be text"))
-            else:
-                info[k] = v
+    info = _read_info(data.get("info", {}), problems)
     alternatives = []
     raw_alt = data.get("alternatives", [])
     if not isinstance(raw_alt, list):
         problems.append(Problem("alternatives", "must be a list"))
+    elif len(raw_alt) > MAX_ALTERNATIVES:
+        problems.append(Problem("alternatives", f"has {len(raw_alt)} alternatives; at most "
+                                f"{MAX_ALTERNATIVES}"))
     else:
         for i, alt in enumerate(raw_alt):
             p = f"alternatives[{i}]"
@@ -122,6 +216,23 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
                    library=lib)
 
 
+def _read_info(raw_info: Any, problems: list[Problem]) -> dict[str, str]:
+    """The "info" object (texts for the calculation sheet's title block)."""
+    info: dict[str, str] = {}
+    if not isinstance(raw_info, dict):
+        problems.append(Problem("info", "must be an object"))
+        return info
+    for k, v in raw_info.items():
+        if k not in INFO_KEYS:
+            problems.append(Problem(f"info.{k}", "is not a known key; use one of "
+                                    + ", ".join(INFO_KEYS)))
+        elif not isinstance(v, str):
+            problems.append(Problem(f"info.{k}", "must be text"))
+        else:
+            info[k] = v
+    return info
+
+
 def _combination_kinds(beam: BeamSpec | None, design: DesignSpec | None) -> list[Problem]:
     """On the EU basis every combination of the user's list must say its kind."""
     if beam is None or design is None or design.us or not isinstance(beam.combinations, tuple):
@@ -130,6 +241,35 @@ def _combination_kinds(beam: BeamSpec | None, design: DesignSpec | None) -> list
                     "combination says what it is for (ULS, SLS-characteristic, SLS-frequent "
                     "or SLS-quasi-permanent)")
             for i, c in enumerate(beam.combinations) if c.kind is None]
+
+
+def unique_names(names: Sequence[str], path: str, what: str, problems: list[Problem]
+                 ) -> None:
+    """One problem per name used twice (``path[i].name``)."""
+    seen: set[str] = set()
+    for i, name in enumerate(names):
+        if name in seen:
+            problems.append(Problem(f"{path}[{i}].name", f"{shown(name)} is the name of an "
+                                    f"earlier {what}; every {what} needs its own name"))
+        seen.add(name)
+
+
+def name_problems(project: Project) -> list[Problem]:
+    """Names used twice: plies (in the design and in each alternative), alternatives and
+    combinations. The file reader accepts them (the desktop program can make them while
+    editing, and must open what it saved); commands that pick a ply, an alternative or a
+    combination by name refuse them, since the name would be ambiguous.
+    """
+    problems: list[Problem] = []
+    unique_names([p.name for p in project.plies], "plies", "ply", problems)
+    for i, alt in enumerate(project.alternatives):
+        unique_names([p.name for p in alt.plies], f"alternatives[{i}].plies", "ply", problems)
+    unique_names([a.name for a in project.alternatives], "alternatives", "alternative",
+                 problems)
+    combos = project.beam.combinations if project.beam is not None else None
+    if isinstance(combos, tuple):
+        unique_names([c.name for c in combos], "beam.combinations", "combination", problems)
+    return problems
 
 
 def to_dict(project: Project) -> dict[str, Any]:
@@ -158,10 +298,15 @@ def to_dict(project: Project) -> dict[str, Any]:
 def parse_json(text: str) -> Any:
     """The parsed JSON of a project file's text (not yet read as a project)."""
     try:
-        return json.loads(text)
+        _json_depth_ok(text)
+        return json.loads(text, object_pairs_hook=_object, parse_int=_int)
     except json.JSONDecodeError as exc:
         raise ProjectError(Problem("", f"not valid JSON: {exc.msg} at line {exc.lineno}, "
                                    f"column {exc.colno}")) from None
+    except _JsonLimit as exc:
+        raise ProjectError(Problem("", f"the file cannot be read: {exc}")) from None
+    except (ValueError, RecursionError):
+        raise ProjectError(Problem("", "not valid JSON: a value cannot be read")) from None
 
 
 def loads(text: str) -> Project:
@@ -186,6 +331,10 @@ def load_data(path: str | os.PathLike[str]) -> Any:
         if not stat.S_ISREG(info.st_mode):
             kind = "a folder" if stat.S_ISDIR(info.st_mode) else "not a regular file"
             raise ProjectError(Problem("", f"cannot read {os.fspath(path)}: it is {kind}"))
+        if info.st_size > MAX_FILE_BYTES:
+            raise ProjectError(Problem("", f"cannot read {os.fspath(path)}: it is larger than "
+                                       f"{MAX_FILE_BYTES // (1024 * 1024)} MB, more than a "
+                                       "project file holds"))
         text = Path(path).read_text(encoding="utf-8")
     except OSError as exc:
         raise ProjectError(Problem("", f"cannot read {os.fspath(path)}: "
@@ -204,5 +353,14 @@ def dumps(project: Project) -> str:
 def save(project: Project, path: str | os.PathLike[str]) -> None:
     """Write a project atomically (temporary file in the same folder, then rename),
     through a symbolic link to its target, keeping the file's permission bits.
+
+    Raises:
+        ProjectError: text that cannot be written as UTF-8, naming its field (nothing is
+            written); or a target that is a folder, FIFO or device.
+
     """
-    write_text(path, dumps(project), "file")
+    data = to_dict(project)
+    bad_text = _text_problems(data)
+    if bad_text:
+        raise ProjectError(bad_text)
+    write_text(path, json.dumps(data, indent=2, ensure_ascii=False) + "\n", "file")

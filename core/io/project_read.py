@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import math
 from collections.abc import Mapping
 from typing import TYPE_CHECKING, Any
 
@@ -11,6 +12,7 @@ from ..model.errors import Problem
 from ..model.materials import Material, existing_from_record, material_from_record
 from ..model.member import CASES, BeamLayout, Load, validate_layout, validate_load
 from ..model.plies import Ply, validate_ply
+from ..pipeline import MAX_PLIES
 
 if TYPE_CHECKING:
     from ..model.member import BeamSpec
@@ -21,6 +23,32 @@ BEAM_KEYS = frozenset({"spans", "supports", "overhang_left", "overhang_right", "
                        "pattern_live_load", "hold_down"})
 LOAD_KEYS = frozenset({"case", "type", "value", "tributary_width", "from", "to", "at",
                        "value_end"})
+
+
+#: Where the trade has a range for a bolt diameter: the NDS 2018 12.3 yield limit
+#: equations with the Table 12.3.1B reduction terms hold for bolts 1/4 in <= D <= 1 in;
+#: EN 1995-1-1 8.5.1.1 gives the embedment strength (8.32) for bolts up to 30 mm, and
+#: 8.6(3) asks dowels for more than 6 mm (both from memory). Per basis, (min, max) in m.
+BOLT_DIAMETERS = {"US-ASD": (0.25 * 0.0254, 1.0 * 0.0254), "EU-LSD": (0.006, 0.030)}
+#: Load factors of a combination: from 0 to 10 (ASCE 7-16 2.4 and EN 1990 Table A1.2
+#: use at most 1.6; the bound only keeps the analysis finite).
+FACTOR_RANGE = (0.0, 10.0)
+
+
+def shown(raw: Any) -> str:
+    """A value as quoted in a message: short, whatever its type or size."""
+    if isinstance(raw, dict):
+        return "an object"
+    if isinstance(raw, list):
+        return "a list"
+    if isinstance(raw, int) and not isinstance(raw, bool) and raw.bit_length() > 64:
+        return "a very large number"
+    if isinstance(raw, float) and not math.isfinite(raw):
+        return "NaN" if raw != raw else ("Infinity" if raw > 0 else "-Infinity")
+    text = repr(raw)
+    return text if len(text) <= 40 else text[:37] + "..."
+
+
 def _quantity(raw: Any, dimension: str, path: str, problems: list[Problem]) -> float | None:
     try:
         return units.parse(raw, dimension, path)
@@ -39,15 +67,23 @@ def _positive(raw: Any, dimension: str, path: str, problems: list[Problem]) -> f
 
 
 def _number(raw: Any, path: str, problems: list[Problem], lo: float | None = None,
-            hi: float | None = None) -> float | None:
+            hi: float | None = None, whole: bool = False) -> float | None:
+    """A finite plain number within [lo, hi]; ``whole``: a whole number (a count)."""
     if isinstance(raw, bool) or not isinstance(raw, int | float):
-        problems.append(Problem(path, f"{raw!r} must be a plain number"))
+        problems.append(Problem(path, f"{shown(raw)} must be a plain number"))
         return None
-    v = float(raw)
-    if v != v or (lo is not None and v < lo) or (hi is not None and v > hi):
+    try:
+        v = float(raw)
+    except OverflowError:
+        v = math.inf
+    if not math.isfinite(v) or (lo is not None and v < lo) or (hi is not None and v > hi):
         rng = f" between {lo:g} and {hi:g}" if lo is not None and hi is not None else (
-            f" of at least {lo:g}" if lo is not None else "")
-        problems.append(Problem(path, f"{raw!r} must be a number{rng}"))
+            f" of at least {lo:g}" if lo is not None else " (finite)")
+        word = "a whole number" if whole else "a number"
+        problems.append(Problem(path, f"{shown(raw)} must be {word}{rng}"))
+        return None
+    if whole and not v.is_integer():
+        problems.append(Problem(path, f"{shown(raw)} must be a whole number (a count)"))
         return None
     return v
 
@@ -92,6 +128,10 @@ def read_plies(raw: Any, path: str, known: Mapping[str, Material],
     if not isinstance(raw, list):
         problems.append(Problem(path, "must be a list of plies"))
         return ()
+    if len(raw) > MAX_PLIES:
+        problems.append(Problem(path, f"has {len(raw)} plies; Plystack analyses at most "
+                                f"{MAX_PLIES}"))
+        return ()
     out = []
     for i, rec in enumerate(raw):
         p = f"{path}[{i}]"
@@ -111,8 +151,8 @@ def read_plies(raw: Any, path: str, known: Mapping[str, Material],
             problems.append(Problem(f"{p}.name", "must be text"))
         mat = rec.get("material")
         if "material" in rec and (not isinstance(mat, str) or mat not in known):
-            problems.append(Problem(f"{p}.material", f"{mat!r} is not a known material (not "
-                                    "in the project's materials nor the library)"))
+            problems.append(Problem(f"{p}.material", f"{shown(mat)} is not a known material "
+                                    "(not in the project's materials nor the library)"))
         dims = {k: _quantity(rec[k], "length", f"{p}.{k}", problems)
                 for k in ("x", "y", "width", "height") if k in rec}
         if len(problems) > before:
@@ -199,12 +239,13 @@ def _read_loads(raw: Any, path: str, layout: BeamLayout,
                 problems.append(Problem(f"{p}.{key}", "is not a known key of a load"))
         case = rec.get("case")
         if case not in CASES:
-            problems.append(Problem(f"{p}.case", f"{case!r} is not a load case; use one of "
+            problems.append(Problem(f"{p}.case", f"{shown(case)} is not a load case; use one of "
                                     + ", ".join(CASES)))
         typ = rec.get("type")
         dims = {"area": "area_load", "line": "line_load", "point": "force"}
-        if typ not in dims:
-            problems.append(Problem(f"{p}.type", f"{typ!r} is not one of area, line, point"))
+        if not isinstance(typ, str) or typ not in dims:
+            problems.append(Problem(f"{p}.type", f"{shown(typ)} is not one of area, line, "
+                                    "point"))
             continue
         if "value" not in rec:
             problems.append(Problem(f"{p}.value", "is missing"))
@@ -216,7 +257,7 @@ def _read_loads(raw: Any, path: str, layout: BeamLayout,
                 problems.append(Problem(f"{p}.tributary_width", "is missing (an area load "
                                         "needs the width it is collected from)"))
             else:
-                trib = _quantity(rec["tributary_width"], "length", f"{p}.tributary_width",
+                trib = _positive(rec["tributary_width"], "length", f"{p}.tributary_width",
                                  problems)
         elif "tributary_width" in rec:
             problems.append(Problem(f"{p}.tributary_width", "only applies to area loads"))
@@ -289,12 +330,13 @@ def read_combinations(raw: Any, path: str,
                 problems.append(Problem(f"{p}.factors.{case}", "is not a load case; use one of "
                                         + ", ".join(CASES)))
                 continue
-            v = _number(f, f"{p}.factors.{case}", problems)
+            v = _number(f, f"{p}.factors.{case}", problems, *FACTOR_RANGE)
             if v is not None:
                 fs[case] = v
         duration = rec.get("duration")
         if duration is not None and duration not in US_DURATIONS + EU_DURATIONS:
-            problems.append(Problem(f"{p}.duration", f"{duration!r} is not a load duration; use "
+            problems.append(Problem(f"{p}.duration", f"{shown(duration)} is not a load duration; "
+                                    "use "
                                     "one of " + ", ".join(US_DURATIONS + EU_DURATIONS)))
             duration = None
         kind = rec.get("kind")

@@ -38,6 +38,8 @@ def write_materials(materials: Mapping[str, Material], system: str) -> dict[str,
             rec["sources"] = dict(m.sources)
         if m.notes:
             rec["notes"] = m.notes
+        if m.grade_rule:
+            rec["grade_rule"] = m.grade_rule
         out[mid] = rec
     return out
 

@@ -126,10 +126,6 @@ class DesignSpec:
     incised: bool = False
     compression_edge_braced: bool = True
     unbraced_length: float | None = None
-    unbraced_length_bottom: float | None = None
-    bottom_edge_braced: bool = False
-    stability_width: str = "ply"
-    plate_unbraced_length: float | None = None
     live_limit: float | None = None
     total_limit: float | None = None
     long_term_limit: float | None = None
@@ -144,6 +140,10 @@ class DesignSpec:
     steel_bears: bool = False
     en1990_expression: str = "6.10"
     vibration: VibrationSpec | None = None
+    unbraced_length_bottom: float | None = None
+    bottom_edge_braced: bool = False
+    stability_width: str = "ply"
+    plate_unbraced_length: float | None = None
 
     @property
     def us(self) -> bool:

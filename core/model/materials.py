@@ -76,6 +76,7 @@ class Material:
         notes: free text shown with the record.
         existing: for existing timber of unknown grade, the assumed grade and condition
             factor its values come from; None otherwise.
+        grade_rule: the grading rule the values belong to (text), kept for the file.
 
     """
 
@@ -90,6 +91,7 @@ class Material:
     size_adjusted: bool = False
     sources: Mapping[str, str] = field(default_factory=dict)
     notes: str = ""
+    grade_rule: str = ""
     existing: Existing | None = None
 
     def value(self, key: str) -> float | None:
@@ -176,6 +178,7 @@ def material_from_record(mid: str, record: Any, path: str) -> tuple[Material | N
             size_adjusted=bool(size_adjusted),
             sources=dict(sources),
             notes=str(record.get("notes", "")),
+            grade_rule=str(record.get("grade_rule", "")),
         ),
         [],
     )

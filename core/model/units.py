@@ -100,33 +100,127 @@ def _normalise(text: str) -> str:
     return s
 
 
+#: Longest quantity text read, in characters (a bound on the work pint is given).
+MAX_TEXT = 200
+#: Most digits in one run of digits (a float holds 17 significant digits).
+MAX_DIGITS = 20
+#: Deepest nesting of parentheses (the feet-inch forms need 3).
+MAX_PARENTHESES = 8
+
+#: Largest magnitude accepted per dimension, SI. Generous physical bounds, far beyond any
+#: member Plystack designs, that keep every intermediate of the analysis finite:
+#: lengths 1 km; stresses and moduli 1 TPa (steel 200 GPa); forces 1 GN (about 225,000
+#: kip); line loads 100 MN/m; area loads 10 MPa (about 209,000 psf); densities
+#: 100,000 kg/m^3 (osmium 22,590); moments 10 GN m; mass per length 10,000 t/m.
+MAX_MAGNITUDE: dict[str, float] = {
+    "length": 1e3,
+    "force": 1e9,
+    "stress": 1e12,
+    "modulus": 1e12,
+    "line_load": 1e8,
+    "area_load": 1e7,
+    "density": 1e5,
+    "moment": 1e10,
+    "mass_per_length": 1e7,
+    "EI_per_width": 1e12,
+}
+_LIMIT_WORDS: dict[str, str] = {
+    "length": "1 km", "force": "1 GN", "stress": "1 TPa", "modulus": "1 TPa",
+    "line_load": "100 MN/m", "area_load": "10 MPa", "density": "100000 kg/m^3",
+    "moment": "10 GN*m", "mass_per_length": "10000000 kg/m",
+    "EI_per_width": "1 TN*m^2/m",
+}
+
+_DIGIT_RUN = re.compile(r"\d{" + str(MAX_DIGITS + 1) + ",}")
+#: A power is allowed only on a unit name, as a whole number from -9 to 9 (m**3, ft^2).
+_UNIT_POWER = re.compile(r"(?<=[A-Za-z_])\s*\*\*\s*[-+]?\d(?![\d.*])")
+
+
+def _bounded(text: str) -> None:
+    """Refuse text that could make pint work for long, before pint sees it."""
+    if len(text) > MAX_TEXT:
+        raise UnitError(f"is longer than {MAX_TEXT} characters")
+    if _DIGIT_RUN.search(text):
+        raise UnitError(f"has a number of more than {MAX_DIGITS} digits")
+
+
+def _bounded_expression(expr: str) -> None:
+    """Refuse powers of numbers, chained powers and deep parentheses in the rewritten text."""
+    if "**" in _UNIT_POWER.sub("", expr):
+        raise UnitError("raises a number to a power; only a unit name takes a power, as a "
+                        "whole number such as m^3")
+    depth = deepest = 0
+    for ch in expr:
+        depth += (ch == "(") - (ch == ")")
+        deepest = max(deepest, depth)
+    if deepest > MAX_PARENTHESES:
+        raise UnitError(f"has parentheses nested more than {MAX_PARENTHESES} deep")
+
+
+def _reason(exc: Exception) -> str:
+    name = type(exc).__name__
+    if "Undefined" in name:
+        return "has a unit name that is not known"
+    if isinstance(exc, ZeroDivisionError):
+        return "divides by zero"
+    return "cannot be read as a quantity"
+
+
 @lru_cache(maxsize=4096)
 def _parse_cached(text: str, dimension: str) -> float:
+    _bounded(text)
     if _NUMBER_ONLY.match(text):
         raise UnitError("has no unit")
     if not any(ch.isdigit() for ch in text):
         raise UnitError("has no number")
     ureg = registry()
     expr = _normalise(text)
+    _bounded_expression(expr)
     try:
         q = ureg.parse_expression(expr)
+        if not hasattr(q, "magnitude"):
+            raise UnitError("has no unit")
+        want = DIMENSIONS[dimension]
+        if not q.check(want):
+            raise UnitError(f"is not {DIMENSION_WORDS[dimension]}")
+        value = float(q.to_base_units().magnitude)
+    except UnitError:
+        raise
+    except OverflowError:
+        raise UnitError("is too large a number") from None
     except Exception as exc:  # pint raises many kinds of errors
-        unknown = type(exc).__name__ == "UndefinedUnitError"
-        raise UnitError("has a unit this program does not know" if unknown
-                        else "cannot be read as a number with a unit") from None
-    if not hasattr(q, "magnitude"):
-        raise UnitError("has no unit")
-    want = DIMENSIONS[dimension]
-    if not q.check(want):
-        raise UnitError(f"is not {DIMENSION_WORDS[dimension]}")
-    value = float(q.to_base_units().magnitude)
+        raise UnitError(_reason(exc)) from None
     if not math.isfinite(value):
         raise UnitError("is not a finite number")
+    if abs(value) > MAX_MAGNITUDE[dimension]:
+        raise UnitError(f"is out of range: {DIMENSION_WORDS[dimension]} must be at most "
+                        f"{_LIMIT_WORDS[dimension]} in size")
     return value
+
+
+def _shown(text: str) -> str:
+    """The text as quoted in a message: at most 40 characters."""
+    return text if len(text) <= 40 else text[:37] + "..."
+
+
+def _kind_of(value: Any) -> str:
+    """A short description of a value that is not text (for messages)."""
+    if isinstance(value, dict):
+        return "an object"
+    if isinstance(value, list):
+        return "a list"
+    if isinstance(value, int) and not isinstance(value, bool) and value.bit_length() > 64:
+        return "a very large number"
+    return _shown(repr(value))
 
 
 def parse(text: Any, dimension: str, field: str) -> float:
     """Parse a quantity string to an SI float.
+
+    The text is bounded before pint reads it (at most :data:`MAX_TEXT` characters, runs
+    of at most :data:`MAX_DIGITS` digits, powers only on unit names, at most
+    :data:`MAX_PARENTHESES` nested parentheses) and the value must be finite and at
+    most :data:`MAX_MAGNITUDE` of its dimension in size, so no text can hang or overflow.
 
     Args:
         text: the string, e.g. ``"9 1/4 in"`` or ``"1600000 psi"``.
@@ -139,7 +233,8 @@ def parse(text: Any, dimension: str, field: str) -> float:
     """
     if isinstance(text, bool) or not isinstance(text, str):
         raise UnitError(
-            f'{field}: {text!r} must be a string with a unit, e.g. "{_EXAMPLES[dimension]}"'
+            f'{field}: {_kind_of(text)} must be a string with a unit, e.g. '
+            f'"{_EXAMPLES[dimension]}"'
         )
     if not text.strip():
         raise UnitError(f"{field}: is empty; expected {DIMENSION_WORDS[dimension]}")
@@ -147,13 +242,16 @@ def parse(text: Any, dimension: str, field: str) -> float:
         return _parse_cached(text, dimension)
     except UnitError as exc:
         reason = str(exc)
+        shown = _shown(text)
         if reason == "has no unit":
-            return _raise(f'{field}: "{text}" has no unit; expected {DIMENSION_WORDS[dimension]}')
+            return _raise(f'{field}: "{shown}" has no unit; expected {DIMENSION_WORDS[dimension]}')
         if reason == "has no number":
-            return _raise(f'{field}: "{text}" has no number; expected {DIMENSION_WORDS[dimension]}')
-        if reason.startswith("is not "):
-            return _raise(f'{field}: "{text}" {reason}')
-        return _raise(f'{field}: "{text}" is not {DIMENSION_WORDS[dimension]} ({reason})')
+            return _raise(f'{field}: "{shown}" has no number; expected '
+                          f"{DIMENSION_WORDS[dimension]}")
+        if reason.startswith(("is not ", "is longer", "has a number", "raises", "has paren",
+                              "is too large", "is out of range")):
+            return _raise(f'{field}: "{shown}" {reason}')
+        return _raise(f'{field}: "{shown}" is not {DIMENSION_WORDS[dimension]} ({reason})')
 
 
 def _raise(message: str) -> float:
@@ -286,22 +384,96 @@ _SI_TEXT = {"length": "m", "span": "m", "force": "N", "stress": "Pa", "modulus":
 
 
 def exact_text(value: float, kind: str, system: str) -> str:
-    """A quantity string in a file unit of ``system`` that parses back to exactly
-    ``value`` (tries the usual unit, then the other length unit, then SI with all
-    digits).
+    """The shortest quantity string that parses back to exactly ``value``.
+
+    Tries the file unit of ``kind`` in ``system``, then the other length unit, the other
+    system's unit and the SI base unit. In each unit it finds the fewest significant
+    digits that read back to the identical float (and a fraction with a denominator up
+    to 64, such as ``"9 1/3 in"``, where that is shorter). The first unit that needs at
+    most :data:`READABLE_DIGITS` digits is used; otherwise the shortest text found.
+    Numbers are written without exponent where sensible.
     """
     dimension = "length" if kind == "span" else kind
-    candidates = [FILE_UNITS[system][kind]]
+    other_system = "SI" if system == "US" else "US"
+    units: list[tuple[str, float]] = [FILE_UNITS[system][kind]]
     if dimension == "length":
-        other = "span" if kind == "length" else "length"
-        candidates.append(FILE_UNITS[system][other])
-    for unit, factor in candidates:
-        number = value * factor
-        for digits in (6, 9, 12, 15, 17):
-            text = f"{number:.{digits}g} {unit}"
-            try:
-                if _parse_cached(text, dimension) == value:
-                    return text
-            except UnitError:
-                break
-    return f"{value!r} {_SI_TEXT[kind]}"
+        units.append(FILE_UNITS[system]["span" if kind == "length" else "length"])
+    units += [FILE_UNITS[other_system][kind], (_SI_TEXT[kind], 1.0)]
+    best: tuple[int, str] | None = None
+    for unit, _factor in units:
+        found = _shortest_in(value, unit, dimension)
+        if found is not None and found[0] <= READABLE_DIGITS:
+            return found[1]
+        if found is not None and (best is None or found[0] < best[0]):
+            best = found
+    return best[1] if best is not None else f"{value!r} {_SI_TEXT[kind]}"
+
+
+#: A unit whose exact text needs at most this many significant digits is used at once.
+READABLE_DIGITS = 6
+
+
+def _reads_back(text: str, dimension: str, value: float) -> bool:
+    try:
+        return _parse_cached(text, dimension) == value
+    except UnitError:
+        return False
+
+
+def _shortest_in(value: float, unit: str, dimension: str) -> tuple[int, str] | None:
+    """(significant digits, text) of the shortest exact text of ``value`` in ``unit``.
+
+    The value of each candidate is predicted as number x (the value of 1 unit), which is
+    how pint converts; only a predicted match is parsed to confirm it.
+    """
+    try:
+        per_unit = _parse_cached(f"1 {unit}", dimension)
+    except UnitError:
+        return None
+    number = value / per_unit
+    if not math.isfinite(number):
+        return None
+    for digits in range(1, 18):
+        text = _plain(f"{number:.{digits}g}")
+        if float(text) * per_unit != value or not _reads_back(f"{text} {unit}", dimension,
+                                                                value):
+            continue
+        if digits > 4:
+            fraction = _fraction_text(number, unit, dimension, value)
+            if fraction is not None and fraction[0] < digits:
+                return fraction
+        return digits, f"{text} {unit}"
+    if per_unit == 1.0 and _reads_back(f"{value!r} {unit}", dimension, value):
+        return 17, f"{value!r} {unit}"
+    return None
+
+
+def _fraction_text(number: float, unit: str, dimension: str, value: float
+                   ) -> tuple[int, str] | None:
+    """A mixed fraction with a denominator up to 64 that reads back to ``value``."""
+    from fractions import Fraction
+
+    f = Fraction(number).limit_denominator(64)
+    if f.denominator == 1 or abs(float(f) - number) > 1e-9 * max(abs(number), 1.0):
+        return None
+    whole, rest = divmod(abs(f.numerator), f.denominator)
+    sign = "-" if f < 0 else ""
+    body = f"{whole} {rest}/{f.denominator}" if whole else f"{rest}/{f.denominator}"
+    text = f"{sign}{body} {unit}"
+    if not _reads_back(text, dimension, value):
+        return None
+    return len(str(whole)) + len(str(rest)) + len(str(f.denominator)), text
+
+
+def _plain(number: str) -> str:
+    """``"2.9e+07"`` as ``"29000000"``, ``"1.5e-05"`` as ``"0.000015"`` (exponents
+    between -6 and 15 written out; others kept).
+    """
+    if "e" not in number:
+        return number
+    from decimal import Decimal
+
+    exponent = int(number.split("e")[1])
+    if not -6 <= exponent <= 15:
+        return number
+    return format(Decimal(number), "f")

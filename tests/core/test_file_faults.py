@@ -1,0 +1,223 @@
+"""File-system faults: saving through a symbolic link, over a hard link, into a read-only
+folder, onto a full disk, and reading or writing a FIFO or device. A save either writes
+the whole file or leaves the old one as it was (and no temporary file behind).
+
+Hard links: a save writes a new file and renames it over the name it was given, so that
+name gets the new text and every other hard link keeps the old text (it is a separate
+file from then on). That is the price of atomicity; a save in place could leave a torn
+file on a crash.
+"""
+
+from __future__ import annotations
+
+import errno
+import os
+import stat
+import subprocess
+import sys
+import time
+from dataclasses import replace
+from pathlib import Path
+
+import pytest
+
+from plystack.core.cli import main
+from plystack.core.io.atomic import write_bytes
+from plystack.core.io.project_file import load, save
+from plystack.core.model.errors import ProjectError
+
+DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
+FAST = 5.0
+
+
+def _project(title: str = "fault test (invented)"):
+    return replace(load(DEMO), title=title)
+
+
+def _leftovers(folder: Path) -> list[str]:
+    return sorted(p.name for p in folder.iterdir() if p.name.endswith(".tmp"))
+
+
+def test_save_through_symlink_writes_the_target_and_keeps_link_and_mode(tmp_path):
+    target = tmp_path / "real.plystack.json"
+    save(_project("old"), target)
+    os.chmod(target, 0o640)
+    link = tmp_path / "link.plystack.json"
+    link.symlink_to(target)
+    save(_project("new"), link)
+    assert link.is_symlink() and os.readlink(link) == str(target)
+    assert load(target).title == "new"
+    assert stat.S_IMODE(target.stat().st_mode) == 0o640
+    assert _leftovers(tmp_path) == []
+
+
+def test_save_through_dangling_symlink_creates_the_target(tmp_path):
+    target = tmp_path / "sub" / "new.plystack.json"
+    target.parent.mkdir()
+    link = tmp_path / "link.plystack.json"
+    link.symlink_to(target)
+    save(_project("created"), link)
+    assert link.is_symlink()
+    assert load(target).title == "created"
+
+
+def test_new_file_gets_the_umask_mode(tmp_path):
+    old = os.umask(0o027)
+    try:
+        save(_project(), tmp_path / "a.plystack.json")
+    finally:
+        os.umask(old)
+    assert stat.S_IMODE((tmp_path / "a.plystack.json").stat().st_mode) == 0o640
+
+
+def test_hard_link_keeps_the_old_text(tmp_path):
+    path = tmp_path / "a.plystack.json"
+    save(_project("old"), path)
+    other = tmp_path / "b.plystack.json"
+    os.link(path, other)
+    save(_project("new"), path)
+    assert load(path).title == "new"
+    assert load(other).title == "old"
+    assert other.stat().st_nlink == 1 and path.stat().st_nlink == 1
+
+
+def test_fifo_is_refused_at_once_for_reading_and_writing(tmp_path):
+    fifo = tmp_path / "pipe.plystack.json"
+    os.mkfifo(fifo)
+    # in a child process, so that a regression hangs the child, not the test run
+    code = ("import sys\nfrom plystack.core.cli import main\n"
+            f"sys.exit(main(['check', {str(fifo)!r}]))")
+    start = time.monotonic()
+    r = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                       timeout=60)
+    assert time.monotonic() - start < 30
+    assert r.returncode == 2
+    assert "it is not a regular file" in r.stderr
+    with pytest.raises(ProjectError, match="not a regular file"):
+        save(_project(), fifo)
+    assert stat.S_ISFIFO(fifo.lstat().st_mode)
+    link = tmp_path / "link.json"
+    link.symlink_to(fifo)
+    with pytest.raises(ProjectError, match="not a regular file"):
+        save(_project(), link)
+    assert _leftovers(tmp_path) == []
+
+
+def test_sheet_output_refuses_fifo_and_follows_symlink(tmp_path, capsys):
+    fifo = tmp_path / "out.pdf"
+    os.mkfifo(fifo)
+    assert main(["sheet", str(DEMO), "-o", str(fifo)]) == 2
+    assert "not a regular file" in capsys.readouterr().err
+    assert stat.S_ISFIFO(fifo.lstat().st_mode)
+    real = tmp_path / "real.pdf"
+    real.write_bytes(b"old")
+    os.chmod(real, 0o604)
+    link = tmp_path / "link.pdf"
+    link.symlink_to(real)
+    assert main(["sheet", str(DEMO), "-o", str(link)]) == 0
+    assert link.is_symlink()
+    assert real.read_bytes().startswith(b"%PDF")
+    assert stat.S_IMODE(real.stat().st_mode) == 0o604
+
+
+@pytest.mark.skipif(not os.path.exists("/dev/null"), reason="no /dev/null on this system")
+def test_device_is_refused():
+    with pytest.raises(ProjectError, match="not a regular file"):
+        save(_project(), "/dev/null")
+    assert stat.S_ISCHR(os.stat("/dev/null").st_mode)
+    with pytest.raises(ProjectError, match="not a regular file"):
+        load("/dev/null")
+
+
+def test_folder_is_refused(tmp_path):
+    with pytest.raises(ProjectError, match="is a folder"):
+        save(_project(), tmp_path)
+    with pytest.raises(ProjectError, match="it is a folder"):
+        load(tmp_path)
+
+
+def _mount_tmpfs(folder: Path, options: str) -> bool:
+    if os.geteuid() != 0:
+        return False
+    r = subprocess.run(["mount", "-t", "tmpfs", "-o", options, "tmpfs", str(folder)],
+                       capture_output=True)
+    return r.returncode == 0
+
+
+def _umount(folder: Path) -> None:
+    subprocess.run(["umount", str(folder)], capture_output=True)
+
+
+def test_read_only_folder_keeps_the_old_file(tmp_path):
+    folder = tmp_path / "ro"
+    folder.mkdir()
+    mounted = _mount_tmpfs(folder, "size=1m")
+    try:
+        path = folder / "a.plystack.json"
+        save(_project("old"), path)
+        if mounted:  # root ignores permission bits: a read-only file system instead
+            r = subprocess.run(["mount", "-o", "remount,ro", str(folder)], capture_output=True)
+            if r.returncode != 0:
+                pytest.skip("cannot remount the test file system read-only")
+        elif os.geteuid() == 0:
+            pytest.skip("running as root without permission to mount: root ignores a "
+                        "folder's permission bits")
+        else:
+            os.chmod(folder, 0o555)
+        before = path.read_bytes()
+        with pytest.raises(OSError) as info:
+            save(_project("new"), path)
+        assert info.value.errno in (errno.EACCES, errno.EROFS, errno.EPERM)
+        assert path.read_bytes() == before
+        assert _leftovers(folder) == []
+    finally:
+        if mounted:
+            _umount(folder)
+        else:
+            os.chmod(folder, 0o755)
+
+
+def test_full_disk_keeps_the_old_file(tmp_path):
+    folder = tmp_path / "small"
+    folder.mkdir()
+    if not _mount_tmpfs(folder, "size=64k"):
+        pytest.skip("cannot mount a small tmpfs here (needs root and mount rights); the "
+                    "full-disk case is then covered by the failed-rename test only")
+    try:
+        path = folder / "a.plystack.json"
+        save(_project("old"), path)
+        before = path.read_bytes()
+        filler = folder / "filler"
+        with pytest.raises(OSError):  # fill the file system to the last block
+            with open(filler, "wb") as fh:
+                while True:
+                    fh.write(b"\0" * 4096)
+                    fh.flush()
+        big = _project("new " + "x" * 20_000)
+        with pytest.raises(OSError) as info:
+            save(big, path)
+        assert info.value.errno == errno.ENOSPC
+        assert path.read_bytes() == before
+        assert _leftovers(folder) == []
+        filler.unlink()
+        save(big, path)
+        assert load(path).title.startswith("new ")
+    finally:
+        _umount(folder)
+
+
+def test_write_bytes_refuses_empty_name():
+    with pytest.raises(ProjectError, match="is empty"):
+        write_bytes("", b"x", "-o/--output")
+
+
+@pytest.mark.skipif(not hasattr(os, "geteuid") or os.geteuid() != 0,
+                    reason="only root can give a file to another user")
+def test_save_as_root_keeps_the_owner(tmp_path):
+    path = tmp_path / "a.plystack.json"
+    save(_project("old"), path)
+    os.chown(path, 65534, 65534)
+    save(_project("new"), path)
+    info = path.stat()
+    assert (info.st_uid, info.st_gid) == (65534, 65534)
+    assert load(path).title == "new"
