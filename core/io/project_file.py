@@ -27,7 +27,8 @@ VERSION = 1
 TOP_KEYS = frozenset({"format", "version", "title", "display_units", "materials", "plies",
                       "reference_material", "beam", "design", "info", "alternatives",
                       "current_alternative"})
-INFO_KEYS = ("member", "prepared_by", "checked_by", "date", "revision", "description")
+INFO_KEYS = ("member", "prepared_by", "checked_by", "date", "revision", "description",
+             "job", "address", "licence")
 
 
 def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Project:

@@ -19,7 +19,8 @@ if TYPE_CHECKING:
 PLY_KEYS = ("name", "material", "x", "y", "width", "height")
 BEAM_KEYS = frozenset({"spans", "supports", "overhang_left", "overhang_right", "bearing_length",
                        "self_weight", "loads", "combinations", "sustained_live_fraction"})
-LOAD_KEYS = frozenset({"case", "type", "value", "tributary_width", "from", "to", "at"})
+LOAD_KEYS = frozenset({"case", "type", "value", "tributary_width", "from", "to", "at",
+                       "description"})
 DESIGN_KEYS = frozenset({"basis", "wet_service", "temperature", "repetitive_member", "incised",
                          "compression_edge_braced", "unbraced_length", "deflection_limits",
                          "K_cr", "k_def", "steel_rule", "service_class", "psi", "overrides",
@@ -225,9 +226,12 @@ def _read_loads(raw: Any, path: str, layout: BeamLayout,
                 start = _quantity(rec["from"], "length", f"{p}.from", problems)
             if "to" in rec:
                 end = _quantity(rec["to"], "length", f"{p}.to", problems)
+        description = rec.get("description", "")
+        if not isinstance(description, str):
+            problems.append(Problem(f"{p}.description", "must be text"))
         if len(problems) > before or value is None:
             continue
-        load = Load(str(case), str(typ), value, trib, start, end, at)
+        load = Load(str(case), str(typ), value, trib, start, end, at, description)
         if length > 0:
             probs = validate_load(load, length, p)
             problems.extend(probs)

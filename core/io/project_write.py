@@ -75,6 +75,8 @@ def write_beam(beam: BeamSpec, system: str) -> dict[str, Any]:
             rec["to"] = exact_text(ld.end, "span", system)
         if ld.at is not None:
             rec["at"] = exact_text(ld.at, "span", system)
+        if ld.description:
+            rec["description"] = ld.description
         loads.append(rec)
     out["loads"] = loads
     if beam.combinations is None:

@@ -31,6 +31,7 @@ class Load:
         start: m from the member's left end; None for the whole member.
         end: m; None for the whole member.
         at: m, point loads only.
+        description: what the load is (free text for the calculation sheet), may be empty.
 
     """
 
@@ -41,6 +42,7 @@ class Load:
     start: float | None = None
     end: float | None = None
     at: float | None = None
+    description: str = ""
 
     @property
     def line_value(self) -> float:
