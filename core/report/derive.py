@@ -23,6 +23,7 @@ from ..design.check import Check
 from ..pipeline import Analysis
 from ..section.transformed import Section
 from .bolts import bolt_derivation
+from .handbook import handbook_terms
 from .numbers import NBSP, TIMES, exact, factor_text, num, q, q_den
 
 IN = 5  #: significant figures of an equation's inputs (results get 4)
@@ -356,9 +357,19 @@ def _deflection(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
         factors = dict(combination(beam, c.combination).combination.factors)
     terms = [(f, per_case[k]) for k, f in factors.items() if k in per_case and f != 0]
     lines = ", ".join(f"{k} {q(v, 'EI_deflection', u, IN)}" for k, v in per_case.items())
-    where = [f"EI \u03b4 of each load case at x = {q(x, 'span', u)} ({c.location}; EI = 1 "
-             f"solution of the beam analysis, section 4): {lines}",
-             f"EI = {q(EI, 'EI', u, IN)} (section 3)"]
+    hand = handbook_terms(beam, x, u)
+    where = []
+    if hand is not None and all(
+            math.isclose(sum(t.value for t in hand if t.case == k), v, rel_tol=1e-6,
+                         abs_tol=1e-9 * max(abs(w) for w in per_case.values()))
+            for k, v in per_case.items()):
+        where += [t.text for t in hand]
+        where.append(f"EI \u03b4 of each case at x = {q(x, 'span', u)} ({c.location}), the "
+                     f"sum of its loads (equal to the beam analysis): {lines}")
+    else:
+        where.append(f"EI \u03b4 of each load case at x = {q(x, 'span', u)} ({c.location}; "
+                     f"the beam analysis, section 4): {lines}")
+    where.append(f"EI = {q(EI, 'EI', u, IN)} (section 3)")
     if c.id != "deflection-long-term":
         value = sum(f * v for f, v in terms) / EI
         demand = (f"\u03b4 = \u03a3 \u03b3 (EI \u03b4) / EI = "

@@ -112,9 +112,15 @@ def _title_block_maker(project: Project, paper: tuple[float, float],
             quarters = [x0 + left * f for f in (0.27, 0.50, 0.68, 0.82)]
             for xx in quarters:
                 self.line(xx, y0, xx, r3)
-            self.setFont("PlyStackSans-Bold", 9.5)
-            title = _fit(project.title, "PlyStackSans-Bold", 9.5, left - 2 * pad)[0]
-            self.drawString(x0 + pad, r1 + 2.6 * mm, title)
+            one = _fit(project.title, "PlyStackSans-Bold", 9.5, left - 2 * pad)
+            if not one[0].endswith("\u2026"):
+                self.setFont("PlyStackSans-Bold", 9.5)
+                self.drawString(x0 + pad, r1 + 2.6 * mm, one[0])
+            else:
+                self.setFont("PlyStackSans-Bold", 7.6)
+                two = _fit(project.title, "PlyStackSans-Bold", 7.6, left - 2 * pad, 2)
+                for k, line in enumerate(two):
+                    self.drawString(x0 + pad, r1 + (4.6 - 3.1 * k) * mm, line)
             self._text(x0 + pad, r2 + 1.9 * mm, "Job: ", info.get("job", ""),
                        c_mid - x0 - 2 * pad)
             self._text(c_mid + pad, r2 + 1.9 * mm, "Address: ", info.get("address", ""),

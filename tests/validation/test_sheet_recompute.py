@@ -188,3 +188,36 @@ def test_no_table_cell_wraps_a_unit_away_from_its_number(name):
         if first == "in" and len(tokens) > 1 and tokens[1][0].isalpha() and tokens[1] not in UNITS:
             continue  # the English word "in" opening a wrapped sentence
         assert first not in UNITS, f"a line starts with the unit {first!r}: {line!r}"
+
+
+@pytest.mark.parametrize("name", DEMOS)
+def test_deflections_recompute_from_the_loads_by_handbook_formulas(name, capsys):
+    """Source: simple-span beam formulas of the AISC Manual beam diagrams (from memory),
+    as printed on the sheet; each load's EI δ recomputed from its printed numbers, each
+    case the sum of its loads."""
+    data = json_checks(name, capsys)
+    found = blocks(sheet_text(name), len(data["checks"]))
+    seen = 0
+    for k, check in enumerate(data["checks"], start=1):
+        if not check["id"].startswith("deflection"):
+            continue
+        parts = found[k].split(" · ")
+        sums: dict[str, float] = {}
+        ulps: dict[str, float] = {}
+        for line in parts:
+            m = re.match(r"EI δ, (?:load \d+|self-weight) \((\w+)\)", line)
+            if not m:
+                continue
+            *_, expr, res = line.split(" = ")
+            value, ulp, _ = printed(res)
+            assert abs(evaluate(expr) - value) <= ulp * (1 + 1e-9), (k, line)
+            sums[m.group(1)] = sums.get(m.group(1), 0.0) + value
+            ulps[m.group(1)] = ulps.get(m.group(1), 0.0) + ulp / 2
+            seen += 1
+        line = next(p for p in parts if p.startswith("EI δ of each case"))
+        for case, total in sums.items():
+            m = re.search(rf"\b{case} ([\d,.]+(?: × 10[⁰¹²³⁴⁵⁶⁷⁸⁹]+)?) (?:lbf·in³|kN·m³)", line)
+            assert m, (case, line)
+            value, ulp, _ = printed(m.group(1))
+            assert abs(value - total) <= ulp / 2 + ulps[case], (k, case, line)
+    assert seen > 0
