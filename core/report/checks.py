@@ -39,7 +39,7 @@ def _group_key(c: Check) -> tuple[str, str | None, str]:
 
 
 #: Notes the derivation already writes out (yield modes, plate share, bolt layout).
-DERIVED_NOTES = ("Yield modes:", "mode (", "Plate's share")
+DERIVED_NOTES = ("Yield modes:", "mode (", "Plate's share", "Shear flow q =")
 
 
 def check_block(a: Analysis, c: Check, first: Check | None, width: float,

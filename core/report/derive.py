@@ -313,11 +313,14 @@ def _bearing(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
         extra = 0.03 if at_end else 0.06
         value = max(R, 0.0) / (sum(widths) * (lb + extra))
         add = f"30{NBSP}mm" if at_end else f"2 {TIMES} 30{NBSP}mm"
+        if u != "SI":
+            add = q(extra, "length", u, IN)
+        kN = f" {TIMES} 1,000{NBSP}N/kN" if u == "SI" else ""
         where.append(f"l_ef = l + {add} = {q(lb, 'length', u, IN)} + {add} = "
-                     f"{q(lb + extra, 'length', u, IN)} (EN 1995-1-1 6.1.5(1))")
-        demand = (f"{sym} = F / (\u03a3b l_ef) = {q(R, 'force', u, IN)} {TIMES} "
-                  f"1,000{NBSP}N/kN / ({widths_text} {TIMES} ({q(lb, 'length', u, IN)} + "
-                  f"{add})) = {result(c, u)}")
+                     f"{q(lb + extra, 'length', u, IN)} (EN 1995-1-1 6.1.5(1): 30 mm beyond "
+                     "each side of the bearing that has room)")
+        demand = (f"{sym} = F / (\u03a3b l_ef) = {q(R, 'force', u, IN)}{kN} / ({widths_text} "
+                  f"{TIMES} ({q(lb, 'length', u, IN)} + {add})) = {result(c, u)}")
     _check_close(value, c, "bearing")
     return where, demand
 
