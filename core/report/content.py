@@ -18,6 +18,7 @@ from ..model.project import Project
 from ..pipeline import Analysis, run
 from ..study.compare import alternatives_with_current, summarise
 from .checks import checks_section, place
+from .derive import symbol_text
 from .drawings import profile_drawing, section_drawing
 from .layout import BODY, CAUTION_STYLE, EQ, FONT, H1, H2, SMALL, para, table
 from .loads import beam_section
@@ -99,9 +100,10 @@ def _section(a: Analysis, u: str, width: float) -> list[Any]:
         if m.id in seen:
             continue
         seen.append(m.id)
-        vals = ", ".join(f"{k} {plain(v)}" if k == "G" else
-                         (f"{k} {exact(v, 'density', u)}" if k == "rho_k" else
-                          f"{k} {exact(v, 'stress', u)}") for k, v in m.values.items())
+        vals = ", ".join(f"G {plain(v)}" if k == "G" else
+                         (f"\u03c1_k {exact(v, 'density', u)}" if k == "rho_k" else
+                          f"{symbol_text(k)} {exact(v, 'stress', u)}")
+                         for k, v in m.values.items())
         if m.density > 0:
             vals += f"; density {exact(m.density, 'density', u)}"
         mats.append([m.id, m.name, m.kind, exact(m.E, "modulus", u), vals])

@@ -90,7 +90,9 @@ SYMBOL_TEXT = {"Omega_v": "\u03a9_v", "Omega_b": "\u03a9_b", "gamma_M": "\u03b3_
                "gamma_M0": "\u03b3_M0", "C_Delta": "C_\u0394", "Fc_perp": "F_c\u22a5",
                "1/sqrt(3)": "1/\u221a3", "Fb": "F_b", "Fv": "F_v", "Fy": "F_y",
                "fm_k": "f_m,k", "fv_k": "f_v,k", "fc90_k": "f_c,90,k", "F_b/F_y": "F_b/F_y",
-               "limit": "limit"}
+               "limit": "limit", "Ft": "F_t", "Fc": "F_c", "Emin": "E_min", "Fu": "F_u",
+               "ft0_k": "f_t,0,k", "fc0_k": "f_c,0,k", "E0_05": "E_0,05", "Fbx_pos": "F_bx+",
+               "Fbx_neg": "F_bx\u2212"}
 
 
 def symbol_text(key: str) -> str:

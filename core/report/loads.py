@@ -133,9 +133,10 @@ def reactions_block(beam: BeamResult, u: str, width: float) -> list[Any]:
                               if f and case in beam.cases)
             parts.append(f"R{k + 1} = {sums} = {q(value, 'force', u, IN)}")
         lines.append(para(f"{c.name}: " + "; ".join(parts), EQ))
-    out += [para("Reactions per combination (R = \u03a3 \u03b3 R_case; bearing uses the "
-                 "largest at each support, the bolts use W = \u03a3R)", H2),
-            table(rows, width, align_right=tuple(range(1, len(rows[0])))), *lines]
+    out.append(KeepTogether([
+        para("Reactions per combination (R = \u03a3 \u03b3 R_case; bearing uses the largest "
+             "at each support, the bolts use W = \u03a3R)", H2),
+        table(rows, width, align_right=tuple(range(1, len(rows[0])))), *lines]))
     return out
 
 

@@ -7,6 +7,9 @@ from __future__ import annotations
 import re
 from typing import Any
 
+from reportlab.lib.units import mm
+from reportlab.platypus import CondPageBreak
+
 from .. import __version__
 from ..pipeline import Analysis
 from .derive import symbol_text
@@ -59,7 +62,7 @@ def sources_section(a: Analysis, width: float) -> list[Any]:
             continue
         seen.append(m.id)
         mats.append([m.id, m.name, without_memory_note(words(m.source))])
-    return [para("8  Sources", H1),
+    return [CondPageBreak(90 * mm), para("8  Sources", H1),
             para(VERIFY, BODY),
             para("Standards", H2), *[para("\u2022 " + s, BODY) for s in standards(a)],
             para("Factors and reference values used by the checks", H2),
