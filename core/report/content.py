@@ -180,7 +180,7 @@ def _profiles(a: Analysis, u: str, width: float) -> list[Any]:
                  "y_na) / EI, \u03c3_i = E_i \u03b5 (tension positive). Strains are equal on "
                  "both sides of an interface; stresses differ by the ratio of the moduli.",
                  SMALL),
-            profile_drawing(a.section, M, u, width=width),
+            profile_drawing(a.section, M, u, width=width), Spacer(1, 2 * mm),
             table(rows, width, align_right=(1, 2, 3, 4, 5, 6))]
 
 

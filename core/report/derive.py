@@ -298,7 +298,7 @@ def _bearing(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     names = (c.ply or "").split(" + ")
     widths = [s.plies[ply_index(s, nm)].width for nm in names]
     lb = beam.spec.bearing_length or 0.0
-    widths_text = " + ".join(q(w, "length", u, IN) for w in widths)
+    widths_text = " + ".join(exact(w, "length", u) for w in widths)
     if len(widths) > 1:
         widths_text = f"({widths_text})"
     sym = _symbols(a, c)[0]
@@ -308,8 +308,8 @@ def _bearing(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     if a.design.us:
         value = max(R, 0.0) / (sum(widths) * lb)
         demand = (f"{sym} = R / (\u03a3b l_b) = {q(R, 'force', u, IN)} / ({widths_text} "
-                  f"{TIMES} {q(lb, 'length', u, IN)}) = {result(c, u)}")
-        where.append(f"l_b = {q(lb, 'length', u, IN)} (bearing length)")
+                  f"{TIMES} {exact(lb, 'length', u)}) = {result(c, u)}")
+        where.append(f"l_b = {exact(lb, 'length', u)} (bearing length)")
     else:
         at_end = abs(positions[k]) < 1e-9 or abs(positions[k] - beam.model.layout.length) < 1e-9
         extra = 0.03 if at_end else 0.06
@@ -318,11 +318,11 @@ def _bearing(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
         if u != "SI":
             add = q(extra, "length", u, IN)
         kN = f" {TIMES} 1,000{NBSP}N/kN" if u == "SI" else ""
-        where.append(f"l_ef = l + {add} = {q(lb, 'length', u, IN)} + {add} = "
+        where.append(f"l_ef = l + {add} = {exact(lb, 'length', u)} + {add} = "
                      f"{q(lb + extra, 'length', u, IN)} (EN 1995-1-1 6.1.5(1): 30 mm beyond "
                      "each side of the bearing that has room)")
         demand = (f"{sym} = F / (\u03a3b l_ef) = {q(R, 'force', u, IN)}{kN} / ({widths_text} "
-                  f"{TIMES} ({q(lb, 'length', u, IN)} + {add})) = {result(c, u)}")
+                  f"{TIMES} ({exact(lb, 'length', u)} + {add})) = {result(c, u)}")
     _check_close(value, c, "bearing")
     return where, demand
 
