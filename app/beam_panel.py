@@ -384,6 +384,7 @@ class BeamPanel(QWidget):
             self._mark(row, column, "; ".join(str(q) for q in problems))
             return
         loads = list(beam.loads)
+        load = replace(load, description=loads[row].description)  # not a column: keep it
         loads[row] = load
         self._apply_beam(replace(beam, loads=tuple(loads)), "Edit load")
 

@@ -31,7 +31,8 @@ VERSION = 1
 TOP_KEYS = frozenset({"format", "version", "title", "display_units", "materials", "plies",
                       "reference_material", "beam", "design", "info", "alternatives",
                       "current_alternative"})
-INFO_KEYS = ("member", "prepared_by", "checked_by", "date", "revision", "description")
+INFO_KEYS = ("member", "prepared_by", "checked_by", "date", "revision", "description",
+             "job", "address", "licence")
 #: Largest project file read, in bytes (the bundled demos are about 5 kB).
 MAX_FILE_BYTES = 16 * 1024 * 1024
 #: Deepest nesting of JSON objects and lists (a project needs 6).

@@ -22,7 +22,7 @@ BEAM_KEYS = frozenset({"spans", "supports", "overhang_left", "overhang_right", "
                        "self_weight", "loads", "combinations", "sustained_live_fraction",
                        "pattern_live_load", "hold_down"})
 LOAD_KEYS = frozenset({"case", "type", "value", "tributary_width", "from", "to", "at",
-                       "value_end"})
+                       "value_end", "description"})
 
 
 #: Where the trade has a range for a bolt diameter: the NDS 2018 12.3 yield limit
@@ -280,12 +280,15 @@ def _read_loads(raw: Any, path: str, layout: BeamLayout,
                 start = _quantity(rec["from"], "length", f"{p}.from", problems)
             if "to" in rec:
                 end = _quantity(rec["to"], "length", f"{p}.to", problems)
+        description = rec.get("description", "")
+        if not isinstance(description, str):
+            problems.append(Problem(f"{p}.description", "must be text"))
         if len(problems) > before or value is None:
             continue
         if typ == "point" and "value_end" in rec:
             problems.append(Problem(f"{p}.value_end", "only applies to area and line loads"))
             continue
-        load = Load(str(case), str(typ), value, trib, start, end, at, value_end)
+        load = Load(str(case), str(typ), value, trib, start, end, at, value_end, description)
         if length > 0:
             probs = validate_load(load, length, p)
             problems.extend(probs)

@@ -91,6 +91,8 @@ def write_beam(beam: BeamSpec, system: str) -> dict[str, Any]:
             rec["at"] = exact_text(ld.at, "span", system)
         if ld.value_end is not None:
             rec["value_end"] = exact_text(ld.value_end, kind, system)
+        if ld.description:
+            rec["description"] = ld.description
         loads.append(rec)
     out["loads"] = loads
     if beam.combinations is None:

@@ -35,6 +35,7 @@ class Load:
         at: m, point loads only.
         value_end: intensity at ``end`` for a load varying linearly from ``value`` at
             ``start`` (None: uniform).
+        description: what the load is (free text for the calculation sheet), may be empty.
 
     """
 
@@ -46,6 +47,7 @@ class Load:
     end: float | None = None
     at: float | None = None
     value_end: float | None = None
+    description: str = ""
 
     @property
     def line_value(self) -> float:

@@ -14,11 +14,13 @@ import numpy as np
 from reportlab.graphics.shapes import Drawing, Group, Line, Polygon, PolyLine, Rect, String
 from reportlab.lib import colors
 from reportlab.lib.units import mm
+from reportlab.pdfbase.pdfmetrics import stringWidth
 from shapely.geometry import LineString, MultiPolygon
 from shapely.geometry import Polygon as ShapelyPolygon
 
 from ..model.units import sig, to_display, unit_label
 from ..section.transformed import Section
+from .numbers import num
 
 FONT = "PlyStackSans"
 TIMBER = colors.Color(0.93, 0.86, 0.72)
@@ -156,8 +158,8 @@ def section_drawing(section: Section, system: str, width: float = 80 * mm,
 def line_plot(x: Sequence[float] | np.ndarray, y: Sequence[float] | np.ndarray, xlabel: str,
               ylabel: str,
               width: float = 160 * mm, height: float = 38 * mm, label_max: bool = True,
-              marks: Sequence[float] = ()) -> Drawing:
-    """A filled line plot with axes, ticks and its largest |value| labelled."""
+              marks: Sequence[float] = (), legend: str = "") -> Drawing:
+    """A filled line plot with axes, ticks, a legend and its largest |value| labelled."""
     xs, ys = np.asarray(x, dtype=float), np.asarray(y, dtype=float)
     d = new_drawing(width, height)
     left, bottom, right, top = 18 * mm, 9 * mm, 4 * mm, 4 * mm
@@ -178,7 +180,7 @@ def line_plot(x: Sequence[float] | np.ndarray, y: Sequence[float] | np.ndarray, 
     d.add(Rect(left, bottom, w, h, fillColor=None, strokeColor=colors.black, strokeWidth=0.5))
     for t in nice_ticks(lo, hi, 4):
         d.add(Line(left - 1.2 * mm, py(t), left, py(t), strokeWidth=0.4))
-        d.add(String(left - 1.6 * mm, py(t) - 2, sig(t, 3), fontName=FONT, fontSize=6,
+        d.add(String(left - 1.6 * mm, py(t) - 2, num(t, 3), fontName=FONT, fontSize=6,
                      textAnchor="end"))
     for t in nice_ticks(xa, xb, 8):
         d.add(Line(px(t), bottom, px(t), bottom - 1.2 * mm, strokeWidth=0.4))
@@ -195,13 +197,68 @@ def line_plot(x: Sequence[float] | np.ndarray, y: Sequence[float] | np.ndarray, 
     if label_max and ys.size:
         k = int(np.argmax(np.abs(ys)))
         d.add(String(min(px(xs[k]) + 1.5, left + w - 30), py(ys[k]) + (2 if ys[k] >= 0 else -7),
-                     f"{sig(float(ys[k]), 4)} at x = {sig(float(xs[k]), 3)}", fontName=FONT,
+                     f"{num(float(ys[k]), 4)} at x = {num(float(xs[k]), 3)}", fontName=FONT,
                      fontSize=6.5))
     d.add(String(left + w / 2, 1.2, xlabel, fontName=FONT, fontSize=6.5, textAnchor="middle"))
     g = Group(String(0, 0, ylabel, fontName=FONT, fontSize=6.5, textAnchor="middle"))
     g.transform = (0, 1, -1, 0, 3.5 * mm, bottom + h / 2)
     d.add(g)
+    if legend:
+        entries = [(legend, colors.black, 0.9)]
+        if marks:
+            entries.append(("supports", colors.lightgrey, 0.4))
+        _legend(d, left + w - 2 * mm, bottom + h - 2 * mm, entries)
     return d
+
+
+def _legend(d: Drawing, right: float, top: float,
+            entries: Sequence[tuple[str, colors.Color, float]]) -> None:
+    """A boxed legend whose top right corner is at (right, top)."""
+    size = 6.0
+    text_w = max(stringWidth(t, FONT, size) for t, _, _ in entries)
+    box_w = text_w + 9 * mm
+    box_h = len(entries) * 3.2 * mm + 1.2 * mm
+    x = right - box_w
+    d.add(Rect(x, top - box_h, box_w, box_h, fillColor=colors.white, strokeColor=colors.grey,
+               strokeWidth=0.3))
+    for k, (text, col, lw) in enumerate(entries):
+        yy = top - (k + 1) * 3.2 * mm + 0.6 * mm
+        d.add(Line(x + 1.2 * mm, yy + 0.7 * mm, x + 6 * mm, yy + 0.7 * mm, strokeColor=col,
+                   strokeWidth=max(lw, 0.8)))
+        d.add(String(x + 7.2 * mm, yy, text, fontName=FONT, fontSize=size))
+
+
+def _legend_row(d: Drawing, x: float, y: float,
+                entries: Sequence[tuple[str, colors.Color, float]]) -> None:
+    """Legend entries in one row starting at (x, y)."""
+    for text, col, lw in entries:
+        d.add(Line(x, y + 0.8 * mm, x + 4.5 * mm, y + 0.8 * mm, strokeColor=col,
+                   strokeWidth=lw, strokeDashArray=[4, 2, 1, 2] if col == colors.red else None))
+        d.add(String(x + 5.5 * mm, y, text, fontName=FONT, fontSize=6))
+        x += 5.5 * mm + stringWidth(text, FONT, 6) + 4 * mm
+
+
+def _place_labels(labels: list[tuple[float, float, str, str]], size: float,
+                  lo: float, hi: float) -> list[tuple[float, float, str, str]]:
+    """Move labels (x, y, text, anchor) vertically so that no two overlap; each stays
+    as near its point as it can, within [lo, hi].
+    """
+    placed: list[tuple[float, float, float, float]] = []
+    out = []
+    step = size * 1.15
+    for x, y, text, anchor in sorted(labels, key=lambda t: t[1]):
+        w = stringWidth(text, FONT, size)
+        x0 = x - w if anchor == "end" else x
+        for k in range(40):
+            shift = (k + 1) // 2 * step * (1 if k % 2 else -1)
+            yy = min(max(y + shift, lo), hi - size)
+            box = (x0, yy, x0 + w, yy + size)
+            if not any(box[0] < b[2] and b[0] < box[2] and box[1] < b[3] and b[1] < box[3]
+                       for b in placed):
+                break
+        placed.append(box)
+        out.append((x, yy, text, anchor))
+    return out
 
 
 def profile_drawing(section: Section, moment: float, system: str, width: float = 160 * mm,
@@ -213,7 +270,7 @@ def profile_drawing(section: Section, moment: float, system: str, width: float =
     k = to_display(1.0, "length", system)
     ks = to_display(1.0, "stress", system)
     y0, y1 = float(section.y_bottom.min()), float(section.y_top.max())
-    bottom, top = 10 * mm, 6 * mm
+    bottom, top = 10 * mm, 8 * mm
     h = height - bottom - top
 
     def py(y: float) -> float:
@@ -240,9 +297,10 @@ def profile_drawing(section: Section, moment: float, system: str, width: float =
         d.add(Rect(left, bottom, w, h, fillColor=None, strokeWidth=0.5))
         d.add(Line(px(0), bottom, px(0), bottom + h, strokeColor=colors.grey, strokeWidth=0.4))
         for t in nice_ticks(lo, hi, 4):
-            d.add(String(px(t), bottom - 4 * mm, sig(t, 3), fontName=FONT, fontSize=6,
+            d.add(String(px(t), bottom - 4 * mm, num(t, 3), fontName=FONT, fontSize=6,
                          textAnchor="middle"))
         seen: set[tuple[float, float]] = set()
+        labels = []
         for vb, vt, yb, yt, col in segs:
             d.add(Line(px(vb), py(yb), px(vt), py(yt), strokeColor=col, strokeWidth=1.2))
             for v, y in ((vb, yb), (vt, yt)):
@@ -250,8 +308,18 @@ def profile_drawing(section: Section, moment: float, system: str, width: float =
                 if key in seen:
                     continue
                 seen.add(key)
-                d.add(String(px(v) + (2 if v >= 0 else -2), py(y) - 2, sig(v, 3), fontName=FONT,
-                             fontSize=6, textAnchor="start" if v >= 0 else "end"))
+                labels.append((px(v) + (2 if v >= 0 else -2), py(y) - 2, num(v, 3),
+                               "start" if v >= 0 else "end"))
+        for x, y, text, anchor in _place_labels(labels, 6, bottom + 1, bottom + h - 1):
+            d.add(String(x, y, text, fontName=FONT, fontSize=6, textAnchor=anchor))
+        kinds = {("steel" if c == STEEL else "timber" if c == GRAIN else "strain") for *_, c
+                 in segs}
+        entries = [(name, col, 1.2) for name, col in (("strain", colors.black),
+                                                      ("timber plies", GRAIN),
+                                                      ("steel plies", STEEL))
+                   if name.split()[0] in kinds]
+        entries.append(("neutral axis", colors.red, 0.6))
+        _legend_row(d, left, bottom + h + 2.2 * mm, entries)
         yna = py(section.neutral_axis_y)
         d.add(Line(left, yna, left + w, yna, strokeColor=colors.red, strokeWidth=0.6,
                    strokeDashArray=[4, 2, 1, 2]))

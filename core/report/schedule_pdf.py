@@ -35,7 +35,7 @@ from ..study.schedule import (
     mass_text,
     plates_text,
 )
-from .content import BODY, CAUTION_STYLE, FONT, H1, H2, SMALL
+from .layout import BODY, CAUTION_STYLE, FONT, H1, H2, SMALL
 from .sheet import _register_fonts, build_sheet
 
 COMBINED = "schedule.pdf"

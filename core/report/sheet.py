@@ -16,6 +16,7 @@ from typing import Any
 from reportlab.lib import colors
 from reportlab.lib.pagesizes import A4, LETTER
 from reportlab.lib.units import mm
+from reportlab.lib.utils import simpleSplit
 from reportlab.pdfbase import pdfmetrics
 from reportlab.pdfbase.ttfonts import TTFont
 from reportlab.pdfgen import canvas as rl_canvas
@@ -23,13 +24,14 @@ from reportlab.platypus import SimpleDocTemplate
 
 from .. import __version__
 from ..io.resources import read_bytes
+from ..model.caution import CAUTION
 from ..model.errors import Problem, ProjectError
 from ..model.project import Project
 from ..pipeline import Analysis, run
 from .content import story
 
 PAPERS = {"letter": LETTER, "a4": A4}
-TITLE_BLOCK_HEIGHT = 22 * mm
+TITLE_BLOCK_HEIGHT = 32 * mm
 
 
 def _register_fonts() -> None:
@@ -43,6 +45,19 @@ def _register_fonts() -> None:
                                   bold="PlyStackSans-Bold", italic="PlyStackSans",
                                   boldItalic="PlyStackSans-Bold")
 
+
+
+def _fit(text: str, font: str, size: float, width: float, lines: int = 1) -> list[str]:
+    """``text`` wrapped to at most ``lines`` lines of ``width``, the last one ellipsized."""
+    wrapped = simpleSplit(text, font, size, width) or [""]
+    if len(wrapped) <= lines:
+        return wrapped
+    kept = wrapped[:lines]
+    last = kept[-1]
+    while last and pdfmetrics.stringWidth(last + "\u2026", font, size) > width:
+        last = last[:-1]
+    kept[-1] = last.rstrip() + "\u2026"
+    return kept
 
 
 def _title_block_maker(project: Project, paper: tuple[float, float],
@@ -68,40 +83,81 @@ def _title_block_maker(project: Project, paper: tuple[float, float],
             for state in self._pages:
                 self.__dict__.update(state)
                 self._draw_block(total)
+                self._draw_footer()
                 super().showPage()
             super().save()
 
+        def _text(self, x: float, y: float, label: str, value: str, width: float,
+                  size: float = 7.2) -> None:
+            self.setFont("PlyStackSans", size)
+            self.drawString(x, y, _fit(label + value, "PlyStackSans", size, width)[0])
+
         def _draw_block(self, total: int) -> None:
             w, h = paper
-            x0, y0 = 15 * mm, h - 12 * mm - TITLE_BLOCK_HEIGHT
+            x0, y0 = 15 * mm, h - 10 * mm - TITLE_BLOCK_HEIGHT
             bw = w - 30 * mm
-            row = 7 * mm
+            seal = 38 * mm
+            left = bw - seal
+            top = y0 + TITLE_BLOCK_HEIGHT
+            r1, r2, r3 = top - 8 * mm, top - 14 * mm, top - 23 * mm
+            pad = 1.8 * mm
             self.setLineWidth(0.6)
             self.rect(x0, y0, bw, TITLE_BLOCK_HEIGHT)
-            self.line(x0, y0 + TITLE_BLOCK_HEIGHT - row, x0 + bw, y0 + TITLE_BLOCK_HEIGHT - row)
-            c1, c2 = x0 + bw * 0.40, x0 + bw * 0.75
-            self.line(c1, y0, c1, y0 + TITLE_BLOCK_HEIGHT - row)
-            self.line(c2, y0, c2, y0 + TITLE_BLOCK_HEIGHT - row)
-            self.setFont("PlyStackSans-Bold", 9)
-            title = project.title
-            while title and pdfmetrics.stringWidth(title, "PlyStackSans-Bold", 9) > bw - 4 * mm:
-                title = title[:-2]
-            if title != project.title:
-                title = title[:-1] + "\u2026"
-            self.drawString(x0 + 2 * mm, y0 + TITLE_BLOCK_HEIGHT - 5 * mm, title)
-            self.setFont("PlyStackSans", 7.5)
-            mid = y0 + (TITLE_BLOCK_HEIGHT - row) / 2
-            self.drawString(x0 + 2 * mm, mid + 1.5 * mm, f"Member: {info.get('member', '')}")
-            self.drawString(x0 + 2 * mm, y0 + 2 * mm,
-                            f"Plystack {__version__} \u2014 calculation sheet")
-            self.drawString(c1 + 2 * mm, mid + 1.5 * mm,
-                            f"Prepared by: {info.get('prepared_by', '')}")
-            self.drawString(c1 + 2 * mm, y0 + 2 * mm, "Checked by: ______________________")
-            self.drawString(c2 + 2 * mm, mid + 1.5 * mm,
-                            f"Date: {date}   Revision: {info.get('revision', '')}")
-            self.setFont("PlyStackSans-Bold", 9)
-            self.drawString(c2 + 2 * mm, y0 + 2 * mm, f"page {self._pageNumber} of {total}")
+            self.setLineWidth(0.4)
+            for yy in (r1, r2, r3):
+                self.line(x0, yy, x0 + left, yy)
+            self.line(x0 + left, y0, x0 + left, top)
+            c_mid = x0 + left * 0.36
+            self.line(c_mid, r1, c_mid, r3)
+            quarters = [x0 + left * f for f in (0.27, 0.50, 0.68, 0.82)]
+            for xx in quarters:
+                self.line(xx, y0, xx, r3)
+            one = _fit(project.title, "PlyStackSans-Bold", 9.5, left - 2 * pad)
+            if not one[0].endswith("\u2026"):
+                self.setFont("PlyStackSans-Bold", 9.5)
+                self.drawString(x0 + pad, r1 + 2.6 * mm, one[0])
+            else:
+                self.setFont("PlyStackSans-Bold", 7.6)
+                two = _fit(project.title, "PlyStackSans-Bold", 7.6, left - 2 * pad, 2)
+                for k, line in enumerate(two):
+                    self.drawString(x0 + pad, r1 + (4.6 - 3.1 * k) * mm, line)
+            self._text(x0 + pad, r2 + 1.9 * mm, "Job: ", info.get("job", ""),
+                       c_mid - x0 - 2 * pad)
+            self._text(c_mid + pad, r2 + 1.9 * mm, "Address: ", info.get("address", ""),
+                       x0 + left - c_mid - 2 * pad)
+            self._text(x0 + pad, r3 + 5.4 * mm, "Member: ", info.get("member", ""),
+                       c_mid - x0 - 2 * pad)
+            self.setFont("PlyStackSans", 6.3)
+            self.drawString(x0 + pad, r3 + 1.8 * mm, f"Plystack {__version__} calculation sheet")
+            self.drawString(c_mid + pad, r3 + 6.6 * mm, "Description:")
+            desc = _fit(info.get("description", ""), "PlyStackSans", 6.3,
+                        x0 + left - c_mid - 2 * pad - 14 * mm, 3)
+            for k, line in enumerate(desc):
+                self.drawString(c_mid + pad + 14 * mm, r3 + (6.6 - 2.5 * k) * mm, line)
+            checked = info.get("checked_by", "") or "______________"
+            cells = [("Prepared by:", info.get("prepared_by", "")), ("Checked by:", checked),
+                     ("Date:", date), ("Revision:", info.get("revision", "")),
+                     ("Page:", f"page {self._pageNumber} of {total}")]
+            edges = [x0, *quarters, x0 + left]
+            for (lab, val), xa, xb in zip(cells, edges[:-1], edges[1:], strict=False):
+                self.setFont("PlyStackSans", 6.3)
+                self.drawString(xa + pad, r3 - 2.8 * mm, lab)
+                self.setFont("PlyStackSans-Bold", 7.5)
+                self.drawString(xa + pad, y0 + 2.2 * mm,
+                                _fit(val, "PlyStackSans-Bold", 7.5, xb - xa - 2 * pad)[0])
+            self.setFont("PlyStackSans", 6.3)
+            self.drawString(x0 + left + pad, top - 3.4 * mm, "Seal and signature")
+            self.drawString(x0 + left + pad, y0 + 1.8 * mm,
+                            f"Licence No.: {info.get('licence', '')}")
             self.setStrokeColor(colors.black)
+
+        def _draw_footer(self) -> None:
+            w, _ = paper
+            self.setFont("PlyStackSans", 6)
+            self.setFillColor(colors.Color(0.3, 0.3, 0.3))
+            for k, line in enumerate(simpleSplit(CAUTION, "PlyStackSans", 6, w - 30 * mm)):
+                self.drawString(15 * mm, 9 * mm - k * 2.6 * mm, line)
+            self.setFillColor(colors.black)
 
     return TitledCanvas
 
@@ -138,7 +194,7 @@ def build_sheet(project: Project, out: str | Path | io.BytesIO, paper: str = "le
     size = PAPERS[paper]
     buffer = io.BytesIO()
     doc = SimpleDocTemplate(buffer, pagesize=size, leftMargin=15 * mm, rightMargin=15 * mm,
-                            topMargin=16 * mm + TITLE_BLOCK_HEIGHT, bottomMargin=14 * mm,
+                            topMargin=14 * mm + TITLE_BLOCK_HEIGHT, bottomMargin=14 * mm,
                             title=f"{a.project.title} \u2014 calculation sheet",
                             author=a.project.info.get("prepared_by", ""),
                             creator=f"Plystack {__version__}")

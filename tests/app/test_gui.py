@@ -134,6 +134,16 @@ def test_bad_load_cell_refused(window, qtbot):
     assert "loads[0].value" in window.beam_panel.error.text()
 
 
+def test_editing_a_load_keeps_its_description(window, qtbot):
+    table = window.beam_panel.loads
+    before = window.document.project.beam.loads[0]
+    assert before.description
+    table.item(0, 2).setText("15 psf")
+    after = window.document.project.beam.loads[0]
+    assert after.value != before.value
+    assert after.description == before.description
+
+
 def test_save_reopen_and_prompt(window, qtbot, tmp_path):
     window.canvas.select(1)
     edit = window.ply_panel.fields["width"]

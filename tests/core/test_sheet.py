@@ -15,6 +15,7 @@ from plystack.core.cli import main
 from plystack.core.io.project_file import from_dict, load
 from plystack.core.model.errors import ProjectError
 from plystack.core.model.units import fmt
+from plystack.core.report.numbers import q
 from plystack.core.report.sheet import build_sheet
 
 DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
@@ -44,7 +45,8 @@ def test_sections_in_order_and_numbers_match_check_json(capsys):
     out = json.loads(capsys.readouterr().out)
     sec = out["section"]
     assert "y_na = " in text and fmt(sec["neutral_axis_y"], "length", "US", 5) in text
-    assert fmt(sec["EI"], "EI", "US", 5) in text
+    # issue 21: thousands separators and unit typography (was "923697949 lbf*in^2")
+    assert squash(q(sec["EI"], "EI", "US", 5)) in text
     for c in out["checks"]:
         assert f"{c['ratio']:.3f}" in text
     assert "Verdict: OK" in text
