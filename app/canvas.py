@@ -47,7 +47,7 @@ SCENE_HALF = 100_000.0
 #: Zoom bounds, px per mm.
 MIN_SCALE, MAX_SCALE = 1e-4, 2000.0
 #: Margins kept free around the plies when fitting, px (the dimension labels sit there).
-FIT_MARGINS = (24, 24, 130, 64)  # left, top, right, bottom
+FIT_MARGINS = (48, 40, 120, 64)  # left, top, right, bottom
 
 
 class SectionCanvas(QGraphicsView):
@@ -230,9 +230,23 @@ class SectionCanvas(QGraphicsView):
         selection).
         """
         u = self.system
+        s = self._scale()
         for i, ply in enumerate(self.document.project.plies):
             c = self._rect(ply).center()
-            self._place(tag(ply.name, size=8.5), c.x(), c.y(), -0.5, -1.0).setZValue(3100)
+            name = tag(ply.name, size=8.5)
+            r = name.rect()
+            w_px, h_px = ply.width * 1000 * s, ply.height * 1000 * s
+            if r.width() > w_px - 4 and h_px > w_px:  # a tall narrow ply: read upwards
+                t = QTransform()
+                t.rotate(-90)
+                t.translate(-r.width() / 2 - r.left(), -r.height() / 2 - r.top())
+                name.setPos(c.x(), c.y())
+                name.setTransform(t)
+                self.scene().addItem(name)
+            else:
+                self._place(name, c.x(), c.y(), -0.5, -1.0 if i in (self.selected,
+                                                                    self.hovered) else -0.5)
+            name.setZValue(3100)
             dims = tag(f"{fmt(ply.width, 'length', u)} \u00d7 {fmt(ply.height, 'length', u)}",
                        QColor(0, 70, 160), size=8)
             self._place(dims, c.x(), c.y(), -0.5, 0.0).setZValue(3200)
@@ -272,7 +286,7 @@ class SectionCanvas(QGraphicsView):
             na_pen.setWidthF(1.5)
             scene.addLine(x0 - gap, -yna, x1 + gap * 0.6, -yna, na_pen).setZValue(2500)
             red = QColor(170, 20, 20)
-            self._place(tag("NA", red), x1 + gap * 0.6, -yna, 0.05, -1.0)
+            self._place(tag("NA", red), x0 - gap, -yna, -1.05, -0.5)
             self._place(tag(f"neutral axis y = {fmt(yna / 1000, 'length', u)} "
                             "(red dash-dot line)", red), (x0 + x1) / 2, -y0 + gap, -0.5, 1.1)
 
@@ -310,7 +324,7 @@ class SectionCanvas(QGraphicsView):
             painter.restore()
 
     def drawForeground(self, painter: QPainter, rect: QRectF) -> None:  # noqa: N802,D102
-        """A scale bar in the lower left corner of the view."""
+        """A scale bar in the upper left corner of the view."""
         painter.save()
         try:
             self._draw_scale_bar(painter)
@@ -328,7 +342,7 @@ class SectionCanvas(QGraphicsView):
         if not math.isfinite(w) or w > self.viewport().width():
             return
         painter.resetTransform()
-        x0, y0 = 16, self.viewport().height() - 18
+        x0, y0 = 16, 18
         painter.setPen(QPen(QColor(30, 30, 30), 2))
         painter.drawLine(QPointF(x0, y0), QPointF(x0 + w, y0))
         painter.drawLine(QPointF(x0, y0 - 5), QPointF(x0, y0 + 3))
