@@ -53,7 +53,6 @@ from plystack.core.pipeline import Analysis
 __all__ = ["MainWindow", "autosave_dir"]
 
 AUTOSAVE_MS = 60_000
-UNDO_KEYS = (QKeySequence.StandardKey.Undo, QKeySequence.StandardKey.Redo)
 
 
 def _matches_undo_redo(event: QKeyEvent) -> str | None:
@@ -226,10 +225,17 @@ class MainWindow(FileActions, ToolActions, QMainWindow):
     # --- undo wherever the focus is ---------------------------------------------------
 
     def eventFilter(self, watched: QObject, event: QEvent) -> bool:  # noqa: N802,D102
-        if (event.type() == QEvent.Type.ShortcutOverride and isinstance(watched, QLineEdit)
-                and isinstance(event, QKeyEvent) and _matches_undo_redo(event)
-                and watched.window() is self):
-            return True  # not the field's own undo: the window's Undo / Redo actions run
+        # A text field takes Ctrl+Z for its own undo (it overrides the shortcut); here the
+        # key press goes to the project's undo instead, after the field commits.
+        if (event.type() == QEvent.Type.KeyPress and isinstance(watched, QLineEdit)
+                and isinstance(event, QKeyEvent) and watched.window() is self):
+            which = _matches_undo_redo(event)
+            if which == "undo":
+                self.undo()
+                return True
+            if which == "redo":
+                self.redo()
+                return True
         return False
 
     def commit_focused_entry(self) -> None:
