@@ -151,6 +151,7 @@ class ProfilePlot(BlitCanvas):
         for ax in axes:
             ax.axvline(0.0, color="#999999", lw=0.6)
             ax.tick_params(labelsize=7)
+            ax.set_autoscale_on(False)
         self.stress_lines: list[Any] = []
         self.extreme_labels = {k: [ax.annotate("", (0, 0), fontsize=7, xytext=(3, 0),
                                                textcoords="offset points", va="center")
@@ -212,9 +213,10 @@ class ProfilePlot(BlitCanvas):
         self.stress_lines = []
         for i in plies:
             ax = self.ax_stress[kind_of[i]]
-            (line,) = ax.plot([bot[i] * ks, top[i] * ks], [s.y_bottom[i] * k, s.y_top[i] * k],
-                              lw=1.8, color=KIND_COLOURS[kind_of[i]],
-                              ls=style[(kind_of[i], mats[i])])
+            line = Line2D([bot[i] * ks, top[i] * ks], [s.y_bottom[i] * k, s.y_top[i] * k],
+                          lw=1.8, color=KIND_COLOURS[kind_of[i]],
+                          ls=style[(kind_of[i], mats[i])])
+            ax.add_line(line)  # no autoscaling: the limits are ours (see _set_limits)
             self.stress_lines.append(line)
         used = self._label_extremes(plies, kind_of, top, bot, s, k, ks)
         na = s.neutral_axis_y * k
@@ -305,6 +307,7 @@ class DiagramPlot(BlitCanvas):
                       for ax, c in zip(self.axes, ("#2a6f97", "#9b2226", "#3a5a40"), strict=True)]
         for ax in self.axes:
             ax.axhline(0, color="#888888", lw=0.6)
+            ax.set_autoscale_on(False)  # the limits are ours (set in update_from)
         self.fills = [ax.add_patch(Polygon(np.zeros((1, 2)), closed=True, alpha=0.12,
                                            color=line.get_color(), lw=0))
                       for ax, line in zip(self.axes, self.lines, strict=True)]

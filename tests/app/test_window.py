@@ -362,3 +362,26 @@ def test_gui_with_a_bad_file_opens_the_window_with_an_error(tmp_path, qtbot, mon
     assert gui_main.run_gui(str(bad)) == 0
     assert opened and opened[0].document.path is None
     assert shown and shown[0][0] == "Cannot open" and "plies" in shown[0][1]
+
+
+def test_plot_limits_always_match_the_drawn_axes(window, qtbot):
+    """The data are blitted over cached axes: the limits they are drawn with must be the
+    limits the cached axes (ticks) were drawn with.
+    """
+    pp = window.profiles
+    drawn = {}
+    pp.mpl_connect("draw_event", lambda e: drawn.update(
+        strain=(pp.ax_strain.get_xlim(), pp.ax_strain.get_ylim())))
+    pp.figure.set_layout_engine("constrained")
+    pp.draw()
+    for h in (10.1875, 9.25, 20.0, 9.25, 9.0):
+        p = window.document.project
+        plies = list(p.plies)
+        plies[2] = replace(plies[2], height=h * IN)
+        window.document.apply(p.with_plies(tuple(plies)), "height")
+        window.recompute()
+        settle(qtbot, 10)
+        assert drawn["strain"] == (pp.ax_strain.get_xlim(), pp.ax_strain.get_ylim()), h
+        top = max(q.y + q.height for q in plies) / IN
+        lo, hi = pp.ax_strain.get_ylim()
+        assert lo <= 0 and hi >= top
