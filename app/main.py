@@ -89,7 +89,8 @@ def run_gui(path: str | None, screenshot: str | None = None) -> int:
         show_message(window, QMessageBox.Icon.Warning, "Cannot open",
                      "The project could not be opened; a new untitled project is open "
                      "instead.\n\n" + "\n".join(problems))
-    offer_recovery(window, autosave_dir(), PlainBox)
+    else:  # work of another session is offered only when the asked-for document opened
+        offer_recovery(window, autosave_dir(), PlainBox)
     return int(app.exec())
 
 

@@ -74,13 +74,14 @@ class RatioBar(QStyledItemDelegate):
         verdict = verdict_of(ratio, ratio <= 1.0 + 1e-9, self.amber_from)
         if math.isfinite(ratio):
             w = int(r.width() * min(max(ratio, 0.0), 1.0))
-            painter.fillRect(QRect(r.left(), r.top(), w, r.height()), verdict_colour(verdict))
+            painter.fillRect(QRect(r.left(), r.top(), w, r.height()),
+                             verdict_colour(verdict).lighter(170))
             text = f"{ratio:.3f}"
         else:
             if math.isinf(ratio):
-                painter.fillRect(r, verdict_colour(verdict))
+                painter.fillRect(r, verdict_colour(verdict).lighter(170))
             text = "\u221e" if math.isinf(ratio) else "\u2014"
-        painter.setPen(QColor(0, 0, 0) if verdict != "NOT OK" else QColor(255, 255, 255))
+        painter.setPen(QColor(0, 0, 0))
         painter.drawText(r, Qt.AlignmentFlag.AlignCenter, text)
 
 
