@@ -16,7 +16,6 @@ from PySide6.QtWidgets import (
     QFormLayout,
     QHBoxLayout,
     QInputDialog,
-    QLabel,
     QLineEdit,
     QPushButton,
     QTableWidget,
@@ -27,6 +26,7 @@ from PySide6.QtWidgets import (
 
 from plystack.app.analysis_model import AnalysisModel
 from plystack.app.document import Document
+from plystack.app.safe import plain_label, reporter
 from plystack.core.model import units
 from plystack.core.model.caution import CAUTION
 from plystack.core.model.errors import ProjectError
@@ -86,7 +86,7 @@ class AlternativesPanel(QWidget):
         self.figure = Figure(figsize=(5, 2.4), layout="constrained")
         self.chart = FigureCanvasQTAgg(self.figure)
         self.ax = self.figure.subplots()
-        add = QPushButton("Keep current as alternative")
+        add = self.add_button = QPushButton("Keep current as alternative")
         promote = QPushButton("Make selected current")
         remove = QPushButton("Remove selected")
         add.clicked.connect(lambda _checked=False: self.add_current())
@@ -95,11 +95,13 @@ class AlternativesPanel(QWidget):
         buttons = QHBoxLayout()
         for b in (add, promote, remove):
             buttons.addWidget(b)
-        caution = QLabel(CAUTION)
-        caution.setWordWrap(True)
+        self.message = plain_label("")
+        self.message.setStyleSheet("color: #b00000;")
+        caution = plain_label(CAUTION)
         caution.setStyleSheet("color: #6b4e00; background: #fff6d6; padding: 4px;")
         layout = QVBoxLayout(self)
         layout.addLayout(buttons)
+        layout.addWidget(self.message)
         layout.addWidget(self.table, 2)
         layout.addWidget(self.chart, 1)
         layout.addWidget(caution)
@@ -123,6 +125,9 @@ class AlternativesPanel(QWidget):
                     v = column_values(self.analysis_model.analyse(p.with_plies(alt.plies)))
                 except ProjectError as exc:
                     v = {"error": "; ".join(str(q) for q in exc.problems)}
+                except Exception as exc:
+                    reporter().report(f"Analysing the alternative \u201c{alt.name}\u201d", exc)
+                    v = {"error": f"could not be analysed ({exc})"}
                 self._cache[alt.plies] = v
             self.names.append(alt.name)
             self.values.append(self._cache[alt.plies])
@@ -135,18 +140,24 @@ class AlternativesPanel(QWidget):
         self.table.setHorizontalHeaderLabels(self.names)
         self.table.setVerticalHeaderLabels(labels)
         u = p.display_units
+        passing = [v.get("ok") is True for v in self.values]
         for r, (_label, key, kind, best) in enumerate(ROWS):
             nums = [v.get(key) for v in self.values]
-            self._fill_row(r, nums, kind, best, u, whole=key == "bolts")
+            self._fill_row(r, nums, kind, best, u, passing, whole=key == "bolts")
         for k, name in enumerate(check_rows):
             nums = [v.get("checks", {}).get(name, math.nan) for v in self.values]  # type: ignore[attr-defined]
-            self._fill_row(len(ROWS) + k, nums, "", "min", u)
+            self._fill_row(len(ROWS) + k, nums, "", "min", u, passing)
+        errors = [f"{n}: {v['error']}" for n, v in zip(self.names, self.values, strict=True)
+                  if "error" in v]
+        self.message.setText("\n".join(errors))
         self.table.resizeColumnsToContents()
         self._draw_chart()
 
     def _fill_row(self, r: int, nums: list[object], kind: str, best: str, u: str,
-                  whole: bool = False) -> None:
-        finite = [x for x in nums if isinstance(x, float) and math.isfinite(x)]
+                  passing: list[bool], whole: bool = False) -> None:
+        """One row; the best value is marked among the alternatives that pass only."""
+        finite = [x for x, ok in zip(nums, passing, strict=True)
+                  if ok and isinstance(x, float) and math.isfinite(x)]
         target = (min(finite) if best == "min" else max(finite)) if finite and best else None
         for c, x in enumerate(nums):
             if isinstance(x, bool):
@@ -159,12 +170,12 @@ class AlternativesPanel(QWidget):
             item = QTableWidgetItem(text)
             item.setData(Qt.ItemDataRole.UserRole, x)
             item.setFlags(item.flags() & ~Qt.ItemFlag.ItemIsEditable)
-            if target is not None and x == target and len(nums) > 1:
+            if target is not None and x == target and passing[c] and len(nums) > 1:
                 f = QFont()
                 f.setBold(True)
                 item.setFont(f)
                 item.setBackground(QColor(220, 240, 220))
-                item.setToolTip("best in this row")
+                item.setToolTip("best in this row among the alternatives that pass")
             if isinstance(x, bool) and not x:
                 item.setForeground(QColor(190, 30, 30))
             self.table.setItem(r, c, item)
@@ -179,7 +190,8 @@ class AlternativesPanel(QWidget):
             self.ax.bar(idx + 0.2, defl, 0.4, label="deflection ratio", color="#c9a25c",
                         hatch="//")
             self.ax.axhline(1.0, color="#b02020", lw=1, ls="--")
-            self.ax.set_xticks(idx, [n[:18] for n in self.names], fontsize=7)
+            self.ax.set_xticks(idx, [n[:18].replace("$", r"\$") for n in self.names],
+                               fontsize=7)
             self.ax.legend(fontsize=7)
             self.ax.set_ylabel("ratio", fontsize=8)
         self.chart.draw_idle()
@@ -189,15 +201,30 @@ class AlternativesPanel(QWidget):
         cols = {i.column() for i in self.table.selectedIndexes()}
         return min(cols) if cols else None
 
+    def ask_name(self, suggestion: str) -> str | None:
+        """Ask for the alternative's name (None: cancelled); replaced in tests."""
+        name, ok = QInputDialog.getText(self, "Alternative", "Name of the alternative:",
+                                        text=suggestion)
+        return name if ok else None
+
     def add_current(self, name: str | None = None) -> None:
-        """Keep the current plies as a named alternative."""
+        """Keep the current plies as a named alternative (a name already used gets a
+        number added).
+        """
         p = self.document.project
+        taken = {a.name for a in p.alternatives}
+        k = len(p.alternatives) + 1
+        while f"alternative {k}" in taken:
+            k += 1
         if name is None:
-            name, ok = QInputDialog.getText(self, "Alternative", "Name of the alternative:",
-                                            text=f"alternative {len(p.alternatives) + 1}")
-            if not ok or not name.strip():
-                return
-        alts = (*p.alternatives, Alternative(name.strip(), p.plies))
+            name = self.ask_name(f"alternative {k}")
+        if not isinstance(name, str) or not name.strip():
+            return
+        name = name.strip()
+        base, n = name, 2
+        while name in taken:
+            name, n = f"{base} ({n})", n + 1
+        alts = (*p.alternatives, Alternative(name, p.plies))
         self.document.apply(replace(p, alternatives=alts), "Add alternative")
 
     def promote(self, name: str) -> None:
@@ -245,8 +272,7 @@ class SweepDialog(QDialog):
                                 "4 mm, 6 mm, 8 mm, 10 mm, 12 mm, 15 mm, 20 mm")
         go = QPushButton("Run")
         go.clicked.connect(self.run_sweep)
-        self.message = QLabel("")
-        self.message.setWordWrap(True)
+        self.message = plain_label("")
         self.table = QTableWidget(0, 5)
         self.table.setHorizontalHeaderLabels(["Value", "Governing ratio", "Governs",
                                               "Deflection", "Mass per length"])

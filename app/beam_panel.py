@@ -1,18 +1,25 @@
-"""Beam and design panel: spans, supports, overhangs, loads table, combinations, basis."""
+"""Beam and design panel: spans, supports, overhangs, loads table, combinations, basis,
+and the reactions of every load case and combination (from the analysis model).
+
+Only the fields of the chosen design basis are shown (the other basis's keys stay in the
+project as they are, but are not offered for editing).
+"""
 
 from __future__ import annotations
 
 from dataclasses import replace
 
+from PySide6.QtCore import Qt
 from PySide6.QtGui import QColor
 from PySide6.QtWidgets import (
     QCheckBox,
     QComboBox,
     QFormLayout,
     QHBoxLayout,
-    QLabel,
+    QHeaderView,
     QLineEdit,
     QPushButton,
+    QScrollArea,
     QStyledItemDelegate,
     QTableWidget,
     QTableWidgetItem,
@@ -20,8 +27,10 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from plystack.app.analysis_model import AnalysisModel
 from plystack.app.document import Document
 from plystack.app.quantity import QuantityEdit, parse_entry
+from plystack.app.safe import guarded, plain_label, plain_tip
 from plystack.core.model import units
 from plystack.core.model.design import STEEL_RULES, TEMPERATURES, DesignSpec
 from plystack.core.model.member import (
@@ -68,9 +77,10 @@ def default_beam(system: str) -> BeamSpec:
 class BeamPanel(QWidget):
     """Edits the project's beam and design basis; bad entries are marked in place."""
 
-    def __init__(self, document: Document):
+    def __init__(self, document: Document, analysis: AnalysisModel | None = None):
         super().__init__()
         self.document = document
+        self.analysis = analysis
         system = lambda: self.document.project.display_units  # noqa: E731
         self._updating = False
         self.has_beam = QCheckBox("Analyse as a beam (spans, supports, loads)")
@@ -107,10 +117,16 @@ class BeamPanel(QWidget):
         self.connector_allowable = QuantityEdit("force", "connector allowable", system, positive)
         self.connector_allowable.setToolTip("Allowable (US) or design (EU) lateral load of one "
                                             "connector, already adjusted")
-        self.error = QLabel("")
+        self.error = plain_label("")
         self.error.setStyleSheet("color: #b00000")
-        self.error.setWordWrap(True)
+        self.reactions = QTableWidget(0, 0)
+        self.reactions.verticalHeader().setVisible(False)
+        self.reactions.setMinimumHeight(140)
+        self.reactions.setEditTriggers(QTableWidget.EditTrigger.NoEditTriggers)
         self.loads = QTableWidget(0, len(COLUMNS))
+        self.loads.setMinimumHeight(130)
+        self.loads.horizontalHeader().setSectionResizeMode(
+            QHeaderView.ResizeMode.ResizeToContents)
         self.loads.setHorizontalHeaderLabels(COLUMNS)
         self.loads.verticalHeader().setVisible(False)
         self.loads.setItemDelegateForColumn(0, ChoiceDelegate(CASES, self.loads))
@@ -127,7 +143,7 @@ class BeamPanel(QWidget):
         form.addRow(self.self_weight)
         form.addRow("Combinations", self.combos)
         form.addRow("Design basis", self.basis)
-        form.addRow("Service class (EU)", self.service_class)
+        form.addRow("Service class", self.service_class)
         form.addRow("Temperature (NDS C_t)", self.temperature)
         form.addRow("Steel plate allowable", self.steel_rule)
         form.addRow("Deflection limit, live L /", self.live_limit)
@@ -138,15 +154,29 @@ class BeamPanel(QWidget):
         form.addRow(self.repetitive)
         form.addRow(self.incised)
         form.addRow(self.braced)
+        self.form = form
         buttons = QHBoxLayout()
         buttons.addWidget(add)
         buttons.addWidget(remove)
-        layout = QVBoxLayout(self)
+        inner = QWidget()
+        layout = QVBoxLayout(inner)
         layout.addLayout(form)
-        layout.addWidget(QLabel("Loads (positions from the left end of the member)"))
+        layout.addWidget(plain_label("Loads (positions from the left end of the member)"))
         layout.addWidget(self.loads, 1)
         layout.addLayout(buttons)
         layout.addWidget(self.error)
+        layout.addWidget(plain_label("Reactions (upward +), per load case and per "
+                                     "combination"))
+        layout.addWidget(self.reactions, 1)
+        scroll = QScrollArea()
+        scroll.setWidget(inner)
+        scroll.setWidgetResizable(True)
+        scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        outer = QVBoxLayout(self)
+        outer.setContentsMargins(0, 0, 0, 0)
+        outer.addWidget(scroll)
+        if analysis is not None:
+            analysis.analysis_changed.connect(self.show_reactions)
         self.has_beam.toggled.connect(self._toggle_beam)
         self.spans.editingFinished.connect(self._set_spans)
         self.supports.activated.connect(lambda _i: self._set_layout(
@@ -198,6 +228,7 @@ class BeamPanel(QWidget):
             w.setEnabled(beam is not None)
         design = p.design_or_default()
         self.basis.setCurrentText(design.basis)
+        self._show_basis_fields(design.us)
         self.service_class.setCurrentText(str(design.service_class))
         self.wet.setChecked(design.wet_service)
         self.repetitive.setChecked(design.repetitive_member)
@@ -229,6 +260,46 @@ class BeamPanel(QWidget):
                 self.combos.setCurrentText("ASD" if design.us else "EN1990")
             self._fill_loads(beam.loads, u)
         self._updating = False
+
+    US_ONLY = ("temperature", "steel_rule", "wet", "repetitive", "incised", "braced")
+    EU_ONLY = ("service_class",)
+
+    def _show_basis_fields(self, us: bool) -> None:
+        for name in self.US_ONLY:
+            self.form.setRowVisible(getattr(self, name), us)
+        for name in self.EU_ONLY:
+            self.form.setRowVisible(getattr(self, name), not us)
+
+    @guarded("Showing the reactions")
+    def show_reactions(self) -> None:
+        """Reactions at every support for each load case and each combination."""
+        a = self.analysis.analysis if self.analysis is not None else None
+        if a is None or a.beam is None:
+            self.reactions.setRowCount(0)
+            self.reactions.setColumnCount(0)
+            return
+        u = a.project.display_units
+        xs = a.beam.model.layout.support_positions()
+        rows = [(f"case {name}", sol) for name, sol in a.beam.cases.items()]
+        rows += [(c.name, c.solution) for c in a.beam.combinations]
+        moments = any(abs(float(m)) > 0 for _, sol in rows for m in sol.reaction_moments)
+        headers = [f"R at {units.fmt(x, 'span', u, 4)}" for x in xs]
+        if moments:
+            headers += [f"M at {units.fmt(x, 'span', u, 4)}" for x in xs]
+        self.reactions.setColumnCount(1 + len(headers))
+        self.reactions.setHorizontalHeaderLabels(["Case / combination", *headers])
+        self.reactions.setRowCount(len(rows))
+        for r, (name, sol) in enumerate(rows):
+            values = [("force", float(v)) for v in sol.reactions]
+            if moments:
+                values += [("moment", float(v)) for v in sol.reaction_moments]
+            cells = [(name, name)] + [(units.fmt(v, kind, u), v) for kind, v in values]
+            for col, (text, value) in enumerate(cells):
+                item = QTableWidgetItem(text)
+                item.setData(Qt.ItemDataRole.UserRole, value)
+                item.setToolTip(plain_tip(text))
+                self.reactions.setItem(r, col, item)
+        self.reactions.resizeColumnsToContents()
 
     def _fill_loads(self, loads: tuple[Load, ...], u: str) -> None:
         self.loads.blockSignals(True)
@@ -290,6 +361,7 @@ class BeamPanel(QWidget):
             self.supports.setCurrentText(beam.layout.supports)
             self._updating = False
 
+    @guarded("Setting the spans")
     def _set_spans(self) -> None:
         beam = self.document.project.beam
         if self._updating or beam is None:
@@ -370,6 +442,7 @@ class BeamPanel(QWidget):
                     opt(5, "to") if typ != "point" else None,
                     opt(6, "at") if typ == "point" else None)
 
+    @guarded("Editing a load")
     def _cell_changed(self, row: int, column: int) -> None:
         beam = self.document.project.beam
         if self._updating or beam is None:
@@ -394,7 +467,7 @@ class BeamPanel(QWidget):
         if item is not None:
             self.loads.blockSignals(True)
             item.setBackground(QColor(255, 217, 217))
-            item.setToolTip(message)
+            item.setToolTip(plain_tip(message))
             self.loads.blockSignals(False)
 
     def add_load(self) -> None:

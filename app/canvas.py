@@ -1,7 +1,10 @@
 """The section canvas: plies drawn to scale on a snapping grid, edited with the mouse.
 
 Scene units are millimetres with y pointing up in the model and down in Qt, so a model
-point (x, y) in metres sits at scene (1000 x, -1000 y).
+point (x, y) in metres sits at scene (1000 x, -1000 y). The scene rectangle is fixed and
+large, so redrawing the plies never scrolls or re-scales the view: the view changes only
+when the user zooms, pans or fits (F), when a project is loaded, and when the window is
+resized while the user has not zoomed. A gesture never re-fits the view.
 """
 
 from __future__ import annotations
@@ -13,58 +16,38 @@ from PySide6.QtCore import QPointF, QRectF, Qt, Signal
 from PySide6.QtGui import (
     QBrush,
     QColor,
-    QFont,
     QKeyEvent,
     QMouseEvent,
     QPainter,
-    QPainterPath,
     QPen,
+    QTransform,
     QWheelEvent,
 )
 from PySide6.QtWidgets import (
+    QApplication,
     QGraphicsItem,
     QGraphicsPathItem,
     QGraphicsRectItem,
     QGraphicsScene,
-    QGraphicsSimpleTextItem,
     QGraphicsView,
 )
-from shapely.geometry import MultiPolygon, Polygon
-from shapely.geometry.base import BaseGeometry
 
 from plystack.app.analysis_model import AnalysisModel
-from plystack.app.document import Document
-from plystack.app.interactions import DrawGesture, Gesture, MoveGesture, ResizeGesture
+from plystack.app.canvas_items import FILLS, draw_grid, geometry_path, tag
+from plystack.app.document import Document, new_gesture_key
+from plystack.app.interactions import DrawGesture, MoveGesture, Press, ResizeGesture
+from plystack.app.safe import guarded, reporter
 from plystack.core.model.constants import INCH as IN
 from plystack.core.model.units import fmt
 from plystack.core.section.transformed import Section
 
 HANDLE_PX = 8
-
-#: Fills by material kind that read in greyscale print: timber light with diagonal grain
-#: lines, steel dark and solid, other materials mid grey with cross-hatching.
-FILLS = {
-    "timber": (QColor(236, 214, 170), Qt.BrushStyle.BDiagPattern, QColor(150, 110, 60)),
-    "steel": (QColor(70, 78, 90), Qt.BrushStyle.SolidPattern, QColor(70, 78, 90)),
-    "other": (QColor(190, 190, 200), Qt.BrushStyle.DiagCrossPattern, QColor(110, 110, 120)),
-}
-
-
-def geometry_path(geom: BaseGeometry) -> QPainterPath:
-    """A painter path of a (multi)polygon with holes, in scene units."""
-    path = QPainterPath()
-    path.setFillRule(Qt.FillRule.OddEvenFill)
-    polys = geom.geoms if isinstance(geom, MultiPolygon) else [geom]
-    for poly in polys:
-        if not isinstance(poly, Polygon) or poly.is_empty:
-            continue
-        for ring in [poly.exterior, *poly.interiors]:
-            pts = [QPointF(x * 1000, -y * 1000) for x, y in ring.coords]
-            path.moveTo(pts[0])
-            for p in pts[1:]:
-                path.lineTo(p)
-            path.closeSubpath()
-    return path
+#: Scene extent, mm (a square 200 m across): fixed, so redraws never move the view.
+SCENE_HALF = 100_000.0
+#: Zoom bounds, px per mm.
+MIN_SCALE, MAX_SCALE = 1e-4, 2000.0
+#: Margins kept free around the plies when fitting, px (the dimension labels sit there).
+FIT_MARGINS = (48, 40, 120, 64)  # left, top, right, bottom
 
 
 class SectionCanvas(QGraphicsView):
@@ -78,16 +61,26 @@ class SectionCanvas(QGraphicsView):
         self.document = document
         self.analysis = analysis
         self.setScene(QGraphicsScene(self))
+        self.scene().setSceneRect(QRectF(-SCENE_HALF, -SCENE_HALF, 2 * SCENE_HALF,
+                                         2 * SCENE_HALF))
         self.setRenderHint(QPainter.RenderHint.Antialiasing)
         self.setMouseTracking(True)
         self.setFocusPolicy(Qt.FocusPolicy.StrongFocus)
+        self.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        self.setVerticalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
         self.setTransformationAnchor(QGraphicsView.ViewportAnchor.AnchorUnderMouse)
         self.setViewportUpdateMode(QGraphicsView.ViewportUpdateMode.FullViewportUpdate)
+        self.setMinimumSize(200, 160)
         self.selected: int | None = None
+        self.hovered: int | None = None
         self.show_transformed = False
         self.snap_override: float | None = None
-        self.gesture: Gesture | None = None
+        self.press: Press | None = None
+        self._pan: QPointF | None = None
+        self._user_zoomed = False
         self._fitted = False
+        self._nudge_key: str | None = None
+        self._dimensions: dict[int, QGraphicsRectItem] = {}
         analysis.section_changed.connect(self.rebuild)
         self.rebuild()
 
@@ -96,9 +89,15 @@ class SectionCanvas(QGraphicsView):
         """The section the analysis model published for the current plies."""
         return self.analysis.section
 
+    @property
+    def gesture(self):  # type: ignore[no-untyped-def]
+        """The gesture running now (None while no button is held or during a click)."""
+        return self.press.gesture if self.press is not None else None
+
     def request_fit(self) -> None:
         """Fit the section in the view at the next redraw (a new project was loaded)."""
         self._fitted = False
+        self._user_zoomed = False
 
     # --- state ------------------------------------------------------------------------
 
@@ -116,13 +115,14 @@ class SectionCanvas(QGraphicsView):
 
     def snap(self, value: float) -> float:
         """Round to the snap step, exactly in the display unit."""
+        if not math.isfinite(value):
+            return value
         if self.snap_override:
             return round(value / self.snap_override) * self.snap_override
         if self.system == "US":
             per_in = round(IN / self.snap_step)
             return round(value / IN * per_in) / per_in * IN
-        per_mm = 0.001 / self.snap_step
-        return round(value * 1000 / per_mm) * per_mm / 1000
+        return round(value * 1000) / 1000
 
     def default_material(self) -> str:
         """Material of a newly drawn ply: that of the selected ply, else a steel grade."""
@@ -151,16 +151,17 @@ class SectionCanvas(QGraphicsView):
 
     # --- drawing ----------------------------------------------------------------------
 
+    @guarded("Drawing the section")
     def rebuild(self) -> None:
-        """Redraw every item from the model."""
+        """Redraw every item from the model (the view itself stays where it is)."""
         scene = self.scene()
         scene.clear()
+        self._dimensions = {}
         project = self.document.project
         if self.selected is not None and self.selected >= len(project.plies):
             self.selected = None
             self.selection_changed.emit(-1)
         if not project.plies:
-            scene.setSceneRect(QRectF(-200, -200, 400, 400))
             return
         mats = project.all_materials()
         section = self.section
@@ -169,34 +170,8 @@ class SectionCanvas(QGraphicsView):
         geoms = section.geoms if section else [p.rectangle() for p in project.plies]
         for i, (ply, geom) in enumerate(zip(project.plies, geoms, strict=True)):
             kind = mats[ply.material].kind if ply.material in mats else "other"
-            color, style, line = FILLS.get(kind, FILLS["other"])
-            item = QGraphicsPathItem(geometry_path(geom))
-            brush = QBrush(line if style != Qt.BrushStyle.SolidPattern else color, style)
-            back = QGraphicsPathItem(geometry_path(geom))
-            back.setBrush(QBrush(color if style != Qt.BrushStyle.SolidPattern else color))
-            back.setPen(QPen(Qt.PenStyle.NoPen))
-            back.setZValue(2 * i)
-            scene.addItem(back)
-            item.setBrush(brush)
-            pen = QPen(QColor(20, 20, 20), 0)
-            pen.setCosmetic(True)
-            pen.setWidthF(2.5 if i == self.selected else 1.0)
-            if i == self.selected:
-                pen.setColor(QColor(0, 90, 200))
-            item.setPen(pen)
-            item.setZValue(2 * i + 1)
-            item.setData(0, i)
-            item.setToolTip(f"{ply.name} ({ply.material})")
-            scene.addItem(item)
-            # dashed outline of the uncut rectangle where the ply is clipped
-            clipped = section is not None and not section.is_unclipped(i)
-            if clipped:
-                ghost = QGraphicsRectItem(self._rect(ply))
-                gp = QPen(QColor(120, 120, 120), 0, Qt.PenStyle.DotLine)
-                gp.setCosmetic(True)
-                ghost.setPen(gp)
-                ghost.setZValue(1000)
-                scene.addItem(ghost)
+            self._draw_ply(i, geom, kind, section is not None and not section.is_unclipped(i),
+                           ply)
         if section is not None and self.show_transformed:
             for i in range(len(project.plies)):
                 t = QGraphicsPathItem(geometry_path(section.transformed_geometry(i)))
@@ -206,33 +181,84 @@ class SectionCanvas(QGraphicsView):
                 t.setZValue(1500)
                 scene.addItem(t)
         self._draw_annotations()
+        self._draw_names()
         if self.selected is not None:
             self._draw_handles(project.plies[self.selected])
-        bounds = scene.itemsBoundingRect().adjusted(-40, -40, 40, 40)
-        scene.setSceneRect(bounds.united(QRectF(-50, -50, 100, 100)))
-        if not self._fitted:
+        if not self._fitted and self.press is None:
             self.fit()
+
+    def _draw_ply(self, i: int, geom, kind: str, clipped: bool, ply) -> None:  # type: ignore[no-untyped-def]
+        color, style, line = FILLS.get(kind, FILLS["other"])
+        back = QGraphicsPathItem(geometry_path(geom))
+        back.setBrush(QBrush(color))
+        back.setPen(QPen(Qt.PenStyle.NoPen))
+        back.setZValue(2 * i)
+        self.scene().addItem(back)
+        item = QGraphicsPathItem(geometry_path(geom))
+        item.setBrush(QBrush(line if style != Qt.BrushStyle.SolidPattern else color, style))
+        pen = QPen(QColor(0, 90, 200) if i == self.selected else QColor(20, 20, 20), 0)
+        pen.setCosmetic(True)
+        pen.setWidthF(2.5 if i == self.selected else 1.0)
+        item.setPen(pen)
+        item.setZValue(2 * i + 1)
+        item.setData(0, i)
+        self.scene().addItem(item)
+        if clipped:  # dashed outline of the uncut rectangle where the ply is clipped
+            ghost = QGraphicsRectItem(self._rect(ply))
+            gp = QPen(QColor(120, 120, 120), 0, Qt.PenStyle.DotLine)
+            gp.setCosmetic(True)
+            ghost.setPen(gp)
+            ghost.setZValue(1000)
+            self.scene().addItem(ghost)
 
     def _rect(self, ply) -> QRectF:  # type: ignore[no-untyped-def]
         return QRectF(ply.x * 1000, -(ply.y + ply.height) * 1000, ply.width * 1000,
                       ply.height * 1000)
 
-    def _label(self, text: str, x: float, y: float, color: QColor | None = None,
-               centre_y: bool = False, line: int = 0) -> None:
-        item = QGraphicsSimpleTextItem(text)
-        item.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
-        item.setBrush(QBrush(color or QColor(30, 30, 30)))
-        f = QFont()
-        f.setPointSizeF(9)
-        item.setFont(f)
+    def _place(self, item: QGraphicsRectItem, x: float, y: float, dx: float = 0.0,
+               dy: float = 0.0) -> QGraphicsRectItem:
+        """Put a tag at scene (x, y), shifted by (dx, dy) times its own size."""
+        r = item.rect()
         item.setPos(x, y)
-        h = item.boundingRect().height()
-        if centre_y or line:
-            from PySide6.QtGui import QTransform
-
-            item.setTransform(QTransform.fromTranslate(0, -h / 2 if centre_y else h * line))
-        item.setZValue(3000)
+        item.setTransform(QTransform.fromTranslate(dx * r.width() - r.left(),
+                                                         dy * r.height() - r.top()))
         self.scene().addItem(item)
+        return item
+
+    def _draw_names(self) -> None:
+        """Each ply's name at its centre; its dimensions below it (shown on hover or
+        selection).
+        """
+        u = self.system
+        s = self._scale()
+        for i, ply in enumerate(self.document.project.plies):
+            c = self._rect(ply).center()
+            name = tag(ply.name, size=8.5)
+            r = name.rect()
+            w_px, h_px = ply.width * 1000 * s, ply.height * 1000 * s
+            if r.width() > w_px - 4 and h_px > w_px:  # a tall narrow ply: read upwards
+                t = QTransform()
+                t.rotate(-90)
+                t.translate(-r.width() / 2 - r.left(), -r.height() / 2 - r.top())
+                name.setPos(c.x(), c.y())
+                name.setTransform(t)
+                self.scene().addItem(name)
+            else:
+                self._place(name, c.x(), c.y(), -0.5, -1.0 if i in (self.selected,
+                                                                    self.hovered) else -0.5)
+            name.setZValue(3100)
+            dims = tag(f"{fmt(ply.width, 'length', u)} \u00d7 {fmt(ply.height, 'length', u)}",
+                       QColor(0, 70, 160), size=8)
+            self._place(dims, c.x(), c.y(), -0.5, 0.0).setZValue(3200)
+            dims.setVisible(i in (self.selected, self.hovered))
+            self._dimensions[i] = dims
+
+    def _set_hovered(self, index: int | None) -> None:
+        if index == self.hovered:
+            return
+        self.hovered = index
+        for i, item in self._dimensions.items():
+            item.setVisible(i in (self.selected, self.hovered))
 
     def _draw_annotations(self) -> None:
         plies = self.document.project.plies
@@ -240,25 +266,29 @@ class SectionCanvas(QGraphicsView):
         x1 = max(p.x + p.width for p in plies) * 1000
         y0 = min(p.y for p in plies) * 1000
         y1 = max(p.y + p.height for p in plies) * 1000
+        if not all(math.isfinite(v) for v in (x0, x1, y0, y1)):
+            return
         pen = QPen(QColor(60, 60, 60), 0)
         pen.setCosmetic(True)
-        gap = max(x1 - x0, y1 - y0) * 0.08 + 5
-        # overall width below, overall depth to the right
-        self.scene().addLine(x0, -y0 + gap, x1, -y0 + gap, pen).setZValue(2000)
-        self.scene().addLine(x1 + gap, -y0, x1 + gap, -y1, pen).setZValue(2000)
+        gap = 14 / self._scale()  # 14 px beyond the plies, whatever the zoom
+        scene = self.scene()
+        scene.addLine(x0, -y0 + gap, x1, -y0 + gap, pen).setZValue(2000)
+        scene.addLine(x1 + gap, -y0, x1 + gap, -y1, pen).setZValue(2000)
         u = self.system
-        self._label(f"width {fmt((x1 - x0) / 1000, 'length', u)}", x0, -y0 + gap + 2)
-        self._label(f"depth {fmt((y1 - y0) / 1000, 'length', u)}", x1 + gap + 3, -(y0 + y1) / 2)
-        if self.section is not None:
+        self._place(tag(f"width {fmt((x1 - x0) / 1000, 'length', u)}"), (x0 + x1) / 2,
+                    -y0 + gap, -0.5, 0.1)
+        self._place(tag(f"depth {fmt((y1 - y0) / 1000, 'length', u)}"), x1 + gap,
+                    -(y0 + y1) / 2, 0.05, -0.5)
+        if self.section is not None and math.isfinite(self.section.neutral_axis_y):
             yna = self.section.neutral_axis_y * 1000
             na_pen = QPen(QColor(200, 30, 30), 0, Qt.PenStyle.DashDotLine)
             na_pen.setCosmetic(True)
             na_pen.setWidthF(1.5)
-            self.scene().addLine(x0 - gap * 0.6, -yna, x1 + gap * 0.6, -yna,
-                                 na_pen).setZValue(2500)
-            self._label("NA", x1 + gap * 0.6, -yna, QColor(170, 20, 20), centre_y=True)
-            self._label(f"neutral axis y = {fmt(yna / 1000, 'length', u)} (red dash-dot line)",
-                        x0, -y0 + gap + 2, QColor(170, 20, 20), line=1)
+            scene.addLine(x0 - gap, -yna, x1 + gap * 0.6, -yna, na_pen).setZValue(2500)
+            red = QColor(170, 20, 20)
+            self._place(tag("NA", red), x0 - gap, -yna, -1.05, -0.5)
+            self._place(tag(f"neutral axis y = {fmt(yna / 1000, 'length', u)} "
+                            "(red dash-dot line)", red), (x0 + x1) / 2, -y0 + gap, -0.5, 1.1)
 
     def _handle_positions(self, ply) -> dict[str, QPointF]:  # type: ignore[no-untyped-def]
         r = self._rect(ply)
@@ -278,138 +308,214 @@ class SectionCanvas(QGraphicsView):
             h.setData(1, edges)
             self.scene().addItem(h)
 
+    def _scale(self) -> float:
+        s = self.transform().m11()
+        return s if math.isfinite(s) and s > 0 else 1.0
+
     def drawBackground(self, painter: QPainter, rect: QRectF) -> None:  # noqa: D102
-        painter.fillRect(rect, QColor(252, 252, 250))
-        px_per_mm = self.transform().m11() or 1.0
         steps = ([25.4 / 16, 25.4 / 8, 25.4 / 4, 25.4 / 2, 25.4, 50.8, 152.4, 304.8]
                  if self.system == "US" else [1, 2, 5, 10, 20, 50, 100, 200])
-        minor = next((s for s in steps if s * px_per_mm >= 10), steps[-1])
-        major = next((s for s in steps if s >= minor * 4.9), steps[-1])
-        for step, color in ((minor, QColor(234, 234, 234)), (major, QColor(205, 205, 205))):
-            pen = QPen(color, 0)
-            pen.setCosmetic(True)
-            painter.setPen(pen)
-            x = math.floor(rect.left() / step) * step
-            while x <= rect.right():
-                painter.drawLine(QPointF(x, rect.top()), QPointF(x, rect.bottom()))
-                x += step
-            y = math.floor(rect.top() / step) * step
-            while y <= rect.bottom():
-                painter.drawLine(QPointF(rect.left(), y), QPointF(rect.right(), y))
-                y += step
+        painter.save()
+        try:
+            draw_grid(painter, rect, self._scale(), steps)
+        except Exception as exc:
+            reporter().report("Drawing the grid", exc)
+        finally:
+            painter.restore()
 
     def drawForeground(self, painter: QPainter, rect: QRectF) -> None:
-        """A scale bar in the lower left corner of the view."""
-        px_per_mm = self.transform().m11() or 1.0
+        """A scale bar in the upper left corner of the view."""
+        painter.save()
+        try:
+            self._draw_scale_bar(painter)
+        except Exception as exc:
+            reporter().report("Drawing the scale bar", exc)
+        finally:
+            painter.restore()
+
+    def _draw_scale_bar(self, painter: QPainter) -> None:
+        px_per_mm = self._scale()
         options = ([25.4 / 4, 25.4 / 2, 25.4, 50.8, 101.6, 152.4, 304.8]
                    if self.system == "US" else [5, 10, 20, 50, 100, 200, 500])
         length = next((s for s in options if s * px_per_mm >= 60), options[-1])
-        painter.save()
-        painter.resetTransform()
-        h = self.viewport().height()
-        x0, y0 = 16, h - 18
         w = length * px_per_mm
+        if not math.isfinite(w) or w > self.viewport().width():
+            return
+        painter.resetTransform()
+        x0, y0 = 16, 18
         painter.setPen(QPen(QColor(30, 30, 30), 2))
         painter.drawLine(QPointF(x0, y0), QPointF(x0 + w, y0))
         painter.drawLine(QPointF(x0, y0 - 5), QPointF(x0, y0 + 3))
         painter.drawLine(QPointF(x0 + w, y0 - 5), QPointF(x0 + w, y0 + 3))
         painter.drawText(QPointF(x0 + w + 6, y0 + 4), fmt(length / 1000, "length", self.system, 3))
-        painter.restore()
+
+    def ply_bounds(self) -> QRectF | None:
+        """The plies' bounding rectangle in scene units (None without finite plies)."""
+        plies = self.document.project.plies
+        if not plies:
+            return None
+        x0 = min(p.x for p in plies) * 1000
+        x1 = max(p.x + p.width for p in plies) * 1000
+        y0 = min(p.y for p in plies) * 1000
+        y1 = max(p.y + p.height for p in plies) * 1000
+        if not all(math.isfinite(v) for v in (x0, x1, y0, y1)) or x1 <= x0 or y1 <= y0:
+            return None
+        return QRectF(x0, -y1, x1 - x0, y1 - y0)
 
     def fit(self) -> None:
-        """Fit the section in the view (and follow the window's size again)."""
+        """Fit the section in the view, labels included (and follow the window's size)."""
         self._user_zoomed = False
-        rect = self.scene().itemsBoundingRect().adjusted(-20, -20, 20, 20)
-        if rect.width() > 0 and rect.height() > 0:
-            self.fitInView(rect, Qt.AspectRatioMode.KeepAspectRatio)
-            self._fitted = True
+        rect = self.ply_bounds()
+        vw, vh = self.viewport().width(), self.viewport().height()
+        if rect is None or vw <= 0 or vh <= 0:
+            return
+        left, top, right, bottom = FIT_MARGINS
+        aw, ah = max(vw - left - right, 40), max(vh - top - bottom, 40)
+        s = min(aw / rect.width(), ah / rect.height())
+        s = min(max(s, MIN_SCALE), MAX_SCALE)
+        self.resetTransform()
+        self.scale(s, s)
+        # centre of the free area (between the margins) over the centre of the plies
+        cx = rect.center().x() + (vw / 2 - (left + aw / 2)) / s
+        cy = rect.center().y() + (vh / 2 - (top + ah / 2)) / s
+        self.centerOn(QPointF(cx, cy))
+        self._fitted = True
+        self.rebuild()
 
     # --- mouse and keys -----------------------------------------------------------------
 
+    def _model(self, pos: QPointF) -> tuple[float, float]:
+        p = self.mapToScene(pos.toPoint())
+        return p.x() / 1000, -p.y() / 1000
+
     def model_point(self, event: QMouseEvent, snap: bool = True) -> tuple[float, float]:
         """Model coordinates (m) of a mouse event, snapped unless Shift is held."""
-        p = self.mapToScene(event.position().toPoint())
-        x, y = p.x() / 1000, -p.y() / 1000
-        if snap and not event.modifiers() & Qt.KeyboardModifier.ShiftModifier:
+        x, y = self._model(event.position())
+        if snap and self._snapping(event):
             x, y = self.snap(x), self.snap(y)
         return x, y
 
+    @staticmethod
+    def _snapping(event: QMouseEvent) -> bool:
+        return not event.modifiers() & Qt.KeyboardModifier.ShiftModifier
+
     def _hit(self, event: QMouseEvent) -> tuple[str, int | None, str | None]:
-        for item in self.items(event.position().toPoint()):
+        at = event.position().toPoint()
+        for item in self.items(at):
             edges = item.data(1)
             if edges and self.selected is not None:
                 return "handle", self.selected, str(edges)
-        for item in self.items(event.position().toPoint()):
+        for item in self.items(at):
             idx = item.data(0)
             if idx is not None and isinstance(item, QGraphicsPathItem):
                 return "ply", int(idx), None
         return "empty", None, None
 
+    @guarded("Mouse press")
     def mousePressEvent(self, event: QMouseEvent) -> None:  # noqa: D102
+        if event.button() == Qt.MouseButton.MiddleButton:
+            self._pan = event.position()
+            event.accept()
+            return
         if event.button() != Qt.MouseButton.LeftButton:
             return super().mousePressEvent(event)
         what, idx, edges = self._hit(event)
-        x, y = self.model_point(event)
+        start = None
         if what == "handle" and idx is not None and edges:
-            self.gesture = ResizeGesture(self, x, y, idx, edges)
+            start = lambda x, y: ResizeGesture(self, x, y, idx, edges)  # noqa: E731
         elif what == "ply" and idx is not None:
             self.select(idx)
-            self.gesture = MoveGesture(self, x, y, idx)
+            start = lambda x, y: MoveGesture(self, x, y, idx)  # noqa: E731
         else:
             self.select(None)
-            self.gesture = DrawGesture(self, x, y)
+            start = lambda x, y: DrawGesture(self, x, y)  # noqa: E731
+        pos = event.position()
+        self.press = Press((pos.x(), pos.y()), self._model(pos),
+                           QApplication.startDragDistance(), start)
         event.accept()
 
+    @guarded("Mouse move")
     def mouseMoveEvent(self, event: QMouseEvent) -> None:  # noqa: D102
-        x, y = self.model_point(event)
-        if self.gesture is not None:
-            self.gesture.move(x, y)
+        pos = event.position()
+        if self._pan is not None:
+            d = pos - self._pan
+            self._pan = pos
+            self.horizontalScrollBar().setValue(int(self.horizontalScrollBar().value() - d.x()))
+            self.verticalScrollBar().setValue(int(self.verticalScrollBar().value() - d.y()))
+            self._user_zoomed = True
             return
+        if self.press is not None:
+            self.press.move((pos.x(), pos.y()), self._model(pos), self._snapping(event))
+            return
+        x, y = self.model_point(event)
         what, idx, _ = self._hit(event)
+        self._set_hovered(idx if what in ("ply", "handle") else None)
         u = self.system
-        pos = f"x = {fmt(x, 'length', u)}, y = {fmt(y, 'length', u)}"
+        where = f"x = {fmt(x, 'length', u)}, y = {fmt(y, 'length', u)}"
         if what == "handle":
-            self.status.emit(f"{pos}. Drag the handle to resize the ply.")
+            self.status.emit(f"{where}. Drag the handle to resize the ply.")
         elif what == "ply" and idx is not None:
             name = self.document.project.plies[idx].name
-            self.status.emit(f"{pos}. Click to select \u201c{name}\u201d, drag to move it.")
+            self.status.emit(f"{where}. Click to select \u201c{name}\u201d, drag to move it; "
+                             "arrow keys nudge the selected ply.")
         else:
-            self.status.emit(f"{pos}. Drag to draw a new ply; Shift turns snapping off; "
-                             "wheel zooms, F fits.")
+            self.status.emit(f"{where}. Drag to draw a new ply; Shift turns snapping off; "
+                             "wheel zooms, middle button pans, F fits.")
 
+    @guarded("Mouse release")
     def mouseReleaseEvent(self, event: QMouseEvent) -> None:  # noqa: D102
-        if self.gesture is not None:
-            x, y = self.model_point(event)
-            self.gesture.release(x, y)
-            self.gesture = None
+        if event.button() == Qt.MouseButton.MiddleButton:
+            self._pan = None
+            return
+        if self.press is not None:
+            press, self.press = self.press, None
+            pos = event.position()
+            press.release((pos.x(), pos.y()), self._model(pos), self._snapping(event))
+            self.rebuild()
             event.accept()
             return
         super().mouseReleaseEvent(event)
 
+    def leaveEvent(self, event) -> None:  # type: ignore[no-untyped-def]  # noqa: D102
+        self._set_hovered(None)
+        super().leaveEvent(event)
+
     def wheelEvent(self, event: QWheelEvent) -> None:  # noqa: D102
         factor = 1.15 if event.angleDelta().y() > 0 else 1 / 1.15
+        s = self._scale()
+        factor = min(max(s * factor, MIN_SCALE), MAX_SCALE) / s
         self.scale(factor, factor)
         self._user_zoomed = True
+        self.rebuild()
 
     def resizeEvent(self, event) -> None:  # type: ignore[no-untyped-def]  # noqa: D102
         super().resizeEvent(event)
-        if not getattr(self, "_user_zoomed", False):
+        if not self._user_zoomed and self.press is None:
             self.fit()
 
+    @guarded("Key press")
     def keyPressEvent(self, event: QKeyEvent) -> None:  # noqa: D102
         key = event.key()
-        if key == Qt.Key.Key_F:
+        if key == Qt.Key.Key_F and not event.modifiers():
             self.fit()
             return
         moves = {Qt.Key.Key_Left: (-1, 0), Qt.Key.Key_Right: (1, 0), Qt.Key.Key_Up: (0, 1),
                  Qt.Key.Key_Down: (0, -1)}
         if key in moves and self.selected is not None:
-            dx, dy = moves[key]
-            plies = list(self.document.project.plies)
-            p = plies[self.selected]
-            step = self.snap_step
-            plies[self.selected] = replace(p, x=self.snap(p.x + dx * step),
-                                           y=self.snap(p.y + dy * step))
-            self.document.apply(self.document.project.with_plies(tuple(plies)), "Nudge ply")
+            self.nudge(*moves[key], held=event.isAutoRepeat())
             return
         super().keyPressEvent(event)
+
+    def nudge(self, dx: int, dy: int, held: bool = False) -> None:
+        """Move the selected ply by one snap step; a held key merges into one undo step."""
+        if self.selected is None or self.selected >= len(self.document.project.plies):
+            return
+        if not held or self._nudge_key is None:
+            self._nudge_key = new_gesture_key("nudge")
+        plies = list(self.document.project.plies)
+        p = plies[self.selected]
+        step = self.snap_step
+        plies[self.selected] = replace(p, x=self.snap(p.x + dx * step),
+                                       y=self.snap(p.y + dy * step))
+        self.document.apply(self.document.project.with_plies(tuple(plies)), "Nudge ply",
+                            self._nudge_key)

@@ -1,29 +1,25 @@
-"""Dialogs: a new section from a template, and the materials browser."""
+"""Dialogs: a new section from a template, the materials browser and editor, the sheet."""
 
 from __future__ import annotations
 
+from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (
     QComboBox,
     QDialog,
     QDialogButtonBox,
     QFormLayout,
-    QLabel,
+    QHBoxLayout,
     QLineEdit,
-    QMessageBox,
     QPushButton,
-    QTableWidget,
-    QTableWidgetItem,
+    QTreeWidget,
+    QTreeWidgetItem,
     QVBoxLayout,
 )
 
+from plystack.app.safe import plain_label, plain_tip
 from plystack.core.model import units
 from plystack.core.model.constants import INCH
-from plystack.core.model.materials import (
-    Material,
-    existing_from_record,
-    grouped,
-    material_from_record,
-)
+from plystack.core.model.materials import KINDS, PRODUCTS, Material, material_from_record
 from plystack.core.section.templates import (
     LUMBER_SI,
     LUMBER_US,
@@ -93,79 +89,194 @@ class NewSectionDialog(QDialog):
         return build(self.template.currentText(), choice)
 
 
+#: Fields of a material record per (basis, kind): key, label, display kind.
+_COMMON = (("E", "E (stiffness, mean)", "modulus"), ("density", "Density", "density"))
+FIELDS = {
+    ("US", "timber"): _COMMON + (
+        ("Emin", "Emin", "modulus"), ("Fb", "Fb", "stress"), ("Ft", "Ft", "stress"),
+        ("Fv", "Fv", "stress"), ("Fc", "Fc", "stress"), ("Fc_perp", "Fc\u22a5", "stress"),
+        ("G", "G (specific gravity)", "")),
+    ("EU", "timber"): _COMMON + (
+        ("E0_05", "E0,05", "modulus"), ("fm_k", "fm,k", "stress"), ("ft0_k", "ft,0,k", "stress"),
+        ("fv_k", "fv,k", "stress"), ("fc0_k", "fc,0,k", "stress"),
+        ("fc90_k", "fc,90,k", "stress"), ("rho_k", "\u03c1k", "density")),
+    ("US", "steel"): _COMMON + (("Fy", "Fy", "stress"), ("Fu", "Fu", "stress")),
+    ("EU", "steel"): _COMMON + (("Fy", "fy", "stress"), ("Fu", "fu", "stress")),
+}
+EU_KEYS = frozenset(("fm_k", "ft0_k", "fv_k", "fc0_k", "fc90_k", "E0_05", "rho_k"))
+
+
+def material_basis(m: Material) -> str:
+    """"EU" for a material with Eurocode values (or an EN source), else "US"."""
+    if EU_KEYS & set(m.values) or m.source.startswith("EN"):
+        return "EU"
+    return "US"
+
+
+def _fields(basis: str, kind: str) -> tuple[tuple[str, str, str], ...]:
+    return FIELDS.get((basis, kind if kind == "timber" else "steel"), FIELDS[(basis, "steel")])
+
+
 class MaterialsDialog(QDialog):
-    """Browse the library grouped by design basis and product (with sources) and add a
-    project material: a record of values, or existing timber of unknown grade taken as
-    an assumed grade (``{"existing": {"assumed": "DFL-No2", "condition_factor": 0.9}}``).
+    """Browse the materials grouped by basis and product, see one as a form with its
+    values in the display units and its source, and add a new one from the form.
     """
 
-    def __init__(self, materials: dict[str, Material], system: str, parent=None):  # type: ignore[no-untyped-def]
+    def __init__(self, materials: dict[str, Material], system: str, parent=None,  # type: ignore[no-untyped-def]
+                 basis: str = "US-ASD"):
         super().__init__(parent)
         self.setWindowTitle("Materials")
-        self.resize(900, 500)
+        self.resize(860, 560)
         self.added: Material | None = None
         self.system = system
         self.materials = materials
-        groups = grouped(materials)
-        table = QTableWidget(len(materials) + len(groups), 5)
-        table.setHorizontalHeaderLabels(["Id", "Name", "Kind", "E", "Source"])
-        r = 0
-        for basis, product, members in groups:
-            head = QTableWidgetItem(f"{basis} \u2014 {product} ({len(members)})")
-            font = head.font()
-            font.setBold(True)
-            head.setFont(font)
-            table.setItem(r, 0, head)
-            table.setSpan(r, 0, 1, 5)
-            r += 1
-            for m in members:
-                for c, text in enumerate((m.id, m.name, m.kind,
-                                          units.fmt(m.E, "modulus", system), m.source)):
-                    table.setItem(r, c, QTableWidgetItem(text))
-                r += 1
-        table.resizeColumnsToContents()
-        self.table = table
-        self.new_id = QLineEdit()
-        self.record = QLineEdit('{"kind": "timber", "name": "My grade", "E": "1400000 psi", '
-                                '"density": "30 pcf", "Fb": "850 psi", "Fv": "150 psi", '
-                                '"G": 0.43, "source": "user"}')
-        add = QPushButton("Add to project")
-        add.clicked.connect(self._add)
-        self.message = QLabel("")
-        self.message.setWordWrap(True)
+        self.tree = QTreeWidget()
+        self.tree.setHeaderLabels(["Material", "Name"])
+        self.tree.setTextElideMode(Qt.TextElideMode.ElideNone)
+        groups: dict[str, QTreeWidgetItem] = {}
+        for mid, m in sorted(materials.items()):
+            group = f"{material_basis(m)} \u2014 {m.product if m.kind != 'steel' else 'steel'}"
+            if group not in groups:
+                groups[group] = QTreeWidgetItem([group, ""])
+            child = QTreeWidgetItem([mid, m.name])
+            child.setData(0, Qt.ItemDataRole.UserRole, mid)
+            child.setToolTip(1, plain_tip(m.name))
+            groups[group].addChild(child)
+        for name in sorted(groups):
+            self.tree.addTopLevelItem(groups[name])
+            groups[name].setExpanded(True)
+        self.tree.resizeColumnToContents(0)
+        self.tree.currentItemChanged.connect(lambda cur, _prev: self._show(cur))
+        self.id_edit = QLineEdit()
+        self.name_edit = QLineEdit()
+        self.kind = QComboBox()
+        self.kind.addItems(list(KINDS))
+        self.product = QComboBox()
+        self.product.addItems(list(PRODUCTS))
+        self.basis = QComboBox()
+        self.basis.addItems(["US", "EU"])
+        self.basis.setCurrentText("EU" if basis == "EU-LSD" else "US")
+        self.source = QLineEdit("user")
+        self.values_form = QFormLayout()
+        self.edits: dict[str, QLineEdit] = {}
+        head = QFormLayout()
+        head.addRow("Id", self.id_edit)
+        head.addRow("Name", self.name_edit)
+        head.addRow("Kind", self.kind)
+        head.addRow("Product", self.product)
+        head.addRow("Basis of the values", self.basis)
+        head.addRow("Source", self.source)
+        self.message = plain_label("")
+        self.message.setStyleSheet("color: #b00000;")
+        new = QPushButton("New material")
+        new.clicked.connect(self._new)
+        self.add_button = QPushButton("Add to project")
+        self.add_button.clicked.connect(self._add)
+        right = QVBoxLayout()
+        right.addLayout(head)
+        right.addWidget(plain_label(f"Values (a bare number is in {system} units)"))
+        right.addLayout(self.values_form)
+        right.addWidget(self.message)
+        right.addStretch(1)
+        row = QHBoxLayout()
+        row.addWidget(new)
+        row.addWidget(self.add_button)
+        right.addLayout(row)
+        body = QHBoxLayout()
+        body.addWidget(self.tree, 1)
+        body.addLayout(right, 1)
         layout = QVBoxLayout(self)
-        layout.addWidget(table, 1)
-        form = QFormLayout()
-        form.addRow("New material id", self.new_id)
-        form.addRow("Record (JSON, trade symbols as keys)", self.record)
-        layout.addLayout(form)
-        layout.addWidget(add)
-        layout.addWidget(self.message)
+        layout.addLayout(body, 1)
         close = QDialogButtonBox(QDialogButtonBox.StandardButton.Close)
         close.rejected.connect(self.reject)
         layout.addWidget(close)
+        self.kind.currentTextChanged.connect(lambda _t: self._rebuild_fields())
+        self.basis.currentTextChanged.connect(lambda _t: self._rebuild_fields())
+        self._new()
+
+    def _rebuild_fields(self, values: dict[str, str] | None = None) -> None:
+        while self.values_form.rowCount():
+            self.values_form.removeRow(0)
+        self.edits = {}
+        for key, label, kind in _fields(self.basis.currentText(), self.kind.currentText()):
+            edit = QLineEdit((values or {}).get(key, ""))
+            if kind:
+                edit.setPlaceholderText(units.unit_label(kind, self.system))
+            self.edits[key] = edit
+            unit = f" ({units.unit_label(kind, self.system)})" if kind else ""
+            self.values_form.addRow(f"{label}{unit}", edit)
+
+    def _show(self, item: QTreeWidgetItem | None) -> None:
+        mid = item.data(0, Qt.ItemDataRole.UserRole) if item is not None else None
+        if mid not in self.materials:
+            return
+        m = self.materials[mid]
+        self.id_edit.setText(mid)
+        self.name_edit.setText(m.name)
+        self.kind.blockSignals(True)
+        self.basis.blockSignals(True)
+        self.kind.setCurrentText(m.kind)
+        self.product.setCurrentText(m.product)
+        self.basis.setCurrentText(material_basis(m))
+        self.kind.blockSignals(False)
+        self.basis.blockSignals(False)
+        self.source.setText(m.source)
+        shown = {"E": units.display_string(m.E, "modulus", self.system, 6),
+                 "density": units.display_string(m.density, "density", self.system, 5)}
+        for key, _label, kind in _fields(material_basis(m), m.kind):
+            v = m.value(key)
+            if v is not None and key not in shown:
+                shown[key] = (units.display_string(v, kind, self.system, 6) if kind
+                              else f"{v:g}")
+        self._rebuild_fields(shown)
+        self.message.setText("")
+
+    def _new(self) -> None:
+        self.tree.setCurrentItem(None)
+        k = 1
+        while f"user-{k}" in self.materials:
+            k += 1
+        self.id_edit.setText(f"user-{k}")
+        self.name_edit.setText("My material")
+        self.source.setText("user")
+        self._rebuild_fields()
+
+    def record(self) -> dict[str, object]:
+        """The record of the form (quantities with their units, as a file holds them)."""
+        rec: dict[str, object] = {"kind": self.kind.currentText(),
+                                  "name": self.name_edit.text().strip(),
+                                  "source": self.source.text().strip() or "user"}
+        if self.kind.currentText() != "steel":
+            rec["product"] = self.product.currentText()
+        for key, _label, kind in _fields(self.basis.currentText(), self.kind.currentText()):
+            text = self.edits[key].text().strip()
+            if not text:
+                continue
+            if not kind:
+                try:
+                    rec[key] = float(text)
+                except ValueError:
+                    rec[key] = text
+                continue
+            if text[-1].isdigit() or text.endswith("."):
+                text = f"{text} {units.unit_label(kind, self.system).replace('^', '**')}"
+            rec[key] = text
+        return rec
 
     def _add(self) -> None:
-        import json
-
-        mid = self.new_id.text().strip()
+        mid = self.id_edit.text().strip()
         if not mid:
             self.message.setText("id: must not be empty")
             return
-        try:
-            rec = json.loads(self.record.text())
-        except json.JSONDecodeError as exc:
-            self.message.setText(f"record: not valid JSON ({exc.msg})")
+        if mid in self.materials:
+            self.message.setText(f"id: \u201c{mid}\u201d is taken; give the new material "
+                                 "its own id")
             return
-        if isinstance(rec, dict) and "existing" in rec:
-            m, problems = existing_from_record(mid, rec, self.materials, f"materials.{mid}")
-        else:
-            m, problems = material_from_record(mid, rec, f"materials.{mid}")
+        m, problems = material_from_record(mid, self.record(), f"materials.{mid}")
         if problems or m is None:
             self.message.setText("\n".join(str(p) for p in problems))
             return
         self.added = m
-        QMessageBox.information(self, "Materials", f"Added \u201c{mid}\u201d to the project.")
         self.accept()
 
 
@@ -183,8 +294,7 @@ class SheetDialog(QDialog):
         self.alternative.addItem("current design", None)
         for alt in project.alternatives:
             self.alternative.addItem(alt.name, alt.name)
-        self.preview = QLabel("")
-        self.preview.setWordWrap(True)
+        self.preview = plain_label("")
         self.pages = 0
         self.data = b""
         form = QFormLayout(self)

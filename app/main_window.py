@@ -1,17 +1,31 @@
-"""The main window: section canvas, plots, panels and results around one document."""
+"""The main window: section canvas, plots, panels and results around one document.
+
+Layout (fits 1366 x 768): on the left the ply table and the selected ply (tab "Plies")
+or the beam, loads and reactions (tab "Beam / Loads"); in the middle the section canvas
+beside the plots (tabs: stresses over the depth, actions along the member); below them
+the results and the alternatives.
+
+Undo and redo (Ctrl+Z, Ctrl+Shift+Z or Ctrl+Y) act on the project wherever the focus is:
+a text field with an entry not yet committed commits it first (so Ctrl+Z then takes the
+entry back). Switching display units is an undoable edit: it changes how the file
+writes its quantities, so it marks the project modified like any other edit.
+"""
 
 from __future__ import annotations
 
 from dataclasses import replace
 from pathlib import Path
 
-from PySide6.QtCore import QSettings, QStandardPaths, Qt, QTimer
-from PySide6.QtGui import QAction, QCloseEvent, QKeySequence
+from PySide6.QtCore import QEvent, QObject, QSettings, Qt, QTimer
+from PySide6.QtGui import QAction, QCloseEvent, QKeyEvent, QKeySequence
 from PySide6.QtWidgets import (
+    QAbstractItemView,
+    QApplication,
     QComboBox,
     QFileDialog,
     QHBoxLayout,
     QLabel,
+    QLineEdit,
     QMainWindow,
     QMessageBox,
     QSplitter,
@@ -30,23 +44,32 @@ from plystack.app.icons import app_icon
 from plystack.app.plots import DiagramPlot, ProfilePlot
 from plystack.app.ply_panel import PlyPanel
 from plystack.app.results import ResultsPanel
+from plystack.app.safe import guarded, plain_label, reporter, show_message
 from plystack.app.schedule_view import open_schedule
-from plystack.core.io.project_file import dumps, load
-from plystack.core.model.errors import ProjectError
+from plystack.app.window_files import FileActions, autosave_dir
+from plystack.app.window_tools import ToolActions
 from plystack.core.model.project import Project
 from plystack.core.pipeline import Analysis
+
+__all__ = ["MainWindow", "autosave_dir"]
 
 AUTOSAVE_MS = 60_000
 
 
-def autosave_dir() -> Path:
-    """Folder for autosaves (the platform's application-data folder)."""
-    base = QStandardPaths.writableLocation(QStandardPaths.StandardLocation.AppDataLocation)
-    return Path(base or Path.home() / ".plystack") / "autosave"
+def _matches_undo_redo(event: QKeyEvent) -> str | None:
+    combo = QKeySequence(event.keyCombination())
+    for which, std in (("undo", QKeySequence.StandardKey.Undo),
+                       ("redo", QKeySequence.StandardKey.Redo)):
+        if any(combo.matches(k) == QKeySequence.SequenceMatch.ExactMatch
+               for k in QKeySequence.keyBindings(std)):
+            return which
+    if combo.matches(QKeySequence("Ctrl+Shift+Z")) == QKeySequence.SequenceMatch.ExactMatch:
+        return "redo"
+    return None
 
 
-class MainWindow(QMainWindow):
-    """Plystack's window. ``ask`` can be replaced in tests to answer prompts."""
+class MainWindow(FileActions, ToolActions, QMainWindow):
+    """Plystack's window. ``ask``, ``warn`` and the file dialogs can be replaced in tests."""
 
     def __init__(self, project: Project, path: Path | None = None):
         super().__init__()
@@ -55,47 +78,24 @@ class MainWindow(QMainWindow):
         self.settings = QSettings("Plystack", "Plystack")
         self.canvas = SectionCanvas(self.document, self.analysis_model)
         self.ply_panel = PlyPanel(self.document)
-        self.beam_panel = BeamPanel(self.document)
-        self.results = ResultsPanel()
+        self.beam_panel = BeamPanel(self.document, self.analysis_model)
+        self.results = ResultsPanel(self.settings)
         self.profiles = ProfilePlot()
         self.diagrams = DiagramPlot()
+        self.alternatives = AlternativesPanel(self.document, self.analysis_model)
         self.combo_pick = QComboBox()
         self.combo_pick.setToolTip("Combination shown in the plots")
-        panels = QTabWidget()
-        panels.addTab(self.ply_panel, "Plies")
-        panels.addTab(self.beam_panel, "Loads")
-        panels.setMinimumWidth(330)
-        top = QSplitter(Qt.Orientation.Horizontal)
-        top.addWidget(self.canvas)
-        plot_box = QWidget()
-        pl = QVBoxLayout(plot_box)
-        pl.setContentsMargins(0, 0, 0, 0)
-        row = QHBoxLayout()
-        row.addWidget(QLabel("Plots for"))
-        row.addWidget(self.combo_pick, 1)
-        pl.addLayout(row)
-        pl.addWidget(self.profiles, 1)
-        top.addWidget(plot_box)
-        top.setSizes([520, 520])
-        centre = QSplitter(Qt.Orientation.Vertical)
-        centre.addWidget(top)
-        centre.addWidget(self.diagrams)
-        centre.setSizes([460, 360])
-        main = QSplitter(Qt.Orientation.Horizontal)
-        main.addWidget(panels)
-        main.addWidget(centre)
-        self.alternatives = AlternativesPanel(self.document, self.analysis_model)
-        self.right_tabs = QTabWidget()
-        self.right_tabs.addTab(self.results, "Results")
-        self.right_tabs.addTab(self.alternatives, "Alternatives")
-        self.right_tabs.currentChanged.connect(lambda _i: self._refresh_alternatives())
-        main.addWidget(self.right_tabs)
-        main.setSizes([330, 900, 640])
-        self.setCentralWidget(main)
+        self._build_layout()
+        self.file_flag = plain_label("", word_wrap=False)
+        self.file_flag.setStyleSheet("color: #8a5a00; font-weight: bold;")
+        self.file_flag.setVisible(False)
+        self.statusBar().addPermanentWidget(self.file_flag)
         self.statusBar().showMessage("Drag on the section to draw a ply; click a ply to "
                                      "select it.")
         self.canvas.status.connect(self.statusBar().showMessage)
+        reporter().message.connect(self.statusBar().showMessage)
         self.canvas.selection_changed.connect(self.ply_panel.set_index)
+        self.ply_panel.table.picked.connect(self.canvas.select)
         self.ply_panel.materials_button.clicked.connect(self.open_materials)
         self.combo_pick.activated.connect(lambda _i: self._redraw_plots())
         self.analysis_model.analysis_changed.connect(self.show_analysis)
@@ -104,11 +104,63 @@ class MainWindow(QMainWindow):
         self._autosave.setInterval(AUTOSAVE_MS)
         self._autosave.timeout.connect(self.autosave)
         self._autosave.start()
+        self._init_files()
         self._build_menus()
+        QApplication.instance().installEventFilter(self)
         self.setWindowIcon(app_icon())
         self.resize(1600, 950)
         self._update_title()
         self.recompute()
+
+    def _build_layout(self) -> None:
+        panels = QTabWidget()
+        panels.addTab(self.ply_panel, "Plies")
+        panels.addTab(self.beam_panel, "Beam / Loads")
+        panels.setMinimumWidth(390)
+        self.plot_tabs = QTabWidget()
+        self.plot_tabs.addTab(self.profiles, "Strain and stress")
+        self.plot_tabs.addTab(self.diagrams, "Shear, moment, deflection")
+        plot_box = QWidget()
+        pl = QVBoxLayout(plot_box)
+        pl.setContentsMargins(0, 0, 0, 0)
+        row = QHBoxLayout()
+        row.addWidget(QLabel("Plots for"))
+        row.addWidget(self.combo_pick, 1)
+        pl.addLayout(row)
+        pl.addWidget(self.plot_tabs, 1)
+        top = QSplitter(Qt.Orientation.Horizontal)
+        top.addWidget(self.canvas)
+        top.addWidget(plot_box)
+        top.setSizes([480, 520])
+        self.right_tabs = QTabWidget()
+        self.right_tabs.addTab(self.results, "Results")
+        self.right_tabs.addTab(self.alternatives, "Alternatives")
+        self.right_tabs.currentChanged.connect(lambda _i: self._refresh_alternatives())
+        centre = QSplitter(Qt.Orientation.Vertical)
+        centre.addWidget(top)
+        centre.addWidget(self.right_tabs)
+        centre.setSizes([420, 330])
+        main = QSplitter(Qt.Orientation.Horizontal)
+        main.addWidget(panels)
+        main.addWidget(centre)
+        main.setStretchFactor(1, 1)
+        main.setSizes([400, 966])
+        self.setCentralWidget(main)
+
+    # --- asking (replaced in tests) -------------------------------------------------------
+
+    def ask(self, title: str, text: str, buttons, default):  # type: ignore[no-untyped-def]
+        """Ask the user (plain text; replaced in tests)."""
+        return show_message(self, QMessageBox.Icon.Question, title, text, buttons, default)
+
+    def warn(self, title: str, text: str) -> None:
+        """Tell the user something went wrong (plain text; replaced in tests)."""
+        self.statusBar().showMessage(f"{title}: {text.splitlines()[0] if text else ''}")
+        show_message(self, QMessageBox.Icon.Warning, title, text)
+
+    def inform(self, title: str, text: str) -> None:
+        """Tell the user a result (plain text)."""
+        show_message(self, QMessageBox.Icon.Information, title, text)
 
     # --- menus ------------------------------------------------------------------------
 
@@ -116,7 +168,8 @@ class MainWindow(QMainWindow):
         act = QAction(text, self)
         if shortcut is not None:
             act.setShortcut(QKeySequence(shortcut))
-        act.triggered.connect(lambda _checked=False: slot())
+        act.triggered.connect(guarded(text.replace("&", "").rstrip("\u2026"))(
+            lambda _checked=False: slot()))
         menu.addAction(act)
         return act
 
@@ -134,12 +187,21 @@ class MainWindow(QMainWindow):
         f.addSeparator()
         self._action(f, "&Quit", self.close, QKeySequence.StandardKey.Quit)
         e = bar.addMenu("&Edit")
-        undo = self.document.undo_stack.createUndoAction(self, "&Undo")
-        undo.setShortcut(QKeySequence.StandardKey.Undo)
-        redo = self.document.undo_stack.createRedoAction(self, "&Redo")
-        redo.setShortcut(QKeySequence.StandardKey.Redo)
-        e.addAction(undo)
-        e.addAction(redo)
+        stack = self.document.undo_stack
+        self.undo_action = stack.createUndoAction(self, "&Undo")
+        self.undo_action.setShortcuts(QKeySequence.keyBindings(QKeySequence.StandardKey.Undo))
+        self.redo_action = stack.createRedoAction(self, "&Redo")
+        redo_keys = QKeySequence.keyBindings(QKeySequence.StandardKey.Redo)
+        for extra in ("Ctrl+Shift+Z", "Ctrl+Y"):
+            if QKeySequence(extra) not in redo_keys:
+                redo_keys.append(QKeySequence(extra))
+        self.redo_action.setShortcuts(redo_keys)
+        for act in (self.undo_action, self.redo_action):
+            act.triggered.disconnect()
+        self.undo_action.triggered.connect(lambda _c=False: self.undo())
+        self.redo_action.triggered.connect(lambda _c=False: self.redo())
+        e.addAction(self.undo_action)
+        e.addAction(self.redo_action)
         e.addSeparator()
         self._action(e, "&Delete ply", self.delete_ply, QKeySequence.StandardKey.Delete)
         self._action(e, "D&uplicate ply", self.duplicate_ply, "Ctrl+D")
@@ -162,66 +224,54 @@ class MainWindow(QMainWindow):
         self._action(t, "&Keep current as alternative\u2026", self.alternatives.add_current)
         self._fill_recent()
 
+    # --- undo wherever the focus is ---------------------------------------------------
+
+    def eventFilter(self, watched: QObject, event: QEvent) -> bool:  # noqa: D102
+        # A text field takes Ctrl+Z for its own undo (it overrides the shortcut); here the
+        # key press goes to the project's undo instead, after the field commits.
+        if (event.type() == QEvent.Type.KeyPress and isinstance(watched, QLineEdit)
+                and isinstance(event, QKeyEvent) and watched.window() is self):
+            which = _matches_undo_redo(event)
+            if which == "undo":
+                self.undo()
+                return True
+            if which == "redo":
+                self.redo()
+                return True
+        return False
+
+    def commit_focused_entry(self) -> None:
+        """Commit a text field the user is typing in (before undo or redo)."""
+        w = QApplication.focusWidget()
+        if not isinstance(w, QLineEdit) or w.window() is not self or not w.isModified():
+            return
+        parent = w.parent()
+        while parent is not None and not isinstance(parent, QAbstractItemView):
+            parent = parent.parent()
+        if isinstance(parent, QAbstractItemView):
+            self.canvas.setFocus()  # a table cell editor commits when it loses focus
+        else:
+            w.editingFinished.emit()
+        if w is not None and isinstance(w, QLineEdit):
+            w.setModified(False)
+
+    @guarded("Undo")
+    def undo(self) -> None:
+        """Edit > Undo: commit a field being typed in, then undo the last edit."""
+        self.commit_focused_entry()
+        self.document.undo_stack.undo()
+
+    @guarded("Redo")
+    def redo(self) -> None:
+        """Edit > Redo."""
+        self.commit_focused_entry()
+        self.document.undo_stack.redo()
+
     # --- tools --------------------------------------------------------------------------
 
     def open_sweep(self) -> None:
         """Tools > Sweep."""
         SweepDialog(self.document, self).exec()
-
-    def auto_size_selected(self) -> None:
-        """Smallest stock plate thickness of the selected ply that passes."""
-        from plystack.core.model.units import fmt
-        from plystack.core.section.templates import PLATES_SI, PLATES_US
-        from plystack.core.study.compare import auto_size
-
-        i = self.canvas.selected
-        p = self.document.project
-        if i is None:
-            QMessageBox.information(self, "Auto-size", "Select a ply first.")
-            return
-        options = list((PLATES_US if p.display_units == "US" else PLATES_SI).values())
-        try:
-            r = auto_size(p, p.plies[i].name, "width", options)
-        except ProjectError as exc:
-            QMessageBox.warning(self, "Auto-size", str(exc))
-            return
-        u = p.display_units
-        if r.chosen is None:
-            QMessageBox.information(self, "Auto-size", r.message)
-            return
-        text = (f"{p.plies[i].name}: {fmt(r.chosen.value, 'length', u)} passes "
-                f"({r.chosen.governing_id}, ratio {r.chosen.governing_ratio:.3f}).")
-        if r.next_smaller is not None:
-            text += (f"\nNext smaller, {fmt(r.next_smaller.value, 'length', u)}, fails: "
-                     f"{r.next_smaller.governing_id} ratio {r.next_smaller.governing_ratio:.3f}.")
-        from plystack.core.model.caution import CAUTION
-
-        answer = QMessageBox.question(self, "Auto-size", text + "\n\nUse this thickness?\n\n"
-                                      + CAUTION)
-        if answer == QMessageBox.StandardButton.Yes:
-            from plystack.core.study.compare import with_dimension
-
-            self.document.apply(p.with_plies(with_dimension(p.plies, p.plies[i].name, "width",
-                                                            r.chosen.value)), "Auto-size ply")
-
-    def show_longest_span(self) -> None:
-        """Tools > Longest span."""
-        from plystack.core.model.caution import CAUTION
-        from plystack.core.model.units import fmt
-        from plystack.core.study.compare import longest_span
-
-        p = self.document.project
-        try:
-            r = longest_span(p)
-        except ProjectError as exc:
-            QMessageBox.warning(self, "Longest span", str(exc))
-            return
-        u = p.display_units
-        QMessageBox.information(self, "Longest span",
-                                f"Longest span that passes every check: "
-                                f"{fmt(r.span, 'span', u)} (to {fmt(r.tolerance, 'length', u, 3)})"
-                                f"; governing {r.governing_id}, ratio {r.governing_ratio:.3f}."
-                                f"\n\n{CAUTION}")
 
     # --- computation --------------------------------------------------------------------
 
@@ -234,6 +284,7 @@ class MainWindow(QMainWindow):
         """Analyse the current project now (results and plots follow)."""
         self.analysis_model.recompute()
 
+    @guarded("Showing the results")
     def show_analysis(self) -> None:
         """Show what the analysis model published: results, plots, alternatives."""
         if self.analysis is None:
@@ -253,10 +304,12 @@ class MainWindow(QMainWindow):
         self._redraw_plots()
         self._refresh_alternatives()
 
+    @guarded("Comparing the alternatives")
     def _refresh_alternatives(self) -> None:
         if self.right_tabs.currentWidget() is self.alternatives:
             self.alternatives.refresh()
 
+    @guarded("Drawing the plots")
     def _redraw_plots(self) -> None:
         name = self.combo_pick.currentText()
         pick = None if name == "governing combination" else name
@@ -265,65 +318,15 @@ class MainWindow(QMainWindow):
 
     # --- edits ------------------------------------------------------------------------
 
-    def _plies(self) -> list:  # type: ignore[type-arg]
-        return list(self.document.project.plies)
-
-    def delete_ply(self) -> None:
-        """Remove the selected ply."""
-        i = self.canvas.selected
-        if i is None:
-            return
-        plies = self._plies()
-        del plies[i]
-        self.canvas.select(None)
-        self.document.apply(self.document.project.with_plies(tuple(plies)), "Delete ply")
-
-    def duplicate_ply(self) -> None:
-        """Copy the selected ply beside itself (to the right)."""
-        i = self.canvas.selected
-        if i is None:
-            return
-        plies = self._plies()
-        p = plies[i]
-        plies.append(replace(p, name=f"{p.name} copy", x=p.x + p.width))
-        self.document.apply(self.document.project.with_plies(tuple(plies)), "Duplicate ply")
-        self.canvas.select(len(plies) - 1)
-
-    def mirror_ply(self) -> None:
-        """Mirror the selected ply about the section's vertical centre line."""
-        i = self.canvas.selected
-        if i is None:
-            return
-        plies = self._plies()
-        x0 = min(p.x for p in plies)
-        x1 = max(p.x + p.width for p in plies)
-        p = plies[i]
-        plies[i] = replace(p, x=x0 + x1 - p.x - p.width)
-        self.document.apply(self.document.project.with_plies(tuple(plies)), "Mirror ply")
-
-    def restack(self, step: int) -> None:
-        """Move the selected ply up or down the stacking order."""
-        i = self.canvas.selected
-        if i is None:
-            return
-        plies = self._plies()
-        j = i + step
-        if not 0 <= j < len(plies):
-            return
-        plies[i], plies[j] = plies[j], plies[i]
-        self.document.apply(self.document.project.with_plies(tuple(plies)),
-                            "Bring forward" if step > 0 else "Send back")
-        self.canvas.select(j)
-
     def toggle_transformed(self) -> None:
         """Show or hide the transformed outline."""
         self.canvas.show_transformed = self.transformed_action.isChecked()
         self.canvas.rebuild()
 
     def set_units(self, system: str) -> None:
-        """Switch the display units (US or SI)."""
+        """Switch the display units (US or SI): one undoable edit."""
         self.document.apply(replace(self.document.project, display_units=system),
-                            f"{system} units")
+                            f"Switch to {system} units")
         self.canvas.rebuild()
 
     def ask_snap_step(self) -> None:
@@ -342,37 +345,23 @@ class MainWindow(QMainWindow):
         try:
             step = parse_entry(text, "length", u, "snap step")
         except units.UnitError as exc:
-            QMessageBox.warning(self, "Snap step", str(exc))
+            self.warn("Snap step", str(exc))
             return
-        if step <= 0:
-            QMessageBox.warning(self, "Snap step", "snap step: must be greater than zero")
+        if not 0 < step < 1.0:
+            self.warn("Snap step", "snap step: must be greater than zero and below 1 m")
             return
         self.canvas.snap_override = step
 
     def open_materials(self) -> None:
         """Browse materials and add one to the project."""
         p = self.document.project
-        dlg = MaterialsDialog(p.all_materials(), p.display_units, self)
+        dlg = MaterialsDialog(p.all_materials(), p.display_units, self,
+                              basis=p.design_or_default().basis)
         if dlg.exec() and dlg.added is not None:
             mats = {**p.materials, dlg.added.id: dlg.added}
             self.document.apply(replace(p, materials=mats), "Add material")
 
     # --- files ------------------------------------------------------------------------
-
-    def ask(self, title: str, text: str, buttons, default):  # type: ignore[no-untyped-def]
-        """Ask the user (replaced in tests)."""
-        return QMessageBox.question(self, title, text, buttons, default)
-
-    def maybe_save(self) -> bool:
-        """True when it is fine to drop the current document."""
-        if not self.document.modified:
-            return True
-        b = QMessageBox.StandardButton
-        answer = self.ask("Unsaved changes", "Save the changes to this project first?",
-                          b.Save | b.Discard | b.Cancel, b.Save)
-        if answer == b.Save:
-            return self.save()
-        return bool(answer == b.Discard)
 
     def new_from_template(self) -> None:
         """Start a new project from a section template."""
@@ -386,131 +375,47 @@ class MainWindow(QMainWindow):
         project = Project(title="New section", display_units=system, plies=dlg.plies(),
                           beam=default_beam(system),
                           design=None if system == "US" else _eu_design())
-        self.document.replace_all(project, None)
-        self.canvas.request_fit()
-        self.canvas.rebuild()
-
-    def open_path(self, path: Path) -> bool:
-        """Open a project file; show its problems if it cannot be read."""
-        try:
-            project = load(path)
-        except ProjectError as exc:
-            QMessageBox.warning(self, "Cannot open", "\n".join(str(p) for p in exc.problems))
-            return False
-        self.document.replace_all(project, Path(path))
-        self.canvas.request_fit()
-        self.canvas.select(None)
-        self.canvas.rebuild()
-        self._remember(Path(path))
-        return True
+        self.replace_project(project)
 
     def export_sheet(self, target: Path | None = None) -> bool:
         """File > Export calculation sheet: choose paper, see the page count, save."""
+        from plystack.core.io.atomic import write_bytes
+        from plystack.core.model.errors import ProjectError
+
         dlg = SheetDialog(self.document.project, self)
         if target is None:
             if not dlg.exec():
                 return False
-            name, _ = QFileDialog.getSaveFileName(self, "Export calculation sheet",
-                                                  "calculation.pdf", "PDF (*.pdf)")
+            start = str(Path(self._last_dir()) / "calculation.pdf")
+            name, _ = QFileDialog.getSaveFileName(self, "Export calculation sheet", start,
+                                                  "PDF (*.pdf)")
             if not name:
                 return False
-            target = Path(name)
+            target = Path(name if name.lower().endswith(".pdf") else name + ".pdf")
         if not dlg.data:
-            QMessageBox.warning(self, "Export calculation sheet", dlg.preview.text())
+            self.warn("Export calculation sheet", dlg.preview.text())
             return False
-        tmp = target.with_name(f".{target.name}.tmp")
         try:
-            tmp.write_bytes(dlg.data)
-            tmp.replace(target)
-        except OSError as exc:
-            QMessageBox.critical(self, "Export failed", f"{target}: {exc}")
+            write_bytes(target, dlg.data, "calculation sheet")
+        except (OSError, ProjectError) as exc:
+            text = ("\n".join(str(p) for p in exc.problems) if isinstance(exc, ProjectError)
+                    else exc.strerror or str(exc))
+            self.warn("Export failed", f"{target}: {text}")
             return False
         self.statusBar().showMessage(f"Wrote {target} ({dlg.pages} pages)")
         return True
-
-    def open_dialog(self) -> None:
-        """File > Open."""
-        if not self.maybe_save():
-            return
-        name, _ = QFileDialog.getOpenFileName(self, "Open project", "",
-                                              "Plystack projects (*.plystack.json *.json)")
-        if name:
-            self.open_path(Path(name))
-
-    def save(self) -> bool:
-        """File > Save (asks for a name the first time)."""
-        if self.document.path is None:
-            return self.save_as()
-        return self._save_to(self.document.path)
-
-    def save_as(self) -> bool:
-        """File > Save as."""
-        name, _ = QFileDialog.getSaveFileName(self, "Save project", "untitled.plystack.json",
-                                              "Plystack projects (*.plystack.json)")
-        return self._save_to(Path(name)) if name else False
-
-    def _save_to(self, path: Path) -> bool:
-        try:
-            self.document.save_to(path)
-        except OSError as exc:
-            QMessageBox.critical(self, "Save failed", f"{path}: {exc}. The old file is "
-                                 "unchanged.")
-            return False
-        self._remember(path)
-        self._clear_autosave()
-        return True
-
-    def _remember(self, path: Path) -> None:
-        recent = [str(path)] + [p for p in self._recent() if p != str(path)]
-        self.settings.setValue("recent", recent[:8])
-        self._fill_recent()
-
-    def _recent(self) -> list[str]:
-        value = self.settings.value("recent", [])
-        return [str(v) for v in value] if isinstance(value, list) else (
-            [str(value)] if value else [])
-
-    def _fill_recent(self) -> None:
-        self.recent_menu.clear()
-        for p in self._recent():
-            act = self.recent_menu.addAction(p)
-            act.triggered.connect(lambda _c=False, p=p: self.maybe_save() and self.open_path(
-                Path(p)))
 
     def _update_title(self) -> None:
         name = self.document.path.name if self.document.path else "untitled"
         mark = "*" if self.document.modified else ""
         self.setWindowTitle(f"{name}{mark} \u2014 Plystack")
 
-    # --- autosave and closing ---------------------------------------------------------
-
-    def _autosave_path(self) -> Path:
-        stem = self.document.path.name if self.document.path else "untitled.plystack.json"
-        return autosave_dir() / stem
-
-    def autosave(self) -> Path | None:
-        """Write the project to the autosave folder while it has unsaved changes."""
-        if not self.document.modified:
-            return None
-        target = self._autosave_path()
-        try:
-            target.parent.mkdir(parents=True, exist_ok=True)
-            tmp = target.with_suffix(".tmp")
-            tmp.write_text(dumps(self.document.project), encoding="utf-8")
-            tmp.replace(target)
-        except OSError:
-            return None
-        return target
-
-    def _clear_autosave(self) -> None:
-        try:
-            self._autosave_path().unlink(missing_ok=True)
-        except OSError:
-            pass
-
     def closeEvent(self, event: QCloseEvent) -> None:  # noqa: D102
         if self.maybe_save():
-            self._clear_autosave()
+            self.close_files()
+            app = QApplication.instance()
+            if app is not None:
+                app.removeEventFilter(self)
             event.accept()
         else:
             event.ignore()

@@ -1,23 +1,52 @@
 """Plots: strain and stress over the depth, shear, moment and deflection along the span.
 
+The stress over the depth gets one panel per kind of material (timber, steel, other),
+each with its own scale, so a timber ply at a few hundred psi is as readable as a steel
+plate at thousands; a legend names the material of every line, and only each panel's
+extreme tension and compression are labelled (no labels on top of one another).
+
 Speed: the axes, ticks and labels are drawn once and cached as a background; an edit
-only changes the data artists (created once, updated in place with ``set_data``) and
-blits them over the cached background. The axes are redrawn in full only when the data
-leave the current limits or shrink well inside them, or the widget is resized.
+only changes the data artists (updated in place with ``set_data``) and blits them over
+the cached background. The axes are redrawn in full only when the data leave the
+current limits or shrink well inside them, the widget is resized, or the panels change.
+Nothing is drawn while the plot is hidden (before the window is shown, or in a tab not
+on top): it is drawn once when it appears.
+
+Values that are not finite are never given to matplotlib's limits (they would raise
+"Axis limits cannot be NaN or Inf"): such a plot shows what is finite and says so.
 """
 
 from __future__ import annotations
 
+import math
 from typing import Any
 
 import numpy as np
 from matplotlib.backends.backend_qtagg import FigureCanvasQTAgg
 from matplotlib.figure import Figure
+from matplotlib.lines import Line2D
 from matplotlib.patches import Polygon
 
 from plystack.core.actions.beam import diagram
 from plystack.core.model.units import sig, to_display, unit_label
 from plystack.core.pipeline import Analysis
+
+KIND_COLOURS = {"timber": "#9a6b2f", "steel": "#3d4654", "other": "#777777"}
+#: Line styles that tell materials of one kind apart in the legend.
+STYLES = ("-", "--", "-.", ":")
+
+
+def tex_safe(text: str) -> str:
+    """Text shown literally by matplotlib (a ``$`` would start mathtext)."""
+    return text.replace("$", r"\$")
+
+
+def _finite_range(values: np.ndarray) -> tuple[float, float] | None:
+    v = np.asarray(values, dtype=float)
+    v = v[np.isfinite(v)]
+    if v.size == 0:
+        return None
+    return float(min(v.min(), 0.0)), float(max(v.max(), 0.0))
 
 
 def _needs_new_limits(current: tuple[float, float], lo: float, hi: float) -> bool:
@@ -34,7 +63,8 @@ def _padded(lo: float, hi: float) -> tuple[float, float]:
         pad = max(abs(hi), 1.0) * 0.1
         return lo - pad, hi + pad
     pad = (hi - lo) * 0.12
-    return lo - pad, hi + pad
+    out = (lo - pad, hi + pad)
+    return out if all(math.isfinite(x) for x in out) else (-1.0, 1.0)
 
 
 class BlitCanvas(FigureCanvasQTAgg):
@@ -42,12 +72,14 @@ class BlitCanvas(FigureCanvasQTAgg):
 
     The data artists are animated: every full draw (an edit that moves the limits, a
     resize, a screenshot) caches the background and then draws them on top, so they
-    are never lost; other edits restore the background and blit.
+    are never lost; other edits restore the background and blit. While hidden it only
+    remembers that it must draw when shown.
     """
 
     def __init__(self, figure: Figure):
         super().__init__(figure)
         self._background: Any = None
+        self._stale = False
         self.dynamic: list[Any] = []
         self.full_draws = 0
         self.mpl_connect("draw_event", self._on_draw)
@@ -57,6 +89,14 @@ class BlitCanvas(FigureCanvasQTAgg):
         self._background = None
         super().resizeEvent(event)
 
+    def showEvent(self, event: Any) -> None:  # noqa: D102 - Qt API
+        super().showEvent(event)
+        if self._stale:
+            self._stale = False
+            self._background = None
+            self.figure.set_layout_engine("constrained")
+            self.draw_idle()
+
     def _on_draw(self, _event: Any) -> None:
         self._background = self.copy_from_bbox(self.figure.bbox)
         self._draw_dynamic()
@@ -65,11 +105,16 @@ class BlitCanvas(FigureCanvasQTAgg):
         for a in self.dynamic:
             if a.axes is not None:
                 a.axes.draw_artist(a)
+            elif a.figure is not None:
+                self.figure.draw_artist(a)
 
     def refresh(self, full: bool) -> None:
         """Draw: in full (axes and background) or by blitting the data artists."""
         for a in self.dynamic:
             a.set_animated(True)
+        if not self.isVisible():
+            self._stale = True
+            return
         if full or self._background is None:
             self.figure.set_layout_engine("constrained")
             self.draw()
@@ -82,103 +127,161 @@ class BlitCanvas(FigureCanvasQTAgg):
 
 
 class ProfilePlot(BlitCanvas):
-    """Strain and stress profiles over the height of the section, side by side."""
+    """Strain over the height of the section, and stress with one panel per material kind."""
 
     def __init__(self) -> None:
         figure = Figure(figsize=(5.5, 3.6), layout="constrained")
         super().__init__(figure)
-        self.ax_strain, self.ax_stress = figure.subplots(1, 2, sharey=True)
-        (self.strain_line,) = self.ax_strain.plot([], [], color="#333333", lw=1.6)
-        self.na_lines = [ax.axhline(0, color="#c02020", ls="-.", lw=0.9)
-                         for ax in (self.ax_strain, self.ax_stress)]
-        for ax in (self.ax_strain, self.ax_stress):
-            ax.axvline(0.0, color="#999999", lw=0.6)
-        self.stress_lines: list[Any] = []
-        self.labels: list[Any] = []
+        self.kinds: tuple[str, ...] = ()
         self.last: dict[str, Any] = {}
         self._key: tuple[Any, ...] = ()
+        self._build(("timber", "steel"), ())
+
+    def _build(self, kinds: tuple[str, ...], legend: tuple[tuple[str, str, str], ...]) -> None:
+        """New axes: strain, then one stress panel per kind; ``legend``: (kind, material,
+        style) of every line.
+        """
+        self.figure.clear()
+        self.kinds = kinds
+        axes = self.figure.subplots(1, 1 + max(len(kinds), 1), sharey=True, squeeze=False)[0]
+        self.ax_strain = axes[0]
+        self.ax_stress = {k: ax for k, ax in zip(kinds, axes[1:], strict=False)}
+        (self.strain_line,) = self.ax_strain.plot([], [], color="#333333", lw=1.6)
+        self.na_lines = [ax.axhline(0, color="#c02020", ls="-.", lw=0.9) for ax in axes]
+        for ax in axes:
+            ax.axvline(0.0, color="#999999", lw=0.6)
+            ax.tick_params(labelsize=7)
+            ax.set_autoscale_on(False)
+        self.stress_lines: list[Any] = []
+        self.extreme_labels = {k: [ax.annotate("", (0, 0), fontsize=7, xytext=(3, 0),
+                                               textcoords="offset points", va="center")
+                                   for _ in range(2)] for k, ax in self.ax_stress.items()}
+        for kind, ax in self.ax_stress.items():
+            handles = [Line2D([], [], color=KIND_COLOURS.get(kind, "#777777"), ls=style,
+                              lw=1.8, label=tex_safe(mid))
+                       for k, mid, style in legend if k == kind]
+            if handles:
+                ax.legend(handles=handles, fontsize=7, loc="upper center", framealpha=0.8,
+                          bbox_to_anchor=(0.5, -0.16), ncol=min(len(handles), 2),
+                          handlelength=2.4)
         self.na_label = self.ax_strain.annotate("", (0, 0), fontsize=7, color="#c02020",
                                                 xytext=(3, 3), textcoords="offset points")
-        self.moment_text = self.ax_stress.text(0.02, 0.98, "", transform=self.ax_stress.transAxes,
-                                               fontsize=8, va="top")
+        self.moment_text = self.figure.text(0.99, 0.99, "", fontsize=8, va="top", ha="right")
+        self._key = ()
+
+    def _clear(self) -> None:
+        self.strain_line.set_data([], [])
+        for line in self.stress_lines:
+            line.set_data([], [])
+        for labels in self.extreme_labels.values():
+            for t in labels:
+                t.set_text("")
+        self.dynamic = [self.strain_line, *self.stress_lines]
+        self.refresh(False)
 
     def update_from(self, a: Analysis | None, combo_name: str | None = None) -> None:
         """Update for the analysis at the governing (or named) combination's moment."""
-        for t in self.labels:
-            t.set_text("")
-        used = 0
         if a is None:
-            self.strain_line.set_data([], [])
-            for line in self.stress_lines:
-                line.set_data([], [])
-            self.dynamic = [self.strain_line, *self.stress_lines]
-            self.refresh(False)
+            self._clear()
             return
         u = a.project.display_units
         s = a.section
         moment, title = _moment_for(a, combo_name)
         k = to_display(1.0, "length", u)
         ks = to_display(1.0, "stress", u)
+        plies = [i for i in range(len(s.plies)) if s.area[i] > 0]
+        mats = [a.project.plies[i].material for i in range(len(s.plies))]
+        kind_of = [s.materials[i].kind if s.materials[i].kind in KIND_COLOURS else "other"
+                   for i in range(len(s.plies))]
+        kinds = tuple(kd for kd in KIND_COLOURS if any(kind_of[i] == kd for i in plies))
+        legend: list[tuple[str, str, str]] = []
+        for kd in kinds:
+            ids = sorted({mats[i] for i in plies if kind_of[i] == kd})
+            legend += [(kd, mid, STYLES[j % len(STYLES)]) for j, mid in enumerate(ids)]
+        full = False
+        if kinds != self.kinds or tuple(legend) != getattr(self, "_legend", None):
+            self._legend = tuple(legend)
+            self._build(kinds, tuple(legend))
+            full = True
+        style = {(kd, mid): st for kd, mid, st in legend}
         y0, y1 = float(s.y_bottom.min()) * k, float(s.y_top.max()) * k
         strain = s.strain(moment, np.array([y0 / k, y1 / k])) * 1e6
         self.strain_line.set_data(strain, [y0, y1])
-        while len(self.stress_lines) < len(s.plies):
-            (line,) = self.ax_stress.plot([], [], lw=1.8)
-            self.stress_lines.append(line)
         top, bot = s.ply_extreme_stresses(moment)
-        seen: set[tuple[float, float]] = set()
-        for i, line in enumerate(self.stress_lines):
-            if i >= len(s.plies) or s.area[i] <= 0:
-                line.set_data([], [])
-                continue
-            line.set_color({"timber": "#9a6b2f", "steel": "#3d4654"}.get(
-                s.materials[i].kind, "#777777"))
-            line.set_data([bot[i] * ks, top[i] * ks], [s.y_bottom[i] * k, s.y_top[i] * k])
-            for value, y in ((bot[i], s.y_bottom[i]), (top[i], s.y_top[i])):
-                key = (round(float(value), 3), round(float(y), 9))
-                if key in seen:
-                    continue
-                seen.add(key)
-                if used == len(self.labels):
-                    self.labels.append(self.ax_stress.annotate(
-                        "", (0, 0), fontsize=7, xytext=(3, 0), textcoords="offset points",
-                        va="center"))
-                self.labels[used].set_text(sig(float(value) * ks, 3))
-                self.labels[used].xy = (float(value) * ks, float(y) * k)
-                used += 1
+        for line in self.stress_lines:
+            line.remove()
+        self.stress_lines = []
+        for i in plies:
+            ax = self.ax_stress[kind_of[i]]
+            line = Line2D([bot[i] * ks, top[i] * ks], [s.y_bottom[i] * k, s.y_top[i] * k],
+                          lw=1.8, color=KIND_COLOURS[kind_of[i]],
+                          ls=style[(kind_of[i], mats[i])])
+            ax.add_line(line)  # no autoscaling: the limits are ours (see _set_limits)
+            self.stress_lines.append(line)
+        used = self._label_extremes(plies, kind_of, top, bot, s, k, ks)
         na = s.neutral_axis_y * k
         for line in self.na_lines:
             line.set_ydata([na, na])
         self.na_label.set_text(f"NA {sig(na, 4)} {unit_label('length', u)}")
-        self.na_label.xy = (0, na)
-        full = self._set_limits(strain, np.concatenate([top, bot]) * ks, (y0, y1), u, moment,
-                                title)
-        self.dynamic = [self.strain_line, *self.stress_lines, *self.na_lines,
-                        *self.labels[:used], self.na_label, self.moment_text]
+        self.na_label.xy = (0, na if math.isfinite(na) else 0.0)
+        self.moment_text.set_text(f"M = {sig(to_display(moment, 'moment', u), 4)} "
+                                  f"{unit_label('moment', u)}")
+        full |= self._set_limits(strain, top, bot, plies, kind_of, (y0, y1), u, title, ks)
+        self.dynamic = [self.strain_line, *self.stress_lines, *self.na_lines, *used,
+                        self.na_label, self.moment_text]
         self.last = {"moment": moment, "top": top, "bottom": bot}
         self.refresh(full)
 
-    def _set_limits(self, strain: np.ndarray, stress: np.ndarray, ys: tuple[float, float],
-                    u: str, moment: float, title: str) -> bool:
+    def _label_extremes(self, plies, kind_of, top, bot, s, k, ks):  # type: ignore[no-untyped-def]
+        """Label the largest tension and compression of each panel; returns the labels."""
+        used = []
+        for kind, labels in self.extreme_labels.items():
+            points = [(float(v), float(y)) for i in plies if kind_of[i] == kind
+                      for v, y in ((bot[i], s.y_bottom[i]), (top[i], s.y_top[i]))
+                      if math.isfinite(float(v))]
+            for t in labels:
+                t.set_text("")
+            if not points:
+                continue
+            picks = [max(points), min(points)]
+            if picks[0] == picks[1]:
+                picks = picks[:1]
+            for label, (v, y) in zip(labels, picks, strict=False):
+                label.set_text(sig(v * ks, 3))
+                label.xy = (v * ks, y * k)
+                # the largest value sits at the right of its panel: label it inwards
+                inward_left = v == picks[0][0] and v > 0
+                label.set_ha("right" if inward_left else "left")
+                label.set_position((-4, 0) if inward_left else (4, 0))
+                used.append(label)
+        return used
+
+    def _set_limits(self, strain, top, bot, plies, kind_of, ys, u, title, ks) -> bool:  # type: ignore[no-untyped-def]
         full = False
-        for ax, values in ((self.ax_strain, strain), (self.ax_stress, stress)):
-            lo, hi = float(min(values.min(), 0.0)), float(max(values.max(), 0.0))
-            if _needs_new_limits(ax.get_xlim(), lo, hi):
-                ax.set_xlim(*_padded(lo, hi))
+        ranges = [(self.ax_strain, _finite_range(strain))]
+        for kind, ax in self.ax_stress.items():
+            idx = [i for i in plies if kind_of[i] == kind]
+            ranges.append((ax, _finite_range(np.concatenate([top[idx], bot[idx]]) * ks)))
+        for ax, rng in ranges:
+            if rng is not None and _needs_new_limits(ax.get_xlim(), *rng):
+                ax.set_xlim(*_padded(*rng))
                 full = True
-        if _needs_new_limits(self.ax_strain.get_ylim(), *ys):
-            self.ax_strain.set_ylim(*_padded(*ys))
+        yr = _finite_range(np.array(ys))
+        if yr is not None and all(math.isfinite(v) for v in ys) and _needs_new_limits(
+                self.ax_strain.get_ylim(), min(ys), max(ys)):
+            self.ax_strain.set_ylim(*_padded(min(ys), max(ys)))
             full = True
-        self.moment_text.set_text(f"M = {sig(to_display(moment, 'moment', u), 4)} "
-                                  f"{unit_label('moment', u)}")
         key = (u, title)
         if key != self._key:
             self._key = key
-            self.ax_strain.set_xlabel("strain (\u00b5\u03b5, tension +)")
-            self.ax_strain.set_ylabel(f"height ({unit_label('length', u)})")
+            self.ax_strain.set_xlabel("strain (\u00b5\u03b5, tension +)", fontsize=8)
+            self.ax_strain.set_ylabel(f"height ({unit_label('length', u)})", fontsize=8)
             self.ax_strain.set_title("Strain", fontsize=9)
-            self.ax_stress.set_title(f"Stress ({title})", fontsize=9)
-            self.ax_stress.set_xlabel(f"stress ({unit_label('stress', u)}, tension +)")
+            for kind, ax in self.ax_stress.items():
+                ax.set_title(f"Stress, {kind}", fontsize=9)
+                ax.set_xlabel(f"{unit_label('stress', u)}, tension +", fontsize=8)
+            self.figure.suptitle(tex_safe(f"at the moment of {title}"), fontsize=8, x=0.02,
+                                 ha="left")
             full = True
         return full
 
@@ -204,6 +307,7 @@ class DiagramPlot(BlitCanvas):
                       for ax, c in zip(self.axes, ("#2a6f97", "#9b2226", "#3a5a40"), strict=True)]
         for ax in self.axes:
             ax.axhline(0, color="#888888", lw=0.6)
+            ax.set_autoscale_on(False)  # the limits are ours (set in update_from)
         self.fills = [ax.add_patch(Polygon(np.zeros((1, 2)), closed=True, alpha=0.12,
                                            color=line.get_color(), lw=0))
                       for ax, line in zip(self.axes, self.lines, strict=True)]
@@ -232,9 +336,13 @@ class DiagramPlot(BlitCanvas):
                   ("deflection (down +)", d.deflection, "deflection"))
         full = False
         x = d.x * kx
-        if _needs_new_limits(self.axes[0].get_xlim(), float(x.min()), float(x.max())) or (
-                abs(self.axes[0].get_xlim()[1] - x.max()) > 1e-9 * max(abs(x.max()), 1.0)):
-            self.axes[0].set_xlim(float(x.min()), float(x.max()))
+        xr = _finite_range(x)
+        if xr is not None and float(np.nanmax(x)) > float(np.nanmin(x)) and (
+                _needs_new_limits(self.axes[0].get_xlim(), float(np.nanmin(x)),
+                                  float(np.nanmax(x)))
+                or abs(self.axes[0].get_xlim()[1] - np.nanmax(x))
+                > 1e-9 * max(abs(np.nanmax(x)), 1.0)):
+            self.axes[0].set_xlim(float(np.nanmin(x)), float(np.nanmax(x)))
             full = True
         for ax, line, fill, label, (_name, values, kind) in zip(
                 self.axes, self.lines, self.fills, self.labels, series, strict=True):
@@ -243,12 +351,22 @@ class DiagramPlot(BlitCanvas):
             line.set_data(x, v)
             fill.set_xy(np.column_stack([np.concatenate([x, x[::-1]]),
                                          np.concatenate([v, np.zeros_like(v)])]))
-            k = int(np.argmax(np.abs(v)))
+            finite = np.isfinite(v) & np.isfinite(x)
+            if not finite.any():
+                label.set_text("not finite: see the results")
+                label.xy = (0.0, 0.0)
+                self.last[kind] = math.nan
+                continue
+            k = int(np.argmax(np.where(finite, np.abs(v), -1.0)))
             label.set_text(f"{sig(float(v[k]), 4)} at {sig(float(x[k]), 3)}")
             label.xy = (float(x[k]), float(v[k]))
-            lo, hi = float(min(v.min(), 0.0)), float(max(v.max(), 0.0))
-            if _needs_new_limits(ax.get_ylim(), lo, hi):
-                ax.set_ylim(*_padded(lo, hi))
+            # the label of a maximum near the right end points left, so it stays inside
+            right = xr is not None and x[k] > xr[0] + 0.7 * (xr[1] - xr[0])
+            label.set_ha("right" if right else "left")
+            label.set_position((-4, 4) if right else (4, 4))
+            rng = _finite_range(v)
+            if rng is not None and _needs_new_limits(ax.get_ylim(), *rng):
+                ax.set_ylim(*_padded(*rng))
                 full = True
             self.last[kind] = float(v[k]) / kv
         key = (u, chosen.name, tuple(a.beam.model.layout.support_positions()))
@@ -256,11 +374,12 @@ class DiagramPlot(BlitCanvas):
             self._key = key
             for ax, (name, _, kind) in zip(self.axes, series, strict=True):
                 ax.set_ylabel(f"{name}\n({unit_label(kind, u)})", fontsize=8)
+                ax.tick_params(labelsize=7)
             for ln in getattr(self, "_supports", []):
                 ln.remove()
             self._supports = [self.axes[1].axvline(xs * kx, color="#aaaaaa", lw=0.6, ls=":")
                               for xs in a.beam.model.layout.support_positions()]
-            self.axes[0].set_title(chosen.name, fontsize=9)
+            self.axes[0].set_title(tex_safe(chosen.name), fontsize=9)
             self.axes[2].set_xlabel(f"x from the left end ({unit_label('span', u)})")
             full = True
         self.dynamic = [*self.lines, *self.fills, *self.labels]

@@ -9,7 +9,6 @@ from PySide6.QtWidgets import (
     QComboBox,
     QCompleter,
     QFormLayout,
-    QLabel,
     QLineEdit,
     QPushButton,
     QVBoxLayout,
@@ -17,7 +16,9 @@ from PySide6.QtWidgets import (
 )
 
 from plystack.app.document import Document
+from plystack.app.ply_table import PlyTable
 from plystack.app.quantity import QuantityEdit
+from plystack.app.safe import guarded, plain_label
 
 
 class PlyPanel(QWidget):
@@ -28,12 +29,16 @@ class PlyPanel(QWidget):
         self.document = document
         self.index: int | None = None
         system = lambda: self.document.project.display_units  # noqa: E731
-        self.title = QLabel("Select a ply, or drag on the section to draw one.")
-        self.title.setWordWrap(True)
+        self.table = PlyTable(document)
+        self.title = plain_label("Select a ply, or drag on the section to draw one.")
         self.name = QLineEdit()
         self.material = QComboBox()
         self.material.setEditable(True)
         self.material.setInsertPolicy(QComboBox.InsertPolicy.NoInsert)
+        self.material.setSizeAdjustPolicy(
+            QComboBox.SizeAdjustPolicy.AdjustToMinimumContentsLengthWithIcon)
+        self.material.setMinimumContentsLength(8)
+        self.material.view().setTextElideMode(Qt.TextElideMode.ElideNone)
         completer = QCompleter(self)
         completer.setFilterMode(Qt.MatchFlag.MatchContains)
         completer.setCaseSensitivity(Qt.CaseSensitivity.CaseInsensitive)
@@ -45,9 +50,9 @@ class PlyPanel(QWidget):
             "width": QuantityEdit("length", "width", system, positive),
             "height": QuantityEdit("length", "height", system, positive),
         }
-        self.error = QLabel("")
+        self.error = plain_label("")
         self.error.setStyleSheet("color: #b00000")
-        self.error.setWordWrap(True)
+        self.table.error.connect(self.error.setText)
         self.materials_button = QPushButton("Materials\u2026")
         form = QFormLayout()
         form.addRow("Name", self.name)
@@ -57,11 +62,11 @@ class PlyPanel(QWidget):
             edit.accepted.connect(lambda v, k=key: self._set_dim(k, v))
             edit.rejected.connect(self.error.setText)
         layout = QVBoxLayout(self)
+        layout.addWidget(self.table, 1)
         layout.addWidget(self.title)
         layout.addLayout(form)
         layout.addWidget(self.error)
         layout.addWidget(self.materials_button)
-        layout.addStretch(1)
         self.name.editingFinished.connect(self._set_name)
         self.material.activated.connect(self._set_material)
         self.material.lineEdit().editingFinished.connect(self._set_material)
@@ -72,6 +77,7 @@ class PlyPanel(QWidget):
         """Show ply ``index`` (-1 for none)."""
         self.index = None if index < 0 else index
         self.error.setText("")
+        self.table.select_row(self.index)
         self.refresh()
 
     def _materials(self) -> list[tuple[str, str]]:
@@ -91,6 +97,8 @@ class PlyPanel(QWidget):
             self.material.clear()
             for mid, label in items:
                 self.material.addItem(label, mid)
+            view = self.material.view()
+            view.setMinimumWidth(view.sizeHintForColumn(0) + 24)
         if not ok or self.index is None:
             self.title.setText("Select a ply, or drag on the section to draw one.")
             self.material.blockSignals(False)
@@ -120,16 +128,23 @@ class PlyPanel(QWidget):
         self.error.setText("")
         self.document.apply(self.document.project.with_plies(tuple(plies)), text)
 
+    @guarded("Setting a dimension")
     def _set_dim(self, key: str, value: float) -> None:
         self._replace(f"Set {key}", **{key: value})
 
+    @guarded("Renaming the ply")
     def _set_name(self) -> None:
         text = self.name.text().strip()
         if not text:
             self.error.setText("name: must not be empty")
             return
+        if any(q.name == text for i, q in enumerate(self.document.project.plies)
+               if i != self.index):
+            self.error.setText(f"name: \u201c{text}\u201d is the name of another ply")
+            return
         self._replace("Rename ply", name=text)
 
+    @guarded("Setting the material")
     def _set_material(self, *_args: object) -> None:
         idx = self.material.currentIndex()
         mid = self.material.itemData(idx) if idx >= 0 else None

@@ -1,17 +1,20 @@
 """Results: verdict and caution, checks with ratio bars, per-ply table, section and beam.
 
 Every numeric cell keeps its SI value in Qt.UserRole, so tests compare numbers with
-core/ rather than pixels.
+core/ rather than pixels. Verdict colours: green OK, amber OK with a ratio from the
+amber threshold (QSettings ``amber_from``, 0.9 unless the user set another) up to 1.0,
+red NOT OK, grey INCOMPLETE (a ratio that is not a number: the check could not be made).
 """
 
 from __future__ import annotations
 
+import math
 from dataclasses import fields
 
-from PySide6.QtCore import QModelIndex, QRect, Qt
+from PySide6.QtCore import QModelIndex, QRect, QSettings, Qt
 from PySide6.QtGui import QColor, QPainter
 from PySide6.QtWidgets import (
-    QLabel,
+    QHeaderView,
     QStyledItemDelegate,
     QStyleOptionViewItem,
     QTableWidget,
@@ -21,6 +24,7 @@ from PySide6.QtWidgets import (
     QWidget,
 )
 
+from plystack.app.safe import plain_label, plain_tip, reporter
 from plystack.core.design.text import governing_per_group
 from plystack.core.model.caution import CAUTION
 from plystack.core.model.units import fmt, sig
@@ -28,25 +32,57 @@ from plystack.core.pipeline import Analysis
 from plystack.core.section.transformed import PlyResult
 
 RATIO_COLUMN = 5
+AMBER_FROM = 0.9
+GREEN, AMBER, RED, GREY = (QColor(46, 125, 50), QColor(214, 140, 0), QColor(190, 40, 40),
+                           QColor(130, 130, 130))
+
+
+def verdict_of(ratio: float, ok: bool, amber_from: float = AMBER_FROM) -> str:
+    """"OK", "OK (close)", "NOT OK" or "INCOMPLETE" for a check's ratio and verdict."""
+    if not isinstance(ratio, float | int) or math.isnan(ratio):
+        return "INCOMPLETE"
+    if not ok:
+        return "NOT OK"
+    return "OK (close)" if ratio >= amber_from else "OK"
+
+
+def verdict_colour(verdict: str) -> QColor:
+    """The colour of a verdict: green, amber, red or grey."""
+    return {"OK": GREEN, "OK (close)": AMBER, "NOT OK": RED}.get(verdict, GREY)
 
 
 class RatioBar(QStyledItemDelegate):
-    """Draws the ratio as a bar (full width = 1.0) with the number on it."""
+    """Draws the ratio as a bar (full width = 1.0) in its verdict's colour, number on it."""
+
+    amber_from = AMBER_FROM
 
     def paint(self, painter: QPainter, option: QStyleOptionViewItem,  # noqa: D102
               index: QModelIndex) -> None:
         ratio = index.data(Qt.ItemDataRole.UserRole)
         if not isinstance(ratio, float):
             return super().paint(painter, option, index)
-        r = option.rect.adjusted(2, 3, -2, -3)
         painter.save()
+        try:
+            self._bar(painter, option.rect.adjusted(2, 3, -2, -3), ratio)
+        except Exception as exc:
+            reporter().report("Drawing a ratio", exc)
+        finally:
+            painter.restore()
+
+    def _bar(self, painter: QPainter, r: QRect, ratio: float) -> None:
         painter.fillRect(r, QColor(240, 240, 240))
-        w = int(r.width() * min(ratio, 1.0))
-        color = QColor(70, 140, 90) if ratio <= 1.0 else QColor(190, 50, 50)
-        painter.fillRect(QRect(r.left(), r.top(), w, r.height()), color)
+        verdict = verdict_of(ratio, ratio <= 1.0 + 1e-9, self.amber_from)
+        if math.isfinite(ratio):
+            w = int(r.width() * min(max(ratio, 0.0), 1.0))
+            painter.fillRect(QRect(r.left(), r.top(), w, r.height()),
+                             verdict_colour(verdict).lighter(170))
+            text = f"{ratio:.3f}"
+        else:
+            if math.isinf(ratio):
+                painter.fillRect(r, verdict_colour(verdict).lighter(170))
+            text = "\u221e" if math.isinf(ratio) else "\u2014"
         painter.setPen(QColor(0, 0, 0))
-        painter.drawText(r, Qt.AlignmentFlag.AlignCenter, f"{ratio:.3f}")
-        painter.restore()
+        painter.drawText(r, Qt.AlignmentFlag.AlignCenter, text)
 
 
 def _item(text: str, value: object = None) -> QTableWidgetItem:
@@ -60,21 +96,21 @@ def _item(text: str, value: object = None) -> QTableWidgetItem:
 class ResultsPanel(QWidget):
     """Shows an analysis, or the problem that stopped it."""
 
-    def __init__(self) -> None:
+    def __init__(self, settings: QSettings | None = None) -> None:
         super().__init__()
-        self.verdict = QLabel("")
-        self.verdict.setWordWrap(True)
+        self.settings = settings
+        self.verdict = plain_label("")
         self.verdict.setStyleSheet("font-weight: bold; font-size: 13px; padding: 4px;")
-        self.caution = QLabel(CAUTION)
-        self.caution.setWordWrap(True)
+        self.caution = plain_label(CAUTION)
         self.caution.setStyleSheet("color: #6b4e00; background: #fff6d6; padding: 4px;")
-        self.error = QLabel("")
-        self.error.setWordWrap(True)
+        self.error = plain_label("")
         self.error.setStyleSheet("color: #b00000;")
         self.checks = QTableWidget(0, 7)
         self.checks.setHorizontalHeaderLabels(["Check", "Ply / place", "Combination",
                                                "Demand", "Capacity", "Ratio", "Verdict"])
-        self.checks.setItemDelegateForColumn(RATIO_COLUMN, RatioBar(self.checks))
+        self.ratio_bar = RatioBar(self.checks)
+        self.checks.setItemDelegateForColumn(RATIO_COLUMN, self.ratio_bar)
+        self.checks.setWordWrap(False)
         self.plies = QTableWidget(0, 0)
         self.section = QTableWidget(0, 2)
         self.beam = QTableWidget(0, 6)
@@ -92,17 +128,30 @@ class ResultsPanel(QWidget):
         layout.addWidget(self.tabs, 1)
         layout.addWidget(self.caution)
 
+    def amber_from(self) -> float:
+        """Ratios from this value up to 1.0 show amber (user setting ``amber_from``)."""
+        value = self.settings.value("amber_from", AMBER_FROM) if self.settings else AMBER_FROM
+        try:
+            number = float(value)  # type: ignore[arg-type]
+        except (TypeError, ValueError):
+            return AMBER_FROM
+        return number if 0.0 < number <= 1.0 else AMBER_FROM
+
     def show_error(self, message: str) -> None:
         """A computation failed: say why; keep the last tables greyed out."""
         self.error.setStyleSheet("color: #b00000;")
         self.error.setText(message)
-        self.verdict.setText("No results: fix the problem above.")
+        self.error.setVisible(True)
+        self.verdict.setText("INCOMPLETE \u2014 no results: fix the problem above.")
+        self.verdict.setStyleSheet("font-weight: bold; font-size: 13px; padding: 4px; "
+                                   "color: #828282;")
         for t in (self.checks, self.plies, self.section, self.beam):
             t.setEnabled(False)
 
     def show_analysis(self, a: Analysis) -> None:
         """Fill every table from an analysis."""
         self.error.setText("\n".join(f"Warning: {w}" for w in a.warnings))
+        self.error.setVisible(bool(a.warnings))
         self.error.setStyleSheet("color: #8a5a00;")
         for t in (self.checks, self.plies, self.section, self.beam):
             t.setEnabled(True)
@@ -113,6 +162,8 @@ class ResultsPanel(QWidget):
         self._fill_beam(a, u)
 
     def _fill_checks(self, a: Analysis, u: str) -> None:
+        amber = self.amber_from()
+        self.ratio_bar.amber_from = amber
         rows = governing_per_group(a.checks)
         self.checks.setRowCount(len(rows))
         for r, c in enumerate(rows):
@@ -126,27 +177,35 @@ class ResultsPanel(QWidget):
             self.checks.setItem(r, 3, _item(fmt(c.demand, kind, u), float(c.demand)))
             self.checks.setItem(r, 4, _item(fmt(c.capacity, kind, u), float(c.capacity)))
             self.checks.setItem(r, 5, _item("", float(c.ratio)))
-            verdict = _item("OK" if c.ok else "NOT OK", c.ok)
-            verdict.setForeground(QColor(30, 120, 50) if c.ok else QColor(190, 30, 30))
+            text = verdict_of(float(c.ratio), c.ok, amber)
+            verdict = _item(text, c.ok)
+            verdict.setForeground(verdict_colour(text))
             self.checks.setItem(r, 6, verdict)
             tip = "; ".join(f"{k} = {v:.4g} ({c.sources.get(k, '')})"
                             for k, v in c.factors.items())
             for col in range(7):
                 item = self.checks.item(r, col)
-                item.setToolTip(f"{c.equation}\n{tip}\n{c.location}")
+                item.setToolTip(plain_tip(f"{c.equation}\n{tip}\n{c.location}"))
+        header = self.checks.horizontalHeader()
         self.checks.resizeColumnsToContents()
-        self.checks.setColumnWidth(RATIO_COLUMN, 110)
+        for col in range(7):
+            header.setSectionResizeMode(col, QHeaderView.ResizeMode.Interactive)
+        self.checks.setColumnWidth(RATIO_COLUMN, 90)
         if not a.checks:
-            self.verdict.setText("No checks: give the beam (spans, supports, loads) to check "
-                                 "the member.")
+            self.verdict.setText("INCOMPLETE \u2014 no checks: give the beam (spans, supports, "
+                                 "loads) to check the member.")
+            self.verdict.setStyleSheet("font-weight: bold; font-size: 13px; padding: 4px; "
+                                       "color: #828282;")
             return
-        ok = all(c.ok for c in a.checks)
         gov = rows[0]
-        self.verdict.setText(f"{'OK' if ok else 'NOT OK'} \u2014 governing: {gov.id} in "
-                             f"{gov.ply or gov.location}, {gov.combination}, ratio "
-                             f"{gov.ratio:.3f}")
+        texts = [verdict_of(float(c.ratio), c.ok, amber) for c in a.checks]
+        overall = ("INCOMPLETE" if "INCOMPLETE" in texts else "NOT OK" if "NOT OK" in texts
+                   else verdict_of(float(gov.ratio), True, amber))
+        ratio = f"{gov.ratio:.3f}" if math.isfinite(gov.ratio) else "not a number"
+        self.verdict.setText(f"{overall} \u2014 governing: {gov.id} in "
+                             f"{gov.ply or gov.location}, {gov.combination}, ratio {ratio}")
         self.verdict.setStyleSheet("font-weight: bold; font-size: 13px; padding: 4px; color: "
-                                   + ("#1e7a32;" if ok else "#be1e1e;"))
+                                   + verdict_colour(overall).name() + ";")
 
     def _fill_plies(self, a: Analysis, u: str) -> None:
         cols = [f for f in fields(PlyResult) if f.name not in ("E",)]

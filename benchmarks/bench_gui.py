@@ -48,13 +48,11 @@ def main(edits: int = 60) -> None:
         t0 = time.perf_counter()
         w.document.apply(new, "bench")  # the canvas redraws synchronously
         view_t.append(time.perf_counter() - t0)
-        w._timer.stop()  # run what the coalescing timer would run, once, in the open
+        w.analysis_model._timer.stop()  # run what the debounce timer would run, in the open
         t1 = time.perf_counter()
-        w.analysis = run(w.document.project)
-        w.results.show_analysis(w.analysis)
+        w.analysis_model.recompute()  # publishes: results table (and plots) follow
         table_t.append(time.perf_counter() - t1 + view_t[-1])
-        w._redraw_plots()  # blits the data over cached axes, or redraws in full
-        app.processEvents()
+        app.processEvents()  # the plots blit their data over cached axes, or redraw
         full_t.append(time.perf_counter() - t0)
     med = {name: statistics.median(v) * 1000 for name, v in (
         ("core section", section_t), ("core full (section, beam, checks)", core_t),

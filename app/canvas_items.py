@@ -1,0 +1,97 @@
+"""Scene items of the section canvas: ply outlines, fills, labels, the background grid.
+
+Scene units are millimetres with y pointing up in the model and down in Qt, so a model
+point (x, y) in metres sits at scene (1000 x, -1000 y).
+"""
+
+from __future__ import annotations
+
+import math
+
+from PySide6.QtCore import QPointF, QRectF, Qt
+from PySide6.QtGui import QBrush, QColor, QFont, QPainter, QPainterPath, QPen
+from PySide6.QtWidgets import QGraphicsItem, QGraphicsRectItem, QGraphicsSimpleTextItem
+from shapely.geometry import MultiPolygon, Polygon
+from shapely.geometry.base import BaseGeometry
+
+#: Fills by material kind that read in greyscale print: timber light with diagonal grain
+#: lines, steel dark and solid, other materials mid grey with cross-hatching.
+FILLS = {
+    "timber": (QColor(236, 214, 170), Qt.BrushStyle.BDiagPattern, QColor(150, 110, 60)),
+    "steel": (QColor(70, 78, 90), Qt.BrushStyle.SolidPattern, QColor(70, 78, 90)),
+    "other": (QColor(190, 190, 200), Qt.BrushStyle.DiagCrossPattern, QColor(110, 110, 120)),
+}
+
+#: Most grid lines drawn in one direction per repaint (a bound, whatever the zoom).
+MAX_GRID_LINES = 400
+
+
+def geometry_path(geom: BaseGeometry) -> QPainterPath:
+    """A painter path of a (multi)polygon with holes, in scene units."""
+    path = QPainterPath()
+    path.setFillRule(Qt.FillRule.OddEvenFill)
+    polys = geom.geoms if isinstance(geom, MultiPolygon) else [geom]
+    for poly in polys:
+        if not isinstance(poly, Polygon) or poly.is_empty:
+            continue
+        for ring in [poly.exterior, *poly.interiors]:
+            pts = [QPointF(x * 1000, -y * 1000) for x, y in ring.coords]
+            if not pts or not all(math.isfinite(p.x()) and math.isfinite(p.y()) for p in pts):
+                continue
+            path.moveTo(pts[0])
+            for p in pts[1:]:
+                path.lineTo(p)
+            path.closeSubpath()
+    return path
+
+
+def tag(text: str, color: QColor | None = None, size: float = 9.0,
+        background: bool = True) -> QGraphicsRectItem:
+    """A label that keeps its size on screen (plain text on a pale box), origin top left."""
+    box = QGraphicsRectItem()
+    box.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
+    label = QGraphicsSimpleTextItem(text, box)
+    label.setBrush(QBrush(color or QColor(30, 30, 30)))
+    f = QFont()
+    f.setPointSizeF(size)
+    label.setFont(f)
+    r = label.boundingRect().adjusted(-2, 0, 2, 0)
+    box.setRect(r)
+    box.setPen(QPen(Qt.PenStyle.NoPen))
+    box.setBrush(QBrush(QColor(255, 255, 255, 200)) if background else QBrush())
+    box.setZValue(3000)
+    return box
+
+
+def grid_step(steps: list[float], px_per_mm: float, at_least_px: float) -> float:
+    """The first step (mm) at least ``at_least_px`` wide on screen; past the list, the
+    largest step times a power of ten.
+    """
+    for s in steps:
+        if s * px_per_mm >= at_least_px:
+            return s
+    largest = steps[-1]
+    power = math.ceil(math.log10(at_least_px / (largest * px_per_mm)))
+    return largest * 10.0 ** max(power, 0)
+
+
+def draw_grid(painter: QPainter, rect: QRectF, px_per_mm: float, steps: list[float]) -> None:
+    """Minor and major grid lines over ``rect`` (scene units), bounded in number."""
+    painter.fillRect(rect, QColor(252, 252, 250))
+    values = (rect.left(), rect.right(), rect.top(), rect.bottom(), px_per_mm)
+    if not all(math.isfinite(v) for v in values) or px_per_mm <= 0:
+        return
+    minor = grid_step(steps, px_per_mm, 10)
+    major = grid_step([s for s in steps if s >= minor * 4.9] or [minor * 5], px_per_mm, 40)
+    for step, color in ((minor, QColor(234, 234, 234)), (major, QColor(205, 205, 205))):
+        if (rect.width() / step > MAX_GRID_LINES or rect.height() / step > MAX_GRID_LINES):
+            continue
+        pen = QPen(color, 0)
+        pen.setCosmetic(True)
+        painter.setPen(pen)
+        k0 = math.floor(rect.left() / step)
+        for k in range(k0, k0 + int(rect.width() / step) + 2):
+            painter.drawLine(QPointF(k * step, rect.top()), QPointF(k * step, rect.bottom()))
+        k0 = math.floor(rect.top() / step)
+        for k in range(k0, k0 + int(rect.height() / step) + 2):
+            painter.drawLine(QPointF(rect.left(), k * step), QPointF(rect.right(), k * step))
