@@ -199,11 +199,19 @@ class ResultsPanel(QWidget):
             return
         gov = rows[0]
         texts = [verdict_of(float(c.ratio), c.ok, amber) for c in a.checks]
-        overall = ("INCOMPLETE" if "INCOMPLETE" in texts else "NOT OK" if "NOT OK" in texts
-                   else verdict_of(float(gov.ratio), True, amber))
+        overall = a.verdict
+        if overall == "OK" and "INCOMPLETE" in texts:
+            overall = "INCOMPLETE"
+        elif overall == "OK":
+            overall = verdict_of(float(gov.ratio), True, amber)
         ratio = f"{gov.ratio:.3f}" if math.isfinite(gov.ratio) else "not a number"
+        missing = "".join(f"\n  not checked: {p}" for p in a.incomplete_reasons[:4])
+        more = len(a.incomplete_reasons) - 4
+        if more > 0:
+            missing += f"\n  and {more} more (see the warnings)"
         self.verdict.setText(f"{overall} \u2014 governing: {gov.id} in "
-                             f"{gov.ply or gov.location}, {gov.combination}, ratio {ratio}")
+                             f"{gov.ply or gov.location}, {gov.combination}, ratio {ratio}"
+                             + missing)
         self.verdict.setStyleSheet("font-weight: bold; font-size: 13px; padding: 4px; color: "
                                    + verdict_colour(overall).name() + ";")
 
