@@ -95,7 +95,9 @@ def edge_stability(beam: BeamResult, design: DesignSpec, edge: str, x: float) ->
             kind, "constant moment")
     else:
         nds_case, en_case = "any other case", "constant moment"
-    load_on = "compression edge" if edge == "top" else "tension edge"
+    top = "compression edge" if edge == "top" else "tension edge"
+    bottom = "tension edge" if edge == "top" else "compression edge"
+    load_on = {"top": top, "bottom": bottom}.get(design.load_level, "centroid")
     if edge == "top":
         braced = design.compression_edge_braced
         length = design.unbraced_length

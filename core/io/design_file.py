@@ -31,6 +31,7 @@ DESIGN_FIELDS = (
     FieldSpec("bottom_edge_braced", "flag"),
     FieldSpec("stability_width", "choice", choices=("ply", "member")),
     FieldSpec("plate_unbraced_length", "positive", dimension="length", write_kind="span"),
+    FieldSpec("load_level", "choice", choices=("top", "centroid", "bottom")),
 )
 CONNECTOR_FIELDS = (
     FieldSpec("type", "choice", choices=("screw", "bolt", "nail"), always=True),

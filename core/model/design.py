@@ -102,6 +102,8 @@ class DesignSpec:
             declares the plies act as one for lateral stability).
         plate_unbraced_length: m, L_b of steel plates (None: braced between two timbers,
             the fastener spacing on a face).
+        load_level: where the loads act for lateral stability: "top" (gravity loads on
+            the top edge, the default), "centroid" or "bottom" (EN 1995-1-1 6.3.3(3)).
         live_limit: span / this for live-load deflection.
         total_limit: span / this for total-load deflection.
         long_term_limit: span / this for long-term (creep) deflection.
@@ -144,6 +146,7 @@ class DesignSpec:
     bottom_edge_braced: bool = False
     stability_width: str = "ply"
     plate_unbraced_length: float | None = None
+    load_level: str = "top"
 
     @property
     def us(self) -> bool:

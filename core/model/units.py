@@ -72,10 +72,11 @@ class UnitError(ValueError):
 
 _FEET_INCH = re.compile(
     r"^\s*(?P<ft>[-+]?\d+(?:\.\d+)?)\s*(?:'|ft|feet|foot)\s*-?\s*"
-    r"(?P<inch>\d+(?:\.\d+)?(?:\s+\d+/\d+)?|\d+/\d+)?\s*(?:\"|in|inch|inches|'')?\s*$"
+    r"(?P<inch>\d+(?:\.\d+)?(?:[\s-]+\d+/\d+)?|\d+/\d+)?\s*(?:\"|in|inch|inches|'')?\s*$"
 )
 _MIXED_FRACTION = re.compile(r"(?<![\d./])(\d+(?:\.\d+)?)[\s-]+(\d+)\s*/\s*(\d+)(?![\d./])")
 _FRACTION = re.compile(r"(?<![\d./])(\d+)\s*/\s*(\d+)(?![\d./])")
+_POUND = re.compile(r"\b(?:lb|lbs|pound|pounds)\b")
 _NUMBER_ONLY = re.compile(r"^\s*[-+]?(\d+(\.\d*)?|\.\d+)([eE][-+]?\d+)?\s*$")
 
 
@@ -181,6 +182,9 @@ def _parse_cached(text: str, dimension: str) -> float:
         if not hasattr(q, "magnitude"):
             raise UnitError("has no unit")
         want = DIMENSIONS[dimension]
+        if not q.check(want) and "[force]" in want and _POUND.search(expr):
+            # the trade writes "lb" for pound-force where a force is meant (common practice)
+            q = ureg.parse_expression(_POUND.sub("lbf", expr))
         if not q.check(want):
             raise UnitError(f"is not {DIMENSION_WORDS[dimension]}")
         value = float(q.to_base_units().magnitude)
