@@ -124,3 +124,32 @@ def en_thin_steel_single(f_h: float, t1: float, d: float, M_y: float) -> YieldMo
     a, b. N.
     """
     return YieldModes({"a": 0.4 * f_h * t1 * d, "b": 1.15 * math.sqrt(2 * M_y * f_h * d)})
+
+
+def en_thick_steel_single(f_h: float, t1: float, d: float, M_y: float) -> YieldModes:
+    """EN 1995-1-1 (8.10) thick steel plate (t >= d) in single shear, rope effect left
+    out: modes c, d, e with t1 the timber thickness. N.
+    """
+    return YieldModes({
+        "c": f_h * t1 * d,
+        "d": f_h * t1 * d * (math.sqrt(2 + 4 * M_y / (f_h * d * t1**2)) - 1),
+        "e": 2.3 * math.sqrt(M_y * f_h * d),
+    })
+
+
+def en_steel_single(f_h: float, t1: float, d: float, M_y: float,
+                    t_steel: float) -> tuple[float, str]:
+    """EN 1995-1-1 8.2.3 steel-to-timber, single shear, by the plate thickness t (from
+    memory): thin (t <= 0.5 d) by (8.9), thick (t >= d) by (8.10), linear interpolation
+    between; t1 is the timber member's thickness. Returns (F_v,Rk per shear plane, N;
+    which rule).
+    """
+    thin = en_thin_steel_single(f_h, t1, d, M_y).value
+    thick = en_thick_steel_single(f_h, t1, d, M_y).value
+    if t_steel <= 0.5 * d:
+        return thin, "thin plate (8.9)"
+    if t_steel >= d:
+        return thick, "thick plate (8.10)"
+    w = (t_steel - 0.5 * d) / (0.5 * d)
+    rule = f"interpolated between (8.9) and (8.10), t/d = {t_steel / d:.3g}"
+    return thin + w * (thick - thin), rule

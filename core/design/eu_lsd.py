@@ -15,7 +15,14 @@ import math
 from ..actions.analysis import BeamResult
 from ..codes import en1993
 from ..codes import en1995 as ec5
-from ..codes.dowels import en_f_h_k, en_M_y, en_steel_centre, en_thin_steel_single
+from ..codes.dowels import (
+    en_f_h_k,
+    en_M_y,
+    en_steel_centre,
+    en_steel_single,
+    en_thick_steel_single,
+    en_thin_steel_single,
+)
 from ..model.caution import CAUTION
 from ..model.design import DesignSpec
 from ..model.errors import MissingCheck, Problem
@@ -266,11 +273,23 @@ def _bolts(section: Section, beam: BeamResult, design: DesignSpec, uls: list,  #
             modes = en_steel_centre(fh, t1, d, My)
             planes = 2
             kind = "steel plate as central member, (8.11)"
+            Fv_Rk = modes.value * planes
+            mode_text = (", ".join(f"mode ({m}) {fmt(v, 'force', system)} per plane"
+                                   for m, v in modes.modes.items())
+                         + f"; governing ({modes.governing}).")
         else:
-            modes = en_thin_steel_single(fh, steel.width, d, My)
+            # t1 is the timber member's thickness; the plate's thickness sets the rule
+            value, rule = en_steel_single(fh, t1, d, My, steel.width)
             planes = 1
-            kind = "thin steel plate, single shear, (8.9)"
-        Fv_Rk = modes.value * planes
+            kind = f"steel plate on one face, single shear, {rule}"
+            Fv_Rk = value
+            thin_m = en_thin_steel_single(fh, t1, d, My)
+            thick_m = en_thick_steel_single(fh, t1, d, My)
+            mode_text = ("thin plate (8.9): " + ", ".join(
+                f"({m}) {fmt(v, 'force', system)}" for m, v in thin_m.modes.items())
+                + "; thick plate (8.10): " + ", ".join(
+                f"({m}) {fmt(v, 'force', system)}" for m, v in thick_m.modes.items())
+                + f"; F_v,Rk {fmt(value, 'force', system)} ({rule}), t1 = timber thickness.")
         share = plate_share(section, jt.steel)
         g = {"gamma_M": ec5.GAMMA_M_CONNECTION}
         worst = max(sum(float(r) for r in c.solution.reactions) * share /
@@ -299,9 +318,7 @@ def _bolts(section: Section, beam: BeamResult, design: DesignSpec, uls: list,  #
                 fasteners=Fasteners(locations=n_loc, rows=bolt.rows, count=n_loc * bolt.rows,
                                     spacing=s),
                 x=None,
-                notes=(", ".join(f"mode ({m}) {fmt(v, 'force', system)} per plane"
-                           for m, v in modes.modes.items())
-                 + f"; governing ({modes.governing}).",
+                notes=(mode_text,
                  f"Plate's share of the load E_p I_p / EI = {share:.3f}.",
                  "Spacing and distances per EN 1995-1-1 Table 8.4 (a1 >= 4d, a3 >= 4d, "
                  "loaded edge a4,t >= 4d).", EDGE_END_REMINDERS[1], CAUTION)))

@@ -190,3 +190,34 @@ def test_hyphenated_feet_inch_fraction_and_pounds():
     assert parse("14'-6-1/2\"", "length", "x") == pytest.approx(14 * 0.3048 + 6.5 * 0.0254,
                                                                rel=1e-15)
     assert parse("300 lb", "force", "x") == pytest.approx(300 * 4.4482216152605, rel=1e-15)
+
+
+def test_eu_bolts_with_a_plate_on_one_face_use_the_timber_thickness():
+    """EN 1995-1-1 8.2.3 (from memory): t1 is the timber's thickness; a 10 mm plate with
+    12 mm bolts (0.5 d < t < d) interpolates between (8.9) thin and (8.10) thick. f_h,0,k
+    = 0.082 (1 - 0.01 d) rho_k (8.32), k_90 = 1.35 + 0.015 d (8.33), f_h,90 = f_h,0 /
+    (k_90 sin^2 + cos^2), M_y,Rk = 0.3 f_u d^2.6 (8.30); C24 rho_k 350 kg/m^3."""
+    import math as m
+
+    d, t1, t, fu, rho = 12.0, 45.0, 10.0, 400.0, 350.0
+    fh0 = 0.082 * (1 - 0.01 * d) * rho
+    fh = fh0 / (1.35 + 0.015 * d)
+    My = 0.3 * fu * d**2.6
+    thin = min(0.4 * fh * t1 * d, 1.15 * m.sqrt(2 * My * fh * d))
+    thick = min(fh * t1 * d, fh * t1 * d * (m.sqrt(2 + 4 * My / (fh * d * t1**2)) - 1),
+                2.3 * m.sqrt(My * fh * d))
+    expected = thin + (t - 0.5 * d) / (0.5 * d) * (thick - thin)
+    p = from_dict({
+        "format": "plystack", "version": 1, "title": "side plate", "display_units": "SI",
+        "plies": [{"name": "joist", "material": "C24", "x": "0 mm", "y": "0 mm",
+                   "width": "45 mm", "height": "220 mm"},
+                  {"name": "plate", "material": "S275", "x": "45 mm", "y": "10 mm",
+                   "width": "10 mm", "height": "200 mm"}],
+        "beam": {"spans": ["3.6 m"], "supports": "simple", "self_weight": False,
+                 "bearing_length": "90 mm",
+                 "loads": [{"case": "D", "type": "line", "value": "0.5 kN/m"},
+                           {"case": "L", "type": "line", "value": "1.0 kN/m"}]},
+        "design": {"basis": "EU-LSD", "service_class": 1,
+                   "bolt": {"diameter": "12 mm", "fu": "400 MPa"}}})
+    c = next(c for c in run(p).checks if c.id == "bolts")
+    assert c.reference[1] == pytest.approx(expected, rel=1e-9)
