@@ -26,7 +26,7 @@ from PySide6.QtWidgets import (
 
 from plystack.app.safe import plain_label, plain_tip, reporter
 from plystack.core.design.text import governing_per_group
-from plystack.core.model.caution import CAUTION
+from plystack.core.model.caution import CAUTION, FIRE_NOTE
 from plystack.core.model.units import fmt, sig
 from plystack.core.pipeline import Analysis
 from plystack.core.section.transformed import PlyResult
@@ -103,6 +103,11 @@ class ResultsPanel(QWidget):
         self.verdict.setStyleSheet("font-weight: bold; font-size: 13px; padding: 4px;")
         self.caution = plain_label(CAUTION)
         self.caution.setStyleSheet("color: #6b4e00; background: #fff6d6; padding: 4px;")
+        self.fire = plain_label("Fire: Plystack makes no fire check; exposed steel plates "
+                                "need protection or an assessment (hover for the "
+                                "published methods).")
+        self.fire.setToolTip(plain_tip(FIRE_NOTE))
+        self.fire.setStyleSheet("color: #555555; padding: 2px 4px;")
         self.error = plain_label("")
         self.error.setStyleSheet("color: #b00000;")
         self.checks = QTableWidget(0, 7)
@@ -127,6 +132,7 @@ class ResultsPanel(QWidget):
         layout.addWidget(self.verdict)
         layout.addWidget(self.tabs, 1)
         layout.addWidget(self.caution)
+        layout.addWidget(self.fire)
 
     def amber_from(self) -> float:
         """Ratios from this value up to 1.0 show amber (user setting ``amber_from``)."""
