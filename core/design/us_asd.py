@@ -39,14 +39,7 @@ from .common import (
 )
 from .demands import ply_demands
 from .plates import plate_bracing, us_plate_allowable
-from .us_timber import bending_check, interaction_check
-
-S_TABLE = "NDS 2018 Table 2.3.2 (from memory)"
-S_CM = "NDS Supplement Table 4A/5A wet service factors (from memory)"
-S_CT = "NDS 2018 Table 2.3.3 (from memory)"
-S_CI = "NDS 2018 Table 4.3.8 (from memory)"
-S_CR = "NDS 2018 4.3.9 (user's declaration)"
-S_CF = "NDS Supplement Table 4A size factors (from memory)"
+from .us_timber import S_CI, S_CM, S_CT, S_TABLE, bending_check, interaction_check
 
 
 def us_checks(project: Project, section: Section, beam: BeamResult,
