@@ -247,6 +247,7 @@ def _bending(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
         return _bending_creep_us(a, c, u, combo, d, where)
     sec = final if d.state == "with creep" and final is not None else s
     sub = ",fin" if sec is not s else ""
+    low = "_fin" if sec is not s else ""
     fibre = _fibre(sec, i)
     y_na = sec.neutral_axis_y
     dist = abs(fibre - y_na)
@@ -259,14 +260,14 @@ def _bending(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
                      f"= E_mean / (1 + {factor_text(psi2)} {TIMES} {factor_text(k_def)}) "
                      "(EN 1995-1-1 2.3.2.2(2); \u03c8\u2082 of the leading variable action, "
                      "1.0 for permanent actions alone)")
-    where += [f"c{sub} = |y \u2212 y_na{sub}| = |{q(fibre, 'length', u, IN)} \u2212 "
+    where += [f"c{low} = |y \u2212 y_na{sub}| = |{q(fibre, 'length', u, IN)} \u2212 "
               f"{q(y_na, 'length', u, IN)}| = {q(dist, 'length', u, IN)} (extreme fibre of "
               f"{c.ply})",
-              f"n{sub} = E{sub} / E_ref = {q(float(sec.E[i]), 'modulus', u, IN + 1)} / "
+              f"n{low} = E{low} / E_ref = {q(float(sec.E[i]), 'modulus', u, IN + 1)} / "
               f"{exact(s.E_ref, 'modulus', u)} = {num(n, IN)}; I_t{sub} = "
               f"{q(sec.I_transformed, 'second_moment', u, IN)}"
               + (" (section 3)" if sec is s else "")]
-    demand = (f"{sym} = n{sub} |M| c{sub} / I_t{sub} = {num(n, IN)} {TIMES} "
+    demand = (f"{sym} = n{low} |M| c{low} / I_t{sub} = {num(n, IN)} {TIMES} "
               f"{q(abs(d.M), 'moment', u, IN)} {TIMES} {_moment_factor(u)} {TIMES} "
               f"{q(dist, 'length', u, IN)} / {q_den(sec.I_transformed, 'second_moment', u, IN)}"
               f" = {result(c, u)}")
