@@ -246,6 +246,7 @@ def _creep(beam: BeamResult, u: str, width: float) -> list[Any]:
         para("Deflection with creep", H2),
         para(f"{sym} = {factor_text(beam.creep_factor)}: the sustained part ({part}"
              ") acts on the section with timber moduli "
-             f"divided by {sym} (EI_cr = {q(beam.creep_section.EI, 'EI', u, IN)}); steel does "
+             f"divided by {sym} ({'EI_cr' if beam.basis == 'US' else 'EI_fin'} = "
+             f"{q(beam.creep_section.EI, 'EI', u, IN)}); steel does "
              "not creep. Total = long-term part + short-term part.", SMALL),
         table(rows, width, align_right=(1, 2, 3))])]
