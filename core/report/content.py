@@ -13,7 +13,7 @@ from reportlab.lib.units import mm
 from reportlab.platypus import CondPageBreak, KeepTogether, Spacer, Table
 
 from ..design.check import governing
-from ..model.caution import ASSUMPTIONS, CAUTION
+from ..model.caution import ASSUMPTIONS, CAUTION, FIRE_NOTE
 from ..model.project import Project
 from ..pipeline import Analysis, run
 from ..study.compare import alternatives_with_current, summarise
@@ -186,29 +186,36 @@ def _profiles(a: Analysis, u: str, width: float) -> list[Any]:
 
 def _summary(a: Analysis, original: Project, u: str, width: float) -> list[Any]:
     gov = governing(a.checks)
-    assert gov is not None
-    ok = all(c.ok for c in a.checks)
-    verdict = "OK" if ok else "NOT OK"
-    out: list[Any] = [
-        para("7  Summary", H1),
-        para(f"Governing check: {gov.id} in {place(gov)} under {gov.combination}, ratio "
-             f"{gov.ratio:.3f}.", BODY),
-        para(f"Verdict: {verdict}",
-             ParagraphStyle("v", parent=BODY, fontName="PlyStackSans-Bold", fontSize=12,
-                            leading=16, textColor=colors.black if ok else colors.red))]
+    verdict = a.verdict
+    ok = verdict == "OK"
+    out: list[Any] = [para("7  Summary", H1)]
+    if gov is not None:
+        out.append(para(f"Governing check: {gov.id} in {place(gov)} under {gov.combination}, "
+                        f"ratio {gov.ratio:.3f}.", BODY))
+    out.append(para(f"Verdict: {verdict}",
+                    ParagraphStyle("v", parent=BODY, fontName="PlyStackSans-Bold",
+                                   fontSize=12, leading=16,
+                                   textColor=colors.black if ok else colors.red)))
+    reasons = a.incomplete_reasons
+    if reasons:
+        out.append(para("Checks the basis requires that could not be made"
+                        + (" (the verdict cannot be OK until they are):" if verdict !=
+                           "NOT OK" else ":"), BODY))
+        out += [para(f"\u2022 {r}", SMALL) for r in reasons]
     alts = alternatives_with_current(original)
     if len(alts) > 1:
         rows = [["Alternative", "EI", "Mass per length", "Governs", "Ratio", "Deflection",
                  "Verdict"]]
         for alt in alts:
-            o = summarise(run(original.with_plies(alt.plies)))
+            run_alt = run(original.with_plies(alt.plies))
+            o = summarise(run_alt)
             rows.append([alt.name, q(o.EI, "EI", u), q(o.mass_per_length, "mass_per_length", u),
                          o.governing_id, f"{o.governing_ratio:.3f}",
                          q(o.deflection_max_abs, "deflection", u, 3),
-                         "OK" if o.ok else "NOT OK"])
+                         run_alt.verdict])
         out += [para("Comparison of alternatives", H2),
                 table(rows, width, align_right=(1, 2, 4, 5))]
-    out.append(para(CAUTION, CAUTION_STYLE))
+    out += [para("Fire", H2), para(FIRE_NOTE, SMALL), para(CAUTION, CAUTION_STYLE)]
     return [KeepTogether(out)]
 
 

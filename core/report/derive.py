@@ -12,6 +12,7 @@ that the printed numbers reproduce the printed result to its last digit.
 
 from __future__ import annotations
 
+import itertools
 import math
 from dataclasses import dataclass
 
@@ -19,7 +20,10 @@ import numpy as np
 
 from ..actions.analysis import BeamResult, CombinationResult
 from ..actions.beam import CaseSolution, element_polynomials
+from ..actions.patterns import region_parts
 from ..design.check import Check
+from ..design.demands import PlyDemand, eu_uls_section, ply_demands
+from ..model.combination import EN1990_PSI
 from ..pipeline import Analysis
 from ..section.transformed import Section
 from .bolts import bolt_derivation
@@ -211,31 +215,116 @@ def _moment_factor(u: str) -> str:
     return f"12{NBSP}in/ft" if u == "US" else f"10\u2076{NBSP}N\u00b7mm/kN\u00b7m"
 
 
+def _fibre(sec: Section, i: int) -> float:
+    """The extreme fibre of ply i farther from the section's neutral axis."""
+    top, bot = float(sec.y_top[i]), float(sec.y_bottom[i])
+    y_na = sec.neutral_axis_y
+    return top if abs(top - y_na) >= abs(y_na - bot) else bot
+
+
+def _governing_demand(a: Analysis, c: Check, combo: CombinationResult) -> tuple[PlyDemand,
+                                                                               Section | None]:
+    """The extreme and state the check's demand comes from, and the EU final section."""
+    beam = a.beam
+    assert beam is not None
+    i = ply_index(a.section, c.ply)
+    final = None if a.design.us else eu_uls_section(a.section, beam, combo, a.design)
+    ds = ply_demands(a.section, beam, combo, i, a.design, eu_final=final)
+    return min(ds, key=lambda d: (abs(d.stress - c.demand), abs(d.x - (c.x or 0.0)))), final
+
+
 def _bending(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     s, beam = a.section, a.beam
     assert beam is not None
     i = ply_index(s, c.ply)
     combo = combination(beam, c.combination)
-    e = combo.extremes
-    y_na = s.neutral_axis_y
-    top, bot = float(s.y_top[i]), float(s.y_bottom[i])
-    fibre = top if abs(top - y_na) >= abs(y_na - bot) else bot
-    dist = abs(fibre - y_na)
-    n = float(s.n[i])
-    M, x = max(((e.M_max, e.x_M_max), (e.M_min, e.x_M_min)), key=lambda t: abs(t[0]))
-    value = n * abs(M) * dist / s.I_transformed
-    _check_close(value, c, "bending")
+    d, final = _governing_demand(a, c, combo)
+    extreme = "sagging" if d.sign > 0 else "hogging"
     sym = _symbols(a, c)[0]
-    where = [f"M = {q(M, 'moment', u, IN)} at x = {q(x, 'span', u)} under {combo.name} "
-             "(section 4)",
-             f"c = |y \u2212 y_na| = |{q(fibre, 'length', u, IN)} \u2212 "
-             f"{q(y_na, 'length', u, IN)}| = {q(dist, 'length', u, IN)} (extreme fibre of "
-             f"{c.ply})",
-             f"n = E / E_ref = {exact(s.E[i], 'modulus', u)} / {exact(s.E_ref, 'modulus', u)}"
-             f" = {num(n, IN)}; I_t = {q(s.I_transformed, 'second_moment', u, IN)} (section 3)"]
-    demand = (f"{sym} = n |M| c / I_t = {num(n, IN)} {TIMES} {q(abs(M), 'moment', u, IN)} "
-              f"{TIMES} {_moment_factor(u)} {TIMES} {q(dist, 'length', u, IN)} / "
-              f"{q_den(s.I_transformed, 'second_moment', u, IN)} = {result(c, u)}")
+    where = [f"M = {q(d.M, 'moment', u, IN)} at x = {q(d.x, 'span', u)} under {combo.name}, "
+             f"the {extreme} extreme (section 4); state {d.state}"]
+    if d.state == "with creep" and final is None:
+        return _bending_creep_us(a, c, u, combo, d, where)
+    sec = final if d.state == "with creep" and final is not None else s
+    sub = ",fin" if sec is not s else ""
+    low = "_fin" if sec is not s else ""
+    fibre = _fibre(sec, i)
+    y_na = sec.neutral_axis_y
+    dist = abs(fibre - y_na)
+    n = float(sec.n[i])
+    value = n * abs(d.M) * dist / sec.I_transformed
+    _check_close(value, c, "bending")
+    if sec is not s:
+        psi2, k_def = _psi2_kdef(a, combo)
+        where.append(f"final state: timber moduli E_fin = E_mean / (1 + \u03c8\u2082 k_def) "
+                     f"= E_mean / (1 + {factor_text(psi2)} {TIMES} {factor_text(k_def)}) "
+                     "(EN 1995-1-1 2.3.2.2(2); \u03c8\u2082 of the leading variable action, "
+                     "1.0 for permanent actions alone)")
+    where += [f"c{low} = |y \u2212 y_na{sub}| = |{q(fibre, 'length', u, IN)} \u2212 "
+              f"{q(y_na, 'length', u, IN)}| = {q(dist, 'length', u, IN)} (extreme fibre of "
+              f"{c.ply})",
+              f"n{low} = E{low} / E_ref = {q(float(sec.E[i]), 'modulus', u, IN + 1)} / "
+              f"{exact(s.E_ref, 'modulus', u)} = {num(n, IN)}; I_t{sub} = "
+              f"{q(sec.I_transformed, 'second_moment', u, IN)}"
+              + (" (section 3)" if sec is s else "")]
+    demand = (f"{sym} = n{low} |M| c{low} / I_t{sub} = {num(n, IN)} {TIMES} "
+              f"{q(abs(d.M), 'moment', u, IN)} {TIMES} {_moment_factor(u)} {TIMES} "
+              f"{q(dist, 'length', u, IN)} / {q_den(sec.I_transformed, 'second_moment', u, IN)}"
+              f" = {result(c, u)}")
+    return where, demand
+
+
+def _psi2_kdef(a: Analysis, combo: CombinationResult) -> tuple[float, float]:
+    """psi2 of the leading variable action (1.0 without one) and k_def, as
+    :func:`eu_uls_section` takes them.
+    """
+    beam = a.beam
+    assert beam is not None
+    psi = {**EN1990_PSI, **a.design.psi}
+    variables = {k: f for k, f in combo.combination.factors.items() if k != "D" and f > 0}
+    psi2 = psi[max(variables, key=lambda k: variables[k])][2] if variables else 1.0
+    return psi2, beam.creep_factor - 1.0
+
+
+def _bending_creep_us(a: Analysis, c: Check, u: str, combo: CombinationResult, d: PlyDemand,
+                      where: list[str]) -> tuple[list[str], str]:
+    """The US stress with creep, n_c M_sus c_c / I_t,c + n (M - M_sus) c / I_t, at the
+    fibre that governs.
+    """
+    s, beam = a.section, a.beam
+    assert beam is not None
+    cs = beam.creep_section
+    i = ply_index(s, c.ply)
+    m_sus = combo.M_sustained_at_max if d.sign > 0 else combo.M_sustained_at_min
+    M, Ms = abs(d.M), d.sign * m_sus
+    n, nc = float(s.n[i]), float(cs.n[i])
+    I0, Ic = s.I_transformed, cs.I_transformed
+    options = []
+    for y in (float(s.y_top[i]), float(s.y_bottom[i])):
+        o = 1.0 if y >= s.neutral_axis_y else -1.0
+        cc, c0 = o * (y - cs.neutral_axis_y), o * (y - s.neutral_axis_y)
+        options.append((abs(nc * Ms * cc / Ic + n * (M - Ms) * c0 / I0), y, cc, c0))
+    value, y, cc, c0 = max(options)
+    _check_close(value, c, "bending")
+    sus = ", ".join(f"{factor_text(f)} {k}" for k, f in combo.sustained_factors.items() if f)
+
+    def L(v: float) -> str:
+        return q(v, "length", u, IN)
+
+    where += [f"M_sus = {q(Ms, 'moment', u, IN)}: the sustained part ({sus}) of the moment "
+              "there",
+              f"creep section: timber moduli / K_cr, K_cr = {factor_text(beam.creep_factor)}; "
+              f"y_na,c = {L(cs.neutral_axis_y)}, I_t,c = "
+              f"{q(Ic, 'second_moment', u, IN)}, n_c = E_c / E_ref = {num(nc, IN)}",
+              f"fibre y = {L(y)} of {c.ply} (the edge with the larger stress): c_c = "
+              f"{L(cc)} from y_na,c; c = {L(c0)} from y_na = {L(s.neutral_axis_y)}; n = "
+              f"{num(n, IN)}; I_t = {q(I0, 'second_moment', u, IN)} (section 3)"]
+    mf = _moment_factor(u)
+    demand = (f"{_symbols(a, c)[0]} = n_c M_sus c_c / I_t,c + n (M \u2212 M_sus) c / I_t = "
+              f"{num(nc, IN)} {TIMES} {q(Ms, 'moment', u, IN)} {TIMES} {mf} {TIMES} {L(cc)} / "
+              f"{q_den(Ic, 'second_moment', u, IN)} + {num(n, IN)} {TIMES} "
+              f"({q(M, 'moment', u, IN)} \u2212 {q(Ms, 'moment', u, IN)}) {TIMES} {mf} "
+              f"{TIMES} {L(c0)} / {q_den(I0, 'second_moment', u, IN)} = {result(c, u)}")
     return where, demand
 
 
@@ -298,7 +387,7 @@ def _bearing(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     combo = combination(beam, c.combination)
     positions = beam.model.layout.support_positions()
     k = min(range(len(positions)), key=lambda j: abs(positions[j] - (c.x or 0.0)))
-    R = float(combo.solution.reactions[k])
+    R = float(combo.reactions_max[k])
     names = (c.ply or "").split(" + ")
     widths = [s.plies[ply_index(s, nm)].width for nm in names]
     lb = beam.spec.bearing_length or 0.0
@@ -307,7 +396,9 @@ def _bearing(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
         widths_text = f"({widths_text})"
     sym = _symbols(a, c)[0]
     where = [f"R = {q(R, 'force', u, IN)}: reaction at support {k + 1} under {combo.name} "
-             "(the combination with the largest reaction there; section 4)",
+             "(the combination with the largest reaction there"
+             + (f", the largest of {combo.patterns_tried} load arrangements"
+                if combo.patterns_tried > 1 else "") + "; section 4)",
              f"\u03a3b = {widths_text} (timber plies that bear: {c.ply})"]
     if a.design.us:
         value = max(R, 0.0) / (sum(widths) * lb)
@@ -349,14 +440,53 @@ def _wrap(text: str, unit_factor: str) -> str:
     return f"({text}){unit_factor}" if unit_factor else text
 
 
+def arrangements(beam: BeamResult, x: float, factors: dict[str, float]
+                 ) -> list[tuple[dict[str, float], str]]:
+    """EI delta of each case at x for every arrangement of the patterned cases' regions
+    (every region loaded first), with a description of the arrangement.
+    """
+    per_case = {k: deflection_at(beam, s, x) for k, s in beam.cases.items()}
+    out = [(per_case, "")]
+    if not beam.patterned_cases:
+        return out
+    parts = region_parts(beam.model, beam.spec, beam.patterned_cases)
+    units = [(k, parts.names[r], deflection_at(beam, sol, x))
+             for k in beam.patterned_cases if factors.get(k)
+             for r, sol in enumerate(parts.parts[k]) if sol is not None]
+    if not units or len(units) > 12:
+        return out
+    for mask in itertools.product((True, False), repeat=len(units)):
+        vals = dict(per_case)
+        for k in dict.fromkeys(unit[0] for unit in units):
+            vals[k] = sum(v for (kk, _, v), m in zip(units, mask, strict=True)
+                          if m and kk == k)
+        loaded = ", ".join(f"{k} {r}" for (k, r, _), m in zip(units, mask, strict=True) if m)
+        out.append((vals, loaded or "none"))
+    return out
+
+
+def _arrangement_text(beam: BeamResult, x: float, factors: dict[str, float],
+                      vals: dict[str, float], loaded: str, u: str) -> str:
+    """The arrangement's EI delta of each patterned case, region by region."""
+    parts = region_parts(beam.model, beam.spec, beam.patterned_cases)
+    out = []
+    for k in beam.patterned_cases:
+        if not factors.get(k):
+            continue
+        regs = [(parts.names[r], deflection_at(beam, sol, x))
+                for r, sol in enumerate(parts.parts[k]) if sol is not None]
+        out.append(f"{k} on " + ", ".join(f"{r} {q(v, 'EI_deflection', u, IN)}"
+                                          for r, v in regs)
+                   + f"; in the governing arrangement {k} = "
+                   f"{q(vals[k], 'EI_deflection', u, IN)}")
+    return (f"Pattern loading (section 4), governing arrangement: {loaded} loaded. EI "
+            "\u03b4 of each region's part at x: " + "; ".join(out))
+
+
 def _deflection(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     beam = a.beam
     assert beam is not None
     x = c.x or 0.0
-    EI, EI_c = a.section.EI, beam.creep_section.EI
-    per_case = {k: deflection_at(beam, s, x) for k, s in beam.cases.items()}
-    mm = f" {TIMES} 1,000{NBSP}mm/m" if u == "SI" else ""
-    EI_t, EIc_t = q_den(EI, "EI", u, IN), q_den(EI_c, "EI", u, IN)
     if c.id == "deflection-live" and c.combination in beam.cases:
         factors: dict[str, float] = {c.combination or "": 1.0}
     elif c.id == "deflection-live":
@@ -364,7 +494,16 @@ def _deflection(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
                    if k != "D"}
     else:
         factors = dict(combination(beam, c.combination).combination.factors)
-    terms = [(f, per_case[k]) for k, f in factors.items() if k in per_case and f != 0]
+    options = arrangements(beam, x, factors)
+    per_case = options[0][0]
+    best = None
+    for vals, loaded in options:
+        got = _deflection_demand(a, c, u, factors, vals)
+        if best is None or abs(abs(got[0]) - abs(c.demand)) < abs(abs(best[2][0])
+                                                                  - abs(c.demand)):
+            best = (vals, loaded, got)
+    assert best is not None
+    vals, loaded, (value, extra, demand) = best
     lines = ", ".join(f"{k} {q(v, 'EI_deflection', u, IN)}" for k, v in per_case.items())
     hand = handbook_terms(beam, x, u)
     where = []
@@ -378,46 +517,51 @@ def _deflection(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     else:
         where.append(f"EI \u03b4 of each load case at x = {q(x, 'span', u)} ({c.location}; "
                      f"the beam analysis, section 4): {lines}")
-    where.append(f"EI = {q(EI, 'EI', u, IN)} (section 3)")
-    if c.id != "deflection-long-term":
-        value = sum(f * v for f, v in terms) / EI
-        demand = (f"\u03b4 = \u03a3 \u03b3 (EI \u03b4) / EI = "
-                  f"{_wrap(f'{_sum_text(terms, u)} / {EI_t}', mm)} = {result(c, u)}")
-    elif a.design.us:
-        combo = combination(beam, c.combination)
-        sus = [(f, per_case[k]) for k, f in combo.sustained_factors.items() if f]
-        rest = [(f - combo.sustained_factors.get(k, 0.0), per_case[k])
-                for k, f in combo.combination.factors.items()
-                if k in per_case and f - combo.sustained_factors.get(k, 0.0) != 0]
-        value = sum(f * v for f, v in sus) / EI_c + sum(f * v for f, v in rest) / EI
-        where.append(f"EI_cr = {q(EI_c, 'EI', u, IN)}: timber moduli / K_cr, K_cr = "
-                     f"{factor_text(beam.creep_factor)} (sustained part: "
-                     + ", ".join(f"{factor_text(f)} {k}" for k, f in
-                                 combo.sustained_factors.items()) + ")")
-        demand = "\u03b4 = \u03a3 \u03b3_sus (EI \u03b4) / EI_cr"
-        text = f"{_sum_text(sus, u)} / {EIc_t}" if sus else "0"
-        if rest:
-            demand += " + \u03a3 \u03b3_rest (EI \u03b4) / EI"
-            text += f" + {_sum_text(rest, u)} / {EI_t}"
-        demand += f" = {_wrap(text, mm)} = {result(c, u)}"
-    else:
-        qps = [cb for cb in beam.combinations
-               if cb.combination.limit_state == "SLS-quasi-permanent"]
-        value = sum(f * v for f, v in terms) / EI
-        text = f"{_sum_text(terms, u)} / {EI_t}"
-        demand = "\u03b4_fin = \u03a3 \u03b3 (EI \u03b4) / EI"
-        if qps:
-            qp = [(f, per_case[k]) for k, f in qps[0].combination.factors.items()
-                  if k in per_case and f]
-            value += sum(f * v for f, v in qp) * (1 / EI_c - 1 / EI)
-            where.append(f"EI_fin = {q(EI_c, 'EI', u, IN)}: timber moduli / (1 + k_def), "
-                         f"1 + k_def = {factor_text(beam.creep_factor)}; creep of the "
-                         f"quasi-permanent load {qps[0].name}")
-            demand += " + \u03a3 \u03c8\u2082 (EI \u03b4) (1 / EI_fin \u2212 1 / EI)"
-            text += f" + {_sum_text(qp, u)} {TIMES} (1 / {EIc_t} \u2212 1 / {EI_t})"
-        demand += f" = {_wrap(text, mm)} = {result(c, u)}"
+    if vals is not per_case:
+        where.append(_arrangement_text(beam, x, factors, vals, loaded, u))
+    where.append(f"EI = {q(a.section.EI, 'EI', u, IN)} (section 3)")
+    where += extra
     _check_close(value, c, "deflection")
     return where, demand
+
+
+def _deflection_demand(a: Analysis, c: Check, u: str, factors: dict[str, float],
+                       per_case: dict[str, float]) -> tuple[float, list[str], str]:
+    """(value, definitions, demand line) of a deflection with these EI delta per case."""
+    beam = a.beam
+    assert beam is not None
+    EI, EI_c = a.section.EI, beam.creep_section.EI
+    mm = f" {TIMES} 1,000{NBSP}mm/m" if u == "SI" else ""
+    EI_t, EIc_t = q_den(EI, "EI", u, IN), q_den(EI_c, "EI", u, IN)
+    if c.id != "deflection-long-term":
+        terms = [(f, per_case[k]) for k, f in factors.items() if k in per_case and f != 0]
+        value = sum(f * v for f, v in terms) / EI
+        return value, [], (f"\u03b4 = \u03a3 \u03b3 (EI \u03b4) / EI = "
+                           f"{_wrap(f'{_sum_text(terms, u)} / {EI_t}', mm)} = {result(c, u)}")
+    combo = combination(beam, c.combination)
+    sus = [(f, per_case[k]) for k, f in combo.sustained_factors.items()
+           if f and k in per_case]
+    rest = [(f - combo.sustained_factors.get(k, 0.0), per_case[k])
+            for k, f in combo.combination.factors.items()
+            if k in per_case and f - combo.sustained_factors.get(k, 0.0) != 0]
+    value = sum(f * v for f, v in sus) / EI_c + sum(f * v for f, v in rest) / EI
+    part = ", ".join(f"{factor_text(f)} {k}" for k, f in combo.sustained_factors.items())
+    if a.design.us:
+        where = [f"EI_cr = {q(EI_c, 'EI', u, IN)}: timber moduli / K_cr, K_cr = "
+                 f"{factor_text(beam.creep_factor)} (sustained part: {part})"]
+        demand, ec, sub = "\u03b4", "EI_cr", "\u03b3_sus"
+    else:
+        where = [f"EI_fin = {q(EI_c, 'EI', u, IN)}: timber moduli / (1 + k_def), 1 + k_def = "
+                 f"{factor_text(beam.creep_factor)} (the quasi-permanent part G + \u03c8\u2082 "
+                 f"Q creeps: {part}; EN 1995-1-1 2.2.3(5))"]
+        demand, ec, sub = "\u03b4_fin", "EI_fin", "\u03b3_qp"
+    demand += f" = \u03a3 {sub} (EI \u03b4) / {ec}"
+    text = f"{_sum_text(sus, u)} / {EIc_t}" if sus else "0"
+    if rest:
+        demand += " + \u03a3 \u03b3_rest (EI \u03b4) / EI"
+        text += f" + {_sum_text(rest, u)} / {EI_t}"
+    demand += f" = {_wrap(text, mm)} = {result(c, u)}"
+    return value, where, demand
 
 
 def _connectors(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:

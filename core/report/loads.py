@@ -94,19 +94,51 @@ def _self_weight(a: Analysis, beam: BeamResult, u: str) -> list[Any]:
 
 
 def combinations_block(beam: BeamResult, u: str, width: float) -> list[Any]:
-    """Each combination with its factors, kind and duration, and its extreme actions."""
+    """Each combination with its factors, kind and duration, and its extreme actions;
+    for a patterned member, the arrangements tried and the one governing each extreme.
+    """
     rows = [["Combination", "Kind", "Factors", "Duration", "M max", "M min", "|V| max",
              "Deflection"]]
     for c in beam.combinations:
         e = c.extremes
-        rows.append([c.name, c.combination.limit_state, factors_text(c.combination.factors),
+        rows.append([c.name, c.kind, factors_text(c.combination.factors),
                      c.duration, q(e.M_max, "moment", u), q(e.M_min, "moment", u),
                      q(e.V_max_abs, "force", u), q(e.deflection_max_abs, "deflection", u, 3)])
-    return [para("Combinations", H2),
-            para("Kind: ASD (US allowable stress: strength and deflection), ULS (EU "
-                 "strength), SLS (EU serviceability). Duration: the load-duration class that "
-                 "sets C_D or k_mod. Deflection: immediate, short-term stiffness.", SMALL),
-            table(rows, width, align_right=(4, 5, 6, 7))]
+    out: list[Any] = [
+        para("Combinations", H2),
+        para("Kind: ASD (US allowable stress: strength and deflection), ULS (EU strength), "
+             "SLS-characteristic, SLS-frequent and SLS-quasi-permanent (EU serviceability). "
+             "Duration: the load-duration class that sets C_D or k_mod. Deflection: "
+             "immediate, short-term stiffness.", SMALL),
+        table(rows, width, align_right=(4, 5, 6, 7))]
+    if beam.patterned_cases:
+        out += _patterns_block(beam, u, width)
+    return out
+
+
+def _pattern_cell(value: str, regions: tuple[str, ...]) -> str:
+    return f"{value}, {' + '.join(regions) if regions else 'no variable region'}"
+
+
+def _patterns_block(beam: BeamResult, u: str, width: float) -> list[Any]:
+    """The arrangements tried and the governing one beside each extreme."""
+    rows = [["Combination", "Arrangements tried", "M max, regions loaded",
+             "M min, regions loaded", "Deflection, regions loaded"]]
+    for c in beam.combinations:
+        g, e = c.governing_patterns, c.extremes
+        rows.append([c.name, str(c.patterns_tried),
+                     _pattern_cell(q(e.M_max, "moment", u), g.get("M_max", ())),
+                     _pattern_cell(q(e.M_min, "moment", u), g.get("M_min", ())),
+                     _pattern_cell(q(e.deflection_max_abs, "deflection", u, 3),
+                                   g.get("deflection_max_abs", ()))])
+    cases = ", ".join(beam.patterned_cases)
+    return [KeepTogether([
+        para("Pattern loading", H2),
+        para(f"The variable cases {cases} are placed region by region ({', '.join(beam.regions)})"
+             "; each extreme is the envelope over the arrangements tried, and the regions "
+             "loaded in the arrangement that governs it stand beside it. Permanent loads "
+             "stay on every region.", SMALL),
+        table(rows, width, align_right=(1,))])]
 
 
 def reactions_block(beam: BeamResult, u: str, width: float) -> list[Any]:
@@ -134,9 +166,20 @@ def reactions_block(beam: BeamResult, u: str, width: float) -> list[Any]:
             parts.append(f"R{k + 1} = {sums} = {q(value, 'force', u, IN)}")
         lines.append(para(f"{c.name}: " + "; ".join(parts), EQ))
     out.append(KeepTogether([
-        para("Reactions per combination (R = \u03a3 \u03b3 R_case; bearing uses the largest "
-             "at each support, the bolts use W = \u03a3R)", H2),
+        para("Reactions per combination, every region loaded (R = \u03a3 \u03b3 R_case; "
+             "bearing uses the largest at each support, the bolts use W = \u03a3R)", H2),
         table(rows, width, align_right=tuple(range(1, len(rows[0])))), *lines]))
+    if beam.patterned_cases:
+        env = [["Combination", *[f"R{k + 1} max / min" for k in
+                                 range(len(lay.support_positions()))]]]
+        for c in beam.combinations:
+            env.append([c.name, *[f"{q(float(hi), 'force', u)} / {q(float(lo), 'force', u)}"
+                                  for hi, lo in zip(c.reactions_max, c.reactions_min,
+                                                    strict=True)]])
+        out.append(KeepTogether([
+            para("Reactions over the arrangements tried (largest / smallest; negative: "
+                 "uplift). Bearing uses the largest.", H2),
+            table(env, width, align_right=tuple(range(1, len(env[0]))))]))
     return out
 
 
@@ -197,10 +240,13 @@ def _creep(beam: BeamResult, u: str, width: float) -> list[Any]:
                      q(c.total.deflection_max_abs, "deflection", u, 3)])
     sym = "K_cr" if beam.basis == "US" else "1 + k_def"
     frac = (beam.spec.sustained_live_fraction or 0) * 100
+    part = (f"D plus {num(frac, 3) if frac else '0'} % of L" if beam.basis == "US" else
+            "G + \u03c8\u2082 Q, the quasi-permanent part, EN 1995-1-1 2.2.3(5)")
     return [KeepTogether([
         para("Deflection with creep", H2),
-        para(f"{sym} = {factor_text(beam.creep_factor)}: the sustained part (D plus "
-             f"{num(frac, 3) if frac else '0'} % of L) acts on the section with timber moduli "
-             f"divided by {sym} (EI_cr = {q(beam.creep_section.EI, 'EI', u, IN)}); steel does "
+        para(f"{sym} = {factor_text(beam.creep_factor)}: the sustained part ({part}"
+             ") acts on the section with timber moduli "
+             f"divided by {sym} ({'EI_cr' if beam.basis == 'US' else 'EI_fin'} = "
+             f"{q(beam.creep_section.EI, 'EI', u, IN)}); steel does "
              "not creep. Total = long-term part + short-term part.", SMALL),
         table(rows, width, align_right=(1, 2, 3))])]

@@ -73,7 +73,7 @@ def evaluate(expr: str) -> float:
         out.append(")" * trail)
     text = " ".join(out)
     assert re.fullmatch(r"[\d.e+\-*/() ]+", text), text
-    return float(eval(text))
+    return float(eval(text))  # digits and operators only, checked above
 
 
 def printed(result: str) -> tuple[float, float, str]:
@@ -91,7 +91,8 @@ def printed(result: str) -> tuple[float, float, str]:
 def blocks(text: str, count: int) -> dict[int, str]:
     flat = squash(text)
     heads = [(int(m.group(1)), m.start()) for m in
-             re.finditer(r"\bC(\d+) (?:bending|shear|bearing|deflection-\S+|bolts|connectors) —",
+             re.finditer(r"\bC(\d+) (?:bending|shear|bearing|deflection-\S+|bolts|connectors|"
+                         r"tension-bending|compression-bending|uplift|vibration-\S+) —",
                          flat)]
     end = flat.find("All checks", heads[-1][1])
     out = {}
@@ -121,6 +122,9 @@ def assert_recomputes(text: str, checks: list[dict]) -> None:
     for k, check in enumerate(checks, start=1):
         block = found[k]
         assert f"{check['id']} —" in block and (check["combination"] or "") in block
+        if check["id"] in NOT_WRITTEN_OUT:
+            assert_stated(block, check)
+            continue
         for start, stop, si in (("Demand: ", "Capacity: ", check["demand"]),
                                 ("Capacity: ", "ratio = ", check["capacity"])):
             expr, res = equation(block, start, stop)
@@ -135,6 +139,32 @@ def assert_recomputes(text: str, checks: list[dict]) -> None:
         assert abs(evaluate(expr) - ratio) <= ulp, (k, expr, res)
         assert abs(ratio - check["ratio"]) <= ulp / 2 * (1 + 1e-9)
         assert ("→ OK" in block) == check["ok"]
+
+
+#: Checks the sheet states with their equation and the check's worked numbers (notes) but
+#: does not write out from printed inputs: the interaction checks' allowables (F't, F*b,
+#: F'c, F_cE, f_t,0,d, ...) are intermediate values of the design module, not printed on
+#: the sheet as inputs, so the interaction sum cannot be recomputed to its printed
+#: precision; uplift and vibration likewise print their notes. For these the printed
+#: demand, capacity and ratio must still be the program's, and the verdict its verdict.
+NOT_WRITTEN_OUT = frozenset({"tension-bending", "compression-bending", "uplift",
+                             "vibration-frequency", "vibration-stiffness",
+                             "vibration-velocity"})
+
+
+def assert_stated(block: str, check: dict) -> None:
+    """The check's equation and notes are printed, and its numbers are the program's."""
+    assert "Demand: " in block and "Capacity: " in block
+    if check["quantity"] == "ratio":
+        value, ulp, _ = printed(equation(block, "Demand: ", "Capacity: ")[1])
+        assert abs(value - check["demand"]) <= ulp / 2 * (1 + 1e-9), block
+    i = block.index("ratio = ") + len("ratio = ")
+    ratio, ulp, _ = printed(block[i:].split(" ≤ ")[0].split(" > ")[0].rsplit(" = ", 1)[1])
+    assert abs(ratio - check["ratio"]) <= ulp / 2 * (1 + 1e-9)
+    assert ("→ OK" in block) == check["ok"]
+    for note in check["notes"]:
+        if not note.startswith("Caution"):
+            assert squash(note)[:40] in block, note
 
 
 @pytest.mark.parametrize("name", DEMOS)
@@ -162,6 +192,21 @@ def _cover(d: dict) -> None:
                                 "rows": 2}
 
 
+def _stack(d: dict) -> None:
+    """Two timber plies, one on the other: each wholly on one side of the neutral axis,
+    so each carries axial force with its bending (tension-bending, compression-bending)."""
+    timber = d["plies"][0]["material"]
+    us = d["display_units"] == "US"
+    w, h = ("1.5 in", "9.25 in") if us else ("45 mm", "220 mm")
+    d["plies"] = [{"name": "lower", "material": timber, "x": "0 in", "y": "0 in",
+                   "width": w, "height": h},
+                  {"name": "upper", "material": timber, "x": "0 in", "y": h, "width": w,
+                   "height": h}]
+    d.pop("alternatives", None)
+    d["design"]["connector"] = {"type": "screw", "allowable": "300 lbf" if us else "1.5 kN",
+                                "rows": 2}
+
+
 def _side(d: dict) -> None:
     d["plies"] = [d["plies"][0], {**d["plies"][1], "x": d["plies"][0]["width"]}]
     d.pop("alternatives", None)
@@ -181,6 +226,8 @@ VARIANTS = {
                            compression_edge_braced=False),
         d["beam"].update(sustained_live_fraction=0.3))),
     "EU demo shown in US units": (DEMOS[1], lambda d: d.update(display_units="US")),
+    "US two stacked joists (interaction checks)": (DEMOS[0], lambda d: _stack(d)),
+    "EU two stacked joists (interaction checks)": (DEMOS[1], lambda d: _stack(d)),
 }
 
 
@@ -281,3 +328,61 @@ def test_deflections_recompute_from_the_loads_by_handbook_formulas(name, capsys)
             value, ulp, _ = printed(m.group(1))
             assert abs(value - total) <= ulp / 2 + ulps[case], (k, case, line)
     assert seen > 0
+
+
+def _text_of(project) -> str:
+    buf = io.BytesIO()
+    build_sheet(project, buf)
+    return squash("\n".join(p.extract_text() for p in PdfReader(io.BytesIO(buf.getvalue())).pages))
+
+
+def _incomplete(d: dict) -> None:
+    """A floor vibration check asked for on a member with an overhang: the method cannot
+    make it, so the verdict is INCOMPLETE (core.design.vibration)."""
+    d["beam"].update(overhang_right="0.3 m")
+    d["design"]["vibration"] = {"floor_width": "4.5 m", "spacing": "400 mm", "damping": 0.01,
+                                "transverse_EI": "2.7 kN*m^2/m"}
+
+
+@pytest.mark.parametrize("name", DEMOS)
+def test_summary_shows_the_analysis_verdict_and_the_fire_note(name):
+    project = load(DEMO / name)
+    text = _text_of(project)
+    assert f"Verdict: {run(project).verdict}" in text
+    assert "Fire: Plystack makes no fire check." in text
+
+
+def test_incomplete_analysis_is_never_ok_on_the_sheet_and_names_its_reasons():
+    project = from_dict(_variant(DEMOS[1], _incomplete))
+    a = run(project)
+    assert a.verdict == "INCOMPLETE" and all(c.ok for c in a.checks)
+    text = _text_of(project)
+    assert "Verdict: INCOMPLETE" in text and "Verdict: OK" not in text
+    for reason in a.incomplete_reasons:
+        assert squash(str(reason)) in text
+
+
+def test_sheet_lists_each_combination_with_its_kind_and_the_governing_patterns():
+    name, change = VARIANTS["US overhang and a partial snow load"]
+    project = from_dict(_variant(name, change))
+    beam = run(project).beam
+    assert beam is not None and beam.patterned_cases
+    text = _text_of(project)
+    assert "Pattern loading" in text
+    for combo in beam.combinations:
+        assert f"{combo.name} {combo.kind} " in text, combo.name
+    # the arrangements tried and, beside each maximum, the regions its arrangement loads
+    d_l = next(c for c in beam.combinations if c.name == "D + L")
+    assert d_l.patterns_tried > 1
+    m = re.search(r"D \+ L (\d+) ([\d,.]+) lbf·ft, ([a-z0-9 +]+?) −?[\d,.]+ lbf·ft, ", text)
+    assert m, "no pattern row for D + L"
+    assert int(m.group(1)) == d_l.patterns_tried
+    assert abs(float(m.group(2).replace(",", "")) - d_l.extremes.M_max / (LBF * 0.3048)) <= 0.5
+    assert m.group(3) == " + ".join(d_l.governing_patterns["M_max"])
+    # the EU set: every kind of combination appears with its kind
+    eu = run(load(DEMO / DEMOS[1])).beam
+    eu_text = squash(sheet_text(DEMOS[1]))
+    assert {c.kind for c in eu.combinations} >= {"ULS", "SLS-characteristic", "SLS-frequent",
+                                                 "SLS-quasi-permanent"}
+    for combo in eu.combinations:
+        assert f"{combo.name} {combo.kind} " in eu_text, combo.name
