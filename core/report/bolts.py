@@ -20,6 +20,8 @@ from ..codes.dowels import (
     en_f_h_k,
     en_M_y,
     en_steel_centre,
+    en_steel_single,
+    en_thick_steel_single,
     en_thin_steel_single,
     nds_double_shear,
     nds_single_shear,
@@ -53,6 +55,11 @@ EN_CENTRE = {
     "h": "2.3 \u221a(M_y,Rk f_h,k d)",
 }
 EN_THIN = {"a": "0.4 f_h,k t\u2081 d", "b": "1.15 \u221a(2 M_y,Rk f_h,k d)"}
+EN_THICK = {
+    "c": "f_h,k t\u2081 d",
+    "d": "f_h,k t\u2081 d (\u221a(2 + 4 M_y,Rk / (f_h,k d t\u2081\u00b2)) \u2212 1)",
+    "e": "2.3 \u221a(M_y,Rk f_h,k d)",
+}
 
 
 @dataclass(frozen=True)
@@ -166,11 +173,24 @@ def _en(a: Analysis, c: Check, jt: Joint, u: str) -> tuple[list[str], YieldModes
                      f"{q(t1, 'length', u, IN)} (timber thickness)")
         eqs = EN_CENTRE
     else:
-        t1 = s.plies[jt.steel].width
-        modes = en_thin_steel_single(fh, t1, d, My)
-        where.append(f"Thin steel plate in single shear, (8.9), rope effect left out; "
-                     f"t\u2081 = {q(t1, 'length', u, IN)}")
-        eqs = EN_THIN
+        # 8.2.3: t1 is the timber's thickness; the plate's thickness t sets the rule
+        t1 = min(s.plies[j].width for j in jt.timbers)
+        t = s.plies[jt.steel].width
+        thin = en_thin_steel_single(fh, t1, d, My)
+        thick = en_thick_steel_single(fh, t1, d, My)
+        value, rule = en_steel_single(fh, t1, d, My, t)
+        where.append(f"Steel plate on one face, single shear, rope effect left out; t\u2081 = "
+                     f"{q(t1, 'length', u, IN)} (timber thickness), plate t = "
+                     f"{q(t, 'length', u, IN)}, d = {q(d, 'length', u, IN)}: {rule}")
+        if 0.5 * d < t < d:
+            w = (t - 0.5 * d) / (0.5 * d)
+            where.append(f"F_v,Rk = thin + (t \u2212 0.5 d) / (0.5 d) {TIMES} (thick \u2212 thin) "
+                         f"= {q(thin.value, 'force', u, IN)} + {num(w, IN)} {TIMES} "
+                         f"({q(thick.value, 'force', u, IN)} \u2212 "
+                         f"{q(thin.value, 'force', u, IN)}) = {q(value, 'force', u, IN)}")
+        rows = (_mode_table(thin, EN_THIN, u, " per plane", False)
+                + _mode_table(thick, EN_THICK, u, " per plane", False)[1:])
+        return where, YieldModes({rule: value}), rows
     table = _mode_table(modes, eqs, u, " per plane", False)
     return where, modes, table
 
