@@ -457,7 +457,12 @@ class BeamPanel(QWidget):
             self._mark(row, column, "; ".join(str(q) for q in problems))
             return
         loads = list(beam.loads)
-        load = replace(load, description=loads[row].description)  # not a column: keep it
+        old = loads[row]
+        # not columns: keep them (a varying intensity or a bearing length only while the
+        # load keeps its type)
+        load = replace(load, description=old.description,
+                       value_end=old.value_end if load.type == old.type else None,
+                       bearing_length=old.bearing_length if load.type == "point" else None)
         loads[row] = load
         self._apply_beam(replace(beam, loads=tuple(loads)), "Edit load")
 

@@ -127,40 +127,12 @@ def plate_share(section: Section, i: int) -> float:
     return float(section.E[i] * section.I_na[i] / section.EI)
 
 
-def bearing_plies(section: Section) -> list[int]:
-    """Timber plies that reach the bottom of the section (those that bear)."""
-    bottom = float(section.y_bottom.min())
-    tol = section.depth * TOUCH_TOLERANCE
-    return [i for i, m in enumerate(section.materials)
-            if m.kind == "timber" and section.area[i] > 0
-            and abs(float(section.y_bottom[i]) - bottom) <= tol]
-
-
 def steel_at_bottom(section: Section) -> list[int]:
     """Steel plies that reach the bottom of the section (and so the supports)."""
     bottom = float(section.y_bottom.min())
     tol = section.depth * TOUCH_TOLERANCE
     return [i for i, m in enumerate(section.materials)
             if m.kind == "steel" and abs(float(section.y_bottom[i]) - bottom) <= tol]
-
-
-def bearing_candidates(section: Section, key: str, design: DesignSpec,
-                       warnings: list[Problem]) -> list[tuple[int, float]]:
-    """Timber plies that bear on the supports, with their value ``key`` (Fc_perp or
-    fc90_k); warns where a steel ply reaches the supports without bearing data.
-    """
-    steel = steel_at_bottom(section)
-    if steel and not design.steel_bears:
-        names = ", ".join(section.plies[i].name for i in steel)
-        warnings.append(Problem("beam.bearing_length", f"steel ply {names} reaches the supports "
-                                "but has no bearing data; the timber bearing check assumes the "
-                                "timber carries the whole reaction"))
-    out = []
-    for i in bearing_plies(section):
-        v = section.materials[i].value(key)
-        if v is not None:
-            out.append((i, v))
-    return out
 
 
 def pick_spacing(required_per_length: float, per_location: float, user: float | None,

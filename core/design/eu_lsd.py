@@ -29,13 +29,13 @@ from ..model.errors import MissingCheck, Problem
 from ..model.project import Project
 from ..model.units import fmt
 from ..section.transformed import Section
+from .bearing import eu_bearing
 from .check import Check, Fasteners, capacity_from
 from .common import (
     EDGE_END_REMINDERS,
     STOCK_SPACINGS_SI,
     STOCK_SPACINGS_US,
     apply_overrides,
-    bearing_candidates,
     connector_checks,
     deflection_checks,
     pattern_notes,
@@ -47,6 +47,7 @@ from .common import (
 )
 from .demands import eu_uls_section, ply_demands
 from .eu_timber import bending_check as eu_bending
+from .eu_timber import eu_duration as _eu_duration
 from .eu_timber import interaction_check as eu_interaction
 from .plates import eu_plate_chi, plate_bracing
 
@@ -152,68 +153,13 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
             warnings.append(MissingCheck(f"plies[{i}].material", f'"{mat.id}" is neither '
                                          "timber nor steel: its stresses are reported but not "
                                          "checked"))
-    checks += _bearing(section, beam, design, uls, warnings)
+    checks += eu_bearing(section, beam, design, uls, warnings)
     checks += _deflections(section, beam, design, warnings)
     checks += _bolts(section, beam, design, uls, project.display_units)
     checks += connector_checks(section, beam, design, project.display_units, warnings)
     checks += uplift_checks(beam, project.display_units)
     warnings += pattern_notes(beam)
     return tuple(checks), warnings
-
-
-def _eu_duration(duration: str) -> str:
-    """Map a US duration given on a custom combination to the nearest EU class."""
-    return {"ten-years": "long-term", "two-months": "medium-term", "seven-days": "short-term",
-            "ten-minutes": "instantaneous", "impact": "instantaneous"}.get(duration, duration)
-
-
-def _bearing(section: Section, beam: BeamResult, design: DesignSpec, uls: list,  # type: ignore[type-arg]
-             warnings: list[Problem]) -> list[Check]:
-    lb = beam.spec.bearing_length
-    if lb is None or not uls:
-        return []
-    cand = bearing_candidates(section, "fc90_k", design, warnings)
-    if not cand:
-        return []
-    L = beam.model.layout.length
-    i_min, fc90 = min(cand, key=lambda t: t[1])
-    mat = section.materials[i_min]
-    names = " + ".join(section.plies[i].name for i, _ in cand)
-    width = sum(section.plies[i].width for i, _ in cand)
-    out = []
-    for k, xs in enumerate(beam.model.layout.support_positions()):
-        at_end = xs <= 1e-9 or xs >= L - 1e-9
-        l_ef = lb + (0.03 if at_end else 0.06)
-        best = None
-        for combo in uls:
-            R = max(float(combo.reactions_max[k]), 0.0)
-            km = ec5.k_mod(_eu_duration(combo.duration), design.service_class)
-            f = {"k_mod": km, "k_c,90": 1.0}
-            g = {"gamma_M": ec5.gamma_M(mat.product)}
-            s = {"fc90_k": mat.source_of("fc90_k"), "k_mod": S_KMOD, "gamma_M": S_GM,
-                 "k_c,90": "EN 1995-1-1 6.1.5, taken as 1.0 (conservative)"}
-            apply_overrides(f, s, design, section.plies[i_min].name)
-            c = Check(
-                id="bearing",
-                ply=names,
-                combination=combo.name,
-                demand=R / (width * l_ef),
-                capacity=capacity_from(fc90, f, g),
-                quantity="stress",
-                reference=("fc90_k", fc90),
-                factors=f,
-                partial_factors=g,
-                sources=s,
-                equation="sigma_c,90,d = F / (b l_ef) <= k_c,90 k_mod f_c,90,k / gamma_M",
-                location=f"support {k + 1}",
-                x=xs,
-                notes=(f"Effective length l_ef = l + {'30' if at_end else '2 x 30'} mm "
-                       "(EN 1995-1-1 6.1.5(1), from memory).",))
-            if best is None or c.ratio > best.ratio:
-                best = c
-        if best is not None:
-            out.append(best)
-    return out
 
 
 def _deflections(section: Section, beam: BeamResult, design: DesignSpec,

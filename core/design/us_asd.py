@@ -21,13 +21,13 @@ from ..model.errors import MissingCheck, Problem
 from ..model.project import Project
 from ..model.units import fmt
 from ..section.transformed import Section
+from .bearing import us_bearing
 from .check import Check, Fasteners, capacity_from
 from .common import (
     EDGE_END_REMINDERS,
     STOCK_SPACINGS_SI,
     STOCK_SPACINGS_US,
     apply_overrides,
-    bearing_candidates,
     connector_checks,
     deflection_checks,
     pattern_notes,
@@ -99,7 +99,7 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
             warnings.append(MissingCheck(f"plies[{i}].material", f'"{mat.id}" is neither '
                                          "timber nor steel: its stresses are reported but not "
                                          "checked"))
-    checks.extend(_bearing(project, section, beam, design, warnings))
+    checks.extend(us_bearing(section, beam, design, warnings))
     checks.extend(_deflections(beam, section, design))
     checks.extend(_bolts(section, beam, design, project.display_units))
     checks.extend(connector_checks(section, beam, design, project.display_units, warnings))
@@ -179,51 +179,6 @@ def _steel_checks(i: int, section: Section, beam: BeamResult, design: DesignSpec
             x=combo.extremes.x_V_max_abs,
             notes=("Peak shear stress compared with the average-stress rule "
                           "(conservative).",)))
-    return out
-
-
-def _bearing(project: Project, section: Section, beam: BeamResult, design: DesignSpec,
-             warnings: list[Problem]) -> list[Check]:
-    lb = beam.spec.bearing_length
-    if lb is None:
-        return []
-    cand = bearing_candidates(section, "Fc_perp", design, warnings)
-    if not cand:
-        return []
-    area = sum(section.plies[i].width for i, _ in cand) * lb
-    i_min, fcp = min(cand, key=lambda t: t[1])
-    mat = section.materials[i_min]
-    names = " + ".join(section.plies[i].name for i, _ in cand)
-    layout = beam.model.layout
-    L = layout.length
-    out = []
-    for k, xs in enumerate(layout.support_positions()):
-        worst = max(beam.strength() or beam.combinations,
-                    key=lambda c: float(c.reactions_max[k]))
-        R = float(worst.reactions_max[k])
-        at_end = xs <= 1e-9 or xs >= L - 1e-9
-        f = {"C_M": nds.C_M("Fc_perp", mat.product, design.wet_service),
-             "C_t": nds.C_t("Fc_perp", design.temperature, design.wet_service),
-             "C_i": nds.C_i("Fc_perp", design.incised), "C_b": nds.C_b(lb, at_end)}
-        s = {"Fc_perp": mat.source_of("Fc_perp"), "C_M": S_CM, "C_t": S_CT, "C_i": S_CI,
-             "C_b": "NDS 2018 3.10.4 (from memory)"}
-        apply_overrides(f, s, design, section.plies[i_min].name)
-        out.append(Check(
-            id="bearing",
-            ply=names,
-            combination=worst.name,
-            demand=max(R, 0.0) / area,
-            capacity=capacity_from(fcp, f),
-            quantity="stress",
-            reference=("Fc_perp", fcp),
-            factors=f,
-            partial_factors={},
-            sources=s,
-            equation="f_c_perp = R / (sum b x l_b) <= F'c_perp",
-            location=f"support {k + 1}",
-            x=xs,
-            notes=("Bearing area: timber plies at the bottom of the section times the "
-                          "bearing length.",)))
     return out
 
 

@@ -22,7 +22,7 @@ BEAM_KEYS = frozenset({"spans", "supports", "overhang_left", "overhang_right", "
                        "self_weight", "loads", "combinations", "sustained_live_fraction",
                        "pattern_live_load", "hold_down"})
 LOAD_KEYS = frozenset({"case", "type", "value", "tributary_width", "from", "to", "at",
-                       "value_end", "description"})
+                       "value_end", "description", "bearing_length"})
 
 
 #: Where the trade has a range for a bolt diameter: the NDS 2018 12.3 yield limit
@@ -221,6 +221,37 @@ def read_beam(raw: Any, path: str, problems: list[Problem]) -> BeamSpec | None:
     return BeamSpec(layout, loads, self_weight, bearing, combos, frac, pattern, hold_down)
 
 
+def _load_positions(rec: dict[str, Any], typ: str, dim: str, p: str,
+                    problems: list[Problem]) -> tuple[float | None, ...]:
+    """from, to, at, value_end and bearing_length of one load record (None where absent)."""
+    start = end = at = value_end = lb = None
+    if typ == "point":
+        for key in ("from", "to"):
+            if key in rec:
+                problems.append(Problem(f"{p}.{key}", "does not apply to a point load; "
+                                        'use "at"'))
+        if "at" not in rec:
+            problems.append(Problem(f"{p}.at", "is missing (where the point load acts)"))
+        else:
+            at = _quantity(rec["at"], "length", f"{p}.at", problems)
+        if "bearing_length" in rec:
+            lb = _positive(rec["bearing_length"], "length", f"{p}.bearing_length", problems)
+    else:
+        if "at" in rec:
+            problems.append(Problem(f"{p}.at", 'only applies to point loads; use "from" '
+                                    'and "to"'))
+        if "bearing_length" in rec:
+            problems.append(Problem(f"{p}.bearing_length", "only applies to point loads "
+                                    "(the supports' bearing length is beam.bearing_length)"))
+        if "value_end" in rec:
+            value_end = _quantity(rec["value_end"], dim, f"{p}.value_end", problems)
+        if "from" in rec:
+            start = _quantity(rec["from"], "length", f"{p}.from", problems)
+        if "to" in rec:
+            end = _quantity(rec["to"], "length", f"{p}.to", problems)
+    return start, end, at, value_end, lb
+
+
 def _read_loads(raw: Any, path: str, layout: BeamLayout,
                 problems: list[Problem]) -> tuple[Load, ...]:
     if not isinstance(raw, list):
@@ -251,7 +282,7 @@ def _read_loads(raw: Any, path: str, layout: BeamLayout,
             problems.append(Problem(f"{p}.value", "is missing"))
             continue
         value = _quantity(rec["value"], dims[typ], f"{p}.value", problems)
-        trib = start = end = at = value_end = None
+        trib = None
         if typ == "area":
             if "tributary_width" not in rec:
                 problems.append(Problem(f"{p}.tributary_width", "is missing (an area load "
@@ -261,25 +292,7 @@ def _read_loads(raw: Any, path: str, layout: BeamLayout,
                                  problems)
         elif "tributary_width" in rec:
             problems.append(Problem(f"{p}.tributary_width", "only applies to area loads"))
-        if typ == "point":
-            for key in ("from", "to"):
-                if key in rec:
-                    problems.append(Problem(f"{p}.{key}", "does not apply to a point load; "
-                                            'use "at"'))
-            if "at" not in rec:
-                problems.append(Problem(f"{p}.at", "is missing (where the point load acts)"))
-            else:
-                at = _quantity(rec["at"], "length", f"{p}.at", problems)
-        else:
-            if "at" in rec:
-                problems.append(Problem(f"{p}.at", 'only applies to point loads; use "from" '
-                                        'and "to"'))
-            if "value_end" in rec:
-                value_end = _quantity(rec["value_end"], dims[typ], f"{p}.value_end", problems)
-            if "from" in rec:
-                start = _quantity(rec["from"], "length", f"{p}.from", problems)
-            if "to" in rec:
-                end = _quantity(rec["to"], "length", f"{p}.to", problems)
+        start, end, at, value_end, lb = _load_positions(rec, typ, dims[typ], p, problems)
         description = rec.get("description", "")
         if not isinstance(description, str):
             problems.append(Problem(f"{p}.description", "must be text"))
@@ -288,7 +301,8 @@ def _read_loads(raw: Any, path: str, layout: BeamLayout,
         if typ == "point" and "value_end" in rec:
             problems.append(Problem(f"{p}.value_end", "only applies to area and line loads"))
             continue
-        load = Load(str(case), str(typ), value, trib, start, end, at, value_end, description)
+        load = Load(str(case), str(typ), value, trib, start, end, at, value_end, description,
+                    lb)
         if length > 0:
             probs = validate_load(load, length, p)
             problems.extend(probs)

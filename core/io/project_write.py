@@ -93,6 +93,8 @@ def write_beam(beam: BeamSpec, system: str) -> dict[str, Any]:
             rec["value_end"] = exact_text(ld.value_end, kind, system)
         if ld.description:
             rec["description"] = ld.description
+        if ld.bearing_length is not None:
+            rec["bearing_length"] = exact_text(ld.bearing_length, "length", system)
         loads.append(rec)
     out["loads"] = loads
     if beam.combinations is None:

@@ -36,6 +36,8 @@ class Load:
         value_end: intensity at ``end`` for a load varying linearly from ``value`` at
             ``start`` (None: uniform).
         description: what the load is (free text for the calculation sheet), may be empty.
+        bearing_length: m, point loads only: the length along the member over which the
+            load bears on the top face (None: no bearing check under this load).
 
     """
 
@@ -48,6 +50,7 @@ class Load:
     at: float | None = None
     value_end: float | None = None
     description: str = ""
+    bearing_length: float | None = None
 
     @property
     def line_value(self) -> float:
@@ -183,7 +186,12 @@ def validate_load(load: Load, length: float, path: str) -> list[Problem]:
             problems.append(Problem(f"{path}.at", "is missing (where the point load acts)"))
         elif not -tol <= load.at <= length + tol:
             problems.append(Problem(f"{path}.at", f"is outside the member (0 to {length:.4g} m)"))
+        lb = load.bearing_length
+        if lb is not None and not (np.isfinite(lb) and lb > 0):
+            problems.append(Problem(f"{path}.bearing_length", "must be greater than zero"))
     else:
+        if load.bearing_length is not None:
+            problems.append(Problem(f"{path}.bearing_length", "only applies to point loads"))
         if load.type == "area" and (load.tributary_width is None or load.tributary_width <= 0):
             problems.append(Problem(f"{path}.tributary_width", "must be greater than zero"))
         start = 0.0 if load.start is None else load.start

@@ -21,6 +21,7 @@ import numpy as np
 from ..actions.analysis import BeamResult, CombinationResult
 from ..actions.beam import CaseSolution, element_polynomials
 from ..actions.patterns import region_parts
+from ..design.bearing import bearing_sites, bearing_surface, en_effective_length
 from ..design.check import Check
 from ..design.demands import PlyDemand, eu_uls_section, ply_demands
 from ..model.combination import EN1990_PSI
@@ -385,37 +386,41 @@ def _bearing(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     s, beam = a.section, a.beam
     assert beam is not None
     combo = combination(beam, c.combination)
-    positions = beam.model.layout.support_positions()
-    k = min(range(len(positions)), key=lambda j: abs(positions[j] - (c.x or 0.0)))
-    R = float(combo.reactions_max[k])
-    names = (c.ply or "").split(" + ")
-    widths = [s.plies[ply_index(s, nm)].width for nm in names]
-    lb = beam.spec.bearing_length or 0.0
+    site = next(t for t in bearing_sites(beam) if t.location == c.location)
+    surface = bearing_surface(s, site.face)
+    assert surface is not None
+    R = site.force(combo)
+    widths = surface.widths
+    lb = site.length
     widths_text = " + ".join(exact(w, "length", u) for w in widths)
     if len(widths) > 1:
         widths_text = f"({widths_text})"
     sym = _symbols(a, c)[0]
-    where = [f"R = {q(R, 'force', u, IN)}: reaction at support {k + 1} under {combo.name} "
-             "(the combination with the largest reaction there"
-             + (f", the largest of {combo.patterns_tried} load arrangements"
-                if combo.patterns_tried > 1 else "") + "; section 4)",
-             f"\u03a3b = {widths_text} (timber plies that bear: {c.ply})"]
+    if site.load is None:
+        where = [f"R = {q(R, 'force', u, IN)}: reaction at {site.location} under {combo.name} "
+                 "(the combination with the largest reaction there"
+                 + (f", the largest of {combo.patterns_tried} load arrangements"
+                    if combo.patterns_tried > 1 else "") + "; section 4)"]
+    else:
+        factor = combo.combination.factors.get(site.load.case, 0.0)
+        where = [f"R = {factor:g} {TIMES} {q(site.load.value, 'force', u, IN)} = "
+                 f"{q(R, 'force', u, IN)}: {site.location} (case {site.load.case}, at "
+                 f"{exact(site.x, 'span', u)}) under {combo.name}"]
+    contact = f", in contact with steel ply {surface.plate}" if surface.plate else ""
+    where.append(f"\u03a3b = {widths_text} (timber plies that bear: {c.ply}{contact})")
     if a.design.us:
-        value = max(R, 0.0) / (sum(widths) * lb)
+        value = R / (sum(widths) * lb)
         demand = (f"{sym} = R / (\u03a3b l_b) = {q(R, 'force', u, IN)} / ({widths_text} "
                   f"{TIMES} {exact(lb, 'length', u)}) = {result(c, u)}")
         where.append(f"l_b = {exact(lb, 'length', u)} (bearing length)")
     else:
-        at_end = abs(positions[k]) < 1e-9 or abs(positions[k] - beam.model.layout.length) < 1e-9
-        extra = 0.03 if at_end else 0.06
-        value = max(R, 0.0) / (sum(widths) * (lb + extra))
-        add = f"30{NBSP}mm" if at_end else f"2 {TIMES} 30{NBSP}mm"
-        if u != "SI":
-            add = q(extra, "length", u, IN)
+        l_ef = en_effective_length(site, beam.model.layout.length)
+        add = q(l_ef - lb, "length", u, IN)
         kN = f" {TIMES} 1,000{NBSP}N/kN" if u == "SI" else ""
+        value = R / (sum(widths) * l_ef)
         where.append(f"l_ef = l + {add} = {exact(lb, 'length', u)} + {add} = "
-                     f"{q(lb + extra, 'length', u, IN)} (EN 1995-1-1 6.1.5(1): 30 mm beyond "
-                     "each side of the bearing that has room)")
+                     f"{q(l_ef, 'length', u, IN)} (EN 1995-1-1 6.1.5(1): up to 30 mm beyond "
+                     "each side of the bearing that has room within the member)")
         demand = (f"{sym} = F / (\u03a3b l_ef) = {q(R, 'force', u, IN)}{kN} / ({widths_text} "
                   f"{TIMES} ({exact(lb, 'length', u)} + {add})) = {result(c, u)}")
     _check_close(value, c, "bearing")
