@@ -30,8 +30,8 @@ def cholesky_band(diagonals: list[list[float]], n: int, w: int) -> list[list[flo
         w: its half bandwidth.
 
     Returns:
-        Rows of the factor: ``rows[i][j - max(0, i - w)]`` is L[i, j] for the columns
-        j = max(0, i - w) .. i.
+        Rows of the factor: ``rows[i][m]`` is L[i, i - w + m], m = 0..w (zero where the
+        column would be negative).
 
     Raises:
         numpy.linalg.LinAlgError: the matrix is not positive definite (a pivot is not
@@ -40,20 +40,22 @@ def cholesky_band(diagonals: list[list[float]], n: int, w: int) -> list[list[flo
     """
     rows: list[list[float]] = []
     for i in range(n):
-        j0 = max(0, i - w)
-        row = [0.0] * (i - j0 + 1)
-        for j in range(j0, i + 1):
-            s = diagonals[i - j][j]
-            other = rows[j] if j < i else row
-            k0 = max(0, j - w)
-            for m in range(max(j0, k0), j):
-                s -= row[m - j0] * other[m - k0]
-            if j < i:
-                row[j - j0] = s / other[j - k0]
-            elif s > 0.0 and math.isfinite(s):
-                row[i - j0] = math.sqrt(s)
+        row = [0.0] * (w + 1)
+        for k in range(max(0, w - i), w + 1):  # column j = i - w + k, from the left
+            j = i - w + k
+            s = diagonals[w - k][j]
+            if k < w:
+                other = rows[j]
+                shift = w - k  # L[j, c] sits at other[m + shift] for c = i - w + m
+                for m in range(k):
+                    s -= row[m] * other[m + shift]
+                row[k] = s / other[w]
             else:
-                raise np.linalg.LinAlgError("matrix is not positive definite")
+                for m in range(w):
+                    s -= row[m] * row[m]
+                if not (s > 0.0 and math.isfinite(s)):
+                    raise np.linalg.LinAlgError("matrix is not positive definite")
+                row[w] = math.sqrt(s)
         rows.append(row)
     return rows
 
@@ -81,16 +83,15 @@ def solve_banded_spd(a: np.ndarray, b: np.ndarray,
     rhs = np.asarray(b, dtype=float).tolist()
     y = [0.0] * n
     for i in range(n):  # L y = b
-        j0 = max(0, i - w)
         row = rows[i]
         s = rhs[i]
-        for m in range(j0, i):
-            s -= row[m - j0] * y[m]
-        y[i] = s / row[i - j0]
+        for m in range(max(0, w - i), w):
+            s -= row[m] * y[i - w + m]
+        y[i] = s / row[w]
     x = [0.0] * n
-    for i in range(n - 1, -1, -1):  # L^T x = y
+    for i in range(n - 1, -1, -1):  # L^T x = y; L[r, i] sits at rows[r][w - (r - i)]
         s = y[i]
-        for m in range(i + 1, min(n, i + w + 1)):
-            s -= rows[m][i - max(0, m - w)] * x[m]
-        x[i] = s / rows[i][i - max(0, i - w)]
+        for r in range(i + 1, min(n, i + w + 1)):
+            s -= rows[r][w - r + i] * x[r]
+        x[i] = s / rows[i][w]
     return np.array(x, dtype=float)

@@ -39,8 +39,11 @@ def test_factor_reproduces_the_matrix() -> None:
     rows = cholesky_band(diagonals, 12, 3)
     lower = np.zeros((12, 12))
     for i, row in enumerate(rows):
-        j0 = max(0, i - 3)
-        lower[i, j0 : i + 1] = row
+        for m, value in enumerate(row):
+            if i - 3 + m >= 0:
+                lower[i, i - 3 + m] = value
+            else:
+                assert value == 0.0
     assert np.allclose(lower @ lower.T, a, rtol=1e-13, atol=1e-13)
     assert np.allclose(lower, np.linalg.cholesky(a), rtol=1e-12, atol=1e-13)
 
