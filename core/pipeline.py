@@ -240,6 +240,9 @@ def _finite_fields(a: Analysis) -> Iterator[tuple[str, object]]:
 def _require_finite(a: Analysis) -> None:
     """A named problem where any reported number is NaN or infinite."""
     for what, value in _finite_fields(a):
+        if isinstance(value, float | int):  # most of them: no array made for a number
+            if math.isfinite(value) and not (what.startswith("capacity") and value < 0):
+                continue
         arr = np.asarray(value, dtype=float)
         if not np.isfinite(arr).all():
             raise ProjectError(Problem("", _CANNOT + f"the {what} is not a finite number "

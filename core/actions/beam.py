@@ -24,6 +24,7 @@ import numpy as np
 
 from ..model.errors import ProjectError
 from ..model.member import MERGE_TOLERANCE, BeamLayout, Load, validate_layout
+from .banded import solve_banded_spd
 
 
 @dataclass(frozen=True, eq=False)
@@ -179,7 +180,7 @@ class BeamModel:
         total = F + Fe
         u = np.zeros_like(F)
         rhs = total[self.free]
-        u[self.free] = self._scale * np.linalg.solve(self._kff_scaled, rhs * self._scale)
+        u[self.free] = self._scale * solve_banded_spd(self._kff_scaled, rhs * self._scale)
         R = self.K @ u - total
         reactions = np.array([R[2 * n] for n in self.support_nodes])
         kinds = self.layout.support_kinds()

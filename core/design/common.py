@@ -14,7 +14,7 @@ from ..model.constants import INCH
 from ..model.design import DesignSpec
 from ..model.errors import MissingCheck, Problem
 from ..model.units import fmt
-from ..section.geometry import TOUCH_TOLERANCE
+from ..section.geometry import TOUCH_TOLERANCE, near_pairs
 from ..section.transformed import Section
 from .check import Check, CheckId, Fasteners
 
@@ -100,11 +100,17 @@ def side_by_side_joints(section: Section) -> list[Joint]:
     joints = []
     size = section.depth
     tol = size * TOUCH_TOLERANCE
-    for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):
+    plies, mats = section.plies, section.materials
+    near: dict[int, list[int]] = {}
+    for a, b in near_pairs(plies, tol):  # ascending, so the last match wins as before
+        near.setdefault(a, []).append(b)
+        near.setdefault(b, []).append(a)
+    for i, (ply, mat) in enumerate(zip(plies, mats, strict=True)):
         if mat.kind != "steel" or section.area[i] <= 0:
             continue
         left = right = None
-        for j, (other, om) in enumerate(zip(section.plies, section.materials, strict=True)):
+        for j in sorted(near.get(i, ())):
+            other, om = plies[j], mats[j]
             if om.kind != "timber" or section.area[j] <= 0:
                 continue
             overlap = min(ply.top, other.top) - max(ply.y, other.y)

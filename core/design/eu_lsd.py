@@ -35,6 +35,7 @@ from .common import (
     EDGE_END_REMINDERS,
     STOCK_SPACINGS_SI,
     STOCK_SPACINGS_US,
+    Joint,
     apply_overrides,
     connector_checks,
     deflection_checks,
@@ -67,6 +68,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
     sc = design.service_class
     tau_unit = unit_shear_stress(section)
     member_width = max(p.x + p.width for p in section.plies) - min(p.x for p in section.plies)
+    joints: list[Joint] | None = None  # found at the first steel ply
     for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):
         if section.area[i] <= 0 or not section.is_connected(i):
             continue
@@ -110,7 +112,9 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
             if fy is None:
                 continue
             g0 = {"gamma_M0": ec5.GAMMA_M0}
-            bracing = plate_bracing(section, i, design)
+            if joints is None:
+                joints = side_by_side_joints(section)
+            bracing = plate_bracing(section, i, design, joints)
             chi, lam = eu_plate_chi(fy, mat.E, ply.height, ply.width, bracing.L_b)
             fb_f = {"chi_LT": chi}
             gb = {"gamma_M1": en1993.GAMMA_M1} if bracing.L_b is not None else g0

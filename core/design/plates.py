@@ -15,13 +15,14 @@ resistance chi_LT f_y / gamma_M1. All from memory.
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass
 
 from ..codes import aisc, en1993
 from ..model.constants import INCH
 from ..model.design import DesignSpec
 from ..section.transformed import Section
-from .common import side_by_side_joints
+from .common import Joint, side_by_side_joints
 
 
 @dataclass(frozen=True)
@@ -32,8 +33,11 @@ class PlateBracing:
     note: str
 
 
-def plate_bracing(section: Section, i: int, design: DesignSpec) -> PlateBracing:
-    """The unbraced length of steel ply i (see the module docstring)."""
+def plate_bracing(section: Section, i: int, design: DesignSpec,
+                  joints: Sequence[Joint] | None = None) -> PlateBracing:
+    """The unbraced length of steel ply i (see the module docstring); ``joints``: the
+    section's side-by-side joints where already found.
+    """
     ply = section.plies[i]
     if ply.width >= ply.height:
         return PlateBracing(None, "plate lies flat (minor-axis bending): no lateral "
@@ -41,7 +45,8 @@ def plate_bracing(section: Section, i: int, design: DesignSpec) -> PlateBracing:
     if design.plate_unbraced_length is not None:
         return PlateBracing(design.plate_unbraced_length, "L_b = the user's plate unbraced "
                                                           "length")
-    joint = next((j for j in side_by_side_joints(section) if j.steel == i), None)
+    found = side_by_side_joints(section) if joints is None else joints
+    joint = next((j for j in found if j.steel == i), None)
     if joint is not None and joint.steel_is_main:
         return PlateBracing(None, "plate between two timbers: braced by them")
     stock = 24 * INCH if section.materials[i].id and design.us else 0.6

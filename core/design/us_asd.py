@@ -27,6 +27,7 @@ from .common import (
     EDGE_END_REMINDERS,
     STOCK_SPACINGS_SI,
     STOCK_SPACINGS_US,
+    Joint,
     apply_overrides,
     connector_checks,
     deflection_checks,
@@ -55,6 +56,7 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
                                 "own list) with the US basis; timber strength checks are "
                                 "skipped"))
     member_width = max(p.x + p.width for p in section.plies) - min(p.x for p in section.plies)
+    joints: list[Joint] | None = None  # found at the first steel ply
     for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):
         if section.area[i] <= 0 or not section.is_connected(i):
             continue
@@ -94,7 +96,9 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
                     notes=("Shear taken at the largest |V|, loads within d of supports included "
                      "(conservative; NDS 3.4.3.1 permits leaving them out).",)))
         elif mat.kind == "steel":
-            checks.extend(_steel_checks(i, section, beam, design, tau_unit))
+            if joints is None:
+                joints = side_by_side_joints(section)
+            checks.extend(_steel_checks(i, section, beam, design, tau_unit, joints))
         else:
             warnings.append(MissingCheck(f"plies[{i}].material", f'"{mat.id}" is neither '
                                          "timber nor steel: its stresses are reported but not "
@@ -109,13 +113,13 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
 
 
 def _steel_checks(i: int, section: Section, beam: BeamResult, design: DesignSpec,
-                  tau_unit: np.ndarray) -> list[Check]:
+                  tau_unit: np.ndarray, joints: list[Joint]) -> list[Check]:
     ply, mat = section.plies[i], section.materials[i]
     Fy = mat.value("Fy")
     if Fy is None:
         return []
     out = []
-    bracing = plate_bracing(section, i, design)
+    bracing = plate_bracing(section, i, design, joints)
     allow, governs = us_plate_allowable(Fy, mat.E, ply.height, ply.width, bracing.L_b)
     lb_text = "braced" if bracing.L_b is None else f"L_b = {bracing.L_b:.4g} m"
     if design.steel_rule == "AISC-F11":
@@ -223,7 +227,7 @@ def _bolts(section: Section, beam: BeamResult, design: DesignSpec, system: str) 
         G = min(section.materials[j].value("G") or 0.5 for j in timbers)
         Fe_w = Fe_perpendicular(G, D)
         Fe_s = Fe_steel(Fu)
-        thick = [_available_thickness(section, j) for j in timbers]
+        thick = [_available_thickness(section, j, joints) for j in timbers]
         if jt.steel_is_main:
             modes = nds_double_shear(D, steel.width, Fe_s, min(thick), Fe_w, bolt.Fyb, 90.0)
             kind = "double shear, wood-steel-wood"
@@ -278,11 +282,11 @@ def _bolts(section: Section, beam: BeamResult, design: DesignSpec, system: str) 
     return out
 
 
-def _available_thickness(section: Section, j: int) -> float:
+def _available_thickness(section: Section, j: int, joints: list[Joint]) -> float:
     """A timber's thickness available to one plate: half where plates are on both of its
     faces (NDS 12.3.7 multiple shear, each plane taking half the member, from memory).
+    ``joints``: the section's side-by-side joints.
     """
-    joints = side_by_side_joints(section)
     count = sum(1 for jt in joints if j in jt.timbers)
     width = section.plies[j].width
     return width / 2 if count >= 2 else width

@@ -11,6 +11,7 @@ first moments of the part above any horizontal cut (used for shear flow).
 
 from __future__ import annotations
 
+from bisect import bisect_right
 from dataclasses import dataclass
 
 import numpy as np
@@ -32,12 +33,52 @@ def is_unclipped(area: float, ply: Ply) -> bool:
     return abs(area - whole) <= CLIP_TOLERANCE * max(whole, 1e-30)
 
 
+def near_pairs(plies: tuple[Ply, ...] | list[Ply], tol: float) -> list[tuple[int, int]]:
+    """Pairs (i, j), i < j, sorted, of rectangles that come within ``tol`` of each other.
+
+    A superset of every pair that overlaps, touches or lies within ``tol`` (the test is
+    made with a slightly larger margin, so rounding never drops a pair); callers apply
+    their own exact test to these pairs only. A sort and sweep along the axis where the
+    rectangles' intervals overlap least: O(n log n) plus the number of pairs, instead of
+    testing all n (n - 1) / 2 pairs.
+    """
+    n = len(plies)
+    if n < 2:
+        return []
+    big = max(max(abs(p.x), abs(p.y), abs(p.x + p.width), abs(p.top)) for p in plies)
+    grow = 2 * tol + 1e-12 * (1.0 + big)
+    spans = {"x": ([p.x - grow for p in plies], [p.x + p.width + grow for p in plies]),
+             "y": ([p.y - grow for p in plies], [p.top + grow for p in plies])}
+    sweeps = {}
+    for axis, (lo, hi) in spans.items():
+        order = sorted(range(n), key=lo.__getitem__)
+        starts = [lo[i] for i in order]
+        ends = [bisect_right(starts, hi[i]) for i in order]
+        sweeps[axis] = (order, ends, sum(e - r - 1 for r, e in enumerate(ends)))
+    axis = "x" if sweeps["x"][2] <= sweeps["y"][2] else "y"
+    order, ends, _ = sweeps[axis]
+    lo, hi = spans["y" if axis == "x" else "x"]
+    pairs = []
+    for r, i in enumerate(order):
+        for s in range(r + 1, ends[r]):
+            j = order[s]
+            if lo[j] <= hi[i] and lo[i] <= hi[j]:
+                pairs.append((i, j) if i < j else (j, i))
+    pairs.sort()
+    return pairs
+
+
 def clip_plies(plies: tuple[Ply, ...] | list[Ply]) -> list[BaseGeometry]:
     """Clip each ply by every later ply (later plies win). Returns one geometry per ply."""
-    rects = [p.rectangle() for p in plies]
+    rects = list(shapely.box([p.x for p in plies], [p.y for p in plies],
+                             [p.x + p.width for p in plies], [p.top for p in plies]))
+    later_of: dict[int, list[int]] = {}
+    for i, j in near_pairs(plies, 0.0):
+        if _overlap(plies[i], plies[j]):
+            later_of.setdefault(i, []).append(j)
     out: list[BaseGeometry] = []
     for i, rect in enumerate(rects):
-        later = [rects[j] for j in range(i + 1, len(plies)) if _overlap(plies[i], plies[j])]
+        later = [rects[j] for j in later_of.get(i, [])]
         if later:
             cut = rect.difference(shapely.union_all(later))
             out.append(_polygons_only(cut))
@@ -190,13 +231,36 @@ def _chord(geom: BaseGeometry, y: float, x0: float, x1: float) -> float:
     return float(geom.intersection(line).length)
 
 
-def touches_any(index: int, geoms: list[BaseGeometry], size: float) -> bool:
-    """True where geometry ``index`` touches or overlaps at least one other one."""
+def touches_any(index: int, geoms: list[BaseGeometry], size: float,
+                candidates: list[int] | None = None) -> bool:
+    """True where geometry ``index`` touches or overlaps at least one other one.
+
+    ``candidates``: the only indices that can touch it (from :func:`touch_candidates`);
+    all others when None.
+    """
     me = geoms[index]
     if me.is_empty:
         return False
     tol = max(size, 1e-9) * TOUCH_TOLERANCE
     grown = me.buffer(tol, join_style="mitre")
+    others = range(len(geoms)) if candidates is None else candidates
     return any(
-        j != index and not g.is_empty and grown.intersects(g) for j, g in enumerate(geoms)
+        j != index and not geoms[j].is_empty and grown.intersects(geoms[j]) for j in others
     )
+
+
+def touch_candidates(plies: tuple[Ply, ...] | list[Ply], size: float) -> list[list[int]]:
+    """Per ply, the other plies whose rectangles come near enough that their clipped
+    geometries may touch it in :func:`touches_any` (ascending indices).
+
+    A clipped ply lies inside its rectangle and the mitred buffer of ``touches_any``
+    reaches at most its mitre limit (5) times its distance beyond a corner, so rectangles
+    farther apart than ten times that distance never touch.
+    """
+    near: list[list[int]] = [[] for _ in plies]
+    for i, j in near_pairs(plies, 10 * max(size, 1e-9) * TOUCH_TOLERANCE):
+        near[i].append(j)
+        near[j].append(i)
+    for row in near:
+        row.sort()
+    return near

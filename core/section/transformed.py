@@ -31,8 +31,10 @@ from .geometry import (
     WidthProfile,
     clip_plies,
     is_unclipped,
+    near_pairs,
     polygon_moments,
     rectangles_touch,
+    touch_candidates,
     touches_any,
     width_profile,
 )
@@ -317,12 +319,16 @@ def analyse(
     unclipped = all(is_unclipped(float(a), p) for a, p in zip(area, plies, strict=True))
     loose: list[int] = []
     if len(plies) > 1:
+        touch_tol = size * TOUCH_TOLERANCE
+        touched = {k for i, j in near_pairs(plies, touch_tol)
+                   if rectangles_touch(plies[i], plies[j], touch_tol) for k in (i, j)}
+        candidates = None if unclipped else touch_candidates(plies, size)
         for i, ply in enumerate(plies):
             if unclipped:
-                touching = any(j != i and rectangles_touch(ply, q, size * TOUCH_TOLERANCE)
-                               for j, q in enumerate(plies))
+                touching = i in touched
             else:
-                touching = area[i] > 0 and touches_any(i, list(geoms), size)
+                touching = area[i] > 0 and touches_any(i, list(geoms), size,
+                                                       candidates[i] if candidates else None)
             if area[i] > 0 and not touching:
                 loose.append(i)
                 warnings.append(MissingCheck(f"plies[{i}]", f'"{ply.name}" touches no other '
@@ -391,15 +397,19 @@ def _rectangle_contacts(section: Section, tol: float
     plies = section.plies
     if not all(section.is_unclipped(i) for i in range(len(plies))):
         return None
-    contacts: dict[float, list[tuple[int, int, float]]] = {}
-    for i, lo in enumerate(plies):
-        for j, up in enumerate(plies):
-            if i == j or abs(lo.top - up.y) > tol:
+    found = []
+    for a, b in near_pairs(plies, tol):
+        for i, j in ((a, b), (b, a)):
+            lo, up = plies[i], plies[j]
+            if abs(lo.top - up.y) > tol:
                 continue
             length = min(lo.x + lo.width, up.x + up.width) - max(lo.x, up.x)
             if length > tol:
-                key = round(up.y / tol) * tol
-                contacts.setdefault(key, []).append((i, j, length))
+                found.append((i, j, length))
+    contacts: dict[float, list[tuple[int, int, float]]] = {}
+    for i, j, length in sorted(found):  # the order of a loop over i, then j
+        key = round(plies[j].y / tol) * tol
+        contacts.setdefault(key, []).append((i, j, length))
     return contacts
 
 
@@ -409,11 +419,16 @@ def _find_interfaces(section: Section, size: float) -> tuple[Interface, ...]:
     fast = _rectangle_contacts(section, tol)
     contacts: dict[float, list[tuple[int, int, float]]] = fast or {}
     geoms = section.geoms if fast is None else ()
+    near: list[list[int]] = [[] for _ in geoms]
+    for a, b in near_pairs(section.plies, tol * 20) if geoms else ():
+        near[a].append(b)
+        near[b].append(a)
     for i, gi in enumerate(geoms):
         if gi.is_empty:
             continue
-        for j, gj in enumerate(geoms):
-            if j == i or gj.is_empty:
+        for j in sorted(near[i]):
+            gj = geoms[j]
+            if gj.is_empty:
                 continue
             # i below j: i's top edge level with j's bottom edge somewhere
             common = gi.boundary.intersection(gj.boundary)
@@ -433,22 +448,35 @@ def _find_interfaces(section: Section, size: float) -> tuple[Interface, ...]:
                     if below and above:
                         key = round(yc / tol) * tol
                         contacts.setdefault(key, []).append((i, j, abs(b[0] - a[0])))
+    if not contacts:
+        return ()
+    heights = sorted(contacts)
+    q_above, q_below = _first_moments_beyond(section, np.array(heights), tol)
     out = []
-    y_na = section.neutral_axis_y
-    for yc, items in sorted(contacts.items()):
-        q_above = q_below = 0.0
-        for k in range(len(section.plies)):
-            if section.area[k] <= 0:
-                continue
-            q_k = section.n[k] * (section.first_y[k] - y_na * section.area[k])
-            if section.y_bottom[k] >= yc - tol:
-                q_above += q_k
-            elif section.y_top[k] <= yc + tol:
-                q_below += q_k
+    for k, yc in enumerate(heights):
+        items = contacts[yc]
         pairs = tuple(sorted({(i, j) for i, j, _ in items}))
         length = sum(ln for _, _, ln in items)
-        out.append(Interface(yc, pairs, length, max(abs(q_above), abs(q_below))))
+        out.append(Interface(yc, pairs, length,
+                             max(abs(float(q_above[k])), abs(float(q_below[k])))))
     return tuple(out)
+
+
+def _first_moments_beyond(section: Section, heights: np.ndarray,
+                          tol: float) -> tuple[np.ndarray, np.ndarray]:
+    """At each height, the sums of n Q of the plies wholly above it and wholly below it.
+
+    The sums run over the plies in order (a cumulative sum of rows in which the other
+    plies count zero), so they are the same numbers as a loop adding one ply at a time.
+    """
+    y_na = section.neutral_axis_y
+    q = section.n * (section.first_y - y_na * section.area)
+    valid = section.area > 0
+    above = valid & (section.y_bottom[None, :] >= heights[:, None] - tol)
+    below = valid & ~above & (section.y_top[None, :] <= heights[:, None] + tol)
+    q_above = np.cumsum(np.where(above, q, 0.0), axis=1)[:, -1]
+    q_below = np.cumsum(np.where(below, q, 0.0), axis=1)[:, -1]
+    return q_above, q_below
 
 
 def _contains_near(geom: BaseGeometry, point: tuple[float, float], dy: float) -> bool:
