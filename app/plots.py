@@ -331,13 +331,13 @@ class DiagramPlot(BlitCanvas):
         combos = a.beam.combinations
         chosen = next((c for c in combos if c.name == combo_name), None) or max(
             combos, key=lambda c: abs(c.M_governing))
-        d = diagram(a.beam.model, chosen.solution, a.section.EI)
+        d = diagram(a.beam.model, chosen.solution, a.beam.solution_EI)
         if not chosen.combination.for_serviceability(a.beam.basis):
             # deflection only ever from an ASD or SLS combination, never a factored one
             sls = [c for c in a.beam.serviceability()]
             if sls:
                 worst = max(sls, key=lambda c: c.extremes.deflection_max_abs)
-                d_sls = diagram(a.beam.model, worst.solution, a.section.EI)
+                d_sls = diagram(a.beam.model, worst.solution, a.beam.solution_EI)
                 d = replace(d, deflection=np.interp(d.x, d_sls.x, d_sls.deflection))
         kx = to_display(1.0, "span", u)
         series = (("shear", d.V, "force"), ("moment", d.M, "moment"),

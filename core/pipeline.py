@@ -15,18 +15,29 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from .actions.analysis import BeamResult, PreparedBeam, analyse_beams
+from .actions.analysis import (
+    BeamResult,
+    PreparedBeam,
+    Stepping,
+    analyse_beams,
+    analyse_stepped,
+    creep_factor,
+    creep_moduli,
+)
 from .design.check import Check
 from .design.eu_lsd import eu_checks
 from .design.material_notes import material_warnings
+from .design.segmented import SegmentResult, segment_results, segmented_checks
 from .design.us_asd import us_checks
 from .design.vibration import vibration_checks
+from .model.constants import GRAVITY
 from .model.design import DesignSpec
 from .model.errors import MissingCheck, Problem, ProjectError
 from .model.materials import Material
 from .model.plies import Ply
 from .model.project import Project
-from .section.transformed import Section, analyse
+from .section.segments import is_stepped, segment_sections, segments_of
+from .section.transformed import Section, analyse, with_moduli
 
 #: Most plies analysed at once, far more than any built-up member has. The checks of
 #: side-by-side plies grow with the cube of their number (one run each, one desktop
@@ -47,6 +58,8 @@ class Analysis:
         design: the design choices used.
         checks: every design check (empty without a beam).
         warnings: named problems that did not stop the analysis.
+        segments: where some ply stops short of the member's ends, every stretch of
+            constant section with its section and actions (empty otherwise).
 
     """
 
@@ -56,6 +69,7 @@ class Analysis:
     design: DesignSpec
     checks: tuple[Check, ...]
     warnings: tuple[Problem, ...]
+    segments: tuple[SegmentResult, ...] = ()
 
     @property
     def incomplete_reasons(self) -> tuple[Problem, ...]:
@@ -144,19 +158,62 @@ class Evaluator:
         if self.beam is None:
             beams = [None] * len(sections)
         else:
-            beams = list(analyse_beams(self.beam, sections, self.design))
+            beams = list(self._beams(candidates, sections))
         out = []
         for plies, section, beam in zip(candidates, sections, beams, strict=True):
             project = self.project.with_plies(plies)
             warnings = list(section.warnings)
             warnings += self._density_warnings(plies)
             checks: tuple[Check, ...] = ()
-            if beam is not None:
+            segments: tuple[SegmentResult, ...] = ()
+            if beam is not None and beam.stepped:
+                segments = self._segments(plies, section, beam)
+                checks, check_warnings = segmented_checks(project, section, beam, segments,
+                                                          self.design, run_checks)
+                warnings.extend(check_warnings)
+            elif beam is not None:
                 checks, check_warnings = run_checks(project, section, beam, self.design)
                 warnings.extend(check_warnings)
             warnings += material_warnings(section, beam, project.display_units)
-            out.append(Analysis(project, section, beam, self.design, checks, tuple(warnings)))
+            out.append(Analysis(project, section, beam, self.design, checks, tuple(warnings),
+                                segments))
         return out
+
+    def _beams(self, candidates: list[tuple[Ply, ...]],
+               sections: list[Section]) -> list[BeamResult]:
+        """The beam of every candidate: prismatic ones in one batch, stepped ones (a ply
+        stopping short of the ends) each on its own stepped stiffness.
+        """
+        assert self.beam is not None and self.project.beam is not None
+        length = self.project.beam.layout.length
+        flat = [k for k, p in enumerate(candidates) if not is_stepped(p, length)]
+        out: dict[int, BeamResult] = dict(zip(flat, analyse_beams(
+            self.beam, [sections[k] for k in flat], self.design), strict=True)) if flat else {}
+        for k, plies in enumerate(candidates):
+            if k not in out:
+                out[k] = self._stepped_beam(plies, sections[k])
+        return [out[k] for k in range(len(candidates))]
+
+    def _stepped_beam(self, plies: tuple[Ply, ...], section: Section) -> BeamResult:
+        spec = self.project.beam
+        assert spec is not None
+        segs = segments_of(plies, spec.layout.length)
+        secs = segment_sections(plies, segs, self.materials, section.reference_material)
+        creep = [with_moduli(s, creep_moduli(s, creep_factor(s, self.design))) for s in secs]
+        stepping = Stepping(
+            tuple((s.start, s.end) for s in segs), tuple(s.EI for s in secs),
+            tuple(c.EI for c in creep),
+            tuple(s.mass_per_length * GRAVITY if spec.self_weight else 0.0 for s in secs))
+        prepared = PreparedBeam.of(spec, self.design, stepping)
+        return analyse_stepped(prepared, section, self.design, stepping.bounds)
+
+    def _segments(self, plies: tuple[Ply, ...], section: Section,
+                  beam: BeamResult) -> tuple[SegmentResult, ...]:
+        spec = self.project.beam
+        assert spec is not None
+        segs = segments_of(plies, spec.layout.length)
+        secs = segment_sections(plies, segs, self.materials, section.reference_material)
+        return segment_results(segs, secs, beam)
 
     def _density_warnings(self, plies: Sequence[Ply]) -> list[Problem]:
         spec = self.project.beam

@@ -18,12 +18,20 @@ its loads, so :class:`PreparedBeam` solves each case once (self-weight as a unit
 splits the patterned cases by span (actions.patterns) and finds the arrangements worth
 solving; :func:`analyse_beams` then scales and combines them for any number of sections
 and reduces every solution to its extremes in one batched pass.
+
+A member whose plies stop short of its ends (a :class:`Stepping`) is prepared for one
+section: each case is solved on the stepped stiffness, and again on the stepped creep
+stiffness for the sustained parts (timber creeps, steel does not, so the steps change
+under creep); the total with creep is the sustained part on the creep model plus the
+rest on the short-term model. Its solutions are true deflections (EI = 1 when read), its
+self-weight is each segment's own, and :func:`analyse_stepped` also gives the extremes
+within each segment.
 """
 
 from __future__ import annotations
 
 from collections.abc import Mapping, Sequence
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 import numpy as np
 
@@ -32,7 +40,7 @@ from ..model.combination import EN1990_PSI, Combination, duration_of
 from ..model.constants import GRAVITY
 from ..model.design import DesignSpec
 from ..model.errors import Problem, ProjectError
-from ..model.member import BeamSpec
+from ..model.member import BeamSpec, Load
 from ..section.transformed import Section, with_moduli
 from .beam import BeamModel, CaseSolution, Extremes, combine, extremes_many, moment_at
 from .combinations import asd_combinations, en1990_combinations
@@ -176,6 +184,16 @@ class BeamResult:
     reaction_envelope: tuple[ReactionBound, ...] = ()
     patterned_cases: tuple[str, ...] = ()
     regions: tuple[str, ...] = ()
+    stepped: bool = False
+    segments: tuple[BeamResult, ...] = ()
+    bounds: tuple[float, float] | None = None
+
+    @property
+    def solution_EI(self) -> float:
+        """The EI that the solutions' deflections are divided by: the section's, or 1 on a
+        stepped member (its solutions already hold each segment's EI).
+        """
+        return 1.0 if self.stepped else self.EI
 
     def extremes_of(self, case: str) -> Extremes:
         """Extremes of one load case alone (short-term EI), enveloped over arrangements."""
@@ -245,6 +263,28 @@ class _Planned:
     variable_plan: Plan | None
 
 
+@dataclass(frozen=True)
+class Stepping:
+    """A member of stepped stiffness: per segment, (from, to) in m, the short-term EI and
+    the creep EI (N m^2) and the self-weight (N/m, zero where it is not counted).
+    """
+
+    bounds: tuple[tuple[float, float], ...]
+    EI: tuple[float, ...]
+    EI_creep: tuple[float, ...]
+    self_weight: tuple[float, ...]
+
+    def steps(self, creep: bool) -> tuple[tuple[float, float, float], ...]:
+        """(from, to, EI) of every segment."""
+        return tuple((a, b, e) for (a, b), e in zip(
+            self.bounds, self.EI_creep if creep else self.EI, strict=True))
+
+    def weight_loads(self) -> tuple[Load, ...]:
+        """The self-weight of every segment as case D line loads."""
+        return tuple(Load("D", "line", w, start=a, end=b, description="self-weight")
+                     for (a, b), w in zip(self.bounds, self.self_weight, strict=True) if w)
+
+
 @dataclass(frozen=True, eq=False)
 class PreparedBeam:
     """A beam solved once for every section: mesh, each case without self-weight, the
@@ -260,15 +300,23 @@ class PreparedBeam:
     parts: RegionParts | None
     planned: tuple[_Planned, ...]
     case_plans: Mapping[str, Plan]
+    stepped: bool = False
+    creep: PreparedBeam | None = None
 
     @staticmethod
-    def of(spec: BeamSpec, design: DesignSpec) -> PreparedBeam:
-        """Mesh the beam, solve each load case and plan the arrangements."""
+    def of(spec: BeamSpec, design: DesignSpec, stepping: Stepping | None = None,
+           creep: bool = False) -> PreparedBeam:
+        """Mesh the beam, solve each load case and plan the arrangements (on the stepped
+        stiffness where ``stepping`` is given, its creep stiffness with ``creep``).
+        """
         basis = "US" if design.us else "EU"
-        model = BeamModel(spec.layout, spec.loads)
-        cases = {c: model.solve([ld for ld in spec.loads if ld.case == c])
-                 for c in sorted({ld.case for ld in spec.loads})}
-        unit = model.solve([], extra_line=1.0) if spec.self_weight else None
+        steps = () if stepping is None else stepping.steps(creep)
+        own = () if stepping is None else stepping.weight_loads()
+        model = BeamModel(spec.layout, spec.loads + own, steps)
+        cases = {c: model.solve([ld for ld in spec.loads + own if ld.case == c])
+                 for c in sorted({ld.case for ld in spec.loads + own})}
+        unit = (model.solve([], extra_line=1.0) if spec.self_weight and stepping is None
+                else None)
         present = sorted(set(cases) | ({"D"} if spec.self_weight else set()))
         parts = None
         if spec.pattern_live_load and len(spec.layout.regions()) > 1:
@@ -289,8 +337,10 @@ class PreparedBeam:
                                     sustained_factors(combo, basis, design, frac, present),
                                     var))
         case_plans = {c: plan(model, parts or empty, {c: 1.0}) for c in present}
+        crept = (PreparedBeam.of(spec, design, stepping, creep=True)
+                 if stepping is not None and not creep else None)
         return PreparedBeam(spec, model, cases, unit, basis, parts, tuple(planned),
-                            case_plans)
+                            case_plans, stepping is not None, crept)
 
     def cases_with_self_weight(self, self_weight: float) -> dict[str, CaseSolution]:
         """Every case's solution, the self-weight (N/m) added to case D."""
@@ -376,6 +426,7 @@ class _Job:
 
     sw: float
     cases: dict[str, CaseSolution]
+    creep_cases: dict[str, CaseSolution]
     factor: float
     creep_section: Section
     case_idx: dict[str, list[int]]
@@ -389,20 +440,24 @@ def _ask_section(prepared: PreparedBeam, section: Section, design: DesignSpec,
     factor = creep_factor(section, design)
     creep_section = with_moduli(section, creep_moduli(section, factor))
     EI, EI_c = section.EI, creep_section.EI
+    crept = prepared.creep or prepared
+    creep_cases = crept.cases_with_self_weight(sw)
+    if prepared.stepped:
+        EI = EI_c = 1.0
     case_idx = {c: [batch.ask(_build(prepared, cases, pl, m, {c: 1.0}), EI) for m in pl.masks]
                 for c, pl in prepared.case_plans.items() if c in cases}
     combo_idx = []
     for item in prepared.planned:
         f, sus = dict(item.combination.factors), item.sustained
-        total = {c: sus.get(c, 0.0) * EI / EI_c + v - sus.get(c, 0.0) for c, v in f.items()}
         rest = {c: v - sus.get(c, 0.0) for c, v in f.items()}
         idx: dict[str, list[int | None]] = {"solution": [], "total": [], "sustained": [],
                                             "rest": [], "variable": []}
         for m in item.plan.masks:
             idx["solution"].append(batch.ask(_build(prepared, cases, item.plan, m, f), EI))
-            idx["total"].append(batch.ask(_build(prepared, cases, item.plan, m, total), EI))
-            idx["sustained"].append(batch.ask(_build(prepared, cases, item.plan, m, sus), EI_c)
-                                    if any(sus.values()) else None)
+            idx["total"].append(batch.ask(_total(prepared, cases, creep_cases, item.plan, m,
+                                                 f, sus, section.EI / creep_section.EI), EI))
+            idx["sustained"].append(batch.ask(_build(crept, creep_cases, item.plan, m, sus),
+                                              EI_c) if any(sus.values()) else None)
             idx["rest"].append(batch.ask(_build(prepared, cases, item.plan, m, rest), EI)
                                if any(rest.values()) else None)
         if item.variable_plan is not None:
@@ -410,7 +465,22 @@ def _ask_section(prepared: PreparedBeam, section: Section, design: DesignSpec,
             idx["variable"] = [batch.ask(_build(prepared, cases, item.variable_plan, m, var), EI)
                                for m in item.variable_plan.masks]
         combo_idx.append(idx)
-    return _Job(sw, cases, factor, creep_section, case_idx, combo_idx)
+    return _Job(sw, cases, creep_cases, factor, creep_section, case_idx, combo_idx)
+
+
+def _total(prepared: PreparedBeam, cases: Mapping[str, CaseSolution],
+           creep_cases: Mapping[str, CaseSolution], plan_: Plan, mask: tuple[bool, ...],
+           f: Mapping[str, float], sus: Mapping[str, float], ratio: float) -> CaseSolution:
+    """The total with creep: the sustained part on the creep section plus the rest. On a
+    prismatic member that is the sustained part times EI / EI_creep on the short-term
+    section (``ratio``); on a stepped one the sustained part on the creep model.
+    """
+    if not prepared.stepped or prepared.creep is None:
+        return _build(prepared, cases, plan_, mask, {
+            c: sus.get(c, 0.0) * ratio + v - sus.get(c, 0.0) for c, v in f.items()})
+    rest = {c: v - sus.get(c, 0.0) for c, v in f.items()}
+    return (_build(prepared.creep, creep_cases, plan_, mask, sus)
+            + _build(prepared, cases, plan_, mask, rest))
 
 
 def _finish_section(prepared: PreparedBeam, section: Section, job: _Job,
@@ -436,7 +506,8 @@ def _finish_section(prepared: PreparedBeam, section: Section, job: _Job,
                     if idx["variable"] else None)
         sus = item.sustained
         rest = {c: v - sus.get(c, 0.0) for c, v in f.items()}
-        m_sus = [moment_at(prepared.model, _build(prepared, job.cases, item.plan,
+        crept = prepared.creep or prepared
+        m_sus = [moment_at(prepared.model, _build(crept, job.creep_cases, item.plan,
                                                   masks[gov[k]], sus), x)
                  if any(sus.values()) else 0.0
                  for k, x in (("M_max", env.x_M_max), ("M_min", env.x_M_min))]
@@ -444,11 +515,11 @@ def _finish_section(prepared: PreparedBeam, section: Section, job: _Job,
             combination=item.combination, duration=duration_of(item.combination, basis),
             solution=_build(prepared, job.cases, item.plan, masks[0], f), extremes=env,
             sustained_factors=sus,
-            sustained=combine(job.cases, sus) if any(sus.values()) else None,
+            sustained=combine(job.creep_cases, sus) if any(sus.values()) else None,
             rest=combine(job.cases, rest) if any(rest.values()) else None,
-            total=total, total_solution=_build(prepared, job.cases, item.plan, masks[0], {
-                c: sus.get(c, 0.0) * section.EI / job.creep_section.EI + v - sus.get(c, 0.0)
-                for c, v in f.items()}),
+            total=total, total_solution=_total(prepared, job.cases, job.creep_cases,
+                                               item.plan, masks[0], f, sus,
+                                               section.EI / job.creep_section.EI),
             long_term=None if sus_i is None else ext[sus_i],
             short_term_rest=None if rest_i is None else ext[rest_i],
             M_governing=env.M_max if abs(env.M_max) >= abs(env.M_min) else env.M_min,
@@ -468,7 +539,29 @@ def _finish_section(prepared: PreparedBeam, section: Section, job: _Job,
         self_weight_line=job.sw, basis=basis, EI=section.EI,
         reaction_envelope=_reaction_bounds(prepared, results),
         patterned_cases=tuple(prepared.parts.parts) if prepared.parts is not None else (),
-        regions=tuple(n for n, _, _ in prepared.spec.layout.regions()))
+        regions=tuple(n for n, _, _ in prepared.spec.layout.regions()),
+        stepped=prepared.stepped)
+
+
+def analyse_stepped(prepared: PreparedBeam, section: Section, design: DesignSpec,
+                    bounds: Sequence[tuple[float, float]]) -> BeamResult:
+    """A stepped member's beam actions for its (whole-member) ``section``, with
+    ``segments``: the same actions with every extreme sought within one segment (both
+    ends included), in the order of the stepping's bounds.
+    """
+    if not prepared.planned:
+        raise ProjectError(Problem("beam.combinations", "no combination has a load case "
+                                   "that the beam carries"))
+    batch = _Batch()
+    job = _ask_section(prepared, section, design, batch)
+    whole = _finish_section(prepared, section, job,
+                            extremes_many(prepared.model, batch.solutions, batch.stiffness))
+    parts = []
+    for a, b in bounds:
+        span = (prepared.model.node_index(a), prepared.model.node_index(b))
+        ext = extremes_many(prepared.model, batch.solutions, batch.stiffness, span)
+        parts.append(replace(_finish_section(prepared, section, job, ext), bounds=(a, b)))
+    return replace(whole, segments=tuple(parts))
 
 
 def _reactions(cases: Mapping[str, CaseSolution], f: Mapping[str, float],

@@ -12,6 +12,12 @@ each element) and deflection (Hermite shape functions plus the particular soluti
 the clamped element, q x^2 (L - x)^2 / 24 for the uniform part and
 dq (x^5 / 120 - L^2 x^3 / 40 + L^3 x^2 / 60) for the linear part q(x) = q + dq x, divided
 by EI) are exact everywhere.
+
+A member whose plies stop short of its ends has a stepped stiffness: the model is then
+built with the EI of each segment (nodes at every step, each element at its own EI) and
+its solutions are true deflections (solve with the segment EIs, read with EI = 1); the
+particular solution of each element is divided by that element's EI (``wq``, ``wdq``).
+Statically indeterminate members redistribute their moments by the stepped stiffness.
 """
 
 from __future__ import annotations
@@ -44,27 +50,45 @@ class CaseSolution:
     reactions: np.ndarray
     reaction_moments: np.ndarray
     dq: np.ndarray
+    wq: np.ndarray | None = None
+    wdq: np.ndarray | None = None
+
+    def deflection_loads(self) -> tuple[np.ndarray, np.ndarray]:
+        """The loads of each element's particular deflection: q and dq divided by the
+        element's EI on a stepped member, q and dq themselves otherwise.
+        """
+        return (self.q if self.wq is None else self.wq,
+                self.dq if self.wdq is None else self.wdq)
 
     def scaled(self, factor: float) -> CaseSolution:
         """Return this solution times ``factor`` (the beam is linear)."""
         return CaseSolution(self.V0 * factor, self.M0 * factor, self.q * factor,
                             self.u * factor, self.reactions * factor,
-                            self.reaction_moments * factor, self.dq * factor)
+                            self.reaction_moments * factor, self.dq * factor,
+                            None if self.wq is None else self.wq * factor,
+                            None if self.wdq is None else self.wdq * factor)
 
     def __add__(self, other: CaseSolution) -> CaseSolution:
+        wq = wdq = None
+        if self.wq is not None or other.wq is not None:
+            (a, da), (b, db) = self.deflection_loads(), other.deflection_loads()
+            wq, wdq = a + b, da + db
         return CaseSolution(self.V0 + other.V0, self.M0 + other.M0, self.q + other.q,
                             self.u + other.u, self.reactions + other.reactions,
                             self.reaction_moments + other.reaction_moments,
-                            self.dq + other.dq)
+                            self.dq + other.dq, wq, wdq)
 
 
 class BeamModel:
     """Mesh and stiffness of a member for a given layout and set of load positions.
 
-    Build once per layout and set of loads; solve any load for EI = 1 and scale.
+    Build once per layout and set of loads; solve any load for EI = 1 and scale. With
+    ``steps`` ((from, to, EI) of each segment, m and N m^2) the stiffness is stepped: a
+    node at every step, each element at its segment's EI, and solutions in true units.
     """
 
-    def __init__(self, layout: BeamLayout, loads: tuple[Load, ...] | list[Load]):
+    def __init__(self, layout: BeamLayout, loads: tuple[Load, ...] | list[Load],
+                 steps: Sequence[tuple[float, float, float]] = ()):
         problems = validate_layout(layout)
         if problems:
             raise ProjectError(problems)
@@ -77,15 +101,22 @@ class BeamModel:
             else:
                 pts.add(0.0 if ld.start is None else min(max(ld.start, 0.0), L))
                 pts.add(L if ld.end is None else min(max(ld.end, 0.0), L))
+        for a, b, _ in steps:
+            pts.update((min(max(a, 0.0), L), min(max(b, 0.0), L)))
         nodes = np.array(sorted(pts))
         keep = np.concatenate([[True], np.diff(nodes) > MERGE_TOLERANCE * max(L, 1.0)])
         self.nodes = nodes[keep]
         self.nodes[-1] = L
         self.lengths = np.diff(self.nodes)
+        #: 1 / EI of every element on a stepped member (None: EI = 1 throughout).
+        self.flexibility = _element_flexibility(self.nodes, steps) if steps else None
         n_dof = 2 * self.nodes.size
         K = np.zeros((n_dof, n_dof))
         for e, le in enumerate(self.lengths):
-            K[2 * e : 2 * e + 4, 2 * e : 2 * e + 4] += _element_stiffness(le)
+            k_e = _element_stiffness(le)
+            if self.flexibility is not None:
+                k_e = k_e / self.flexibility[e]
+            K[2 * e : 2 * e + 4, 2 * e : 2 * e + 4] += k_e
         self.K = K
         fixed = []
         self.support_nodes = []
@@ -205,7 +236,23 @@ class BeamModel:
             v_end = V0[e] + q_el[e] * le[e] + dq_el[e] * le[e] ** 2 / 2
             m_end = (M0[e] + V0[e] * le[e] + q_el[e] * le[e] ** 2 / 2
                      + dq_el[e] * le[e] ** 3 / 6)
-        return CaseSolution(V0, M0, q_el, u, reactions, reaction_moments, dq_el)
+        if self.flexibility is None:
+            return CaseSolution(V0, M0, q_el, u, reactions, reaction_moments, dq_el)
+        return CaseSolution(V0, M0, q_el, u, reactions, reaction_moments, dq_el,
+                            q_el * self.flexibility, dq_el * self.flexibility)
+
+
+def _element_flexibility(nodes: np.ndarray,
+                         steps: Sequence[tuple[float, float, float]]) -> np.ndarray:
+    """1 / EI of each element: the step holding the element's midpoint."""
+    mids = (nodes[:-1] + nodes[1:]) / 2
+    out = np.empty(mids.size)
+    for e, m in enumerate(mids):
+        k = next((j for j, (a, b, _) in enumerate(steps) if a <= m <= b), None)
+        if k is None:  # outside every step: the nearest one
+            k = int(np.argmin([min(abs(m - a), abs(m - b)) for a, b, _ in steps]))
+        out[e] = 1.0 / steps[k][2]
+    return out
 
 
 def _element_stiffness(le: float) -> np.ndarray:
@@ -243,10 +290,11 @@ def element_polynomials(model: BeamModel, sol: CaseSolution,
     for e, le in enumerate(model.lengths):
         v1, t1, v2, t2 = sol.u[2 * e : 2 * e + 4]
         q, dq = sol.q[e], sol.dq[e]
+        wq, wdq = (a[e] for a in sol.deflection_loads())
         out.append({
             "V": np.array([dq / 2, q, sol.V0[e]]),
             "M": np.array([dq / 6, q / 2, sol.V0[e], sol.M0[e]]),
-            "w": -_w_up_coefficients(v1, t1, v2, t2, q, dq, le) / EI,
+            "w": -_w_up_coefficients(v1, t1, v2, t2, wq, wdq, le) / EI,
         })
     return out
 
@@ -306,19 +354,24 @@ def extremes(model: BeamModel, sol: CaseSolution, EI: float) -> Extremes:
 
 
 def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
-                  EIs: Sequence[float] | np.ndarray) -> list[Extremes]:
+                  EIs: Sequence[float] | np.ndarray,
+                  elements: tuple[int, int] | None = None) -> list[Extremes]:
     """Extremes of many solutions on one mesh at once (vectorised over solutions and
     elements): moment at element ends and where V = 0, |V| at element ends, deflection
     at element ends and at the real roots of its derivative inside each element.
+    ``elements`` (first, last + 1) limits the search to those elements (a segment).
     """
-    le = model.lengths
-    x0 = model.nodes[:-1]
+    e0, e1 = (0, model.lengths.size) if elements is None else elements
+    le = model.lengths[e0:e1]
+    x0 = model.nodes[e0:e1]
     k, n = len(sols), le.size
-    q = np.stack([s.q for s in sols])
-    dq = np.stack([s.dq for s in sols])
-    V0 = np.stack([s.V0 for s in sols])
-    M0 = np.stack([s.M0 for s in sols])
-    U = np.stack([s.u for s in sols])
+    q = np.stack([s.q[e0:e1] for s in sols])
+    dq = np.stack([s.dq[e0:e1] for s in sols])
+    wq = np.stack([s.deflection_loads()[0][e0:e1] for s in sols])
+    wdq = np.stack([s.deflection_loads()[1][e0:e1] for s in sols])
+    V0 = np.stack([s.V0[e0:e1] for s in sols])
+    M0 = np.stack([s.M0[e0:e1] for s in sols])
+    U = np.stack([s.u[2 * e0 : 2 * e1 + 2] for s in sols])
     EI = np.asarray(EIs, dtype=float).reshape(k, 1)
     le_k = np.tile(le, k)
     # moment: element ends and the roots of V = V0 + q x + dq x^2 / 2 inside the element
@@ -342,7 +395,7 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
                                 axis=-1), np.abs(v_all), -1.0).reshape(k, -1)
     i_v = np.argmax(v, axis=1)
     v1, t1, v2, t2 = U[:, 0:-2:2], U[:, 1:-2:2], U[:, 2::2], U[:, 3::2]
-    w_c = -_w_up_coefficients(v1, t1, v2, t2, q, dq, le) / EI[..., None]
+    w_c = -_w_up_coefficients(v1, t1, v2, t2, wq, wdq, le) / EI[..., None]
     dw = w_c[..., :5] * np.array([5.0, 4.0, 3.0, 2.0, 1.0])
     roots = _real_roots_batched(dw.reshape(k * n, 5), le_k).reshape(k, n, 4)
     xw = np.concatenate([np.zeros((k, n, 1)), np.broadcast_to(le[:, None], (k, n, 1)),
@@ -357,7 +410,7 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
     regions = model.layout.regions()
     element_region = np.array([[n_ for n_, _, _ in regions].index(r) if r in
                                [n_ for n_, _, _ in regions] else -1
-                               for r in model.element_regions])
+                               for r in model.element_regions[e0:e1]])
     pos_w = x0[None, :, None] + xw_safe
     out = []
     xm_flat = (x0[None, :, None] + xm).reshape(k, -1)

@@ -71,6 +71,8 @@ class Check:
         location: where along the member (text) and x, m.
         notes: reminders and assumptions specific to this check.
         fasteners: the fasteners a connection check asks for (bolts, connectors).
+        segment: on a member whose plies stop short of its ends, the segment (index into
+            the analysis's segments) the check was made in; None otherwise.
 
     """
 
@@ -89,6 +91,7 @@ class Check:
     x: float | None = None
     notes: tuple[str, ...] = ()
     fasteners: Fasteners | None = None
+    segment: int | None = None
 
     @property
     def limit_state(self) -> LimitState:
@@ -108,7 +111,13 @@ class Check:
         return bool(self.ratio <= 1.0 + 1e-9)
 
     def to_dict(self) -> dict[str, Any]:
-        """The check as a JSON object (SI)."""
+        """The check as a JSON object (SI); "segment" only on a stepped member."""
+        out = self._dict()
+        if self.segment is not None:
+            out["segment"] = self.segment
+        return out
+
+    def _dict(self) -> dict[str, Any]:
         ratio = self.ratio
         return {
             "id": self.id, "ply": self.ply, "combination": self.combination,

@@ -11,6 +11,7 @@ import numpy as np
 from .. import __version__
 from ..actions.analysis import BeamResult
 from ..actions.beam import Extremes
+from ..design.segmented import SegmentResult
 from ..model.caution import ASSUMPTIONS, CAUTION, FIRE_NOTE
 from ..model.errors import Problem, ProjectError
 from ..model.units import fmt, sig
@@ -165,6 +166,12 @@ def beam_dict(beam: BeamResult, section: Section) -> dict[str, Any]:
     }
 
 
+def segment_dict(seg: SegmentResult) -> dict[str, Any]:
+    """One segment of a stepped member: where it runs, its section and its plies."""
+    return {"index": seg.index, "from": seg.start, "to": seg.end,
+            "section": section_dict(seg.section), "plies": plies_list(seg.section, None)}
+
+
 def check_json(a: Analysis, moment: float | None = None, shear: float | None = None
                ) -> dict[str, Any]:
     """The object printed by ``plystack check --json`` (SI base units)."""
@@ -183,6 +190,8 @@ def check_json(a: Analysis, moment: float | None = None, shear: float | None = N
         }
     if a.beam is not None:
         out["beam"] = beam_dict(a.beam, a.section)
+    if a.segments:
+        out["segments"] = [segment_dict(seg) for seg in a.segments]
     if a.checks:
         out["checks"] = [c.to_dict() for c in a.checks]
         gov = max(a.checks, key=lambda c: c.ratio)

@@ -19,6 +19,7 @@ from ..model.design import DesignSpec
 from ..model.errors import Problem, ProjectError
 from ..model.materials import Material
 from ..model.member import BeamSpec
+from ..model.plies import Ply, validate_extent
 from ..model.project import Alternative, Project
 from .atomic import write_text
 from .design_file import read_design, write_design
@@ -205,6 +206,9 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
             alternatives.append(Alternative(alt["name"], read_plies(
                 alt.get("plies", []), f"{p}.plies", known, problems)))
     problems.extend(_combination_kinds(beam_spec, design))
+    problems.extend(extent_problems(plies, "plies", beam_spec))
+    for i, alt_ in enumerate(alternatives):
+        problems.extend(extent_problems(alt_.plies, f"alternatives[{i}].plies", beam_spec))
     current = data.get("current_alternative")
     if current is not None and not isinstance(current, str):
         problems.append(Problem("current_alternative", "must be text (an alternative's name)"))
@@ -215,6 +219,19 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
                    reference_material=ref, beam=beam_spec, design=design, info=info,
                    alternatives=tuple(alternatives), current_alternative=current,
                    library=lib)
+
+
+def extent_problems(plies: Sequence[Ply], path: str, beam: BeamSpec | None) -> list[Problem]:
+    """Named problems of the plies' "from" / "to" along the member."""
+    out: list[Problem] = []
+    for i, ply in enumerate(plies):
+        p = f"{path}[{i}]"
+        if beam is None:
+            out += [Problem(f"{p}.{k}", "needs a beam (positions along the member)")
+                    for k, v in (("from", ply.start), ("to", ply.end)) if v is not None]
+        else:
+            out += validate_extent(ply, beam.layout.length, p)
+    return out
 
 
 def _read_info(raw_info: Any, problems: list[Problem]) -> dict[str, str]:

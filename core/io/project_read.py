@@ -18,6 +18,8 @@ if TYPE_CHECKING:
     from ..model.member import BeamSpec
 
 PLY_KEYS = ("name", "material", "x", "y", "width", "height")
+#: Keys a ply may have besides PLY_KEYS: its extent along the member.
+PLY_OPTIONAL_KEYS = ("from", "to")
 BEAM_KEYS = frozenset({"spans", "supports", "overhang_left", "overhang_right", "bearing_length",
                        "self_weight", "loads", "combinations", "sustained_live_fraction",
                        "pattern_live_load", "hold_down"})
@@ -141,7 +143,7 @@ def read_plies(raw: Any, path: str, known: Mapping[str, Material],
             continue
         before = len(problems)
         for key in rec:
-            if key not in PLY_KEYS:
+            if key not in PLY_KEYS and key not in PLY_OPTIONAL_KEYS:
                 problems.append(Problem(f"{p}.{key}", "is not a known key of a ply"))
         for key in PLY_KEYS:
             if key not in rec:
@@ -155,10 +157,13 @@ def read_plies(raw: Any, path: str, known: Mapping[str, Material],
                                     "(not in the project's materials nor the library)"))
         dims = {k: _quantity(rec[k], "length", f"{p}.{k}", problems)
                 for k in ("x", "y", "width", "height") if k in rec}
+        ends = {k: _quantity(rec[k], "length", f"{p}.{k}", problems)
+                for k in PLY_OPTIONAL_KEYS if k in rec}
         if len(problems) > before:
             continue
         ply = Ply(str(name), str(mat), float(dims["x"] or 0.0), float(dims["y"] or 0.0),
-                  float(dims["width"] or 0.0), float(dims["height"] or 0.0))
+                  float(dims["width"] or 0.0), float(dims["height"] or 0.0),
+                  start=ends.get("from"), end=ends.get("to"))
         probs = validate_ply(ply, p)
         problems.extend(probs)
         if not probs:

@@ -56,10 +56,19 @@ def _existing_record(m: Material, existing: Existing) -> dict[str, Any]:
 
 def write_plies(plies: tuple[Ply, ...], system: str) -> list[dict[str, Any]]:
     """Plies as file records."""
-    return [{"name": p.name, "material": p.material,
-             "x": exact_text(p.x, "length", system), "y": exact_text(p.y, "length", system),
-             "width": exact_text(p.width, "length", system),
-             "height": exact_text(p.height, "length", system)} for p in plies]
+    out = []
+    for p in plies:
+        rec: dict[str, Any] = {
+            "name": p.name, "material": p.material,
+            "x": exact_text(p.x, "length", system), "y": exact_text(p.y, "length", system),
+            "width": exact_text(p.width, "length", system),
+            "height": exact_text(p.height, "length", system)}
+        if p.start is not None:
+            rec["from"] = exact_text(p.start, "span", system)
+        if p.end is not None:
+            rec["to"] = exact_text(p.end, "span", system)
+        out.append(rec)
+    return out
 
 
 def write_beam(beam: BeamSpec, system: str) -> dict[str, Any]:

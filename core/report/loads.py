@@ -209,8 +209,8 @@ def _diagrams(a: Analysis, beam: BeamResult, u: str, width: float) -> list[Any]:
     sls = [c for c in beam.combinations
            if c.combination.limit_state in ("ASD", "SLS-characteristic", "custom")]
     gov_sls = max(sls or list(beam.combinations), key=lambda c: c.extremes.deflection_max_abs)
-    d = diagram(beam.model, gov.solution, a.section.EI)
-    d_sls = diagram(beam.model, gov_sls.solution, a.section.EI)
+    d = diagram(beam.model, gov.solution, beam.solution_EI)
+    d_sls = diagram(beam.model, gov_sls.solution, beam.solution_EI)
     kx = factor("span", u)
     marks = [x * kx for x in lay.support_positions()]
     xl = f"x from the left end ({unit('span', u)})"

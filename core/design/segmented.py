@@ -1,0 +1,94 @@
+"""Checks of a member whose plies stop short of its ends, segment by segment.
+
+The stress checks of the plies (bending, shear, combined bending and axial stress) are
+made in every segment, with the segment's own section and the actions within the
+segment, both ends included: at a ply's end the neighbouring segment, without that ply,
+is checked under the moment and shear there, so the remaining plies act alone. Checks
+of the whole member (deflection, bearing, uplift, bolts, connectors, vibration) are made
+once, on the whole-member actions; their section is the one with every ply.
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass, replace
+
+from ..actions.analysis import BeamResult, creep_moduli
+from ..model.design import DesignSpec
+from ..model.errors import Problem
+from ..model.project import Project
+from ..section.segments import Segment
+from ..section.transformed import Section, with_moduli
+from .check import Check
+
+#: Checks made in every segment (the plies' stresses); the others are the member's.
+SEGMENT_IDS = frozenset({"bending", "shear", "tension-bending", "compression-bending"})
+
+RunChecks = Callable[[Project, Section, BeamResult, DesignSpec],
+                     tuple[tuple[Check, ...], list[Problem]]]
+
+
+@dataclass(frozen=True, eq=False)
+class SegmentResult:
+    """One segment of a stepped member.
+
+    Attributes:
+        index: its place along the member, 0 at the left.
+        start: m from the left end.
+        end: m.
+        plies: indices of the member's plies acting in it.
+        section: its transformed section.
+        beam: the beam actions, every extreme sought within the segment.
+
+    """
+
+    index: int
+    start: float
+    end: float
+    plies: tuple[int, ...]
+    section: Section
+    beam: BeamResult
+
+
+def segment_results(segments: Sequence[Segment], sections: Sequence[Section],
+                    beam: BeamResult) -> tuple[SegmentResult, ...]:
+    """The segments with their sections and their share of the beam actions (whose
+    stiffness and creep section are the segment's own).
+    """
+    out = []
+    for k, (s, sec, b) in enumerate(zip(segments, sections, beam.segments, strict=True)):
+        creep = with_moduli(sec, creep_moduli(sec, b.creep_factor))
+        combos = tuple(replace(c, EI=sec.EI, EI_creep=creep.EI) for c in b.combinations)
+        own = replace(b, EI=sec.EI, creep_section=creep, combinations=combos)
+        out.append(SegmentResult(k, s.start, s.end, s.plies, sec, own))
+    return tuple(out)
+
+
+def _remap(problem: Problem, plies: tuple[int, ...]) -> Problem:
+    """A segment's warning with its ply index turned into the member's."""
+    m = re.match(r"plies\[(\d+)\]", problem.path)
+    if m is None or int(m.group(1)) >= len(plies):
+        return problem
+    path = f"plies[{plies[int(m.group(1))]}]" + problem.path[m.end():]
+    return replace(problem, path=path)
+
+
+def segmented_checks(project: Project, section: Section, beam: BeamResult,
+                     segments: Sequence[SegmentResult], design: DesignSpec,
+                     run_checks: RunChecks) -> tuple[tuple[Check, ...], list[Problem]]:
+    """Every check of a stepped member (see the module text), each stress check with
+    its segment and its x; warnings once each.
+    """
+    member, warnings = run_checks(project, section, beam, design)
+    checks = [c for c in member if c.id not in SEGMENT_IDS]
+    seen = {(w.path, w.message) for w in warnings}
+    for seg in segments:
+        own, notes = run_checks(project, seg.section, seg.beam, design)
+        checks += [replace(c, segment=seg.index, location=c.location or
+                           f"segment {seg.index + 1}") for c in own if c.id in SEGMENT_IDS]
+        for w in (_remap(w, seg.plies) for w in notes):
+            if (w.path, w.message) not in seen:
+                seen.add((w.path, w.message))
+                warnings.append(w)
+    return tuple(checks), warnings
