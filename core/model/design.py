@@ -42,6 +42,14 @@ class Bolt:
             EN 1993-1-8 Table 3.1, from memory).
         spacing: spacing of bolt locations along the member, m; None: the tool picks the
             largest stock spacing that works.
+        row_heights: heights y of the bolt rows (the section's y, m), given in the file
+            as a list under "rows"; empty: ``rows`` rows placed by the tool.
+        stations: explicit positions of the bolt locations along the member (m from its
+            left end); empty: placed at ``spacing`` from ``end_distance``.
+        stagger: True where neighbouring rows take alternate stations (rows 1, 3, ... at
+            stations 1, 3, ...; rows 2, 4, ... at stations 2, 4, ...).
+        end_distance: from the end of the plate to the first and last station, m; None:
+            the stations are centred on the plate.
 
     """
 
@@ -50,6 +58,15 @@ class Bolt:
     rows: int = 2
     fu: float = 400e6
     spacing: float | None = None
+    row_heights: tuple[float, ...] = ()
+    stations: tuple[float, ...] = ()
+    stagger: bool = False
+    end_distance: float | None = None
+
+    @property
+    def row_count(self) -> int:
+        """Rows of bolts: the given heights, or ``rows``."""
+        return len(self.row_heights) or self.rows
 
 
 @dataclass(frozen=True)

@@ -27,7 +27,7 @@ def label(a: Analysis, c: Check) -> str:
 
 def place(c: Check) -> str:
     """The ply or place a check is about."""
-    if c.id == "bearing":
+    if c.id in ("bearing", "load-transfer"):
         return f"{c.location}: {c.ply}"
     if c.id in ("bolts", "connectors"):
         return c.ply or ""
@@ -35,7 +35,8 @@ def place(c: Check) -> str:
 
 
 def _group_key(c: Check) -> tuple[str, str | None, str]:
-    return (c.id, c.ply, c.location if c.id.startswith(("deflection", "bearing")) else "")
+    return (c.id, c.ply, c.location if c.id.startswith(("deflection", "bearing", "load-transfer"))
+            else "")
 
 
 #: Notes the derivation already writes out (yield modes, plate share, bolt layout).

@@ -27,6 +27,7 @@ from ..model.combination import EN1990_PSI
 from ..pipeline import Analysis
 from ..section.transformed import Section
 from .bolts import bolt_derivation
+from .connections import support_shear_text, transfer_text
 from .handbook import handbook_terms
 from .numbers import NBSP, TIMES, exact, factor_text, num, q, q_den
 
@@ -56,6 +57,7 @@ CLAUSES = {
     ("US", "deflection-long-term"): "NDS 2018 3.5.2",
     ("US", "bolts"): "NDS 2018 12.3.1 and Table 11.3.1",
     ("US", "connectors"): "shear flow V Q / I_t; the user's connector value",
+    ("US", "load-transfer"): "NDS 2018 12.3.1 and Table 11.3.1; transfer zone (common practice)",
     ("EU", "bending"): "EN 1995-1-1 6.1.6; EN 1993-1-1 6.2.1(5) for steel",
     ("EU", "shear"): "EN 1995-1-1 6.1.7; EN 1993-1-1 6.2.6 for steel",
     ("EU", "bearing"): "EN 1995-1-1 6.1.5",
@@ -64,6 +66,7 @@ CLAUSES = {
     ("EU", "deflection-long-term"): "EN 1995-1-1 2.2.3 and 7.2",
     ("EU", "bolts"): "EN 1995-1-1 8.2.3",
     ("EU", "connectors"): "shear flow V Q / I_t; the user's connector value",
+    ("EU", "load-transfer"): "EN 1995-1-1 8.2.3; transfer zone (common practice)",
 }
 
 
@@ -134,8 +137,12 @@ def derive(a: Analysis, c: Check) -> Derivation:
     u = a.project.display_units
     if c.id == "bending":
         where, demand = _bending(a, c, u)
+    elif c.id == "shear" and c.location.startswith("support"):
+        where, demand = support_shear_text(a, c, u, _symbols(a, c)[0])
     elif c.id == "shear":
         where, demand = _shear(a, c, u)
+    elif c.id == "load-transfer":
+        where, demand = transfer_text(a, c, u)
     elif c.id == "bearing":
         where, demand = _bearing(a, c, u)
     elif c.id.startswith("deflection"):
@@ -149,7 +156,7 @@ def derive(a: Analysis, c: Check) -> Derivation:
     else:
         bolt = bolt_derivation(a, c, u)
         return Derivation(bolt.where, bolt.demand, capacity_line(a, c, u), ratio_line(c, u),
-                          bolt.table, len(bolt.where) - 1)
+                          bolt.table, bolt.shared)
     return Derivation(tuple(where), demand, capacity_line(a, c, u), ratio_line(c, u))
 
 
@@ -176,6 +183,8 @@ def _symbols(a: Analysis, c: Check) -> tuple[str, str]:
         return "\u03b4", "\u03b4_allow"
     if c.id == "bolts":
         return "P", ("Z\u2032" if a.design.us else "F_v,Rd")
+    if c.id == "load-transfer":
+        return "P_t", ("n Z\u2032" if a.design.us else "n F_v,Rd")
     if c.id == "connectors":
         return "F", "F_allow"
     i = ply_index(a.section, c.ply.split(" + ")[0] if c.ply else None)
