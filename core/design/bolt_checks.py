@@ -7,13 +7,14 @@ check for every support the plate does not bear on and every point load (see
 from __future__ import annotations
 
 from collections.abc import Callable, Mapping
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 from ..actions.analysis import BeamResult, CombinationResult
 from ..model.caution import CAUTION
 from ..model.design import DesignSpec
 from ..model.units import fmt
 from ..section.transformed import Section
+from .bolt_geometry import geometry_checks, layout_factors
 from .bolt_layout import BoltLayout, layout_of
 from .check import Check, Fasteners, capacity_from
 from .common import STOCK_SPACINGS_SI, STOCK_SPACINGS_US, Joint, plate_share
@@ -41,9 +42,18 @@ class BoltValue:
     notes: tuple[str, ...]
     capacity_symbol: str
 
-    def capacity(self, combo: CombinationResult) -> float:
+    def adjusted(self, combo: CombinationResult,
+                 layout_factors: Mapping[str, float]) -> dict[str, float]:
+        """The factors under a combination with those the layout sets (C_g, C_Delta)."""
+        f = self.factors(combo)
+        f.update({k: v for k, v in layout_factors.items() if k in f})
+        return f
+
+    def capacity(self, combo: CombinationResult,
+                 layout_factors: Mapping[str, float] | None = None) -> float:
         """The adjusted value of one bolt under a combination, N."""
-        return capacity_from(self.reference[1], self.factors(combo), self.partial)
+        return capacity_from(self.reference[1], self.adjusted(combo, layout_factors or {}),
+                             self.partial)
 
 
 def plate_layout(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
@@ -64,8 +74,9 @@ def plate_layout(section: Section, beam: BeamResult, design: DesignSpec, joint: 
     layout = layout_of(section, joint, bolt, extent, allowed[0], design.us)
     for s in allowed:
         layout = layout_of(section, joint, bolt, extent, s, design.us)
-        if all(_worst_per_bolt(section, beam, c, design, layout, share) <= value.capacity(c)
-               for c in combos):
+        geo = layout_factors(section, joint, layout, design, L)[0]
+        if all(_worst_per_bolt(section, beam, c, design, layout, share)
+               <= value.capacity(c, geo) for c in combos):
             return layout
     return layout
 
@@ -98,9 +109,13 @@ def plate_bolt_checks(section: Section, beam: BeamResult, design: DesignSpec, jo
     steel = section.plies[joint.steel].name
     fasteners = Fasteners(locations=len(layout.stations), rows=len(layout.rows),
                           count=layout.count, spacing=layout.spacing)
-    out: list[Check] = []
+    L = beam.model.layout.length
+    geo, geo_sources = layout_factors(section, joint, layout, design, L)
+    value = replace(value, sources={**value.sources, **{k: v for k, v in geo_sources.items()
+                                                         if k in value.sources}})
+    out: list[Check] = geometry_checks(section, joint, layout, design, L, system)
     for combo in beam.strength():
-        f = value.factors(combo)
+        f = value.adjusted(combo, geo)
         items = transfers(section, beam, combo, design, layout, share)
         gov = governing_station(station_demands(section, beam, combo, layout, share, items))
         source = ("the transfers of the zones it is in" if gov.from_transfers >= gov.net

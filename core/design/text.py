@@ -8,7 +8,8 @@ from .check import Check, governing
 
 QUANTITY_KIND = {"stress": "stress", "deflection": "deflection", "force": "force",
                  "shear_flow": "shear_flow", "ratio": "ratio", "frequency": "frequency",
-                 "compliance": "compliance", "velocity_response": "velocity_response"}
+                 "compliance": "compliance", "velocity_response": "velocity_response",
+                 "length": "length"}
 
 
 def governing_per_group(checks: tuple[Check, ...] | list[Check]) -> list[Check]:
@@ -45,7 +46,8 @@ def checks_text(checks: tuple[Check, ...], system: str, verdict: str | None = No
         verdict = "OK" if all(c.ok for c in checks) else "NOT OK"
     if gov is not None:
         lines.append("")
-        lines.append(f"Governing: {gov.id} in {gov.ply or gov.location} under {gov.combination},"
+        lines.append(f"Governing: {gov.id} in {gov.ply or gov.location} under "
+                     f"{gov.combination or 'the layout'},"
                      f" ratio {gov.ratio:.3f}. Verdict: {verdict}")
     else:
         lines.append(f"Verdict: {verdict}")

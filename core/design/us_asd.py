@@ -15,6 +15,7 @@ import numpy as np
 from ..actions.analysis import BeamResult
 from ..codes import aisc, nds
 from ..codes.dowels import Fe_perpendicular, Fe_steel, nds_double_shear, nds_single_shear
+from ..codes.nds_fasteners import C_M_bolts
 from ..model.design import DesignSpec
 from ..model.errors import MissingCheck, Problem
 from ..model.project import Project
@@ -287,7 +288,7 @@ def bolt_value(section: Section, design: DesignSpec, jt: Joint, system: str,
         modes = nds_single_shear(D, thick[0], Fe_w, steel.width, Fe_s, bolt.Fyb, 90.0)
         kind = "single shear, steel on one face"
     wood = section.materials[timbers[0]]
-    base = {"C_M": 0.7 if design.wet_service else 1.0,
+    base = {"C_M": C_M_bolts(design.wet_service, design.fabricated_wet, bolt.row_count == 1),
             "C_t": 1.0 if design.temperature == "normal" else (
                 (0.7 if design.wet_service else 0.8) if design.temperature == "up-to-125F"
                 else (0.5 if design.wet_service else 0.7)),
@@ -295,7 +296,8 @@ def bolt_value(section: Section, design: DesignSpec, jt: Joint, system: str,
     mode_text = ", ".join(f"{m} {fmt(v, 'force', system)}" for m, v in modes.modes.items())
     src = {"Z": f"NDS 2018 12.3.1 yield limit equations, {kind}; G = {G:g} "
            f"({wood.source_of('G')}); Fyb from the user; Fe steel = 1.5 Fu (from memory)",
-           "C_D": S_TABLE, "C_M": "NDS 2018 Table 11.3.3 (from memory)",
+           "C_D": S_TABLE, "C_M": "NDS 2018 Table 11.3.3 (from memory): 0.7 wet in service, 0.4 "
+           "fabricated wet and used dry (not for a single row), else 1.0",
            "C_t": "NDS 2018 Table 11.3.4 (from memory)",
            "C_g": "group action taken as 1.0 (bolts staggered, few per row)",
            "C_Delta": "full edge, end and spacing distances assumed (see notes)"}

@@ -33,6 +33,7 @@ DESIGN_FIELDS = (
     FieldSpec("stability_width", "choice", choices=("ply", "member")),
     FieldSpec("plate_unbraced_length", "positive", dimension="length", write_kind="span"),
     FieldSpec("load_level", "choice", choices=("top", "centroid", "bottom")),
+    FieldSpec("fabricated_wet", "flag"),
 )
 CONNECTOR_FIELDS = (
     FieldSpec("type", "choice", choices=("screw", "bolt", "nail"), always=True),

@@ -107,6 +107,8 @@ class DesignSpec:
     Attributes:
         basis: "US-ASD" or "EU-LSD".
         wet_service: NDS C_M for wet service; K_cr 2.0 instead of 1.5.
+        fabricated_wet: the timber is fabricated wet and used dry (NDS 2018 Table 11.3.3
+            C_M = 0.4 for bolt groups, from memory).
         temperature: NDS Table 2.3.3 range for C_t.
         repetitive_member: NDS 4.3.9 C_r = 1.15.
         incised: NDS 4.3.8 C_i.
@@ -164,6 +166,7 @@ class DesignSpec:
     stability_width: str = "ply"
     plate_unbraced_length: float | None = None
     load_level: str = "top"
+    fabricated_wet: bool = False
 
     @property
     def us(self) -> bool:

@@ -154,3 +154,21 @@ def support_shear_text(a: Analysis, c: Check, u: str, sym: str) -> tuple[list[st
               f"({q(s.I_transformed, 'second_moment', u, IN)} {TIMES} "
               f"{q(b, 'length', u, IN)}) = {q(c.demand, 'stress', u)}")
     return where, demand
+
+
+def geometry_text(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
+    """A geometry rule of a layout: required = multiple x D (or the outer rows' spread)."""
+    D = a.design.bolt.diameter
+    where = [c.sources.get("required", ""), f"at x = {q(c.x or 0.0, 'span', u)}"]
+    if c.reference[0] == "limit":
+        _jt, layout, _share = plate_setup(a, c)
+        top, bottom = max(layout.rows), min(layout.rows)
+        if not math.isclose(top - bottom, c.demand, rel_tol=1e-9, abs_tol=1e-12):
+            raise ValueError("the sheet's spread does not reproduce the check's")
+        demand = (f"spread = y_top row \u2212 y_bottom row = {q(top, 'length', u, IN)} \u2212 "
+                  f"{q(bottom, 'length', u, IN)} = {q(c.demand, 'length', u)}")
+        return where, demand
+    multiple = c.demand / D
+    demand = (f"required = k D = {num(multiple, IN)} {TIMES} {q(D, 'length', u, IN)} = "
+              f"{q(c.demand, 'length', u)}")
+    return where, demand

@@ -27,7 +27,7 @@ from ..model.combination import EN1990_PSI
 from ..pipeline import Analysis
 from ..section.transformed import Section
 from .bolts import bolt_derivation
-from .connections import support_shear_text, transfer_text
+from .connections import geometry_text, support_shear_text, transfer_text
 from .handbook import handbook_terms
 from .numbers import NBSP, TIMES, exact, factor_text, num, q, q_den
 
@@ -143,6 +143,8 @@ def derive(a: Analysis, c: Check) -> Derivation:
         where, demand = _shear(a, c, u)
     elif c.id == "load-transfer":
         where, demand = transfer_text(a, c, u)
+    elif c.id in ("bolt-spacing", "bolt-edge", "bolt-end"):
+        where, demand = geometry_text(a, c, u)
     elif c.id == "bearing":
         where, demand = _bearing(a, c, u)
     elif c.id.startswith("deflection"):
@@ -185,6 +187,8 @@ def _symbols(a: Analysis, c: Check) -> tuple[str, str]:
         return "P", ("Z\u2032" if a.design.us else "F_v,Rd")
     if c.id == "load-transfer":
         return "P_t", ("n Z\u2032" if a.design.us else "n F_v,Rd")
+    if c.id in ("bolt-spacing", "bolt-edge", "bolt-end"):
+        return ("spread", "limit") if c.reference[0] == "limit" else ("required", "provided")
     if c.id == "connectors":
         return "F", "F_allow"
     i = ply_index(a.section, c.ply.split(" + ")[0] if c.ply else None)

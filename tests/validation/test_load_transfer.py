@@ -21,6 +21,7 @@ import pytest
 from plystack.core.design.bolt_layout import default_rows, placed_stations
 from plystack.core.io.project_file import from_dict, load, to_dict
 from plystack.core.pipeline import run
+from tests.validation.test_bolt_geometry import _C_g_by_hand
 
 IN, PSI, LBF, FT = 0.0254, 6894.757293168361, 4.4482216152605, 0.3048
 DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo"
@@ -55,6 +56,13 @@ def flitch(design=None, loads=None, span="12 ft"):
                    **(design or {})}}
 
 
+def porch_C_g():
+    """NDS 2018 11.3.6 for the two bolts at a station (rows at 2.25 and 7.0 in, 4.75 in
+    apart): A_m = 0.375 x 24 in, A_s = 2 x 1.5 x 24 in (thickness x station spacing),
+    gamma = 270,000 x 0.5^1.5 lbf/in (see test_bolt_geometry)."""
+    return _C_g_by_hand(2, E_S * 0.375 * 24, E_W * 3.0 * 24, 4.75, 270000 * 0.5**1.5)
+
+
 def checks(project, cid, combo="D + L"):
     return [c for c in run(project).checks if c.id == cid and c.combination == combo]
 
@@ -73,7 +81,8 @@ def test_end_reaction_goes_through_the_end_bolt_pair():
                     if c.location == "support 1")
     assert support1.demand / LBF == pytest.approx(ALPHA * R1, rel=1e-9)
     assert support1.factors["n"] == 2
-    assert support1.capacity / LBF == pytest.approx(2 * Z, rel=5e-5)
+    assert support1.factors["C_g"] == pytest.approx(porch_C_g(), rel=1e-9)
+    assert support1.capacity / LBF == pytest.approx(2 * Z * porch_C_g(), rel=5e-5)
     bolts = checks(from_dict(flitch()), "bolts")[0]
     assert bolts.demand / LBF == pytest.approx(ALPHA * R1 / 2, rel=1e-9)
     assert bolts.x / IN == pytest.approx(12.0, rel=1e-12)
@@ -86,7 +95,7 @@ def test_point_load_transfer_zone_and_demand():
              if c.location.startswith("point load"))
     assert c.demand / LBF == pytest.approx(ALPHA * 300, rel=1e-9)
     assert c.factors["n"] == 4
-    assert c.capacity / LBF == pytest.approx(4 * Z, rel=5e-5)
+    assert c.capacity / LBF == pytest.approx(4 * Z * porch_C_g(), rel=5e-5)
 
 
 def test_no_transfer_at_supports_where_the_plate_bears():
