@@ -18,6 +18,7 @@ from .bolt_geometry import geometry_checks, layout_factors
 from .bolt_layout import BoltLayout, layout_of
 from .check import Check, Fasteners, capacity_from
 from .common import STOCK_SPACINGS_SI, STOCK_SPACINGS_US, Joint, plate_share
+from .net_section import net_checks
 from .transfer import StationDemand, Transfer, plate_extent, station_demands, transfers
 
 
@@ -101,8 +102,10 @@ def governing_station(demands: list[StationDemand]) -> StationDemand:
 
 
 def plate_bolt_checks(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
-                      value: BoltValue, system: str) -> list[Check]:
-    """The ``bolts`` and ``load-transfer`` checks of one plate."""
+                      value: BoltValue, system: str, gross: list[Check]) -> list[Check]:
+    """The ``bolts`` and ``load-transfer`` checks of one plate, the geometry of its layout
+    and the bending on the net section at its holes (from the ``gross`` bending checks).
+    """
     combos = beam.strength() or beam.combinations
     layout = plate_layout(section, beam, design, joint, value, combos, system)
     share = plate_share(section, joint.steel)
@@ -114,6 +117,7 @@ def plate_bolt_checks(section: Section, beam: BeamResult, design: DesignSpec, jo
     value = replace(value, sources={**value.sources, **{k: v for k, v in geo_sources.items()
                                                          if k in value.sources}})
     out: list[Check] = geometry_checks(section, joint, layout, design, L, system)
+    out += net_checks(section, joint, layout, design, gross)
     for combo in beam.strength():
         f = value.adjusted(combo, geo)
         items = transfers(section, beam, combo, design, layout, share)

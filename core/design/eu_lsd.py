@@ -154,7 +154,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
                                          "checked"))
     checks += _bearing(section, beam, design, uls, warnings)
     checks += _deflections(section, beam, design, warnings)
-    checks += _bolts(section, beam, design, uls, project.display_units, warnings)
+    checks += _bolts(section, beam, design, uls, project.display_units, warnings, checks)
     checks += connector_checks(section, beam, design, project.display_units, warnings)
     checks += uplift_checks(beam, project.display_units)
     warnings += pattern_notes(beam)
@@ -251,14 +251,14 @@ def _deflections(section: Section, beam: BeamResult, design: DesignSpec,
 
 
 def _bolts(section: Section, beam: BeamResult, design: DesignSpec, uls: list,  # type: ignore[type-arg]
-           system: str, warnings: list[Problem]) -> list[Check]:
+           system: str, warnings: list[Problem], gross: list[Check]) -> list[Check]:
     if not uls:
         return []
     out = []
     for jt in side_by_side_joints(section):
         value = bolt_value(section, design, jt, system, warnings)
         if value is not None:
-            out += plate_bolt_checks(section, beam, design, jt, value, system)
+            out += plate_bolt_checks(section, beam, design, jt, value, system, gross)
     return out
 
 

@@ -102,7 +102,7 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
                                          "checked"))
     checks.extend(_bearing(project, section, beam, design, warnings))
     checks.extend(_deflections(beam, section, design))
-    checks.extend(_bolts(section, beam, design, project.display_units, warnings))
+    checks.extend(_bolts(section, beam, design, project.display_units, warnings, checks))
     checks.extend(connector_checks(section, beam, design, project.display_units, warnings))
     checks += uplift_checks(beam, project.display_units)
     warnings += pattern_notes(beam)
@@ -251,12 +251,12 @@ def _deflections(beam: BeamResult, section: Section, design: DesignSpec) -> list
 
 
 def _bolts(section: Section, beam: BeamResult, design: DesignSpec, system: str,
-           warnings: list[Problem]) -> list[Check]:
+           warnings: list[Problem], gross: list[Check]) -> list[Check]:
     out = []
     for jt in side_by_side_joints(section):
         value = bolt_value(section, design, jt, system, warnings)
         if value is not None:
-            out += plate_bolt_checks(section, beam, design, jt, value, system)
+            out += plate_bolt_checks(section, beam, design, jt, value, system, gross)
     return out
 
 

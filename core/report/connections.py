@@ -18,6 +18,7 @@ from ..design.bolt_checks import plate_layout
 from ..design.bolt_layout import BoltLayout
 from ..design.check import Check
 from ..design.common import Joint, plate_share, side_by_side_joints
+from ..design.net_section import hole_diameter, modulus_loss, net_section
 from ..design.transfer import (
     StationDemand,
     Transfer,
@@ -39,11 +40,13 @@ def _combo(a: Analysis, c: Check) -> CombinationResult:
     return next(cb for cb in a.beam.combinations if cb.name == c.combination)
 
 
-def plate_setup(a: Analysis, c: Check) -> tuple[Joint, BoltLayout, float]:
+def plate_setup(a: Analysis, c: Check, plate: str | None = None) -> tuple[Joint, BoltLayout,
+                                                                          float]:
     """The joint, the layout and alpha of the plate a bolt check is about."""
     s, beam = a.section, a.beam
     assert beam is not None
-    jt = next(j for j in side_by_side_joints(s) if s.plies[j.steel].name == c.ply)
+    name = plate or c.ply
+    jt = next(j for j in side_by_side_joints(s) if s.plies[j.steel].name == name)
     unit = a.project.display_units
     driver = us_asd if a.design.us else eu_lsd
     warnings: list[Problem] = []
@@ -171,4 +174,31 @@ def geometry_text(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     multiple = c.demand / D
     demand = (f"required = k D = {num(multiple, IN)} {TIMES} {q(D, 'length', u, IN)} = "
               f"{q(c.demand, 'length', u)}")
+    return where, demand
+
+
+def net_text(a: Analysis, c: Check, u: str, sym: str) -> tuple[list[str], str]:
+    """Bending on the net section: the gross demand times the loss of section modulus."""
+    station, _, plate = c.location.partition(" of ")
+    jt, layout, _share = plate_setup(a, c, plate)
+    k = int(station.split()[-1]) - 1
+    net = net_section(a.section, jt, layout, k, hole_diameter(a.design))
+    i = next(j for j, p in enumerate(a.section.plies) if p.name == c.ply)
+    loss = modulus_loss(a.section, i, net)
+    gross = next(g for g in a.checks if g.id == "bending" and g.ply == c.ply
+                 and g.combination == c.combination)
+    if not math.isclose(gross.demand * loss, c.demand, rel_tol=1e-9):
+        raise ValueError("the sheet's net section does not reproduce the check's demand")
+    holes = ", ".join(q(y, "length", u) for y in net.holes)
+    where = [f"Holes of {plate} at station {k + 1} (x = {q(layout.stations[k], 'span', u)}): "
+             f"diameter {q(hole_diameter(a.design), 'length', u, IN)} at y = {holes}, through "
+             "the plate and its timbers; taken at the largest moment (conservative)",
+             f"Net section: I_t,net = {q(net.I_t, 'second_moment', u, IN)}, neutral axis y = "
+             f"{q(net.y_na, 'length', u, IN)}; (c\u2032 / I_t,net) / (c / I_t) = "
+             f"{num(loss, IN)} for {c.ply}",
+             f"Gross demand {q(gross.demand, 'stress', u, IN)}: the bending check of {c.ply} "
+             f"under {c.combination}"]
+    demand = (f"{sym}_net = {sym} (c\u2032 / I_t,net) / (c / I_t) = "
+              f"{q(gross.demand, 'stress', u, IN + 2)} {TIMES} {num(loss, IN + 2)} = "
+              f"{q(c.demand, 'stress', u)}")
     return where, demand

@@ -217,3 +217,37 @@ def test_eu_transfer_uses_the_design_value_of_the_zone():
     assert c.demand == pytest.approx(jt_share * float(combo.reactions_max[k]), rel=1e-9)
     assert c.capacity == pytest.approx(c.factors["n"] * c.factors["k_mod"] * c.reference[1]
                                        / 1.3, rel=1e-12)
+
+
+def test_bending_on_the_net_section_at_the_holes_by_hand():
+    """Holes 1/2 + 1/16 = 9/16 in (NDS 2018 12.1.3.2, from memory) at y = 2.25 and 7.0 in
+    through both timbers and the plate (rows of the porch layout). Transformed to DF-L
+    (n = 29,000 / 1,600 for the plate): gross A_t, first and second moments about y = 0,
+    less the holes; the timber's stress grows by (c' / I_net) / (c / I_t)."""
+    n = E_S / E_W
+    dh = 9 / 16
+    A = 2 * 1.5 * 9.25 + n * 0.375 * 8.75
+    S1 = 2 * 1.5 * 9.25 * 4.625 + n * 0.375 * 8.75 * 4.625
+    S2 = (2 * (1.5 * 9.25**3 / 12 + 1.5 * 9.25 * 4.625**2)
+          + n * (0.375 * 8.75**3 / 12 + 0.375 * 8.75 * 4.625**2))
+    I_gross = S2 - S1**2 / A
+    width = 2 * 1.5 + n * 0.375  # transformed width the holes take out
+    for y in (2.25, 7.0):
+        A -= width * dh
+        S1 -= width * dh * y
+        S2 -= width * (dh * y * y + dh**3 / 12)
+    y_na = S1 / A
+    I_net = S2 - S1 * y_na
+    loss = (max(9.25 - y_na, y_na) / I_net) / (4.625 / I_gross)
+    a = run(from_dict(flitch()))
+    gross = next(c for c in a.checks if c.id == "bending" and c.ply == "L"
+                 and c.combination == "D + L")
+    net = next(c for c in a.checks if c.id == "bending-net" and c.ply == "L"
+               and c.combination == "D + L")
+    assert a.section.I_transformed / IN**4 == pytest.approx(I_gross, rel=1e-12)
+    assert net.demand == pytest.approx(gross.demand * loss, rel=1e-9)
+    assert net.capacity == pytest.approx(gross.capacity, rel=1e-12)
+    plate = next(c for c in a.checks if c.id == "bending-net" and c.ply == "P"
+                 and c.combination == "D + L")
+    # A36: F_u A_fn = 58 x (4.375 - 0.5625) x 0.375 > F_y A_fg = 36 x 4.375 x 0.375: F13.1 1.0
+    assert plate.factors["F13.1"] == 1.0
