@@ -216,7 +216,8 @@ class ResultsPanel(QWidget):
         if more > 0:
             missing += f"\n  and {more} more (see the warnings)"
         self.verdict.setText(f"{overall} \u2014 governing: {gov.id} in "
-                             f"{gov.ply or gov.location}, {gov.combination}, ratio {ratio}"
+                             f"{gov.ply or gov.location}, {gov.combination or 'the layout'}, "
+                             f"ratio {ratio}"
                              + missing)
         self.verdict.setStyleSheet("font-weight: bold; font-size: 13px; padding: 4px; color: "
                                    + verdict_colour(overall).name() + ";")

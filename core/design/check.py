@@ -15,10 +15,11 @@ from typing import Any, Literal
 CheckId = Literal["bending", "shear", "bearing", "deflection-live", "deflection-total",
                   "deflection-long-term", "bolts", "connectors", "uplift", "tension-bending",
                   "compression-bending", "vibration-frequency", "vibration-stiffness",
-                  "vibration-velocity"]
+                  "vibration-velocity", "load-transfer", "bolt-spacing", "bolt-edge",
+                  "bolt-end", "bending-net", "splitting"]
 #: What a check's demand and capacity measure (selects the display unit).
 Quantity = Literal["stress", "deflection", "force", "shear_flow", "ratio", "frequency",
-                   "compliance", "velocity_response"]
+                   "compliance", "velocity_response", "length"]
 #: The limit state a check belongs to.
 LimitState = Literal["strength", "serviceability"]
 SERVICEABILITY_IDS = frozenset({"deflection-live", "deflection-total", "deflection-long-term",

@@ -23,25 +23,21 @@ from ..codes.dowels import (
     en_thick_steel_single,
     en_thin_steel_single,
 )
-from ..model.caution import CAUTION
 from ..model.design import DesignSpec
 from ..model.errors import MissingCheck, Problem
 from ..model.project import Project
 from ..model.units import fmt
 from ..section.transformed import Section
 from .bearing import eu_bearing
-from .check import Check, Fasteners, capacity_from
+from .bolt_checks import BoltValue, plate_bolt_checks
+from .check import Check, capacity_from
 from .common import (
     EDGE_END_REMINDERS,
-    STOCK_SPACINGS_SI,
-    STOCK_SPACINGS_US,
     Joint,
     apply_overrides,
     connector_checks,
     deflection_checks,
     pattern_notes,
-    pick_spacing,
-    plate_share,
     side_by_side_joints,
     unit_shear_stress,
     uplift_checks,
@@ -51,6 +47,7 @@ from .eu_timber import bending_check as eu_bending
 from .eu_timber import eu_duration as _eu_duration
 from .eu_timber import interaction_check as eu_interaction
 from .plates import eu_plate_chi, plate_bracing
+from .transfer import support_shear_checks
 
 S_KMOD = "EN 1995-1-1 Table 3.1 (from memory)"
 S_GM = "EN 1995-1-1 Table 2.3 (from memory)"
@@ -93,7 +90,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
                 sv = {"fv_k": mat.source_of("fv_k"), "k_mod": S_KMOD, "gamma_M": S_GM,
                       "k_cr": "EN 1995-1-1 6.1.7(2), b_ef = k_cr b (from memory)"}
                 apply_overrides(fvf, sv, design, ply.name)
-                checks.append(Check(
+                checks.append(sh := Check(
                     id="shear",
                     ply=ply.name,
                     combination=combo.name,
@@ -107,6 +104,8 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
                     equation="tau_d <= k_mod k_cr f_v,k / gamma_M",
                     location="",
                     x=combo.extremes.x_V_max_abs))
+                checks += support_shear_checks(section, beam, combo, design, i, sh,
+                                               project.display_units)
         elif mat.kind == "steel":
             fy = mat.value("Fy")
             if fy is None:
@@ -159,7 +158,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
                                          "checked"))
     checks += eu_bearing(section, beam, design, uls, warnings)
     checks += _deflections(section, beam, design, warnings)
-    checks += _bolts(section, beam, design, uls, project.display_units)
+    checks += _bolts(section, beam, design, uls, project.display_units, warnings, checks)
     checks += connector_checks(section, beam, design, project.display_units, warnings)
     checks += uplift_checks(beam, project.display_units)
     warnings += pattern_notes(beam)
@@ -201,75 +200,62 @@ def _deflections(section: Section, beam: BeamResult, design: DesignSpec,
 
 
 def _bolts(section: Section, beam: BeamResult, design: DesignSpec, uls: list,  # type: ignore[type-arg]
-           system: str) -> list[Check]:
-    joints = side_by_side_joints(section)
-    if not joints or not uls:
+           system: str, warnings: list[Problem], gross: list[Check]) -> list[Check]:
+    if not uls:
         return []
+    out = []
+    for jt in side_by_side_joints(section):
+        value = bolt_value(section, design, jt, system, warnings)
+        if value is not None:
+            out += plate_bolt_checks(section, beam, design, jt, value, system, gross)
+    return out
+
+
+def bolt_value(section: Section, design: DesignSpec, jt: Joint, system: str,
+                warnings: list[Problem]) -> BoltValue | None:
+    """F_v,Rk of one bolt of a plate (EN 1995-1-1 8.2.3) with k_mod and gamma_M; None,
+    with a named missing check, where a timber beside it has no rho_k.
+    """
     bolt = design.bolt
     d = bolt.diameter
-    L = beam.model.layout.length
-    stock = STOCK_SPACINGS_US if system == "US" else STOCK_SPACINGS_SI
+    steel = section.plies[jt.steel]
+    rhos = [section.materials[j].value("rho_k") for j in jt.timbers]
+    if any(r is None for r in rhos):
+        warnings.append(MissingCheck(f"plies[{jt.steel}].material", "a timber beside "
+                                     f"{steel.name} has no characteristic density rho_k: its "
+                                     "bolts are not checked (EN 1995-1-1 8.5.1 needs it)"))
+        return None
     My = en_M_y(bolt.fu, d)
-    out = []
-    for jt in joints:
-        steel = section.plies[jt.steel]
-        rhos = [section.materials[j].value("rho_k") for j in jt.timbers]
-        if any(r is None for r in rhos):
-            continue
-        rho = min(r for r in rhos if r is not None)
-        fh = en_f_h_k(rho, d, 90.0)
-        t1 = min(section.plies[j].width for j in jt.timbers)
-        if jt.steel_is_main:
-            modes = en_steel_centre(fh, t1, d, My)
-            planes = 2
-            kind = "steel plate as central member, (8.11)"
-            Fv_Rk = modes.value * planes
-            mode_text = (", ".join(f"mode ({m}) {fmt(v, 'force', system)} per plane"
-                                   for m, v in modes.modes.items())
-                         + f"; governing ({modes.governing}).")
-        else:
-            # t1 is the timber member's thickness; the plate's thickness sets the rule
-            value, rule = en_steel_single(fh, t1, d, My, steel.width)
-            planes = 1
-            kind = f"steel plate on one face, single shear, {rule}"
-            Fv_Rk = value
-            thin_m = en_thin_steel_single(fh, t1, d, My)
-            thick_m = en_thick_steel_single(fh, t1, d, My)
-            mode_text = ("thin plate (8.9): " + ", ".join(
-                f"({m}) {fmt(v, 'force', system)}" for m, v in thin_m.modes.items())
-                + "; thick plate (8.10): " + ", ".join(
-                f"({m}) {fmt(v, 'force', system)}" for m, v in thick_m.modes.items())
-                + f"; F_v,Rk {fmt(value, 'force', system)} ({rule}), t1 = timber thickness.")
-        share = plate_share(section, jt.steel)
-        g = {"gamma_M": ec5.GAMMA_M_CONNECTION}
-        worst = max(sum(float(r) for r in c.solution.reactions) * share /
-                    ec5.k_mod(_eu_duration(c.duration), design.service_class) for c in uls)
-        s = pick_spacing(worst / L, bolt.rows * Fv_Rk / g["gamma_M"], bolt.spacing, stock, 4 * d)
-        n_loc = max(2, math.floor(L / s + 1e-9))
-        for combo in uls:
-            W = sum(float(r) for r in combo.solution.reactions)
-            f = {"k_mod": ec5.k_mod(_eu_duration(combo.duration), design.service_class)}
-            out.append(Check(
-                id="bolts",
-                ply=steel.name,
-                combination=combo.name,
-                demand=abs(W) * share / (n_loc * bolt.rows),
-                capacity=capacity_from(Fv_Rk, f, g),
-                quantity="force",
-                reference=("F_v,Rk", Fv_Rk),
-                factors=f,
-                partial_factors=g,
-                sources={"F_v,Rk": f"EN 1995-1-1 8.2.3 {kind}, f_h,90,k (8.32)-(8.33), "
-                         "M_y,Rk (8.30), rope effect left out (from memory)", "k_mod": S_KMOD,
+    rho = min(r for r in rhos if r is not None)
+    fh = en_f_h_k(rho, d, 90.0)
+    t1 = min(section.plies[j].width for j in jt.timbers)
+    if jt.steel_is_main:
+        modes = en_steel_centre(fh, t1, d, My)
+        kind = "steel plate as central member, (8.11)"
+        Fv_Rk = modes.value * 2
+        mode_text = (", ".join(f"mode ({m}) {fmt(v, 'force', system)} per plane"
+                               for m, v in modes.modes.items())
+                     + f"; governing ({modes.governing}).")
+    else:
+        # t1 is the timber member's thickness; the plate's thickness sets the rule
+        value, rule = en_steel_single(fh, t1, d, My, steel.width)
+        kind = f"steel plate on one face, single shear, {rule}"
+        Fv_Rk = value
+        thin_m = en_thin_steel_single(fh, t1, d, My)
+        thick_m = en_thick_steel_single(fh, t1, d, My)
+        mode_text = ("thin plate (8.9): " + ", ".join(
+            f"({m}) {fmt(v, 'force', system)}" for m, v in thin_m.modes.items())
+            + "; thick plate (8.10): " + ", ".join(
+            f"({m}) {fmt(v, 'force', system)}" for m, v in thick_m.modes.items())
+            + f"; F_v,Rk {fmt(value, 'force', system)} ({rule}), t1 = timber thickness.")
+    sc = design.service_class
+    return BoltValue(
+        reference=("F_v,Rk", Fv_Rk),
+        factors=lambda combo: {"k_mod": ec5.k_mod(_eu_duration(combo.duration), sc)},
+        partial={"gamma_M": ec5.GAMMA_M_CONNECTION},
+        sources={"F_v,Rk": f"EN 1995-1-1 8.2.3 {kind}, f_h,90,k (8.32)-(8.33), M_y,Rk (8.30), "
+                 "rope effect left out (from memory)", "k_mod": S_KMOD,
                  "gamma_M": "EN 1995-1-1 Table 2.3, connections (from memory)"},
-                equation="load per bolt <= k_mod F_v,Rk / gamma_M",
-                location=f"one bolt location every {fmt(s, 'length', system, 3)} "
-                f"({n_loc} locations, {bolt.rows} per location)",
-                fasteners=Fasteners(locations=n_loc, rows=bolt.rows, count=n_loc * bolt.rows,
-                                    spacing=s),
-                x=None,
-                notes=(mode_text,
-                 f"Plate's share of the load E_p I_p / EI = {share:.3f}.",
-                 "Spacing and distances per EN 1995-1-1 Table 8.4 (a1 >= 4d, a3 >= 4d, "
-                 "loaded edge a4,t >= 4d).", EDGE_END_REMINDERS[1], CAUTION)))
-    return out
+        notes=(mode_text, "Spacing and distances per EN 1995-1-1 Table 8.4 (a1 >= 4d, "
+               "a3 >= 4d, loaded edge a4,t >= 4d).", EDGE_END_REMINDERS[1]),
+        capacity_symbol="F_v,Rd")

@@ -85,8 +85,12 @@ def segmented_checks(project: Project, section: Section, beam: BeamResult,
     seen = {(w.path, w.message) for w in warnings}
     for seg in segments:
         own, notes = run_checks(project, seg.section, seg.beam, design)
+        tol = 1e-9 * max(seg.end, 1.0)
+        # a check placed outside the segment (the shear beside a support that this
+        # segment does not reach) belongs to the segment that holds it
         checks += [replace(c, segment=seg.index, location=c.location or
-                           f"segment {seg.index + 1}") for c in own if c.id in SEGMENT_IDS]
+                           f"segment {seg.index + 1}") for c in own if c.id in SEGMENT_IDS
+                   and (c.x is None or seg.start - tol <= c.x <= seg.end + tol)]
         for w in (_remap(w, seg.plies) for w in notes):
             if (w.path, w.message) not in seen:
                 seen.add((w.path, w.message))

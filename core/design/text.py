@@ -8,14 +8,16 @@ from .check import Check, governing
 
 QUANTITY_KIND = {"stress": "stress", "deflection": "deflection", "force": "force",
                  "shear_flow": "shear_flow", "ratio": "ratio", "frequency": "frequency",
-                 "compliance": "compliance", "velocity_response": "velocity_response"}
+                 "compliance": "compliance", "velocity_response": "velocity_response",
+                 "length": "length"}
 
 
 def governing_per_group(checks: tuple[Check, ...] | list[Check]) -> list[Check]:
     """For each (id, ply, location), the check with the highest ratio, highest first."""
     best: dict[tuple[str, str | None, str], Check] = {}
     for c in checks:
-        key = (c.id, c.ply, c.location if c.id.startswith(("deflection", "bearing")) else "")
+        by_place = c.id.startswith(("deflection", "bearing", "load-transfer"))
+        key = (c.id, c.ply, c.location if by_place else "")
         if key not in best or c.ratio > best[key].ratio:
             best[key] = c
     return sorted(best.values(), key=lambda c: -c.ratio)
@@ -32,7 +34,7 @@ def checks_text(checks: tuple[Check, ...], system: str, verdict: str | None = No
     for c in governing_per_group(checks):
         kind = QUANTITY_KIND[c.quantity]
         where = c.ply or c.location
-        if c.ply and c.location and c.id in ("bearing",):
+        if c.ply and c.location and c.id in ("bearing", "load-transfer"):
             where = f"{c.location}: {c.ply}"
         lines.append(f"  {c.id:<22}{where[:25]:<26}{(c.combination or '')[:25]:<26}"
                      f"{fmt(c.demand, kind, system):>18}{fmt(c.capacity, kind, system):>18}"
@@ -44,7 +46,8 @@ def checks_text(checks: tuple[Check, ...], system: str, verdict: str | None = No
         verdict = "OK" if all(c.ok for c in checks) else "NOT OK"
     if gov is not None:
         lines.append("")
-        lines.append(f"Governing: {gov.id} in {gov.ply or gov.location} under {gov.combination},"
+        lines.append(f"Governing: {gov.id} in {gov.ply or gov.location} under "
+                     f"{gov.combination or 'the layout'},"
                      f" ratio {gov.ratio:.3f}. Verdict: {verdict}")
     else:
         lines.append(f"Verdict: {verdict}")

@@ -15,31 +15,29 @@ import numpy as np
 from ..actions.analysis import BeamResult
 from ..codes import aisc, nds
 from ..codes.dowels import Fe_perpendicular, Fe_steel, nds_double_shear, nds_single_shear
-from ..model.caution import CAUTION
+from ..codes.nds_fasteners import C_M_bolts
 from ..model.design import DesignSpec
 from ..model.errors import MissingCheck, Problem
 from ..model.project import Project
 from ..model.units import fmt
 from ..section.transformed import Section
 from .bearing import us_bearing
-from .check import Check, Fasteners, capacity_from
+from .bolt_checks import BoltValue, plate_bolt_checks
+from .check import Check, capacity_from
 from .common import (
     EDGE_END_REMINDERS,
-    STOCK_SPACINGS_SI,
-    STOCK_SPACINGS_US,
     Joint,
     apply_overrides,
     connector_checks,
     deflection_checks,
     pattern_notes,
-    pick_spacing,
-    plate_share,
     side_by_side_joints,
     unit_shear_stress,
     uplift_checks,
 )
 from .demands import ply_demands
 from .plates import plate_bracing, us_plate_allowable
+from .transfer import support_shear_checks
 from .us_timber import S_CI, S_CM, S_CT, S_TABLE, bending_check, interaction_check
 
 
@@ -79,7 +77,7 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
                 sv = {"Fv": mat.source_of("Fv"), "C_D": S_TABLE, "C_M": S_CM, "C_t": S_CT,
                       "C_i": S_CI}
                 apply_overrides(fv, sv, design, ply.name)
-                checks.append(Check(
+                checks.append(sh := Check(
                     id="shear",
                     ply=ply.name,
                     combination=combo.name,
@@ -95,6 +93,8 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
                     x=combo.extremes.x_V_max_abs,
                     notes=("Shear taken at the largest |V|, loads within d of supports included "
                      "(conservative; NDS 3.4.3.1 permits leaving them out).",)))
+                checks += support_shear_checks(section, beam, combo, design, i, sh,
+                                               project.display_units)
         elif mat.kind == "steel":
             if joints is None:
                 joints = side_by_side_joints(section)
@@ -105,7 +105,7 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
                                          "checked"))
     checks.extend(us_bearing(section, beam, design, warnings))
     checks.extend(_deflections(beam, section, design))
-    checks.extend(_bolts(section, beam, design, project.display_units))
+    checks.extend(_bolts(section, beam, design, project.display_units, warnings, checks))
     checks.extend(connector_checks(section, beam, design, project.display_units, warnings))
     checks += uplift_checks(beam, project.display_units)
     warnings += pattern_notes(beam)
@@ -208,78 +208,68 @@ def _deflections(beam: BeamResult, section: Section, design: DesignSpec) -> list
     return out
 
 
-def _bolts(section: Section, beam: BeamResult, design: DesignSpec, system: str) -> list[Check]:
+def _bolts(section: Section, beam: BeamResult, design: DesignSpec, system: str,
+           warnings: list[Problem], gross: list[Check]) -> list[Check]:
+    out = []
     joints = side_by_side_joints(section)
-    if not joints:
-        return []
+    for jt in joints:
+        value = bolt_value(section, design, jt, system, warnings, joints)
+        if value is not None:
+            out += plate_bolt_checks(section, beam, design, jt, value, system, gross)
+    return out
+
+
+def bolt_value(section: Section, design: DesignSpec, jt: Joint, system: str,
+               warnings: list[Problem], joints: list[Joint] | None = None) -> BoltValue | None:
+    """Z of one bolt of a plate (NDS 2018 12.3.1) with its factors; None, with a named
+    missing check, where the steel has no Fu or the timbers no G. ``joints``: the
+    section's side-by-side joints (found here when not given).
+    """
+    if joints is None:
+        joints = side_by_side_joints(section)
     bolt = design.bolt
     D = bolt.diameter
-    L = beam.model.layout.length
-    stock = STOCK_SPACINGS_US if system == "US" else STOCK_SPACINGS_SI
-    out = []
-    for jt in joints:
-        steel = section.plies[jt.steel]
-        smat = section.materials[jt.steel]
-        Fu = smat.value("Fu")
-        timbers = [j for j in jt.timbers if section.materials[j].value("G") is not None]
-        if Fu is None or not timbers:
-            continue
-        G = min(section.materials[j].value("G") or 0.5 for j in timbers)
-        Fe_w = Fe_perpendicular(G, D)
-        Fe_s = Fe_steel(Fu)
-        thick = [_available_thickness(section, j, joints) for j in timbers]
-        if jt.steel_is_main:
-            modes = nds_double_shear(D, steel.width, Fe_s, min(thick), Fe_w, bolt.Fyb, 90.0)
-            kind = "double shear, wood-steel-wood"
-        else:
-            modes = nds_single_shear(D, thick[0], Fe_w, steel.width, Fe_s, bolt.Fyb, 90.0)
-            kind = "single shear, steel on one face"
-        Z = modes.value
-        share = plate_share(section, jt.steel)
-        wood = section.materials[timbers[0]]
-        base = {"C_M": 0.7 if design.wet_service else 1.0,
-                "C_t": 1.0 if design.temperature == "normal" else (
-                    (0.7 if design.wet_service else 0.8) if design.temperature == "up-to-125F"
-                    else (0.5 if design.wet_service else 0.7)),
-                "C_g": 1.0, "C_Delta": 1.0}
-        worst_need = max(sum(float(r) for r in c.solution.reactions) * share /
-                         nds.C_D(c.duration) for c in beam.strength() or beam.combinations)
-        s = pick_spacing(worst_need / L, bolt.rows * Z * math.prod(base.values()),
-                         bolt.spacing, stock, 4 * D)
-        n_loc = max(2, math.floor(L / s + 1e-9))
-        mode_text = ", ".join(f"{m} {fmt(v, 'force', system)}" for m, v in modes.modes.items())
-        for combo in beam.strength():
-            W = sum(float(r) for r in combo.solution.reactions)
-            per_bolt = abs(W) * share / (n_loc * bolt.rows)
-            f = {"C_D": nds.C_D(combo.duration), **base}
-            src = {"Z": f"NDS 2018 12.3.1 yield limit equations, {kind}; G = {G:g} "
-                   f"({wood.source_of('G')}); Fyb from the user; Fe steel = 1.5 Fu "
-                   "(from memory)",
-                   "C_D": S_TABLE, "C_M": "NDS 2018 Table 11.3.3 (from memory)",
-                   "C_t": "NDS 2018 Table 11.3.4 (from memory)",
-                   "C_g": "group action taken as 1.0 (bolts staggered, few per row)",
-                   "C_Delta": "full edge, end and spacing distances assumed (see notes)"}
-            out.append(Check(
-                id="bolts",
-                ply=steel.name,
-                combination=combo.name,
-                demand=per_bolt,
-                capacity=capacity_from(Z, f),
-                quantity="force",
-                reference=("Z", Z),
-                factors=f,
-                partial_factors={},
-                sources=src,
-                equation="load per bolt = W x (E_p I_p / EI) / (bolt locations x rows) <= Z'",
-                location=f"one bolt location every {fmt(s, 'length', system, 3)} "
-                f"({n_loc} locations, {bolt.rows} per location)",
-                fasteners=Fasteners(locations=n_loc, rows=bolt.rows, count=n_loc * bolt.rows,
-                                    spacing=s),
-                x=None,
-                notes=(f"Yield modes: {mode_text}; governing mode {modes.governing}.",
-                 f"Plate's share of the load E_p I_p / EI = {share:.3f}.",
-                 *EDGE_END_REMINDERS, CAUTION)))
-    return out
+    steel = section.plies[jt.steel]
+    Fu = section.materials[jt.steel].value("Fu")
+    timbers = [j for j in jt.timbers if section.materials[j].value("G") is not None]
+    if Fu is None or len(timbers) < len(jt.timbers):
+        what = (f'steel "{section.materials[jt.steel].id}" has no Fu' if Fu is None else
+                "a timber beside it has no specific gravity G")
+        warnings.append(MissingCheck(f"plies[{jt.steel}].material", f"{what}: the bolts of "
+                                     f"{steel.name} are not checked (NDS 2018 12.3.1 needs "
+                                     "both)"))
+        return None
+    G = min(section.materials[j].value("G") or 0.5 for j in timbers)
+    Fe_w = Fe_perpendicular(G, D)
+    Fe_s = Fe_steel(Fu)
+    thick = [_available_thickness(section, j, joints) for j in timbers]
+    if jt.steel_is_main:
+        modes = nds_double_shear(D, steel.width, Fe_s, min(thick), Fe_w, bolt.Fyb, 90.0)
+        kind = "double shear, wood-steel-wood"
+    else:
+        modes = nds_single_shear(D, thick[0], Fe_w, steel.width, Fe_s, bolt.Fyb, 90.0)
+        kind = "single shear, steel on one face"
+    wood = section.materials[timbers[0]]
+    base = {"C_M": C_M_bolts(design.wet_service, design.fabricated_wet, bolt.row_count == 1),
+            "C_t": 1.0 if design.temperature == "normal" else (
+                (0.7 if design.wet_service else 0.8) if design.temperature == "up-to-125F"
+                else (0.5 if design.wet_service else 0.7)),
+            "C_g": 1.0, "C_Delta": 1.0}
+    mode_text = ", ".join(f"{m} {fmt(v, 'force', system)}" for m, v in modes.modes.items())
+    src = {"Z": f"NDS 2018 12.3.1 yield limit equations, {kind}; G = {G:g} "
+           f"({wood.source_of('G')}); Fyb from the user; Fe steel = 1.5 Fu (from memory)",
+           "C_D": S_TABLE, "C_M": "NDS 2018 Table 11.3.3 (from memory): 0.7 wet in service, 0.4 "
+           "fabricated wet and used dry (not for a single row), else 1.0",
+           "C_t": "NDS 2018 Table 11.3.4 (from memory)",
+           "C_g": "group action taken as 1.0 (bolts staggered, few per row)",
+           "C_Delta": "full edge, end and spacing distances assumed (see notes)"}
+    return BoltValue(
+        reference=("Z", modes.value),
+        factors=lambda combo: {"C_D": nds.C_D(combo.duration), **base},
+        partial={}, sources=src,
+        notes=(f"Yield modes: {mode_text}; governing mode {modes.governing}.",
+               *EDGE_END_REMINDERS),
+        capacity_symbol="Z'")
 
 
 def _available_thickness(section: Section, j: int, joints: list[Joint]) -> float:

@@ -5,6 +5,7 @@ from __future__ import annotations
 from dataclasses import replace
 from typing import Any
 
+from ..model import units
 from ..model.design import BASES, STEEL_RULES, TEMPERATURES, Bolt, Connector, DesignSpec
 from ..model.errors import Problem
 from ..model.member import CASES
@@ -32,6 +33,7 @@ DESIGN_FIELDS = (
     FieldSpec("stability_width", "choice", choices=("ply", "member")),
     FieldSpec("plate_unbraced_length", "positive", dimension="length", write_kind="span"),
     FieldSpec("load_level", "choice", choices=("top", "centroid", "bottom")),
+    FieldSpec("fabricated_wet", "flag"),
 )
 CONNECTOR_FIELDS = (
     FieldSpec("type", "choice", choices=("screw", "bolt", "nail"), always=True),
@@ -45,7 +47,11 @@ BOLT_FIELDS = (
     FieldSpec("rows", "count", lo=1, hi=20, always=True),
     FieldSpec("fu", "positive", dimension="stress", always=True),
     FieldSpec("spacing", "positive", dimension="length"),
+    FieldSpec("stagger", "flag"),
+    FieldSpec("end_distance", "positive", dimension="length"),
 )
+#: Bolt keys holding lists of lengths (rows may also be a count), with their longest list.
+BOLT_LISTS = {"rows": 20, "stations": 500}
 #: Keys holding objects, read by their own functions below.
 OBJECT_KEYS = ("deflection_limits", "psi", "overrides", "connector", "bolt", "vibration")
 DESIGN_KEYS = frozenset({f.key for f in DESIGN_FIELDS} | set(OBJECT_KEYS))
@@ -68,8 +74,7 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
         kw["connector"] = _read_object(raw["connector"], Connector(), CONNECTOR_FIELDS,
                                        f"{path}.connector", "the connector", problems)
     if "bolt" in raw:
-        kw["bolt"] = _read_object(raw["bolt"], Bolt(), BOLT_FIELDS, f"{path}.bolt",
-                                  "the bolt", problems)
+        kw["bolt"] = _read_bolt(raw["bolt"], f"{path}.bolt", problems)
         _bolt_diameter_in_range(kw["bolt"].diameter, kw.get("basis", "US-ASD"),
                                 f"{path}.bolt.diameter", problems)
     if "vibration" in raw:
@@ -89,6 +94,53 @@ def _bolt_diameter_in_range(d: float, basis: str, path: str,
         size = f"{d / 0.0254:.4g} in" if basis == "US-ASD" else f"{d * 1000:.4g} mm"
         problems.append(Problem(path, f"{size} is outside the bolt diameters the equations "
                                 f"hold for: {words}"))
+
+
+def _read_bolt(raw: Any, path: str, problems: list[Problem]) -> Bolt:
+    """The "bolt" object: "rows" a count or a list of heights, "stations" a list."""
+    if not isinstance(raw, dict):
+        problems.append(Problem(path, "must be an object"))
+        return Bolt()
+    scalars = {k: v for k, v in raw.items()
+               if not (k in BOLT_LISTS and (k == "stations" or isinstance(v, list)))}
+    bolt: Bolt = _read_object(scalars, Bolt(), BOLT_FIELDS, path, "the bolt", problems)
+    lists: dict[str, tuple[float, ...]] = {}
+    for key, longest in BOLT_LISTS.items():
+        if key in raw and key not in scalars:
+            lists[key] = _read_lengths(raw[key], longest, f"{path}.{key}", problems)
+    heights = lists.get("rows", ())
+    return replace(bolt, row_heights=heights, rows=len(heights) or bolt.rows,
+                   stations=tuple(sorted(lists.get("stations", ()))))
+
+
+def _read_lengths(raw: Any, longest: int, path: str, problems: list[Problem]) -> tuple[float, ...]:
+    """A non-empty list of distinct lengths (at most ``longest``)."""
+    if not isinstance(raw, list) or not raw or len(raw) > longest:
+        problems.append(Problem(path, f"must be a list of 1 to {longest} lengths such as "
+                                '["2 in", "7 in"]'))
+        return ()
+    out = []
+    for k, item in enumerate(raw):
+        try:
+            value = units.parse(item, "length", f"{path}[{k}]")
+        except units.UnitError as exc:
+            problems.append(units.problem(exc))
+            continue
+        if value < 0:
+            problems.append(Problem(f"{path}[{k}]", "must not be negative"))
+        out.append(value)
+    if len(set(out)) != len(out):
+        problems.append(Problem(path, "lists the same position twice"))
+    return tuple(out)
+
+
+def _write_bolt(bolt: Bolt, system: str) -> dict[str, Any]:
+    out = write_fields(bolt, Bolt(), BOLT_FIELDS, system)
+    if bolt.row_heights:
+        out["rows"] = [units.exact_text(y, "length", system) for y in bolt.row_heights]
+    if bolt.stations:
+        out["stations"] = [units.exact_text(x, "span", system) for x in bolt.stations]
+    return out
 
 
 def _read_object(raw: Any, default: Any, specs: tuple[FieldSpec, ...], path: str, what: str,
@@ -156,7 +208,7 @@ def write_design(d: DesignSpec, system: str) -> dict[str, Any]:
     if d.connector != Connector():
         out["connector"] = write_fields(d.connector, Connector(), CONNECTOR_FIELDS, system)
     if d.bolt != Bolt():
-        out["bolt"] = write_fields(d.bolt, Bolt(), BOLT_FIELDS, system)
+        out["bolt"] = _write_bolt(d.bolt, system)
     if d.vibration is not None:
         out["vibration"] = write_vibration(d.vibration, system)
     return out

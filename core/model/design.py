@@ -42,6 +42,14 @@ class Bolt:
             EN 1993-1-8 Table 3.1, from memory).
         spacing: spacing of bolt locations along the member, m; None: the tool picks the
             largest stock spacing that works.
+        row_heights: heights y of the bolt rows (the section's y, m), given in the file
+            as a list under "rows"; empty: ``rows`` rows placed by the tool.
+        stations: explicit positions of the bolt locations along the member (m from its
+            left end); empty: placed at ``spacing`` from ``end_distance``.
+        stagger: True where neighbouring rows take alternate stations (rows 1, 3, ... at
+            stations 1, 3, ...; rows 2, 4, ... at stations 2, 4, ...).
+        end_distance: from the end of the plate to the first and last station, m; None:
+            the stations are centred on the plate.
 
     """
 
@@ -50,6 +58,15 @@ class Bolt:
     rows: int = 2
     fu: float = 400e6
     spacing: float | None = None
+    row_heights: tuple[float, ...] = ()
+    stations: tuple[float, ...] = ()
+    stagger: bool = False
+    end_distance: float | None = None
+
+    @property
+    def row_count(self) -> int:
+        """Rows of bolts: the given heights, or ``rows``."""
+        return len(self.row_heights) or self.rows
 
 
 @dataclass(frozen=True)
@@ -90,6 +107,8 @@ class DesignSpec:
     Attributes:
         basis: "US-ASD" or "EU-LSD".
         wet_service: NDS C_M for wet service; K_cr 2.0 instead of 1.5.
+        fabricated_wet: the timber is fabricated wet and used dry (NDS 2018 Table 11.3.3
+            C_M = 0.4 for bolt groups, from memory).
         temperature: NDS Table 2.3.3 range for C_t.
         repetitive_member: NDS 4.3.9 C_r = 1.15.
         incised: NDS 4.3.8 C_i.
@@ -147,6 +166,7 @@ class DesignSpec:
     stability_width: str = "ply"
     plate_unbraced_length: float | None = None
     load_level: str = "top"
+    fabricated_wet: bool = False
 
     @property
     def us(self) -> bool:

@@ -27,15 +27,18 @@ def label(a: Analysis, c: Check) -> str:
 
 def place(c: Check) -> str:
     """The ply or place a check is about."""
-    if c.id == "bearing":
+    if c.id in ("bearing", "load-transfer"):
         return f"{c.location}: {c.ply}"
     if c.id in ("bolts", "connectors"):
         return c.ply or ""
+    if c.id in ("bolt-spacing", "bolt-edge", "bolt-end"):
+        return f"{c.ply}: {c.location}"
     return c.ply or c.location
 
 
 def _group_key(c: Check) -> tuple[str, str | None, str]:
-    return (c.id, c.ply, c.location if c.id.startswith(("deflection", "bearing")) else "")
+    return (c.id, c.ply, c.location if c.id.startswith(("deflection", "bearing", "load-transfer"))
+            else "")
 
 
 #: Notes the derivation already writes out (yield modes, plate share, bolt layout).
@@ -48,7 +51,7 @@ def check_block(a: Analysis, c: Check, first: Check | None, width: float,
     (None for that check itself); the others refer to it for shared lines and notes.
     """
     u = a.project.display_units
-    head = f"{label(a, c)}  {c.id} \u2014 {place(c)} \u2014 {c.combination}"
+    head = f"{label(a, c)}  {c.id} \u2014 {place(c)} \u2014 {c.combination or 'layout'}"
     clause = clause_of(a, c)
     out: list[Any] = [para(title, H2)] if title else []
     out.append(para(head + (f"   ({clause})" if clause else ""), H3))
@@ -91,7 +94,7 @@ def checks_section(a: Analysis, width: float) -> list[Any]:
     for gov in governing_per_group(a.checks):
         group = [c for c in a.checks if _group_key(c) == _group_key(gov) and c is not gov]
         title = (f"{gov.id} \u2014 {place(gov)}: governing ratio {gov.ratio:.3f} under "
-                 f"{gov.combination}")
+                 f"{gov.combination or 'the layout'}")
         out += check_block(a, gov, None, width, title)
         for c in group:
             out += check_block(a, c, gov, width)

@@ -190,7 +190,8 @@ def _summary(a: Analysis, original: Project, u: str, width: float) -> list[Any]:
     ok = verdict == "OK"
     out: list[Any] = [para("7  Summary", H1)]
     if gov is not None:
-        out.append(para(f"Governing check: {gov.id} in {place(gov)} under {gov.combination}, "
+        out.append(para(f"Governing check: {gov.id} in {place(gov)} under "
+                        f"{gov.combination or 'the layout'}, "
                         f"ratio {gov.ratio:.3f}.", BODY))
     out.append(para(f"Verdict: {verdict}",
                     ParagraphStyle("v", parent=BODY, fontName="PlyStackSans-Bold",

@@ -28,6 +28,7 @@ from ..model.combination import EN1990_PSI
 from ..pipeline import Analysis
 from ..section.transformed import Section
 from .bolts import bolt_derivation
+from .connections import geometry_text, net_text, support_shear_text, transfer_text
 from .handbook import handbook_terms
 from .numbers import NBSP, TIMES, exact, factor_text, num, q, q_den
 
@@ -57,6 +58,8 @@ CLAUSES = {
     ("US", "deflection-long-term"): "NDS 2018 3.5.2",
     ("US", "bolts"): "NDS 2018 12.3.1 and Table 11.3.1",
     ("US", "connectors"): "shear flow V Q / I_t; the user's connector value",
+    ("US", "load-transfer"): "NDS 2018 12.3.1 and Table 11.3.1; transfer zone (common practice)",
+    ("US", "bending-net"): "NDS 2018 3.1.2; AISC 360-16 B4.3 and F13.1 for steel",
     ("EU", "bending"): "EN 1995-1-1 6.1.6; EN 1993-1-1 6.2.1(5) for steel",
     ("EU", "shear"): "EN 1995-1-1 6.1.7; EN 1993-1-1 6.2.6 for steel",
     ("EU", "bearing"): "EN 1995-1-1 6.1.5",
@@ -65,6 +68,8 @@ CLAUSES = {
     ("EU", "deflection-long-term"): "EN 1995-1-1 2.2.3 and 7.2",
     ("EU", "bolts"): "EN 1995-1-1 8.2.3",
     ("EU", "connectors"): "shear flow V Q / I_t; the user's connector value",
+    ("EU", "load-transfer"): "EN 1995-1-1 8.2.3; transfer zone (common practice)",
+    ("EU", "bending-net"): "EN 1995-1-1 5.1(2); EN 1993-1-1 6.2.5(4) for steel",
 }
 
 
@@ -113,7 +118,7 @@ def basis_of(a: Analysis) -> str:
 def clause_of(a: Analysis, c: Check) -> str:
     """The clause a check line cites."""
     text = CLAUSES.get((basis_of(a), c.id), "")
-    if c.id in ("bending", "shear") and c.ply:
+    if c.id in ("bending", "shear", "bending-net") and c.ply:
         timber, _, steel = text.partition("; ")
         steel_ply = a.section.materials[ply_index(a.section, c.ply)].kind == "steel"
         return steel.removesuffix(" for steel") if steel_ply else timber
@@ -135,8 +140,16 @@ def derive(a: Analysis, c: Check) -> Derivation:
     u = a.project.display_units
     if c.id == "bending":
         where, demand = _bending(a, c, u)
+    elif c.id == "shear" and c.location.startswith("support"):
+        where, demand = support_shear_text(a, c, u, _symbols(a, c)[0])
     elif c.id == "shear":
         where, demand = _shear(a, c, u)
+    elif c.id == "load-transfer":
+        where, demand = transfer_text(a, c, u)
+    elif c.id in ("bolt-spacing", "bolt-edge", "bolt-end"):
+        where, demand = geometry_text(a, c, u)
+    elif c.id == "bending-net":
+        where, demand = net_text(a, c, u, _symbols(a, c)[0])
     elif c.id == "bearing":
         where, demand = _bearing(a, c, u)
     elif c.id.startswith("deflection"):
@@ -150,7 +163,7 @@ def derive(a: Analysis, c: Check) -> Derivation:
     else:
         bolt = bolt_derivation(a, c, u)
         return Derivation(bolt.where, bolt.demand, capacity_line(a, c, u), ratio_line(c, u),
-                          bolt.table, len(bolt.where) - 1)
+                          bolt.table, bolt.shared)
     return Derivation(tuple(where), demand, capacity_line(a, c, u), ratio_line(c, u))
 
 
@@ -177,11 +190,16 @@ def _symbols(a: Analysis, c: Check) -> tuple[str, str]:
         return "\u03b4", "\u03b4_allow"
     if c.id == "bolts":
         return "P", ("Z\u2032" if a.design.us else "F_v,Rd")
+    if c.id == "load-transfer":
+        return "P_t", ("n Z\u2032" if a.design.us else "n F_v,Rd")
+    if c.id in ("bolt-spacing", "bolt-edge", "bolt-end"):
+        return ("spread", "limit") if c.reference[0] == "limit" else ("required", "provided")
     if c.id == "connectors":
         return "F", "F_allow"
     i = ply_index(a.section, c.ply.split(" + ")[0] if c.ply else None)
     kind = "steel" if a.section.materials[i].kind == "steel" else "timber"
-    return SYMBOLS.get((basis_of(a), c.id, kind), ("demand", "capacity"))
+    cid = "bending" if c.id == "bending-net" else c.id
+    return SYMBOLS.get((basis_of(a), cid, kind), ("demand", "capacity"))
 
 
 def capacity_line(a: Analysis, c: Check, u: str) -> str:

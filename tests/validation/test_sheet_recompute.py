@@ -92,7 +92,9 @@ def blocks(text: str, count: int) -> dict[int, str]:
     flat = squash(text)
     heads = [(int(m.group(1)), m.start()) for m in
              re.finditer(r"\bC(\d+) (?:bending|shear|bearing|deflection-\S+|bolts|connectors|"
-                         r"tension-bending|compression-bending|uplift|vibration-\S+) —",
+                         r"tension-bending|compression-bending|uplift|vibration-\S+|"
+                         r"load-transfer|bolt-spacing|bolt-edge|bolt-end|bending-net|"
+                         r"splitting) —",
                          flat)]
     end = flat.find("All checks", heads[-1][1])
     out = {}

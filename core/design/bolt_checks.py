@@ -1,0 +1,167 @@
+"""The bolt checks of a plate shared by both bases: the layout, the force on every bolt at
+its station (``bolts``, the most loaded bolt of each combination) and one ``load-transfer``
+check for every support the plate does not bear on and every point load (see
+``transfer``). Each basis supplies the value of one bolt and its factors.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable, Mapping
+from dataclasses import dataclass, replace
+
+from ..actions.analysis import BeamResult, CombinationResult
+from ..model.caution import CAUTION
+from ..model.design import DesignSpec
+from ..model.units import fmt
+from ..section.transformed import Section
+from .bolt_geometry import geometry_checks, layout_factors
+from .bolt_layout import BoltLayout, layout_of
+from .check import Check, Fasteners, capacity_from
+from .common import STOCK_SPACINGS_SI, STOCK_SPACINGS_US, Joint, plate_share
+from .net_section import net_checks
+from .transfer import StationDemand, Transfer, plate_extent, station_demands, transfers
+
+
+@dataclass(frozen=True)
+class BoltValue:
+    """One bolt's value on a basis.
+
+    Attributes:
+        reference: symbol and value (N) of the unadjusted value (Z or F_v,Rk).
+        factors: the multiplying factors under a combination.
+        partial: the dividing factors.
+        sources: where the value and each factor come from.
+        notes: the yield modes and what they assume.
+        capacity_symbol: Z' or F_v,Rd (for the equation text).
+
+    """
+
+    reference: tuple[str, float]
+    factors: Callable[[CombinationResult], dict[str, float]]
+    partial: Mapping[str, float]
+    sources: Mapping[str, str]
+    notes: tuple[str, ...]
+    capacity_symbol: str
+
+    def adjusted(self, combo: CombinationResult,
+                 layout_factors: Mapping[str, float]) -> dict[str, float]:
+        """The factors under a combination with those the layout sets (C_g, C_Delta)."""
+        f = self.factors(combo)
+        f.update({k: v for k, v in layout_factors.items() if k in f})
+        return f
+
+    def capacity(self, combo: CombinationResult,
+                 layout_factors: Mapping[str, float] | None = None) -> float:
+        """The adjusted value of one bolt under a combination, N."""
+        return capacity_from(self.reference[1], self.adjusted(combo, layout_factors or {}),
+                             self.partial)
+
+
+def plate_layout(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
+                 value: BoltValue, combos: tuple[CombinationResult, ...],
+                 system: str) -> BoltLayout:
+    """The plate's bolts: the user's stations or spacing, else the largest stock spacing
+    (at least 4 D) at which every bolt of every strength combination passes (the most
+    loaded station and every transfer zone); the smallest such spacing where none does.
+    """
+    bolt = design.bolt
+    L = beam.model.layout.length
+    extent = plate_extent(section, joint.steel, L)
+    if bolt.stations or bolt.spacing is not None:
+        return layout_of(section, joint, bolt, extent, bolt.spacing or L, design.us)
+    share = plate_share(section, joint.steel)
+    stock = STOCK_SPACINGS_US if system == "US" else STOCK_SPACINGS_SI
+    allowed = [s for s in stock if s >= 4 * bolt.diameter] or [stock[-1]]
+    layout = layout_of(section, joint, bolt, extent, allowed[0], design.us)
+    for s in allowed:
+        layout = layout_of(section, joint, bolt, extent, s, design.us)
+        geo = layout_factors(section, joint, layout, design, L)[0]
+        if all(_worst_per_bolt(section, beam, c, design, layout, share)
+               <= value.capacity(c, geo) for c in combos):
+            return layout
+    return layout
+
+
+def _worst_per_bolt(section: Section, beam: BeamResult, combo: CombinationResult,
+                    design: DesignSpec, layout: BoltLayout, share: float) -> float:
+    items = transfers(section, beam, combo, design, layout, share)
+    return governing_station(station_demands(section, beam, combo, layout, share, items)).per_bolt
+
+
+def layout_text(layout: BoltLayout, system: str) -> str:
+    """The layout in words (the check's location)."""
+    n, rows = len(layout.stations), len(layout.rows)
+    stagger = ", staggered" if any(len(r) != rows for r in layout.station_rows) else ""
+    return (f"one bolt location every {fmt(layout.spacing, 'length', system, 3)} "
+            f"({n} locations, {rows} per location{stagger})")
+
+
+def governing_station(demands: list[StationDemand]) -> StationDemand:
+    """The station whose bolts carry the most."""
+    return max(demands, key=lambda d: d.per_bolt)
+
+
+def plate_bolt_checks(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
+                      value: BoltValue, system: str, gross: list[Check]) -> list[Check]:
+    """The ``bolts`` and ``load-transfer`` checks of one plate, the geometry of its layout
+    and the bending on the net section at its holes (from the ``gross`` bending checks).
+    """
+    combos = beam.strength() or beam.combinations
+    layout = plate_layout(section, beam, design, joint, value, combos, system)
+    share = plate_share(section, joint.steel)
+    steel = section.plies[joint.steel].name
+    fasteners = Fasteners(locations=len(layout.stations), rows=len(layout.rows),
+                          count=layout.count, spacing=layout.spacing)
+    L = beam.model.layout.length
+    geo, geo_sources = layout_factors(section, joint, layout, design, L)
+    value = replace(value, sources={**value.sources, **{k: v for k, v in geo_sources.items()
+                                                         if k in value.sources}})
+    out: list[Check] = geometry_checks(section, joint, layout, design, L, system)
+    out += net_checks(section, joint, layout, design, gross)
+    for combo in beam.strength():
+        f = value.adjusted(combo, geo)
+        items = transfers(section, beam, combo, design, layout, share)
+        gov = governing_station(station_demands(section, beam, combo, layout, share, items))
+        source = ("the transfers of the zones it is in" if gov.from_transfers >= gov.net
+                  else "the load on its tributary length with the transfers of its zones")
+        out.append(Check(
+            id="bolts", ply=steel, combination=combo.name, demand=gov.per_bolt,
+            capacity=capacity_from(value.reference[1], f, value.partial), quantity="force",
+            reference=value.reference, factors=f, partial_factors=dict(value.partial),
+            sources=dict(value.sources),
+            equation=("load per bolt at its station = max(|alpha w_trib / n + sum (+/-) "
+                      "alpha F / n_zone|, sum alpha F / n_zone) <= "
+                      f"{value.capacity_symbol}"),
+            location=layout_text(layout, system), fasteners=fasteners, x=gov.x,
+            notes=(*value.notes,
+                   f"Plate's share of the load E_p I_p / EI = {share:.3f}.",
+                   f"Most loaded bolts: station {gov.station + 1} of {len(layout.stations)} "
+                   f"at x = {fmt(gov.x, 'span', system)}, {gov.bolts} bolts, governed by "
+                   f"{source}.", CAUTION)))
+        out += [_transfer_check(t, layout, combo, value, f, steel, system) for t in items]
+    return out
+
+
+def _transfer_check(t: Transfer, layout: BoltLayout, combo: CombinationResult,
+                    value: BoltValue, f: dict[str, float], steel: str,
+                    system: str) -> Check:
+    xs = ", ".join(fmt(layout.stations[k], "span", system) for k in t.zone)
+    where = (f"support at x = {fmt(t.x, 'span', system)}" if t.kind == "support"
+             else f"point load at x = {fmt(t.x, 'span', system)}")
+    factors = {"n": float(t.bolts), **f}
+    return Check(
+        id="load-transfer", ply=steel, combination=combo.name, demand=t.demand,
+        capacity=capacity_from(value.reference[1], factors, value.partial), quantity="force",
+        reference=value.reference, factors=factors, partial_factors=dict(value.partial),
+        sources={**value.sources, "n": "bolts in the transfer zone: the stations within the "
+                 "member depth d of the support or load, at least the nearest (common "
+                 "practice)"},
+        equation=f"alpha F <= n {value.capacity_symbol}",
+        location=t.label if t.kind == "support" else where,
+        x=t.x, fasteners=Fasteners(locations=len(t.zone), count=t.bolts),
+        notes=(f"Transfer zone of the {where}: {fmt(t.zone_half_width, 'length', system)} "
+               f"either side; stations at {xs}, {t.bolts} bolts.",
+               ("The plate does not bear on this support: its share of the reaction reaches "
+                "the timbers through these bolts." if t.kind == "support" else
+                "The load bears on the timbers: the plate's share enters through these "
+                "bolts."), CAUTION))

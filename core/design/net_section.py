@@ -1,0 +1,143 @@
+"""Bending on the net section at a plate's bolt holes (check id ``bending-net``).
+
+Timber: NDS 2018 3.1.2 (net section at holes, from memory) or EN 1995-1-1 5.1(2) (the
+reduction of the cross-section by holes); the holes of one station are taken out of the
+plies the bolts pass through (the plate and its timbers), with the hole diameter D + 1/16
+in (US, NDS 2018 12.1.3.2, from memory) or d + 1 mm (EU, EN 1995-1-1 10.4.3, from memory).
+Steel plate: AISC 360-16 B4.3 (net area) and F13.1 (from memory): where
+F_u A_fn < Y_t F_y A_fg for the plate's tension half, the capacity is multiplied by
+F_u A_fn / (Y_t F_y A_fg), Y_t = 1.0 for F_y / F_u <= 0.8; EN 1993-1-1 6.2.5(4) likewise
+(0.9 A_f,net f_u / gamma_M2 >= A_f f_y / gamma_M0, from memory).
+
+Demand: the ply's gross bending demand (its ``bending`` check of the combination) times
+the loss of section modulus at the station where the holes reduce it most,
+(c' / I_t,net) / (c / I_t): the holes are taken at the point of the largest moment
+(conservative where no station is there).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, replace
+
+import numpy as np
+
+from ..model.constants import INCH
+from ..model.design import DesignSpec
+from ..section.transformed import Section
+from .bolt_layout import BoltLayout
+from .check import Check
+from .common import Joint
+
+
+def hole_diameter(design: DesignSpec) -> float:
+    """Bolt hole diameter, m (see the module docstring)."""
+    d = design.bolt.diameter
+    return d + (INCH / 16 if design.us else 0.001)
+
+
+@dataclass(frozen=True)
+class NetSection:
+    """The section at one station with its holes taken out.
+
+    Attributes:
+        station: the station's index.
+        y_na: neutral axis of the net section, m.
+        I_t: transformed second moment of the net section (reference modulus), m^4.
+        holes: heights of the holes, m.
+
+    """
+
+    station: int
+    y_na: float
+    I_t: float
+    holes: tuple[float, ...]
+
+
+def net_section(section: Section, joint: Joint, layout: BoltLayout, k: int,
+                d_hole: float) -> NetSection:
+    """Exact moments of the transformed section less a d_hole high rectangle, as wide as
+    each ply the bolt passes through, at every hole of station k.
+    """
+    n = section.E / section.E_ref
+    S0 = float(np.sum(n * section.area))
+    S1 = float(np.sum(n * section.first_y))
+    S2 = float(np.sum(n * section.second_y))
+    heights = tuple(layout.rows[r] for r in layout.station_rows[k])
+    for i in (joint.steel, *joint.timbers):
+        b = section.plies[i].width
+        for y in heights:
+            A = b * d_hole
+            S0 -= float(n[i]) * A
+            S1 -= float(n[i]) * A * y
+            S2 -= float(n[i]) * (A * y * y + b * d_hole**3 / 12)
+    y_na = S1 / S0
+    return NetSection(k, y_na, S2 - S1 * y_na, heights)
+
+
+def modulus_loss(section: Section, i: int, net: NetSection) -> float:
+    """(c' / I_t,net) / (c / I_t) of ply i: how much its extreme stress grows."""
+    top, bot = float(section.y_top[i]), float(section.y_bottom[i])
+    y0 = section.neutral_axis_y
+    c = max(abs(top - y0), abs(bot - y0))
+    c_net = max(abs(top - net.y_na), abs(bot - net.y_na))
+    return (c_net / net.I_t) / (c / section.I_transformed)
+
+
+def f13_factor(section: Section, joint: Joint, net: NetSection, d_hole: float,
+               us: bool) -> float:
+    """AISC 360-16 F13.1 (US) or EN 1993-1-1 6.2.5(4) (EU) for the plate's tension half
+    (the larger loss of the two halves): 1.0 where the rupture rule does not govern.
+    """
+    mat = section.materials[joint.steel]
+    Fy, Fu = mat.value("Fy"), mat.value("Fu")
+    if Fy is None or Fu is None:
+        return 1.0
+    ply = section.plies[joint.steel]
+    mid = ply.y + ply.height / 2
+    worst = 1.0
+    for lo, hi in ((ply.y, mid), (mid, ply.top)):
+        A_fg = ply.width * (hi - lo)
+        holes = sum(1 for y in net.holes if lo <= y < hi)
+        A_fn = A_fg - holes * ply.width * d_hole
+        if us:
+            Yt = 1.0 if Fy / Fu <= 0.8 else 1.1
+            need, have = Yt * Fy * A_fg, Fu * A_fn
+        else:
+            need, have = Fy * A_fg / 1.0, 0.9 * Fu * A_fn / 1.25
+        if have < need:
+            worst = min(worst, have / need)
+    return worst
+
+
+def net_checks(section: Section, joint: Joint, layout: BoltLayout, design: DesignSpec,
+               gross: list[Check]) -> list[Check]:
+    """A ``bending-net`` check for the plate and each of its timbers under every
+    combination of their ``bending`` checks.
+    """
+    d_hole = hole_diameter(design)
+    nets = [net_section(section, joint, layout, k, d_hole) for k in range(len(layout.stations))]
+    out = []
+    for i in (*joint.timbers, joint.steel):
+        name = section.plies[i].name
+        net = max(nets, key=lambda s: modulus_loss(section, i, s))
+        loss = modulus_loss(section, i, net)
+        extra: dict[str, float] = {}
+        if i == joint.steel:
+            extra = {"F13.1": f13_factor(section, joint, net, d_hole, design.us)}
+        for c in gross:
+            if c.id != "bending" or c.ply != name:
+                continue
+            factors = {**c.factors, **extra}
+            capacity = c.capacity * extra.get("F13.1", 1.0)
+            out.append(replace(
+                c, id="bending-net", demand=c.demand * loss, capacity=capacity,
+                factors=factors, sources={**c.sources, **(
+                    {"F13.1": "AISC 360-16 F13.1 (from memory)" if design.us else
+                     "EN 1993-1-1 6.2.5(4) (from memory)"} if extra else {})},
+                equation="f_net = f_gross (c' / I_t,net) / (c / I_t) <= capacity",
+                location=f"station {net.station + 1} of {section.plies[joint.steel].name}",
+                notes=(f"Net section at the holes of station {net.station + 1} "
+                       f"(hole diameter {d_hole * 1000:.4g} mm): I_t,net = {net.I_t:.6g} m^4, "
+                       f"neutral axis y = {net.y_na:.6g} m; section modulus loss "
+                       f"{loss:.5g}; holes taken at the largest moment (conservative).",)))
+    return out

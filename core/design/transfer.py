@@ -1,0 +1,281 @@
+"""Load transfer between a plate and its timbers, bolt station by bolt station.
+
+Common practice for flitch and side plates: the plate carries the share
+alpha = E_p I_p,na / EI of the shear at every section (its bending stiffness share), so its
+shear is V_p(x) = alpha V(x) and the bolts of a station deliver the change of V_p over the
+station's tributary length (halfway to the neighbouring stations, or to the plate's end).
+At a plate end the plate's own shear is zero unless it bears on a support there.
+
+Concentrated transfers: where a plate does not bear on a support, its share alpha R of that
+reaction reaches the timbers through the bolts of the transfer zone; where a point load
+bears on the timbers (every point load is taken to bear on the timbers only), its share
+alpha P enters the plate through the bolts of the zone. The transfer zone of a support or
+load at x is every station within the member depth d of x (the load spreads at about 45
+degrees through the depth, common practice), and at least the nearest station. Each bolt of a
+station carries alpha times the distributed load on the station's tributary over the
+station's bolts, plus the share per bolt of every transfer whose zone holds the station
+(the resultant, signed), and never less than the sum of those transfer shares.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, replace
+
+import numpy as np
+
+from ..actions.analysis import BeamResult, CombinationResult
+from ..actions.beam import BeamModel, CaseSolution
+from ..model.design import DesignSpec
+from ..model.units import fmt
+from ..section.transformed import Section, with_moduli
+from .bolt_layout import BoltLayout
+from .check import Check
+from .common import side_by_side_joints, unit_shear_stress
+
+
+def plate_extent(section: Section, i: int, length: float) -> tuple[float, float]:
+    """Start and end of ply i along the member, m (its ``from``/``to``; the whole member
+    by default).
+    """
+    ply = section.plies[i]
+    return (0.0, length) if ply.covers_whole(length) else ply.extent(length)
+
+
+def plate_bears(design: DesignSpec, section: Section, i: int, x_support: float,
+                length: float) -> bool:
+    """Whether steel ply i bears on the support at ``x_support``: the user's
+    ``design.steel_bears`` (the plate on its own seats), for a plate that reaches the support.
+    """
+    start, end = plate_extent(section, i, length)
+    tol = 1e-9 * max(length, 1.0)
+    return design.steel_bears and start - tol <= x_support <= end + tol
+
+
+def shear_left_of(model: BeamModel, sol: CaseSolution, x: float) -> float:
+    """V just left of ``x``: the sum of the upward forces strictly left of x, N."""
+    nodes = model.nodes
+    if x <= float(nodes[0]):
+        return 0.0
+    e = int(np.clip(np.searchsorted(nodes, x, side="left") - 1, 0, model.lengths.size - 1))
+    s = min(x, float(nodes[-1])) - float(nodes[e])
+    return float(sol.V0[e] + sol.q[e] * s + sol.dq[e] * s**2 / 2)
+
+
+@dataclass(frozen=True)
+class Transfer:
+    """A reaction or point load whose plate share passes through the bolts of a zone.
+
+    Attributes:
+        label: "support k" or "point load at x = ..." (SI text, m).
+        kind: "support" or "point".
+        x: its position, m.
+        force: the reaction or load, N (upward reactions, downward loads positive).
+        share: alpha, the plate's share.
+        zone: indices of the stations in the transfer zone.
+        bolts: bolts in the zone.
+        zone_half_width: the zone reaches this far either side of x, m.
+
+    """
+
+    label: str
+    kind: str
+    x: float
+    force: float
+    share: float
+    zone: tuple[int, ...]
+    bolts: int
+    zone_half_width: float
+
+    @property
+    def demand(self) -> float:
+        """The plate's share of the force, N."""
+        return abs(self.share * self.force)
+
+    @property
+    def per_bolt(self) -> float:
+        """The share per bolt of the zone, N."""
+        return self.demand / self.bolts if self.bolts else math.inf
+
+
+@dataclass(frozen=True)
+class StationDemand:
+    """The force on the bolts of one station under one combination.
+
+    Attributes:
+        station: index of the station.
+        x: its position, m.
+        a: start of its tributary, m.
+        b: end of its tributary, m.
+        load: the distributed load on the tributary, N (downward positive; the plate
+            takes alpha of it through these bolts).
+        bolts: bolts at the station.
+        transfers: the concentrated transfers whose zone holds the station.
+        share: alpha.
+
+    """
+
+    station: int
+    x: float
+    a: float
+    b: float
+    load: float
+    bolts: int
+    transfers: tuple[Transfer, ...]
+    share: float
+
+    @property
+    def net(self) -> float:
+        """Per bolt, the resultant: alpha w_trib / n plus each transfer's share per bolt
+        (point loads push the plate down, reactions up), N.
+        """
+        signed = sum(t.per_bolt * (1.0 if t.kind == "point" else -1.0) for t in self.transfers)
+        return abs(self.share * self.load / self.bolts + signed)
+
+    @property
+    def from_transfers(self) -> float:
+        """Per bolt from the transfers of the zones it is in, N."""
+        return sum(t.per_bolt for t in self.transfers)
+
+    @property
+    def per_bolt(self) -> float:
+        """The larger of the two (a bolt of a transfer zone carries at least its share of
+        the transfer), N.
+        """
+        return max(self.net, self.from_transfers)
+
+
+def point_loads(beam: BeamResult, combo: CombinationResult) -> list[tuple[float, float]]:
+    """(x, P) of every point load of the combination with its factor (downward positive),
+    loads at the same position added.
+    """
+    out: dict[float, float] = {}
+    for ld in beam.spec.loads:
+        if ld.type != "point" or ld.at is None:
+            continue
+        f = combo.combination.factors.get(ld.case, 0.0)
+        if f:
+            out[ld.at] = out.get(ld.at, 0.0) + f * ld.value
+    return sorted(out.items())
+
+
+def _zone(layout: BoltLayout, x: float, depth: float) -> tuple[int, ...]:
+    xs = layout.stations
+    near = tuple(k for k, s in enumerate(xs) if abs(s - x) <= depth * (1 + 1e-9))
+    if near:
+        return near
+    best = min(abs(s - x) for s in xs)
+    return tuple(k for k, s in enumerate(xs) if abs(s - x) <= best * (1 + 1e-9) + 1e-12)
+
+
+def transfers(section: Section, beam: BeamResult, combo: CombinationResult,
+              design: DesignSpec, layout: BoltLayout, share: float) -> list[Transfer]:
+    """The concentrated transfers of one plate under one combination: every support the
+    plate does not bear on (reaction: the largest over the arrangements) and every point
+    load on the plate's length.
+    """
+    L = beam.model.layout.length
+    d = section.depth
+    start, end = layout.extent
+    out = []
+    items = [("support", f"support {k + 1}", xs, float(combo.reactions_max[k]))
+             for k, xs in enumerate(beam.model.layout.support_positions())
+             if start - 1e-9 <= xs <= end + 1e-9
+             and not plate_bears(design, section, layout.plate, xs, L)]
+    items += [("point", f"point load at x = {x:.6g} m", x, P) for x, P in
+              point_loads(beam, combo) if start - 1e-9 <= x <= end + 1e-9]
+    for kind, label, x, force in items:
+        zone = _zone(layout, x, d)
+        out.append(Transfer(label, kind, x, force, share, zone,
+                            sum(layout.at_station(k) for k in zone), d))
+    return out
+
+
+def shear_right_of(model: BeamModel, sol: CaseSolution, x: float) -> float:
+    """V just right of ``x``: the sum of the upward forces left of x and at x, N."""
+    nodes = model.nodes
+    if x >= float(nodes[-1]):
+        return 0.0
+    e = int(np.clip(np.searchsorted(nodes, x, side="right") - 1, 0, model.lengths.size - 1))
+    s = max(x, float(nodes[0])) - float(nodes[e])
+    return float(sol.V0[e] + sol.q[e] * s + sol.dq[e] * s**2 / 2)
+
+
+def distributed_load(model: BeamModel, sol: CaseSolution, a: float, b: float) -> float:
+    """The distributed load between a and b, N (downward positive; the solution's q is
+    upward positive, q + dq s along each element).
+    """
+    total = 0.0
+    for e, x0 in enumerate(model.nodes[:-1]):
+        s0 = max(a, float(x0)) - float(x0)
+        s1 = min(b, float(model.nodes[e + 1])) - float(x0)
+        if s1 > s0:
+            total -= float(sol.q[e]) * (s1 - s0) + float(sol.dq[e]) * (s1**2 - s0**2) / 2
+    return total
+
+
+def station_demands(section: Section, beam: BeamResult, combo: CombinationResult,
+                    layout: BoltLayout, share: float,
+                    items: list[Transfer]) -> list[StationDemand]:
+    """The bolt force of every station of a plate under one combination (every region
+    loaded: the load on a tributary is largest with the loads on it).
+    """
+    del section
+    out = []
+    for k, x in enumerate(layout.stations):
+        a, b = layout.tributary(k)
+        w = distributed_load(beam.model, combo.solution, a, b)
+        out.append(StationDemand(k, x, a, b, w, layout.at_station(k),
+                                 tuple(t for t in items if k in t.zone), share))
+    return out
+
+
+def without_plates(section: Section) -> Section:
+    """The section with the moduli of its side-by-side plates set to zero: the timbers
+    alone, as they carry the shear beside a support the plates do not bear on.
+    """
+    plates = {jt.steel for jt in side_by_side_joints(section)}
+    E = np.array([0.0 if i in plates else float(e) for i, e in enumerate(section.E)])
+    return with_moduli(section, E)
+
+
+def support_shear(beam: BeamResult, combo: CombinationResult, k: int) -> float:
+    """The largest |V| beside support k (either side; at a member end the largest
+    reaction over the arrangements), N.
+    """
+    model, sol = beam.model, combo.solution
+    xs = model.layout.support_positions()[k]
+    V = max(abs(shear_left_of(model, sol, xs)), abs(shear_right_of(model, sol, xs)))
+    L = model.layout.length
+    if xs <= 1e-9 * L or xs >= L * (1 - 1e-9):
+        V = max(V, abs(float(combo.reactions_max[k])))
+    return V
+
+
+def support_shear_checks(section: Section, beam: BeamResult, combo: CombinationResult,
+                         design: DesignSpec, i: int, shear: Check,
+                         system: str) -> list[Check]:
+    """Timber ply i's shear beside every support a side-by-side plate does not bear on:
+    the full shear on the timbers alone (the plate's share reaches them through the bolts
+    there). ``shear`` is the ply's ordinary shear check of the combination, whose capacity
+    and factors apply.
+    """
+    joints = [jt for jt in side_by_side_joints(section) if i in jt.timbers]
+    if not joints:
+        return []
+    L = beam.model.layout.length
+    alone = None
+    out = []
+    for k, xs in enumerate(beam.model.layout.support_positions()):
+        if all(plate_bears(design, section, jt.steel, xs, L) for jt in joints):
+            continue
+        if alone is None:
+            alone = unit_shear_stress(without_plates(section))
+        V = support_shear(beam, combo, k)
+        out.append(replace(
+            shear, demand=float(alone[i]) * V, location=f"support {k + 1}", x=xs,
+            equation=shear.equation + " (timbers alone, full shear beside the support)",
+            notes=(f"A plate does not bear on support {k + 1}: the timbers carry the full "
+                   f"shear beside it, |V| = {fmt(V, 'force', system)}, on the section "
+                   "without the plate (its share reaches them through the bolts there).",)))
+    return out
