@@ -8,7 +8,7 @@ from __future__ import annotations
 
 import math
 
-from PySide6.QtCore import QPointF, QRectF, Qt
+from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
 from PySide6.QtGui import QBrush, QColor, QFont, QPainter, QPainterPath, QPen
 from PySide6.QtWidgets import QGraphicsItem, QGraphicsRectItem, QGraphicsSimpleTextItem
 from shapely.geometry import MultiPolygon, Polygon
@@ -90,8 +90,9 @@ def draw_grid(painter: QPainter, rect: QRectF, px_per_mm: float, steps: list[flo
         pen.setCosmetic(True)
         painter.setPen(pen)
         k0 = math.floor(rect.left() / step)
-        for k in range(k0, k0 + int(rect.width() / step) + 2):
-            painter.drawLine(QPointF(k * step, rect.top()), QPointF(k * step, rect.bottom()))
+        lines = [QLineF(k * step, rect.top(), k * step, rect.bottom())
+                 for k in range(k0, k0 + int(rect.width() / step) + 2)]
         k0 = math.floor(rect.top() / step)
-        for k in range(k0, k0 + int(rect.height() / step) + 2):
-            painter.drawLine(QPointF(rect.left(), k * step), QPointF(rect.right(), k * step))
+        lines += [QLineF(rect.left(), k * step, rect.right(), k * step)
+                  for k in range(k0, k0 + int(rect.height() / step) + 2)]
+        painter.drawLines(lines)  # one call for the whole grid

@@ -9,6 +9,10 @@ Speed: the axes, ticks and labels are drawn once and cached as a background; an 
 only changes the data artists (updated in place with ``set_data``) and blits them over
 the cached background. The axes are redrawn in full only when the data leave the
 current limits or shrink well inside them, the widget is resized, or the panels change.
+The limits keep headroom (a fifth of the range beyond the data on each side, new limits
+only when the data leave them or fill less than half of them), so a drag rarely moves
+them; and a redraw for new limits alone skips the layout pass (constrained layout costs
+more than the rest of the draw): the layout follows once the edits pause.
 Nothing is drawn while the plot is hidden (before the window is shown, or in a tab not
 on top): it is drawn once when it appears.
 
@@ -27,6 +31,7 @@ from matplotlib.backends.backend_qtagg import FigureCanvasQTAgg
 from matplotlib.figure import Figure
 from matplotlib.lines import Line2D
 from matplotlib.patches import Polygon
+from PySide6.QtCore import QTimer
 
 from plystack.core.actions.beam import diagram
 from plystack.core.model.units import sig, to_display, unit_label
@@ -50,20 +55,28 @@ def _finite_range(values: np.ndarray) -> tuple[float, float] | None:
     return float(min(v.min(), 0.0)), float(max(v.max(), 0.0))
 
 
+#: Headroom of new limits beyond the data on each side, a fraction of the data's range.
+HEADROOM = 0.2
+#: New limits when the data fill less than this fraction of the current ones.
+SHRINK_BELOW = 0.5
+#: Pause after the last limits-only redraw before the layout pass, ms.
+LAYOUT_DELAY_MS = 300
+
+
 def _needs_new_limits(current: tuple[float, float], lo: float, hi: float) -> bool:
-    """True when [lo, hi] leaves the current limits or fills less than 70 % of them."""
+    """True when [lo, hi] leaves the current limits or fills less than half of them."""
     a, b = current
     span = b - a
     if lo < a or hi > b or span <= 0:
         return True
-    return (hi - lo) < 0.7 * span
+    return (hi - lo) < SHRINK_BELOW * span
 
 
 def _padded(lo: float, hi: float) -> tuple[float, float]:
     if hi - lo <= 0:
         pad = max(abs(hi), 1.0) * 0.1
         return lo - pad, hi + pad
-    pad = (hi - lo) * 0.12
+    pad = (hi - lo) * HEADROOM
     out = (lo - pad, hi + pad)
     return out if all(math.isfinite(x) for x in out) else (-1.0, 1.0)
 
@@ -83,6 +96,11 @@ class BlitCanvas(FigureCanvasQTAgg):
         self._stale = False
         self.dynamic: list[Any] = []
         self.full_draws = 0
+        self.layout_passes = 0
+        self._layout_timer = QTimer(self)
+        self._layout_timer.setSingleShot(True)
+        self._layout_timer.setInterval(LAYOUT_DELAY_MS)
+        self._layout_timer.timeout.connect(self._layout_pass)
         self.mpl_connect("draw_event", self._on_draw)
 
     def resizeEvent(self, event: Any) -> None:  # noqa: D102 - Qt API
@@ -98,6 +116,19 @@ class BlitCanvas(FigureCanvasQTAgg):
             self.figure.set_layout_engine("constrained")
             self.draw_idle()
 
+    def _draw_laid_out(self) -> None:
+        self.figure.set_layout_engine("constrained")
+        self.draw()
+        self.figure.set_layout_engine("none")
+        self.layout_passes += 1
+
+    def _layout_pass(self) -> None:
+        """The layout pass left out of limits-only redraws (ticks may have grown)."""
+        if self.isVisible():
+            self._draw_laid_out()
+        else:
+            self._stale = True
+
     def _on_draw(self, _event: Any) -> None:
         self._background = self.copy_from_bbox(self.figure.bbox)
         self._draw_dynamic()
@@ -109,17 +140,24 @@ class BlitCanvas(FigureCanvasQTAgg):
             elif a.figure is not None:
                 self.figure.draw_artist(a)
 
-    def refresh(self, full: bool) -> None:
-        """Draw: in full (axes and background) or by blitting the data artists."""
+    def refresh(self, full: bool, layout: bool = True) -> None:
+        """Draw: in full (axes and background) or by blitting the data artists.
+
+        ``layout``: False where only the limits changed; the full draw then keeps the
+        current layout and the layout pass follows once the edits pause.
+        """
         for a in self.dynamic:
             a.set_animated(True)
         if not self.isVisible():
             self._stale = True
             return
         if full or self._background is None:
-            self.figure.set_layout_engine("constrained")
-            self.draw()
-            self.figure.set_layout_engine("none")
+            if layout or self._background is None:
+                self._layout_timer.stop()
+                self._draw_laid_out()
+            else:
+                self.draw()
+                self._layout_timer.start()
             self.full_draws += 1
             return
         self.restore_region(self._background)
@@ -199,11 +237,11 @@ class ProfilePlot(BlitCanvas):
         for kd in kinds:
             ids = sorted({mats[i] for i in plies if kind_of[i] == kd})
             legend += [(kd, mid, STYLES[j % len(STYLES)]) for j, mid in enumerate(ids)]
-        full = False
+        layout = False
         if kinds != self.kinds or tuple(legend) != getattr(self, "_legend", None):
             self._legend = tuple(legend)
             self._build(kinds, tuple(legend))
-            full = True
+            layout = True
         style = {(kd, mid): st for kd, mid, st in legend}
         y0, y1 = float(s.y_bottom.min()) * k, float(s.y_top.max()) * k
         strain = s.strain(moment, np.array([y0 / k, y1 / k])) * 1e6
@@ -227,11 +265,13 @@ class ProfilePlot(BlitCanvas):
         self.na_label.xy = (0, na if math.isfinite(na) else 0.0)
         self.moment_text.set_text(f"M = {sig(to_display(moment, 'moment', u), 4)} "
                                   f"{unit_label('moment', u)}")
-        full |= self._set_limits(strain, top, bot, plies, kind_of, (y0, y1), u, title, ks)
+        limits, labels = self._set_limits(strain, top, bot, plies, kind_of, (y0, y1), u, title,
+                                          ks)
+        layout |= labels
         self.dynamic = [self.strain_line, *self.stress_lines, *self.na_lines, *used,
                         self.na_label, self.moment_text]
         self.last = {"moment": moment, "top": top, "bottom": bot}
-        self.refresh(full)
+        self.refresh(layout or limits, layout)
 
     def _label_extremes(self, plies, kind_of, top, bot, s, k, ks):  # type: ignore[no-untyped-def]
         """Label the largest tension and compression of each panel; returns the labels."""
@@ -257,7 +297,8 @@ class ProfilePlot(BlitCanvas):
                 used.append(label)
         return used
 
-    def _set_limits(self, strain, top, bot, plies, kind_of, ys, u, title, ks) -> bool:  # type: ignore[no-untyped-def]
+    def _set_limits(self, strain, top, bot, plies, kind_of, ys, u, title, ks):  # type: ignore[no-untyped-def]
+        """New limits where the data need them; returns (limits changed, labels changed)."""
         full = False
         ranges = [(self.ax_strain, _finite_range(strain))]
         for kind, ax in self.ax_stress.items():
@@ -283,8 +324,8 @@ class ProfilePlot(BlitCanvas):
                 ax.set_xlabel(f"{unit_label('stress', u)}, tension +", fontsize=8)
             self.figure.suptitle(tex_safe(f"at the moment of {title}"), fontsize=8, x=0.02,
                                  ha="left")
-            full = True
-        return full
+            return full, True
+        return full, False
 
 
 def _moment_for(a: Analysis, combo_name: str | None) -> tuple[float, str]:
@@ -342,7 +383,7 @@ class DiagramPlot(BlitCanvas):
         kx = to_display(1.0, "span", u)
         series = (("shear", d.V, "force"), ("moment", d.M, "moment"),
                   ("deflection (down +)", d.deflection, "deflection"))
-        full = False
+        full = layout = False
         x = d.x * kx
         xr = _finite_range(x)
         if xr is not None and float(np.nanmax(x)) > float(np.nanmin(x)) and (
@@ -389,6 +430,6 @@ class DiagramPlot(BlitCanvas):
                               for xs in a.beam.model.layout.support_positions()]
             self.axes[0].set_title(tex_safe(chosen.name), fontsize=9)
             self.axes[2].set_xlabel(f"x from the left end ({unit_label('span', u)})")
-            full = True
+            layout = True
         self.dynamic = [*self.lines, *self.fills, *self.labels]
-        self.refresh(full)
+        self.refresh(full or layout, layout)

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from dataclasses import replace
 
-from PySide6.QtCore import Signal
+from PySide6.QtCore import Qt, Signal
 from PySide6.QtGui import QColor
 from PySide6.QtWidgets import QAbstractItemView, QHeaderView, QTableWidget, QTableWidgetItem
 
@@ -59,11 +59,27 @@ class PlyTable(QTableWidget):
             cells = [ply.name, ply.material] + [
                 units.display_string(getattr(ply, k), "length", u, 6) for k in KEYS[2:]]
             for c, text in enumerate(cells):
-                item = QTableWidgetItem(text)
-                item.setToolTip(plain_tip(text))
-                self.setItem(r, c, item)
+                self._put(r, c, text)
         self.blockSignals(False)
         self._filling = False
+
+    def _put(self, row: int, column: int, text: str) -> None:
+        """One cell in place: only what changed is set (each change re-measures the
+        column), and a mark of bad input is cleared.
+        """
+        item = self.item(row, column)
+        tip = plain_tip(text)
+        if item is None:
+            item = QTableWidgetItem(text)
+            item.setToolTip(tip)
+            self.setItem(row, column, item)
+            return
+        if item.text() != text:
+            item.setText(text)
+        if item.toolTip() != tip:
+            item.setToolTip(tip)
+        if item.data(Qt.ItemDataRole.BackgroundRole) is not None:
+            item.setData(Qt.ItemDataRole.BackgroundRole, None)
 
     def select_row(self, index: int | None) -> None:
         """Follow the canvas selection (without echoing it back)."""

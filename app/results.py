@@ -93,6 +93,43 @@ def _item(text: str, value: object = None) -> QTableWidgetItem:
     return item
 
 
+def _put(table: QTableWidget, row: int, col: int, text: str,
+         value: object = None) -> QTableWidgetItem:
+    """Set one cell in place: the existing item is kept and only what changed is set, so
+    an edit that changes a few numbers repaints a few cells.
+    """
+    item = table.item(row, col)
+    if item is None:
+        item = _item(text, value)
+        table.setItem(row, col, item)
+        return item
+    if item.text() != text:
+        item.setText(text)
+    role = Qt.ItemDataRole.UserRole
+    old = item.data(role)
+    if type(old) is not type(value) or old != value:
+        item.setData(role, value)
+    return item
+
+
+def _fit_columns(table: QTableWidget) -> bool:
+    """Resize the columns to their contents only when the table's shape or the length of
+    a column's longest text changed (measuring every cell is the costly part of a fill).
+    Returns True where it resized.
+    """
+    longest = tuple(max((len(it.text()) for r in range(table.rowCount())
+                         if (it := table.item(r, c)) is not None), default=0)
+                    for c in range(table.columnCount()))
+    headers = tuple(h.text() if (h := table.horizontalHeaderItem(c)) is not None else ""
+                    for c in range(table.columnCount()))
+    key = (table.rowCount(), headers, longest)
+    if table.property("fitted_for") == repr(key):
+        return False
+    table.setProperty("fitted_for", repr(key))
+    table.resizeColumnsToContents()
+    return True
+
+
 class ResultsPanel(QWidget):
     """Shows an analysis, or the problem that stopped it."""
 
@@ -177,26 +214,30 @@ class ResultsPanel(QWidget):
             where = c.ply or c.location
             if c.id == "bearing":
                 where = c.location
-            self.checks.setItem(r, 0, _item(c.id, c.id))
-            self.checks.setItem(r, 1, _item(where or "", where))
-            self.checks.setItem(r, 2, _item(c.combination or "", c.combination))
-            self.checks.setItem(r, 3, _item(fmt(c.demand, kind, u), float(c.demand)))
-            self.checks.setItem(r, 4, _item(fmt(c.capacity, kind, u), float(c.capacity)))
-            self.checks.setItem(r, 5, _item("", float(c.ratio)))
+            t = self.checks
+            _put(t, r, 0, c.id, c.id)
+            _put(t, r, 1, where or "", where)
+            _put(t, r, 2, c.combination or "", c.combination)
+            _put(t, r, 3, fmt(c.demand, kind, u), float(c.demand))
+            _put(t, r, 4, fmt(c.capacity, kind, u), float(c.capacity))
+            _put(t, r, 5, "", float(c.ratio))
             text = verdict_of(float(c.ratio), c.ok, amber)
-            verdict = _item(text, c.ok)
-            verdict.setForeground(verdict_colour(text))
-            self.checks.setItem(r, 6, verdict)
+            verdict = _put(t, r, 6, text, c.ok)
+            colour = verdict_colour(text)
+            if verdict.foreground().color() != colour:
+                verdict.setForeground(colour)
             tip = "; ".join(f"{k} = {v:.4g} ({c.sources.get(k, '')})"
                             for k, v in c.factors.items())
+            tip = plain_tip(f"{c.equation}\n{tip}\n{c.location}")
             for col in range(7):
-                item = self.checks.item(r, col)
-                item.setToolTip(plain_tip(f"{c.equation}\n{tip}\n{c.location}"))
+                item = t.item(r, col)
+                if item.toolTip() != tip:
+                    item.setToolTip(tip)
         header = self.checks.horizontalHeader()
-        self.checks.resizeColumnsToContents()
-        for col in range(7):
-            header.setSectionResizeMode(col, QHeaderView.ResizeMode.Interactive)
-        self.checks.setColumnWidth(RATIO_COLUMN, 90)
+        if _fit_columns(self.checks):
+            for col in range(7):
+                header.setSectionResizeMode(col, QHeaderView.ResizeMode.Interactive)
+            self.checks.setColumnWidth(RATIO_COLUMN, 90)
         if not a.checks:
             self.verdict.setText("INCOMPLETE \u2014 no checks: give the beam (spans, supports, "
                                  "loads) to check the member.")
@@ -240,17 +281,16 @@ class ResultsPanel(QWidget):
                 v = getattr(pr, f.name)
                 kind = f.metadata["kind"]
                 if isinstance(v, str):
-                    self.plies.setItem(r, c, _item(v, v))
+                    _put(self.plies, r, c, v, v)
                 elif kind:
-                    self.plies.setItem(r, c, _item(fmt(v, kind, u), float(v)))
+                    _put(self.plies, r, c, fmt(v, kind, u), float(v))
                 else:
-                    self.plies.setItem(r, c, _item(sig(v, 4), float(v)))
+                    _put(self.plies, r, c, sig(v, 4), float(v))
             if top is not None and bot is not None:
-                self.plies.setItem(r, len(cols), _item(fmt(float(top[r]), "stress", u),
-                                                       float(top[r])))
-                self.plies.setItem(r, len(cols) + 1, _item(fmt(float(bot[r]), "stress", u),
-                                                           float(bot[r])))
-        self.plies.resizeColumnsToContents()
+                _put(self.plies, r, len(cols), fmt(float(top[r]), "stress", u), float(top[r]))
+                _put(self.plies, r, len(cols) + 1, fmt(float(bot[r]), "stress", u),
+                     float(bot[r]))
+        _fit_columns(self.plies)
 
     def _fill_section(self, a: Analysis, u: str) -> None:
         s = a.section
@@ -268,9 +308,9 @@ class ResultsPanel(QWidget):
         self.section.setRowCount(len(rows))
         self.section.setHorizontalHeaderLabels(["Property", "Value"])
         for r, (name, text, value) in enumerate(rows):
-            self.section.setItem(r, 0, _item(name, name))
-            self.section.setItem(r, 1, _item(text, value))
-        self.section.resizeColumnsToContents()
+            _put(self.section, r, 0, name, name)
+            _put(self.section, r, 1, text, value)
+        _fit_columns(self.section)
 
     def _fill_beam(self, a: Analysis, u: str) -> None:
         self.beam.setHorizontalHeaderLabels(["Combination", "M max", "M min", "|V| max",
@@ -289,5 +329,5 @@ class ResultsPanel(QWidget):
                      (fmt(c.total.deflection_max_abs, "deflection", u, 3),
                       c.total.deflection_max_abs)]
             for col, (text, value) in enumerate(cells):
-                self.beam.setItem(r, col, _item(text, value))
-        self.beam.resizeColumnsToContents()
+                _put(self.beam, r, col, text, value)
+        _fit_columns(self.beam)

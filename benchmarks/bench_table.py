@@ -347,15 +347,25 @@ def process_figures(repeat: int) -> None:
 
 
 def main() -> None:
+    """All parts, or those named on the command line (core sweep section growth gui
+    processes).
+    """
     repeat = 20 if QUICK else 200
+    parts = [a for a in sys.argv[1:] if not a.startswith("--")] or [
+        "core", "sweep", "section", "growth", "gui", "processes"]
     print(f"Plystack speed table, {time.strftime('%Y-%m-%d %H:%M')}, Python "
           f"{sys.version.split()[0]}, {os.cpu_count()} cores\n")
     figures = core_figures(repeat)
-    sweep_figures(200)
-    section_figures(repeat)
-    growth_figures(5 if QUICK else 20)
-    gui_figures(100, figures["run_us"])
-    process_figures(3 if QUICK else 7)
+    if "sweep" in parts:
+        sweep_figures(200)
+    if "section" in parts:
+        section_figures(repeat)
+    if "growth" in parts:
+        growth_figures(5 if QUICK else 20)
+    if "gui" in parts:
+        gui_figures(100, figures["run_us"])
+    if "processes" in parts:
+        process_figures(3 if QUICK else 7)
 
 
 if __name__ == "__main__":
