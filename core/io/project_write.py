@@ -67,6 +67,8 @@ def write_plies(plies: tuple[Ply, ...], system: str) -> list[dict[str, Any]]:
             rec["from"] = exact_text(p.start, "span", system)
         if p.end is not None:
             rec["to"] = exact_text(p.end, "span", system)
+        if p.stage != "existing":
+            rec["stage"] = p.stage
         out.append(rec)
     return out
 
@@ -102,6 +104,8 @@ def write_beam(beam: BeamSpec, system: str) -> dict[str, Any]:
             rec["value_end"] = exact_text(ld.value_end, kind, system)
         if ld.description:
             rec["description"] = ld.description
+        if ld.stage != "after":
+            rec["stage"] = ld.stage
         loads.append(rec)
     out["loads"] = loads
     if beam.combinations is None:
@@ -120,4 +124,6 @@ def write_beam(beam: BeamSpec, system: str) -> dict[str, Any]:
         out["pattern_live_load"] = False
     if beam.hold_down is not None:
         out["hold_down"] = exact_text(beam.hold_down, "force", system)
+    if beam.shored:
+        out["shored"] = True
     return out

@@ -17,6 +17,8 @@ SUPPORTS = ("simple", "continuous", "cantilever", "fixed-fixed", "propped")
 #: Supports that may have several spans and overhangs (pinned supports throughout).
 PINNED = ("simple", "continuous")
 LOAD_TYPES = ("area", "line", "point")
+#: When a load is put on: before the member is strengthened, or after.
+LOAD_STAGES = ("before", "after")
 #: Positions closer than this fraction of the member length share one node.
 MERGE_TOLERANCE = 1e-7
 
@@ -36,6 +38,7 @@ class Load:
         value_end: intensity at ``end`` for a load varying linearly from ``value`` at
             ``start`` (None: uniform).
         description: what the load is (free text for the calculation sheet), may be empty.
+        stage: "before" (on the member before it is strengthened) or "after".
 
     """
 
@@ -48,6 +51,7 @@ class Load:
     at: float | None = None
     value_end: float | None = None
     description: str = ""
+    stage: str = "after"
 
     @property
     def line_value(self) -> float:
@@ -212,6 +216,8 @@ class BeamSpec:
         pattern_live_load: load each span and overhang with the variable cases or not
             and envelope (ASCE 7-16 4.3.3, 7.5; EN 1991-1-1 6.2.1).
         hold_down: N, the uplift a support's hold-down resists (None: none).
+        shored: True where the member is jacked while the added plies are put on, so the
+            before-loads are taken off and everything acts on the built-up section.
 
     """
 
@@ -223,3 +229,4 @@ class BeamSpec:
     sustained_live_fraction: float | None = None
     pattern_live_load: bool = True
     hold_down: float | None = None
+    shored: bool = False
