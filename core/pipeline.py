@@ -28,6 +28,7 @@ from .actions.stages import is_staged, stage_solutions
 from .design.check import Check
 from .design.eu_lsd import eu_checks
 from .design.material_notes import material_warnings
+from .design.openings import opening_checks
 from .design.segmented import SegmentResult, segment_results, segmented_checks
 from .design.staged import StagesResult, staged_checks
 from .design.us_asd import us_checks
@@ -182,6 +183,11 @@ class Evaluator:
             if beam is not None and is_staged(plies, self.project.beam):
                 checks, stage_warnings, stages = self._staged(plies, section, beam, checks)
                 warnings.extend(stage_warnings)
+            if beam is not None and (beam.spec.notches or beam.spec.holes):
+                extra, open_warnings = self._openings(section, segments, beam, checks,
+                                                      project.display_units)
+                checks += tuple(extra)
+                warnings.extend(open_warnings)
             warnings += material_warnings(section, beam, project.display_units)
             out.append(Analysis(project, section, beam, self.design, checks, tuple(warnings),
                                 segments, stages))
@@ -214,6 +220,18 @@ class Evaluator:
             tuple(s.mass_per_length * GRAVITY if spec.self_weight else 0.0 for s in secs))
         prepared = PreparedBeam.of(spec, self.design, stepping)
         return analyse_stepped(prepared, section, self.design, stepping.bounds)
+
+    def _openings(self, section: Section, segments: tuple[SegmentResult, ...],
+                  beam: BeamResult, checks: tuple[Check, ...], system: str
+                  ) -> tuple[list[Check], list[Problem]]:
+        """Notch and hole checks, each with the section of its segment."""
+        def section_at(x: float) -> Section:
+            return next((s.section for s in segments if s.start <= x <= s.end), section)
+
+        def section_of(plies: Sequence[Ply]) -> Section:
+            return self.section(plies, section.reference_material)
+
+        return opening_checks(section_at, beam, checks, self.design, system, section_of)
 
     def _staged(self, plies: tuple[Ply, ...], section: Section, beam: BeamResult,
                 checks: tuple[Check, ...]

@@ -15,7 +15,7 @@ from typing import Any, Literal
 CheckId = Literal["bending", "shear", "bearing", "deflection-live", "deflection-total",
                   "deflection-long-term", "bolts", "connectors", "uplift", "tension-bending",
                   "compression-bending", "vibration-frequency", "vibration-stiffness",
-                  "vibration-velocity"]
+                  "vibration-velocity", "shear-notch", "bending-net"]
 #: What a check's demand and capacity measure (selects the display unit).
 Quantity = Literal["stress", "deflection", "force", "shear_flow", "ratio", "frequency",
                    "compliance", "velocity_response"]

@@ -20,6 +20,7 @@ from ..model.member import (
 )
 from ..model.plies import PLY_STAGES, Ply, validate_ply
 from ..pipeline import MAX_PLIES
+from .openings_file import read_holes, read_notches
 
 if TYPE_CHECKING:
     from ..model.member import BeamSpec
@@ -29,7 +30,7 @@ PLY_KEYS = ("name", "material", "x", "y", "width", "height")
 PLY_OPTIONAL_KEYS = ("from", "to", "stage")
 BEAM_KEYS = frozenset({"spans", "supports", "overhang_left", "overhang_right", "bearing_length",
                        "self_weight", "loads", "combinations", "sustained_live_fraction",
-                       "pattern_live_load", "hold_down", "shored"})
+                       "pattern_live_load", "hold_down", "shored", "notches", "holes"})
 LOAD_KEYS = frozenset({"case", "type", "value", "tributary_width", "from", "to", "at",
                        "value_end", "description", "stage"})
 
@@ -238,10 +239,12 @@ def read_beam(raw: Any, path: str, problems: list[Problem]) -> BeamSpec | None:
     hold_down = None
     if "hold_down" in raw:
         hold_down = _positive(raw["hold_down"], "force", f"{path}.hold_down", problems)
+    notches = read_notches(raw.get("notches", []), f"{path}.notches", layout, problems)
+    holes = read_holes(raw.get("holes", []), f"{path}.holes", layout, problems)
     if len(problems) > before:
         return None
     return BeamSpec(layout, loads, self_weight, bearing, combos, frac, pattern, hold_down,
-                    shored)
+                    shored, notches, holes)
 
 
 def _read_loads(raw: Any, path: str, layout: BeamLayout,

@@ -8,6 +8,7 @@ from typing import TYPE_CHECKING, Any
 from ..model.materials import DENSITY_KEYS, Existing, Material
 from ..model.plies import Ply
 from ..model.units import exact_text
+from .openings_file import write_holes, write_notches
 
 if TYPE_CHECKING:
     from ..model.member import BeamSpec
@@ -126,4 +127,8 @@ def write_beam(beam: BeamSpec, system: str) -> dict[str, Any]:
         out["hold_down"] = exact_text(beam.hold_down, "force", system)
     if beam.shored:
         out["shored"] = True
+    if beam.notches:
+        out["notches"] = write_notches(beam.notches, system)
+    if beam.holes:
+        out["holes"] = write_holes(beam.holes, system)
     return out

@@ -11,6 +11,7 @@ import numpy as np
 
 from .combination import Combination
 from .errors import Problem
+from .openings import Hole, Notch
 
 CASES = ("D", "L", "Lr", "S", "W")
 SUPPORTS = ("simple", "continuous", "cantilever", "fixed-fixed", "propped")
@@ -218,6 +219,8 @@ class BeamSpec:
         hold_down: N, the uplift a support's hold-down resists (None: none).
         shored: True where the member is jacked while the added plies are put on, so the
             before-loads are taken off and everything acts on the built-up section.
+        notches: notches in the timber plies.
+        holes: holes bored through plies.
 
     """
 
@@ -230,3 +233,5 @@ class BeamSpec:
     pattern_live_load: bool = True
     hold_down: float | None = None
     shored: bool = False
+    notches: tuple[Notch, ...] = ()
+    holes: tuple[Hole, ...] = ()
