@@ -459,8 +459,8 @@ class BeamPanel(QWidget):
         loads = list(beam.loads)
         old = loads[row]
         # not columns: keep them (a varying intensity or a bearing length only while the
-        # load keeps its type)
-        load = replace(load, description=old.description,
+        # load keeps its type; the stage always)
+        load = replace(load, description=old.description, stage=old.stage,
                        value_end=old.value_end if load.type == old.type else None,
                        bearing_length=old.bearing_length if load.type == "point" else None)
         loads[row] = load

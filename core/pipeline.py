@@ -24,10 +24,13 @@ from .actions.analysis import (
     creep_factor,
     creep_moduli,
 )
+from .actions.stages import is_staged, stage_solutions
 from .design.check import Check
 from .design.eu_lsd import eu_checks
 from .design.material_notes import material_warnings
+from .design.openings import opening_checks
 from .design.segmented import SegmentResult, segment_results, segmented_checks
+from .design.staged import StagesResult, staged_checks
 from .design.us_asd import us_checks
 from .design.vibration import vibration_checks
 from .model.constants import GRAVITY
@@ -60,6 +63,7 @@ class Analysis:
         warnings: named problems that did not stop the analysis.
         segments: where some ply stops short of the member's ends, every stretch of
             constant section with its section and actions (empty otherwise).
+        stages: both stages of a member strengthened under load (None otherwise).
 
     """
 
@@ -70,6 +74,7 @@ class Analysis:
     checks: tuple[Check, ...]
     warnings: tuple[Problem, ...]
     segments: tuple[SegmentResult, ...] = ()
+    stages: StagesResult | None = None
 
     @property
     def incomplete_reasons(self) -> tuple[Problem, ...]:
@@ -174,9 +179,18 @@ class Evaluator:
             elif beam is not None:
                 checks, check_warnings = run_checks(project, section, beam, self.design)
                 warnings.extend(check_warnings)
+            stages = None
+            if beam is not None and is_staged(plies, self.project.beam):
+                checks, stage_warnings, stages = self._staged(plies, section, beam, checks)
+                warnings.extend(stage_warnings)
+            if beam is not None and (beam.spec.notches or beam.spec.holes):
+                extra, open_warnings = self._openings(section, segments, beam, checks,
+                                                      project.display_units)
+                checks += tuple(extra)
+                warnings.extend(open_warnings)
             warnings += material_warnings(section, beam, project.display_units)
             out.append(Analysis(project, section, beam, self.design, checks, tuple(warnings),
-                                segments))
+                                segments, stages))
         return out
 
     def _beams(self, candidates: list[tuple[Ply, ...]],
@@ -206,6 +220,36 @@ class Evaluator:
             tuple(s.mass_per_length * GRAVITY if spec.self_weight else 0.0 for s in secs))
         prepared = PreparedBeam.of(spec, self.design, stepping)
         return analyse_stepped(prepared, section, self.design, stepping.bounds)
+
+    def _openings(self, section: Section, segments: tuple[SegmentResult, ...],
+                  beam: BeamResult, checks: tuple[Check, ...], system: str
+                  ) -> tuple[list[Check], list[Problem]]:
+        """Notch and hole checks, each with the section of its segment."""
+        def section_at(x: float) -> Section:
+            return next((s.section for s in segments if s.start <= x <= s.end), section)
+
+        def section_of(plies: Sequence[Ply]) -> Section:
+            return self.section(plies, section.reference_material)
+
+        return opening_checks(section_at, beam, checks, self.design, system, section_of)
+
+    def _staged(self, plies: tuple[Ply, ...], section: Section, beam: BeamResult,
+                checks: tuple[Check, ...]
+                ) -> tuple[tuple[Check, ...], list[Problem], StagesResult]:
+        """The checks of a member strengthened under load (design.staged)."""
+        spec = self.project.beam
+        assert spec is not None
+        if beam.stepped:
+            raise ProjectError(Problem("plies", "staged loading (a ply with stage "
+                                       '"added") is not yet analysed together with plies '
+                                       'that stop short of the member\'s ends ("from" / '
+                                       '"to"); give one or the other'))
+        existing = self.section([p for p in plies if p.stage == "existing"],
+                                section.reference_material)
+        g = GRAVITY if spec.self_weight else 0.0
+        stages = stage_solutions(spec, existing.mass_per_length * g,
+                                 (section.mass_per_length - existing.mass_per_length) * g)
+        return staged_checks(checks, existing, section, beam, stages)
 
     def _segments(self, plies: tuple[Ply, ...], section: Section,
                   beam: BeamResult) -> tuple[SegmentResult, ...]:

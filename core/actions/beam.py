@@ -211,7 +211,7 @@ class BeamModel:
         total = F + Fe
         u = np.zeros_like(F)
         rhs = total[self.free]
-        u[self.free] = self._scale * solve_banded_spd(self._kff_scaled, rhs * self._scale)
+        u[self.free] = self._scale * _linear_solve(self._kff_scaled, rhs * self._scale)
         R = self.K @ u - total
         reactions = np.array([R[2 * n] for n in self.support_nodes])
         kinds = self.layout.support_kinds()
@@ -240,6 +240,17 @@ class BeamModel:
             return CaseSolution(V0, M0, q_el, u, reactions, reaction_moments, dq_el)
         return CaseSolution(V0, M0, q_el, u, reactions, reaction_moments, dq_el,
                             q_el * self.flexibility, dq_el * self.flexibility)
+
+
+def _linear_solve(a: np.ndarray, b: np.ndarray) -> np.ndarray:
+    """Solve the scaled free-dof system: banded Cholesky, or, where rounding makes a pivot
+    of that factorisation non-positive (an element a millionth of its neighbour's length),
+    the dense LU solve with pivoting, which raises on a singular system (a mechanism).
+    """
+    try:
+        return solve_banded_spd(a, b)
+    except np.linalg.LinAlgError:
+        return np.asarray(np.linalg.solve(a, b))
 
 
 def _element_flexibility(nodes: np.ndarray,

@@ -201,3 +201,24 @@ A_DEFAULT = 1.5e-6  # m/N (1.5 mm/kN)
 B_DEFAULT = 100.0
 #: EN 1995-1-1 7.3.1(5): modal damping ratio unless other values are proven.
 ZETA_DEFAULT = 0.01
+
+
+def k_n(product: str) -> float:
+    """EN 1995-1-1 6.5.2(2), from memory: 5 for solid timber, 6.5 for glulam, 4.5 for
+    LVL.
+    """
+    return {"glulam": 6.5, "lvl": 4.5}.get(product, 5.0)
+
+
+def k_v(product: str, h: float, h_ef: float, x: float, i: float = 0.0) -> float:
+    """EN 1995-1-1 6.5.2(2), equation (6.62), from memory: a beam notched on the side of
+    the support, k_v = min(1, k_n (1 + 1.1 i^1.5 / sqrt(h)) / (sqrt(h) (sqrt(alpha
+    (1 - alpha)) + 0.8 (x / h) sqrt(1 / alpha - alpha^2)))), h in mm, alpha = h_ef / h,
+    x the distance from the line of action of the reaction to the notch corner, i the
+    notch inclination (0: a square notch).
+    """
+    h_mm = h * 1000.0
+    a = h_ef / h
+    num = k_n(product) * (1 + 1.1 * i**1.5 / h_mm**0.5)
+    den = h_mm**0.5 * ((a * (1 - a)) ** 0.5 + 0.8 * (x / h) * (1 / a - a * a) ** 0.5)
+    return float(min(1.0, num / den))

@@ -232,3 +232,26 @@ def C_P(Fc_star: float, Emin_adj: float, effective: float, least: float,
 def F_cE(Emin_adj: float, effective: float, least: float) -> float:
     """NDS 2018 3.7.1 / 3.9.2 critical buckling design value 0.822 E'min / (l_e/d)^2, Pa."""
     return 0.822 * Emin_adj / (effective / least) ** 2
+
+
+def notch_tension_factor(d_n: float, d: float) -> float:
+    """NDS 2018 3.4.3.2(a), equation 3.4-3 (from memory): a rectangular member notched
+    on the tension face at its end, V'_r = (2/3) F'v b d_n (d_n / d)^2; written on the
+    stress f_v = 3 V / (2 b d_n), the allowable is F'v times (d_n / d)^2.
+    """
+    return (d_n / d) ** 2
+
+
+def d_e_compression_notch(d: float, d_n: float, e: float) -> float:
+    """NDS 2018 3.4.3.2(c), equation 3.4-5 (from memory): a notch on the compression face
+    at the end, V'_r = (2/3) F'v b [d - ((d - d_n) / d_n) e] for e <= d_n, and d_n in
+    place of that bracket where e > d_n; returns the bracket (the effective depth).
+    """
+    return d - (d - d_n) / d_n * e if e <= d_n else d_n
+
+
+def notch_depth_limit(at_end: bool, d: float) -> float:
+    """NDS 2018 4.4.3 (from memory): a notch at the end of a sawn bending member at most
+    d / 4 deep; elsewhere at most d / 6 (and never in the middle third of the span).
+    """
+    return d / 4 if at_end else d / 6

@@ -16,7 +16,7 @@ CheckId = Literal["bending", "shear", "bearing", "deflection-live", "deflection-
                   "deflection-long-term", "bolts", "connectors", "uplift", "tension-bending",
                   "compression-bending", "vibration-frequency", "vibration-stiffness",
                   "vibration-velocity", "load-transfer", "bolt-spacing", "bolt-edge",
-                  "bolt-end", "bending-net", "splitting"]
+                  "bolt-end", "bending-net", "splitting", "shear-notch"]
 #: What a check's demand and capacity measure (selects the display unit).
 Quantity = Literal["stress", "deflection", "force", "shear_flow", "ratio", "frequency",
                    "compliance", "velocity_response", "length"]

@@ -12,6 +12,7 @@ from .. import __version__
 from ..actions.analysis import BeamResult
 from ..actions.beam import Extremes
 from ..design.segmented import SegmentResult
+from ..design.staged import StageActions, StagesResult
 from ..model.caution import ASSUMPTIONS, CAUTION, FIRE_NOTE
 from ..model.errors import Problem, ProjectError
 from ..model.units import fmt, sig
@@ -172,6 +173,20 @@ def segment_dict(seg: SegmentResult) -> dict[str, Any]:
             "section": section_dict(seg.section), "plies": plies_list(seg.section, None)}
 
 
+def stages_dict(st: StagesResult) -> dict[str, Any]:
+    """Both stages of a member strengthened under load: each stage's plies, EI, and per
+    combination its extreme moments, largest deflection and ply stresses (SI).
+    """
+    def one(sec: Section, rows: tuple[StageActions, ...]) -> dict[str, Any]:
+        return {"plies": [p.name for p in sec.plies], "EI": sec.EI, "combinations": [
+            {"combination": r.combination, "M_max": r.M_max, "M_min": r.M_min,
+             "deflection_max": r.deflection_max,
+             "ply_stresses": [{"name": n, "stress_top": t, "stress_bottom": b}
+                              for n, t, b in r.ply_stresses]} for r in rows]}
+    return {"shored": False, "before": one(st.existing, st.before),
+            "after": one(st.built_up, st.after)}
+
+
 def check_json(a: Analysis, moment: float | None = None, shear: float | None = None
                ) -> dict[str, Any]:
     """The object printed by ``plystack check --json`` (SI base units)."""
@@ -192,6 +207,8 @@ def check_json(a: Analysis, moment: float | None = None, shear: float | None = N
         out["beam"] = beam_dict(a.beam, a.section)
     if a.segments:
         out["segments"] = [segment_dict(seg) for seg in a.segments]
+    if a.stages is not None:
+        out["stages"] = stages_dict(a.stages)
     if a.checks:
         out["checks"] = [c.to_dict() for c in a.checks]
         gov = max(a.checks, key=lambda c: c.ratio)

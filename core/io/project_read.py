@@ -10,21 +10,29 @@ from ..model import units
 from ..model.combination import EU_DURATIONS, KINDS, US_DURATIONS, Combination
 from ..model.errors import Problem
 from ..model.materials import Material, existing_from_record, material_from_record
-from ..model.member import CASES, BeamLayout, Load, validate_layout, validate_load
-from ..model.plies import Ply, validate_ply
+from ..model.member import (
+    CASES,
+    LOAD_STAGES,
+    BeamLayout,
+    Load,
+    validate_layout,
+    validate_load,
+)
+from ..model.plies import PLY_STAGES, Ply, validate_ply
 from ..pipeline import MAX_PLIES
+from .openings_file import read_holes, read_notches
 
 if TYPE_CHECKING:
     from ..model.member import BeamSpec
 
 PLY_KEYS = ("name", "material", "x", "y", "width", "height")
 #: Keys a ply may have besides PLY_KEYS: its extent along the member.
-PLY_OPTIONAL_KEYS = ("from", "to")
+PLY_OPTIONAL_KEYS = ("from", "to", "stage")
 BEAM_KEYS = frozenset({"spans", "supports", "overhang_left", "overhang_right", "bearing_length",
                        "self_weight", "loads", "combinations", "sustained_live_fraction",
-                       "pattern_live_load", "hold_down"})
+                       "pattern_live_load", "hold_down", "shored", "notches", "holes"})
 LOAD_KEYS = frozenset({"case", "type", "value", "tributary_width", "from", "to", "at",
-                       "value_end", "description", "bearing_length"})
+                       "value_end", "description", "bearing_length", "stage"})
 
 
 #: Where the trade has a range for a bolt diameter: the NDS 2018 12.3 yield limit
@@ -88,6 +96,14 @@ def _number(raw: Any, path: str, problems: list[Problem], lo: float | None = Non
         problems.append(Problem(path, f"{shown(raw)} must be a whole number (a count)"))
         return None
     return v
+
+
+def _choice(raw: Any, allowed: tuple[str, ...], path: str, problems: list[Problem]) -> str:
+    """One of ``allowed`` (the first, with a problem, otherwise)."""
+    if isinstance(raw, str) and raw in allowed:
+        return raw
+    problems.append(Problem(path, f"{shown(raw)} is not one of " + ", ".join(allowed)))
+    return allowed[0]
 
 
 def _flag(raw: Any, path: str, problems: list[Problem]) -> bool:
@@ -158,12 +174,13 @@ def read_plies(raw: Any, path: str, known: Mapping[str, Material],
         dims = {k: _quantity(rec[k], "length", f"{p}.{k}", problems)
                 for k in ("x", "y", "width", "height") if k in rec}
         ends = {k: _quantity(rec[k], "length", f"{p}.{k}", problems)
-                for k in PLY_OPTIONAL_KEYS if k in rec}
+                for k in ("from", "to") if k in rec}
+        stage = _choice(rec.get("stage", "existing"), PLY_STAGES, f"{p}.stage", problems)
         if len(problems) > before:
             continue
         ply = Ply(str(name), str(mat), float(dims["x"] or 0.0), float(dims["y"] or 0.0),
                   float(dims["width"] or 0.0), float(dims["height"] or 0.0),
-                  start=ends.get("from"), end=ends.get("to"))
+                  start=ends.get("from"), end=ends.get("to"), stage=stage)
         probs = validate_ply(ply, p)
         problems.extend(probs)
         if not probs:
@@ -218,12 +235,16 @@ def read_beam(raw: Any, path: str, problems: list[Problem]) -> BeamSpec | None:
         frac = _number(raw["sustained_live_fraction"], f"{path}.sustained_live_fraction",
                        problems, 0.0, 1.0)
     pattern = _flag(raw.get("pattern_live_load", True), f"{path}.pattern_live_load", problems)
+    shored = _flag(raw.get("shored", False), f"{path}.shored", problems)
     hold_down = None
     if "hold_down" in raw:
         hold_down = _positive(raw["hold_down"], "force", f"{path}.hold_down", problems)
+    notches = read_notches(raw.get("notches", []), f"{path}.notches", layout, problems)
+    holes = read_holes(raw.get("holes", []), f"{path}.holes", layout, problems)
     if len(problems) > before:
         return None
-    return BeamSpec(layout, loads, self_weight, bearing, combos, frac, pattern, hold_down)
+    return BeamSpec(layout, loads, self_weight, bearing, combos, frac, pattern, hold_down,
+                    shored, notches, holes)
 
 
 def _load_positions(rec: dict[str, Any], typ: str, dim: str, p: str,
@@ -298,6 +319,7 @@ def _read_loads(raw: Any, path: str, layout: BeamLayout,
         elif "tributary_width" in rec:
             problems.append(Problem(f"{p}.tributary_width", "only applies to area loads"))
         start, end, at, value_end, lb = _load_positions(rec, typ, dims[typ], p, problems)
+        stage = _choice(rec.get("stage", "after"), LOAD_STAGES, f"{p}.stage", problems)
         description = rec.get("description", "")
         if not isinstance(description, str):
             problems.append(Problem(f"{p}.description", "must be text"))
@@ -307,7 +329,7 @@ def _read_loads(raw: Any, path: str, layout: BeamLayout,
             problems.append(Problem(f"{p}.value_end", "only applies to area and line loads"))
             continue
         load = Load(str(case), str(typ), value, trib, start, end, at, value_end, description,
-                    lb)
+                    lb, stage)
         if length > 0:
             probs = validate_load(load, length, p)
             problems.extend(probs)

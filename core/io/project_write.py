@@ -8,6 +8,7 @@ from typing import TYPE_CHECKING, Any
 from ..model.materials import DENSITY_KEYS, Existing, Material
 from ..model.plies import Ply
 from ..model.units import exact_text
+from .openings_file import write_holes, write_notches
 
 if TYPE_CHECKING:
     from ..model.member import BeamSpec
@@ -67,6 +68,8 @@ def write_plies(plies: tuple[Ply, ...], system: str) -> list[dict[str, Any]]:
             rec["from"] = exact_text(p.start, "span", system)
         if p.end is not None:
             rec["to"] = exact_text(p.end, "span", system)
+        if p.stage != "existing":
+            rec["stage"] = p.stage
         out.append(rec)
     return out
 
@@ -104,6 +107,8 @@ def write_beam(beam: BeamSpec, system: str) -> dict[str, Any]:
             rec["description"] = ld.description
         if ld.bearing_length is not None:
             rec["bearing_length"] = exact_text(ld.bearing_length, "length", system)
+        if ld.stage != "after":
+            rec["stage"] = ld.stage
         loads.append(rec)
     out["loads"] = loads
     if beam.combinations is None:
@@ -122,4 +127,10 @@ def write_beam(beam: BeamSpec, system: str) -> dict[str, Any]:
         out["pattern_live_load"] = False
     if beam.hold_down is not None:
         out["hold_down"] = exact_text(beam.hold_down, "force", system)
+    if beam.shored:
+        out["shored"] = True
+    if beam.notches:
+        out["notches"] = write_notches(beam.notches, system)
+    if beam.holes:
+        out["holes"] = write_holes(beam.holes, system)
     return out

@@ -11,12 +11,15 @@ import numpy as np
 
 from .combination import Combination
 from .errors import Problem
+from .openings import Hole, Notch
 
 CASES = ("D", "L", "Lr", "S", "W")
 SUPPORTS = ("simple", "continuous", "cantilever", "fixed-fixed", "propped")
 #: Supports that may have several spans and overhangs (pinned supports throughout).
 PINNED = ("simple", "continuous")
 LOAD_TYPES = ("area", "line", "point")
+#: When a load is put on: before the member is strengthened, or after.
+LOAD_STAGES = ("before", "after")
 #: Positions closer than this fraction of the member length share one node.
 MERGE_TOLERANCE = 1e-7
 
@@ -38,6 +41,7 @@ class Load:
         description: what the load is (free text for the calculation sheet), may be empty.
         bearing_length: m, point loads only: the length along the member over which the
             load bears on the top face (None: no bearing check under this load).
+        stage: "before" (on the member before it is strengthened) or "after".
 
     """
 
@@ -51,6 +55,7 @@ class Load:
     value_end: float | None = None
     description: str = ""
     bearing_length: float | None = None
+    stage: str = "after"
 
     @property
     def line_value(self) -> float:
@@ -220,6 +225,10 @@ class BeamSpec:
         pattern_live_load: load each span and overhang with the variable cases or not
             and envelope (ASCE 7-16 4.3.3, 7.5; EN 1991-1-1 6.2.1).
         hold_down: N, the uplift a support's hold-down resists (None: none).
+        shored: True where the member is jacked while the added plies are put on, so the
+            before-loads are taken off and everything acts on the built-up section.
+        notches: notches in the timber plies.
+        holes: holes bored through plies.
 
     """
 
@@ -231,3 +240,6 @@ class BeamSpec:
     sustained_live_fraction: float | None = None
     pattern_live_load: bool = True
     hold_down: float | None = None
+    shored: bool = False
+    notches: tuple[Notch, ...] = ()
+    holes: tuple[Hole, ...] = ()

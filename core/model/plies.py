@@ -31,6 +31,8 @@ class Ply:
         start: where the ply begins along the member, m from its left end (JSON
             ``"from"``); None: at the left end.
         end: where it stops, m (JSON ``"to"``); None: at the right end.
+        stage: "existing" (in the member before it is strengthened) or "added" (put on
+            while the member carries its before-loads; see BeamSpec.shored).
 
     """
 
@@ -42,6 +44,7 @@ class Ply:
     height: float
     start: float | None = None
     end: float | None = None
+    stage: str = "existing"
 
     @property
     def x_centre(self) -> float:
@@ -85,6 +88,10 @@ def validate_ply(ply: Ply, path: str) -> list[Problem]:
         if math.isfinite(value) and value <= 0:
             problems.append(Problem(f"{path}.{field}", "must be greater than zero"))
     return problems
+
+
+#: The stages a ply may belong to.
+PLY_STAGES = ("existing", "added")
 
 
 def validate_extent(ply: Ply, length: float, path: str) -> list[Problem]:

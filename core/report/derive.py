@@ -138,6 +138,14 @@ def ply_index(section: Section, name: str | None) -> int:
 def derive(a: Analysis, c: Check) -> Derivation:
     """The derivation of one check of the analysis."""
     u = a.project.display_units
+    if (c.segment is not None or a.stages is not None) and c.id != "bolts":
+        # a segment's or a staged check: its equation, notes and demand (the worked
+        # derivation of the whole-member section does not apply)
+        where = [c.equation, *c.notes] + ([] if c.segment is None else [
+            f"Made in segment {c.segment + 1} with that segment's section, at x = "
+            f"{q(c.x or 0.0, 'length', u, IN)}."])
+        return Derivation(tuple(where), f"demand = {result(c, u)}", capacity_line(a, c, u),
+                          ratio_line(c, u))
     if c.id == "bending":
         where, demand = _bending(a, c, u)
     elif c.id == "shear" and c.location.startswith("support"):
