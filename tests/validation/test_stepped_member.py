@@ -165,3 +165,16 @@ def test_segments_in_json_and_every_stress_check_has_its_segment():
     # the plate is checked only where it is
     assert {c["segment"] for c in out["checks"] if c["ply"] == "flitch plate"
             and c["id"] == "bending"} == {1}
+
+
+def test_a_ply_ending_inside_the_member_makes_the_verdict_incomplete():
+    """The plate's share of the shear beyond its ends must enter through the bolts near
+    them; that transfer is not checked yet, so the verdict cannot be OK (project rule: a
+    check that cannot be made makes the verdict INCOMPLETE).
+    """
+    a = run(from_dict(_demo("1 ft", "11 ft", True)))
+    paths = [r.path for r in a.incomplete_reasons]
+    assert "plies[1].from" in paths and "plies[1].to" in paths
+    assert a.verdict == "INCOMPLETE"
+    whole = run(from_dict(_demo("0 ft", "12 ft", True)))
+    assert not any(r.path.startswith("plies[1].") for r in whole.incomplete_reasons)
