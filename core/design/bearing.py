@@ -219,6 +219,16 @@ def _bearers(section: Section, sites: list[BearingSite], key: str, design: Desig
     return out
 
 
+def _borne(section: Section, sites: list[BearingSite], key: str, design: DesignSpec,
+           warnings: list[Problem]) -> list[tuple[BearingSite, BearingSurface, int, float]]:
+    """Each site that timber bears with a ``key`` value: (site, surface, weakest ply,
+    its value); the sites whose face has no such timber are left out (warned once).
+    """
+    bearers = _bearers(section, sites, key, design, warnings)
+    return [(site, *bearer) for site in sites
+            if (bearer := bearers[site.face]) is not None]
+
+
 def us_bearing(section: Section, beam: BeamResult, design: DesignSpec,
                warnings: list[Problem]) -> list[Check]:
     """NDS 2018 3.10 bearing at every support and under every point load with a bearing
@@ -231,13 +241,8 @@ def us_bearing(section: Section, beam: BeamResult, design: DesignSpec,
     if not combos or not sites:
         return []
     L = beam.model.layout.length
-    bearers = _bearers(section, sites, "Fc_perp", design, warnings)
     out = []
-    for site in sites:
-        bearer = bearers[site.face]
-        if bearer is None:
-            continue
-        surface, i_min, fcp = bearer
+    for site, surface, i_min, fcp in _borne(section, sites, "Fc_perp", design, warnings):
         mat = section.materials[i_min]
         worst = max(combos, key=site.force)
         if site.face == "top":
@@ -284,13 +289,8 @@ def eu_bearing(section: Section, beam: BeamResult, design: DesignSpec,
     if not uls or not sites:
         return []
     L = beam.model.layout.length
-    bearers = _bearers(section, sites, "fc90_k", design, warnings)
     out = []
-    for site in sites:
-        bearer = bearers[site.face]
-        if bearer is None:
-            continue
-        surface, i_min, fc90 = bearer
+    for site, surface, i_min, fc90 in _borne(section, sites, "fc90_k", design, warnings):
         mat = section.materials[i_min]
         l_ef = en_effective_length(site, L)
         spread = l_ef - site.length

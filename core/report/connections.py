@@ -151,12 +151,17 @@ def support_shear_text(a: Analysis, c: Check, u: str, sym: str) -> tuple[list[st
              f"Section without the plate: I_t = {q(s.I_transformed, 'second_moment', u, IN)}; "
              f"Q = {q(Q, 'first_moment', u, IN)} at y = {q(y, 'length', u, IN)}; b = "
              f"{q(b, 'length', u, IN)}; n = {num(n, IN)}"]
+    return where, shear_demand_text(sym, V, n, Q, s.I_transformed, b, u,
+                                    q(c.demand, "stress", u))
+
+
+def shear_demand_text(sym: str, V: float, n: float, Q: float, I_t: float, b: float, u: str,
+                      result_text: str) -> str:
+    """The printed shear stress |V| n Q / (I_t b) with its numbers (SI forces in kN)."""
     kN = f" {TIMES} 1,000{NBSP}N/kN" if u == "SI" else ""
-    demand = (f"{sym} = |V| n Q / (I_t b) = {q(V, 'force', u, IN)}{kN} {TIMES} {num(n, IN)} "
-              f"{TIMES} {q(Q, 'first_moment', u, IN)} / "
-              f"({q(s.I_transformed, 'second_moment', u, IN)} {TIMES} "
-              f"{q(b, 'length', u, IN)}) = {q(c.demand, 'stress', u)}")
-    return where, demand
+    return (f"{sym} = |V| n Q / (I_t b) = {q(V, 'force', u, IN)}{kN} {TIMES} {num(n, IN)} "
+            f"{TIMES} {q(Q, 'first_moment', u, IN)} / ({q(I_t, 'second_moment', u, IN)} "
+            f"{TIMES} {q(b, 'length', u, IN)}) = {result_text}")
 
 
 def geometry_text(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:

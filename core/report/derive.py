@@ -28,7 +28,13 @@ from ..model.combination import EN1990_PSI
 from ..pipeline import Analysis
 from ..section.transformed import Section
 from .bolts import bolt_derivation
-from .connections import geometry_text, net_text, support_shear_text, transfer_text
+from .connections import (
+    geometry_text,
+    net_text,
+    shear_demand_text,
+    support_shear_text,
+    transfer_text,
+)
 from .handbook import handbook_terms
 from .numbers import NBSP, TIMES, exact, factor_text, num, q, q_den
 
@@ -399,13 +405,8 @@ def _shear(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
                      "the plies wholly beyond the cut")
     where.append(f"b = {q(b, 'length', u, IN)} (width of {c.ply} at the cut); n = {num(n, IN)};"
                  f" I_t = {q(s.I_transformed, 'second_moment', u, IN)}")
-    kN = f" {TIMES} 1,000{NBSP}N/kN" if u == "SI" else ""
     sym = _symbols(a, c)[0]
-    demand = (f"{sym} = |V| n Q / (I_t b) = {q(V, 'force', u, IN)}{kN} {TIMES} {num(n, IN)} "
-              f"{TIMES} {q(Q, 'first_moment', u, IN)} / "
-              f"({q(s.I_transformed, 'second_moment', u, IN)} {TIMES} "
-              f"{q(b, 'length', u, IN)}) = {result(c, u)}")
-    return where, demand
+    return where, shear_demand_text(sym, V, n, Q, s.I_transformed, b, u, result(c, u))
 
 
 def _bearing(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
