@@ -82,8 +82,11 @@ def check_block(a: Analysis, c: Check, first: Check | None, width: float,
     return [KeepTogether(out + rest)]
 
 
-def checks_section(a: Analysis, width: float) -> list[Any]:
-    """Section 6."""
+def checks_section(a: Analysis, width: float, before_table: list[Any] | None = None
+                   ) -> list[Any]:
+    """Section 6; ``before_table`` goes between the checks written out and the table of
+    all checks.
+    """
     u = a.project.display_units
     out: list[Any] = [para("6  Design checks", H1),
                       para("Every check of every combination, written out. Each kind of check "
@@ -104,6 +107,7 @@ def checks_section(a: Analysis, width: float) -> list[Any]:
         rows.append([label(a, c), c.id, place(c), c.combination or "",
                      q(c.demand, c.quantity, u), q(c.capacity, c.quantity, u),
                      f"{c.ratio:.3f}", "OK" if c.ok else "NOT OK"])
+    out += before_table or []
     out += [para("All checks", H2), table(rows, width, font_size=6.8, align_right=(4, 5, 6)),
             para(CAUTION, CAUTION_STYLE)]
     return out

@@ -47,15 +47,38 @@ def plate_setup(a: Analysis, c: Check, plate: str | None = None) -> tuple[Joint,
     assert beam is not None
     name = plate or c.ply
     jt = next(j for j in side_by_side_joints(s) if s.plies[j.steel].name == name)
+    layout = layout_for(a, jt)
+    if layout is None:
+        raise ValueError("the plate's bolt value cannot be made")
+    return jt, layout, plate_share(s, jt.steel)
+
+
+def layout_for(a: Analysis, jt: Joint) -> BoltLayout | None:
+    """The bolt layout of one plate as its design checks place it (None where the bolt's
+    value cannot be made, so neither can the layout).
+    """
+    s, beam = a.section, a.beam
+    assert beam is not None
     unit = a.project.display_units
     driver = us_asd if a.design.us else eu_lsd
     warnings: list[Problem] = []
     value = driver.bolt_value(s, a.design, jt, unit, warnings)
     if value is None:
-        raise ValueError("the plate's bolt value cannot be made")
+        return None
     combos = beam.strength() or beam.combinations
-    layout = plate_layout(s, beam, a.design, jt, value, combos, unit)
-    return jt, layout, plate_share(s, jt.steel)
+    return plate_layout(s, beam, a.design, jt, value, combos, unit)
+
+
+def plate_layouts(a: Analysis) -> list[tuple[Joint, BoltLayout]]:
+    """Every bolted plate of the member with its layout, in ply order."""
+    if a.beam is None:
+        return []
+    out = []
+    for jt in side_by_side_joints(a.section):
+        layout = layout_for(a, jt)
+        if layout is not None:
+            out.append((jt, layout))
+    return out
 
 
 def _items(a: Analysis, c: Check, layout: BoltLayout, share: float) -> list[Transfer]:

@@ -19,10 +19,13 @@ from ..pipeline import Analysis, run
 from ..study.compare import alternatives_with_current, summarise
 from .checks import checks_section, place
 from .derive import symbol_text
+from .description import member_description
 from .drawings import profile_drawing, section_drawing
 from .layout import BODY, CAUTION_STYLE, EQ, FONT, H1, H2, SMALL, para, table
 from .loads import beam_section
+from .member import elevation_block, segments_block, staged_block, transfer_block
 from .numbers import exact, factor, num, plain, q, unit, words
+from .plate_detail import plate_details
 from .sources import sources_section
 
 IN = 5
@@ -35,10 +38,13 @@ def story(a: Analysis, original: Project, width: float) -> list[Any]:
     out += _basis(a, u)
     out += _section(a, u, width)
     out += _transformed(a, u, width)
+    out += segments_block(a, width)
     out += beam_section(a, u, width)
+    out += staged_block(a, width)
     out += _profiles(a, u, width)
-    out += checks_section(a, width)
+    out += checks_section(a, width, transfer_block(a, width))
     out += _summary(a, original, u, width)
+    out += plate_details(a, width)
     out += sources_section(a, width)
     return out
 
@@ -61,6 +67,7 @@ def _basis(a: Analysis, u: str) -> list[Any]:
     description = a.project.info.get("description", "")
     if description:
         out.append(para("Member: " + description, BODY))
+    out.append(para("Member as built up: " + member_description(a), BODY))
     out += [para(basis, BODY),
             para(f"Units: {system}. Deflection limits: live L/{live:g}, total L/{total:g}, "
                  f"long-term L/{long_term:g}. Wet service: {'yes' if d.wet_service else 'no'}; "
@@ -94,7 +101,7 @@ def _section(a: Analysis, u: str, width: float) -> list[Any]:
                             colWidths=[80 * mm, right], hAlign="LEFT",
                             style=[("VALIGN", (0, 0), (-1, -1), "TOP"),
                                    ("FONTNAME", (0, 0), (-1, -1), FONT)])]
-    mats = [["Material", "Name", "Kind", "E", "Design values (sources: section 8)"]]
+    mats = [["Material", "Name", "Kind", "E", "Design values (sources: section 9)"]]
     seen: list[str] = []
     for m in s.materials:
         if m.id in seen:
@@ -108,6 +115,7 @@ def _section(a: Analysis, u: str, width: float) -> list[Any]:
             vals += f"; density {exact(m.density, 'density', u)}"
         mats.append([m.id, m.name, m.kind, exact(m.E, "modulus", u), vals])
     out += [para("Materials", H2), table(mats, width)]
+    out += elevation_block(a, width)
     return out
 
 

@@ -62,7 +62,7 @@ def sources_section(a: Analysis, width: float) -> list[Any]:
             continue
         seen.append(m.id)
         mats.append([m.id, m.name, without_memory_note(words(m.source))])
-    return [CondPageBreak(90 * mm), para("8  Sources", H1),
+    return [CondPageBreak(90 * mm), para("9  Sources", H1),
             para(VERIFY, BODY),
             para("Standards", H2), *[para("\u2022 " + s, BODY) for s in standards(a)],
             para("Factors and reference values used by the checks", H2),
