@@ -49,6 +49,20 @@ def segments_block(a: Analysis, width: float) -> list[Any]:
     """
     if not a.segments:
         return []
+    rows = segment_rows(a)
+    return [CondPageBreak(40 * mm), para("Segments along the member", H2),
+            para("Where a ply stops short of the member's ends, the member is cut at every "
+                 "ply end; between two cuts the section is constant (section 3 gives the "
+                 "method; each segment is transformed to the same reference material). The "
+                 "stress checks are made in every segment with its own section, both ends "
+                 "included; deflection, bearing and the bolts use the whole member. The "
+                 "governing check is the highest ratio of the checks made in the segment.",
+                 SMALL),
+            table(rows, width, align_right=(4, 5, 7))]
+
+
+def segment_rows(a: Analysis) -> list[list[str]]:
+    """The segments table as printed, header first."""
     u = a.project.display_units
     rows = [["Segment", "From", "To", "Plies present", "EI", "y_na", "Governing check",
              "Ratio"]]
@@ -62,15 +76,7 @@ def segments_block(a: Analysis, width: float) -> list[Any]:
                      "" if gov is None else f"{label(a, gov)} {gov.id}, {gov.ply or ''} "
                      f"({gov.combination or 'layout'})",
                      "" if gov is None else f"{gov.ratio:.3f}"])
-    return [CondPageBreak(40 * mm), para("Segments along the member", H2),
-            para("Where a ply stops short of the member's ends, the member is cut at every "
-                 "ply end; between two cuts the section is constant (section 3 gives the "
-                 "method; each segment is transformed to the same reference material). The "
-                 "stress checks are made in every segment with its own section, both ends "
-                 "included; deflection, bearing and the bolts use the whole member. The "
-                 "governing check is the highest ratio of the checks made in the segment.",
-                 SMALL),
-            table(rows, width, align_right=(4, 5, 7))]
+    return rows
 
 
 def staged_combinations(a: Analysis) -> list[str]:
@@ -114,32 +120,63 @@ def staged_block(a: Analysis, width: float) -> list[Any]:
                            "bounds the checks' values from above, which take the largest sum "
                            "along the member).", SMALL)]
     for name in staged_combinations(a):
-        b = next(s for s in st.before if s.combination == name)
-        f = next(s for s in st.after if s.combination == name)
-        before = {n: (t, bt) for n, t, bt in b.ply_stresses}
-        values = [("largest sagging moment", b.M_max, f.M_max, "moment"),
-                  ("largest hogging moment", b.M_min, f.M_min, "moment"),
-                  ("largest immediate deflection", b.deflection_max, f.deflection_max,
-                   "deflection")]
-        for n, t, bt in f.ply_stresses:
-            t1, b1 = before.get(n, (0.0, 0.0))
-            values += [(f"{n}: top fibre stress", t1, t, "stress"),
-                       (f"{n}: bottom fibre stress", b1, bt, "stress")]
-        rows = [["Quantity", "Before (existing plies)", "After (built-up section)", "Sum"]]
-        rows += [[what, q(x, kind, u, 5), q(y, kind, u, 5), q(x + y, kind, u, 5)]
-                 for what, x, y, kind in values]
         out += [para(f"Stages under {name}", H3),
-                table(rows, width, align_right=(1, 2, 3))]
+                table(staged_rows(a, name), width, align_right=(1, 2, 3))]
     return out
+
+
+def staged_rows(a: Analysis, name: str) -> list[list[str]]:
+    """The stages of one combination as printed, header first."""
+    st = a.stages
+    assert st is not None
+    u = a.project.display_units
+    b = next(s for s in st.before if s.combination == name)
+    f = next(s for s in st.after if s.combination == name)
+    before = {n: (t, bt) for n, t, bt in b.ply_stresses}
+    values = [("largest sagging moment", b.M_max, f.M_max, "moment"),
+              ("largest hogging moment", b.M_min, f.M_min, "moment"),
+              ("largest immediate deflection", b.deflection_max, f.deflection_max,
+               "deflection")]
+    for n, t, bt in f.ply_stresses:
+        t1, b1 = before.get(n, (0.0, 0.0))
+        values += [(f"{n}: top fibre stress", t1, t, "stress"),
+                   (f"{n}: bottom fibre stress", b1, bt, "stress")]
+    rows = [["Quantity", "Before (existing plies)", "After (built-up section)", "Sum"]]
+    rows += [[what, q(x, kind, u, 5), q(y, kind, u, 5), q(x + y, kind, u, 5)]
+             for what, x, y, kind in values]
+    return rows
 
 
 def transfer_block(a: Analysis, width: float) -> list[Any]:
     """The load-transfer checks in one table a reviewer recomputes by hand."""
-    checks = [c for c in a.checks if c.id == "load-transfer"]
-    if not checks or a.beam is None:
+    if a.beam is None or not any(c.id == "load-transfer" for c in a.checks):
         return []
+    sym = transfer_symbol(a)
+    return [CondPageBreak(50 * mm), para("Load transfer at supports and point loads", H2),
+            para("For every support the plate does not bear on and every point load on the "
+                 "plate's length: the plate's share \u03b1 = E_p I_p,na / EI of the reaction "
+                 "or load (its bending stiffness share, section 3) passes between plate and "
+                 "timbers through the bolts of the transfer zone, the stations within the "
+                 "member depth d either side (at least the nearest; common practice). "
+                 f"Capacity: n bolts in the zone times the adjusted value of one bolt {sym} "
+                 "(its factors as in the bolts check). Ratio = \u03b1 F / (n "
+                 f"{sym}). Stations are numbered from the left, bolts per station in "
+                 "parentheses.", SMALL),
+            table(transfer_rows(a), width, font_size=6.3,
+                  align_right=(4, 5, 6, 9, 10, 11, 12))]
+
+
+def transfer_symbol(a: Analysis) -> str:
+    """The adjusted value of one bolt: Z' (NDS) or F_v,Rd (EN 1995-1-1)."""
+    return "Z\u2032" if a.design.us else "F_v,Rd"
+
+
+def transfer_rows(a: Analysis) -> list[list[str]]:
+    """The load-transfer table as printed, header first."""
+    assert a.beam is not None
+    checks = [c for c in a.checks if c.id == "load-transfer"]
     u = a.project.display_units
-    sym = "Z\u2032" if a.design.us else "F_v,Rd"
+    sym = transfer_symbol(a)
     lays = {a.section.plies[jt.steel].name: (jt, lay) for jt, lay in plate_layouts(a)}
     rows = [["Label", "Plate", "Combination", "At", "F", "\u03b1", "\u03b1 F",
              "Transfer zone", "Bolts in the zone", "n", f"{sym} per bolt", f"n {sym}",
@@ -162,17 +199,7 @@ def transfer_block(a: Analysis, width: float) -> list[Any]:
                      q(c.demand, "force", u), f"{position_text(lo, u)} to "
                      f"{position_text(hi, u)}", stations, str(t.bolts),
                      q(per, "force", u, 5), q(c.capacity, "force", u), f"{c.ratio:.3f}"])
-    return [CondPageBreak(50 * mm), para("Load transfer at supports and point loads", H2),
-            para("For every support the plate does not bear on and every point load on the "
-                 "plate's length: the plate's share \u03b1 = E_p I_p,na / EI of the reaction "
-                 "or load (its bending stiffness share, section 3) passes between plate and "
-                 "timbers through the bolts of the transfer zone, the stations within the "
-                 "member depth d either side (at least the nearest; common practice). "
-                 f"Capacity: n bolts in the zone times the adjusted value of one bolt {sym} "
-                 "(its factors as in the bolts check). Ratio = \u03b1 F / (n "
-                 f"{sym}). Stations are numbered from the left, bolts per station in "
-                 "parentheses.", SMALL),
-            table(rows, width, font_size=6.3, align_right=(4, 5, 6, 9, 10, 11, 12))]
+    return rows
 
 
 def _transfer_of(a: Analysis, c: Check, lay: BoltLayout, share: float) -> Transfer:
