@@ -248,10 +248,12 @@ class Evaluator:
         if beam.stepped:
             parts = self._stage_parts(plies, segments)
             stages = stepped_stage_solutions(spec, stage_stiffness(parts, segments, g))
-            return staged_checks(checks, existing, section, beam, stages, parts)
+            return staged_checks(checks, existing, section, beam, stages, self.design,
+                                 self.project.display_units, parts)
         stages = stage_solutions(spec, existing.mass_per_length * g,
                                  (section.mass_per_length - existing.mass_per_length) * g)
-        return staged_checks(checks, existing, section, beam, stages)
+        return staged_checks(checks, existing, section, beam, stages, self.design,
+                             self.project.display_units)
 
     def _stage_parts(self, plies: tuple[Ply, ...], segments: tuple[SegmentResult, ...]
                      ) -> tuple[StagePart, ...]:

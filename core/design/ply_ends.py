@@ -144,7 +144,7 @@ def ply_end_checks(section: Section, beam: BeamResult, segments: Sequence[Segmen
                              "bolts"))
             continue
         if e.ply not in values:
-            values[e.ply] = _bolts_of(section, beam, design, jt, system, combos)
+            values[e.ply] = bolts_of(section, beam, design, jt, system, combos)
         got = values[e.ply]
         if got is None:
             gaps.append(_gap(section, e, "its bolts cannot be valued (see the bolt check's "
@@ -164,7 +164,7 @@ def ply_end_checks(section: Section, beam: BeamResult, segments: Sequence[Segmen
     return checks, gaps
 
 
-def _bolts_of(section: Section, beam: BeamResult, design: DesignSpec, jt: Joint, system: str,
+def bolts_of(section: Section, beam: BeamResult, design: DesignSpec, jt: Joint, system: str,
               combos: tuple[CombinationResult, ...]) -> tuple[BoltValue, BoltLayout] | None:
     """The plate's bolt value and layout, as its ``bolts`` check has them (the warnings of
     a missing value are that check's).

@@ -10,7 +10,8 @@ Deflections: the before-stage on the existing EI plus the after-stage on the bui
 EI, with creep per stage for the long-term check (sustained part on the crept section).
 The demand of each bending, shear and deflection check made for the finished member is
 replaced by the larger of the staged value and its own (pattern arrangements stay
-covered by the latter).
+covered by the latter); combined stresses, net sections, bearing and the connections are
+handled as ``staged_connections`` states.
 
 A stepped member (plies stopping short of its ends) is checked segment by segment: each
 stress check of a segment adds the before-stage on that segment's existing plies and the
@@ -28,11 +29,18 @@ import numpy as np
 from ..actions.analysis import BeamResult, CombinationResult, creep_moduli
 from ..actions.beam import CaseSolution, extremes
 from ..actions.stages import StageSolutions, StageStiffness
+from ..model.design import DesignSpec
 from ..model.errors import Problem
 from ..section.transformed import Section, with_moduli
 from .check import Check
 from .common import unit_shear_stress
 from .segmented import SegmentResult
+from .staged_connections import (
+    staged_bearing,
+    staged_interaction,
+    staged_net,
+    upper_bound_notes,
+)
 
 STAGED_NOTE = ("Staged loading: the before-loads and the existing plies' self-weight act "
                "on the existing plies alone, the rest on the built-up section; the two "
@@ -261,7 +269,7 @@ def _deflection(c: Check, beam: BeamResult, EI: tuple[float, float],
 
 
 def staged_checks(checks: tuple[Check, ...], existing: Section, built: Section,
-                  beam: BeamResult, stages: StageSolutions,
+                  beam: BeamResult, stages: StageSolutions, design: DesignSpec, system: str,
                   parts: Sequence[StagePart] = ()
                   ) -> tuple[tuple[Check, ...], list[Problem], StagesResult]:
     """The checks with staged demands, warnings, and both stages for the output;
@@ -269,6 +277,7 @@ def staged_checks(checks: tuple[Check, ...], existing: Section, built: Section,
     segment's sections, within it).
     """
     combos = {c.name: c for c in beam.combinations}
+    warnings: list[Problem] = []
     crept = with_moduli(existing, creep_moduli(existing, beam.creep_factor))
     EI = (existing.EI, built.EI)
     EI_c = (crept.EI, beam.creep_section.EI)
@@ -285,12 +294,18 @@ def staged_checks(checks: tuple[Check, ...], existing: Section, built: Section,
             out.append(_shear(c, combo, old, new, stages, span))
         elif c.id.startswith("deflection"):
             out.append(_deflection(c, beam, EI, EI_c, stages))
+        elif c.id in ("tension-bending", "compression-bending") and combo is not None:
+            out.append(staged_interaction(c, combo, old, new, beam, design, stages, span,
+                                          _max_fibre, warnings))
+        elif c.id == "bending-net" and combo is not None:
+            out.append(staged_net(c, combo, old, new, beam, design, stages, span, _max_fibre,
+                                  system))
+        elif c.id == "bearing":
+            out.append(staged_bearing(c, beam, stages))
         else:
             out.append(c)
-    warnings = [Problem("plies", "staged loading: the combined bending and axial "
-                        "checks, bearing, bolts and connectors are made for the finished "
-                        "member under every load (not by stage)")]
-    return tuple(out), warnings, _result(existing, built, beam, stages)
+    out, gaps = upper_bound_notes(out, beam, existing, stages)
+    return tuple(out), warnings + gaps, _result(existing, built, beam, stages)
 
 
 def _actions(which: str, sec: Section, combo: CombinationResult,
