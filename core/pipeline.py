@@ -24,13 +24,13 @@ from .actions.analysis import (
     creep_factor,
     creep_moduli,
 )
-from .actions.stages import is_staged, stage_solutions
+from .actions.stages import is_staged, stage_solutions, stepped_stage_solutions
 from .design.check import Check
 from .design.eu_lsd import eu_checks
 from .design.material_notes import material_warnings
 from .design.openings import opening_checks
 from .design.segmented import SegmentResult, segment_results, segmented_checks
-from .design.staged import StagesResult, staged_checks
+from .design.staged import StagePart, StagesResult, stage_stiffness, staged_checks
 from .design.us_asd import us_checks
 from .design.vibration import vibration_checks
 from .model.constants import GRAVITY
@@ -181,7 +181,8 @@ class Evaluator:
                 warnings.extend(check_warnings)
             stages = None
             if beam is not None and is_staged(plies, self.project.beam):
-                checks, stage_warnings, stages = self._staged(plies, section, beam, checks)
+                checks, stage_warnings, stages = self._staged(plies, section, beam, checks,
+                                                              segments)
                 warnings.extend(stage_warnings)
             if beam is not None and (beam.spec.notches or beam.spec.holes):
                 extra, open_warnings = self._openings(section, segments, beam, checks,
@@ -234,22 +235,40 @@ class Evaluator:
         return opening_checks(section_at, beam, checks, self.design, system, section_of)
 
     def _staged(self, plies: tuple[Ply, ...], section: Section, beam: BeamResult,
-                checks: tuple[Check, ...]
+                checks: tuple[Check, ...], segments: tuple[SegmentResult, ...] = ()
                 ) -> tuple[tuple[Check, ...], list[Problem], StagesResult]:
-        """The checks of a member strengthened under load (design.staged)."""
+        """The checks of a member strengthened under load (design.staged); on a stepped
+        member each stage on its own stepped stiffness, the checks segment by segment.
+        """
         spec = self.project.beam
         assert spec is not None
-        if beam.stepped:
-            raise ProjectError(Problem("plies", "staged loading (a ply with stage "
-                                       '"added") is not yet analysed together with plies '
-                                       'that stop short of the member\'s ends ("from" / '
-                                       '"to"); give one or the other'))
         existing = self.section([p for p in plies if p.stage == "existing"],
                                 section.reference_material)
         g = GRAVITY if spec.self_weight else 0.0
+        if beam.stepped:
+            parts = self._stage_parts(plies, segments)
+            stages = stepped_stage_solutions(spec, stage_stiffness(parts, segments, g))
+            return staged_checks(checks, existing, section, beam, stages, self.design,
+                                 self.project.display_units, parts)
         stages = stage_solutions(spec, existing.mass_per_length * g,
                                  (section.mass_per_length - existing.mass_per_length) * g)
-        return staged_checks(checks, existing, section, beam, stages)
+        return staged_checks(checks, existing, section, beam, stages, self.design,
+                             self.project.display_units)
+
+    def _stage_parts(self, plies: tuple[Ply, ...], segments: tuple[SegmentResult, ...]
+                     ) -> tuple[StagePart, ...]:
+        """Each segment's existing plies (a named problem where a segment has none)."""
+        out = []
+        for s in segments:
+            old = [plies[i] for i in s.plies if plies[i].stage == "existing"]
+            if not old:
+                raise ProjectError(Problem("plies", "staged loading: no existing ply runs "
+                                           f"from x = {s.start:.6g} m to {s.end:.6g} m, so "
+                                           "the member could not carry the before-loads "
+                                           "there; every stretch needs an existing ply"))
+            existing = self.section(old, s.section.reference_material)
+            out.append(StagePart(s.start, s.end, existing, s.section))
+        return tuple(out)
 
     def _segments(self, plies: tuple[Ply, ...], section: Section,
                   beam: BeamResult) -> tuple[SegmentResult, ...]:

@@ -102,16 +102,22 @@ def _bending_for(i: int, section: Section, beam: BeamResult, combo: CombinationR
 
 
 def interaction_check(i: int, section: Section, beam: BeamResult, combo: CombinationResult,
-                      design: DesignSpec, warnings: list[Problem]) -> Check | None:
+                      design: DesignSpec, warnings: list[Problem],
+                      demand: PlyDemand | None = None) -> Check | None:
     """EN 1995-1-1 6.2.3 / 6.2.4 (6.3.2 where the compression ply is unbraced) for a ply
     wholly above or below the neutral axis.
+    ``demand``: the ply's stresses where the caller has them (a member
+    strengthened under load), else those of the combination.
     """
     ply, mat = section.plies[i], section.materials[i]
     y_na = section.neutral_axis_y
     if not (section.y_bottom[i] >= y_na - 1e-12 or section.y_top[i] <= y_na + 1e-12):
         return None
-    final = eu_uls_section(section, beam, combo, design)
-    demands = ply_demands(section, beam, combo, i, design, eu_final=final)
+    if demand is not None:
+        demands = [demand]
+    else:
+        final = eu_uls_section(section, beam, combo, design)
+        demands = ply_demands(section, beam, combo, i, design, eu_final=final)
     if not demands:
         return None
     d = max(demands, key=lambda x: x.stress)

@@ -58,12 +58,20 @@ def net_section(section: Section, joint: Joint, layout: BoltLayout, k: int,
     """Exact moments of the transformed section less a d_hole high rectangle, as wide as
     each ply the bolt passes through, at every hole of station k.
     """
+    heights = tuple(layout.rows[r] for r in layout.station_rows[k])
+    return holes_removed(section, (joint.steel, *joint.timbers), heights, d_hole, k)
+
+
+def holes_removed(section: Section, plies: tuple[int, ...], heights: tuple[float, ...],
+                  d_hole: float, station: int) -> NetSection:
+    """The section less a d_hole high rectangle as wide as each of ``plies`` at every
+    height in ``heights`` (exact moments).
+    """
     n = section.E / section.E_ref
     S0 = float(np.sum(n * section.area))
     S1 = float(np.sum(n * section.first_y))
     S2 = float(np.sum(n * section.second_y))
-    heights = tuple(layout.rows[r] for r in layout.station_rows[k])
-    for i in (joint.steel, *joint.timbers):
+    for i in plies:
         b = section.plies[i].width
         for y in heights:
             A = b * d_hole
@@ -71,7 +79,16 @@ def net_section(section: Section, joint: Joint, layout: BoltLayout, k: int,
             S1 -= float(n[i]) * A * y
             S2 -= float(n[i]) * (A * y * y + b * d_hole**3 / 12)
     y_na = S1 / S0
-    return NetSection(k, y_na, S2 - S1 * y_na, heights)
+    return NetSection(station, y_na, S2 - S1 * y_na, heights)
+
+
+def net_fibres(section: Section, net: NetSection, i: int) -> tuple[float, float]:
+    """Stress at ply i's top and bottom fibres per unit moment on the net section, Pa per
+    N m: -E_i (y - y_na,net) / (E_ref I_t,net).
+    """
+    E_i, k = float(section.E[i]), section.E_ref * net.I_t
+    return (-E_i * (float(section.y_top[i]) - net.y_na) / k,
+            -E_i * (float(section.y_bottom[i]) - net.y_na) / k)
 
 
 def modulus_loss(section: Section, i: int, net: NetSection) -> float:

@@ -6,6 +6,11 @@ segment, both ends included: at a ply's end the neighbouring segment, without th
 is checked under the moment and shear there, so the remaining plies act alone. Checks
 of the whole member (deflection, bearing, uplift, bolts, connectors, vibration) are made
 once, on the whole-member actions; their section is the one with every ply.
+
+At every end of a ply inside the member, the force the ply carries just inside its end
+must enter it through its fasteners near that end: for a bolted side-by-side steel plate
+that is the ``load-transfer`` check of :mod:`.ply_ends`; any other ply end is a named
+missing check.
 """
 
 from __future__ import annotations
@@ -16,12 +21,12 @@ from dataclasses import dataclass, replace
 
 from ..actions.analysis import BeamResult, creep_moduli
 from ..model.design import DesignSpec
-from ..model.errors import MissingCheck, Problem
+from ..model.errors import Problem
 from ..model.project import Project
-from ..model.units import fmt
 from ..section.segments import Segment
 from ..section.transformed import Section, with_moduli
 from .check import Check
+from .ply_ends import ply_end_checks
 
 #: Checks made in every segment (the plies' stresses); the others are the member's.
 SEGMENT_IDS = frozenset({"bending", "shear", "tension-bending", "compression-bending"})
@@ -82,8 +87,9 @@ def segmented_checks(project: Project, section: Section, beam: BeamResult,
     its segment and its x; warnings once each.
     """
     member, warnings = run_checks(project, section, beam, design)
-    warnings += end_transfer_gaps(section, beam.model.layout.length)
-    checks = [c for c in member if c.id not in SEGMENT_IDS]
+    ends, gaps = ply_end_checks(section, beam, segments, design, project.display_units)
+    warnings += gaps
+    checks = [c for c in member if c.id not in SEGMENT_IDS] + ends
     seen = {(w.path, w.message) for w in warnings}
     for seg in segments:
         own, notes = run_checks(project, seg.section, seg.beam, design)
@@ -98,23 +104,3 @@ def segmented_checks(project: Project, section: Section, beam: BeamResult,
                 seen.add((w.path, w.message))
                 warnings.append(w)
     return tuple(checks), warnings
-
-
-def end_transfer_gaps(section: Section, length: float) -> list[Problem]:
-    """A missing check (verdict INCOMPLETE) for every ply end inside the member: the
-    share of the shear that the ply takes just beyond its end must enter it through the
-    fasteners near that end, and that transfer is not checked yet (the bolt checks
-    cover supports and point loads only).
-    """
-    out: list[Problem] = []
-    tol = 1e-9 * max(length, 1.0)
-    for i, ply in enumerate(section.plies):
-        start, end = ply.extent(length)
-        for key, x in (("from", start), ("to", end)):
-            if tol < x < length - tol:
-                out.append(MissingCheck(
-                    f"plies[{i}].{key}", f"{ply.name} ends at x = {fmt(x, 'span', 'SI')} "
-                    "inside the member: the share of the shear it takes beyond that end must "
-                    "enter it through the fasteners near the end, and that transfer is not "
-                    "checked by this version"))
-    return out

@@ -10,27 +10,75 @@ Deflections: the before-stage on the existing EI plus the after-stage on the bui
 EI, with creep per stage for the long-term check (sustained part on the crept section).
 The demand of each bending, shear and deflection check made for the finished member is
 replaced by the larger of the staged value and its own (pattern arrangements stay
-covered by the latter).
+covered by the latter); combined stresses, net sections, bearing and the connections are
+handled as ``staged_connections`` states.
+
+A stepped member (plies stopping short of its ends) is checked segment by segment: each
+stress check of a segment adds the before-stage on that segment's existing plies and the
+after-stage on the segment's section, within the segment; each stage is solved on its own
+stepped stiffness (``actions.stages``), so deflections add in true units.
 """
 
 from __future__ import annotations
 
-from collections.abc import Mapping
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, replace
 
 import numpy as np
 
 from ..actions.analysis import BeamResult, CombinationResult, creep_moduli
 from ..actions.beam import CaseSolution, extremes
-from ..actions.stages import StageSolutions
+from ..actions.stages import StageSolutions, StageStiffness
+from ..model.design import DesignSpec
 from ..model.errors import Problem
 from ..section.transformed import Section, with_moduli
 from .check import Check
 from .common import unit_shear_stress
+from .segmented import SegmentResult
+from .staged_connections import (
+    staged_bearing,
+    staged_interaction,
+    staged_net,
+    upper_bound_notes,
+)
 
 STAGED_NOTE = ("Staged loading: the before-loads and the existing plies' self-weight act "
                "on the existing plies alone, the rest on the built-up section; the two "
                "stages add.")
+
+
+@dataclass(frozen=True)
+class StagePart:
+    """One segment of a stepped member strengthened under load.
+
+    Attributes:
+        start: m from the left end.
+        end: m.
+        existing: the section of the segment's existing plies.
+        built_up: the segment's section (every ply acting there).
+
+    """
+
+    start: float
+    end: float
+    existing: Section
+    built_up: Section
+
+
+def stage_stiffness(parts: Sequence[StagePart], segments: Sequence[SegmentResult],
+                    gravity: float) -> StageStiffness:
+    """The stepped stiffness and self-weight of both stages (``gravity`` 0 where the
+    self-weight is not counted); the crept EI with each segment's creep factor.
+    """
+    crept = [with_moduli(p.existing, creep_moduli(p.existing, s.beam.creep_factor))
+             for p, s in zip(parts, segments, strict=True)]
+    return StageStiffness(
+        tuple((p.start, p.end) for p in parts), tuple(p.existing.EI for p in parts),
+        tuple(p.built_up.EI for p in parts), tuple(c.EI for c in crept),
+        tuple(s.beam.creep_section.EI for s in segments),
+        tuple(p.existing.mass_per_length * gravity for p in parts),
+        tuple((p.built_up.mass_per_length - p.existing.mass_per_length) * gravity
+              for p in parts))
 
 
 @dataclass(frozen=True)
@@ -65,11 +113,23 @@ class StagesResult:
     after: tuple[StageActions, ...]
 
 
+def _elements(nodes: np.ndarray, span: tuple[float, float] | None) -> range | list[int]:
+    """The elements of the mesh within ``span`` (all of them where None)."""
+    if span is None:
+        return range(nodes.size - 1)
+    tol = 1e-9 * max(float(nodes[-1]), 1.0)
+    return [e for e in range(nodes.size - 1)
+            if nodes[e] >= span[0] - tol and nodes[e + 1] <= span[1] + tol]
+
+
 def _max_fibre(sol1: CaseSolution, sol2: CaseSolution, k1: float, k2: float,
-               nodes: np.ndarray) -> tuple[float, float]:
-    """Largest |k1 M1(x) + k2 M2(x)| along the member, and where (exact per element)."""
-    best = (0.0, float(nodes[0]))
-    for e in range(nodes.size - 1):
+               nodes: np.ndarray, span: tuple[float, float] | None = None
+               ) -> tuple[float, float]:
+    """Largest |k1 M1(x) + k2 M2(x)| along the member (or within ``span``), and where
+    (exact per element).
+    """
+    best = (0.0, float(nodes[0]) if span is None else span[0])
+    for e in _elements(nodes, span):
         le = float(nodes[e + 1] - nodes[e])
         poly = sum(k * np.array([s.dq[e] / 6, s.q[e] / 2, s.V0[e], s.M0[e]])
                    for k, s in ((k1, sol1), (k2, sol2)))
@@ -95,7 +155,7 @@ def _stage_pair(stages: StageSolutions, f: Mapping[str, float]
 
 
 def _bending(c: Check, combo: CombinationResult, existing: Section, built: Section,
-             stages: StageSolutions) -> Check:
+             stages: StageSolutions, span: tuple[float, float] | None = None) -> Check:
     i2 = _index(built, c.ply or "")
     if i2 is None:
         return c
@@ -104,25 +164,46 @@ def _bending(c: Check, combo: CombinationResult, existing: Section, built: Secti
     top2, bot2 = built.ply_extreme_stresses(1.0)
     top1, bot1 = existing.ply_extreme_stresses(1.0)
     k1 = (0.0, 0.0) if i1 is None else (float(top1[i1]), float(bot1[i1]))
-    worst = max(_max_fibre(s1, s2, a, b, stages.model.nodes)
+    worst = max(_max_fibre(s1, s2, a, b, stages.model.nodes, span)
                 for a, b in zip(k1, (float(top2[i2]), float(bot2[i2])), strict=True))
     return _replaced(c, *worst)
 
 
+def _V_max(stages: StageSolutions, sol: CaseSolution,
+           span: tuple[float, float] | None) -> tuple[float, float]:
+    """Largest |V| of ``sol`` along the member (or within ``span``) and where: V is
+    quadratic per element, so its ends and the root of its slope.
+    """
+    if span is None:
+        ext = extremes(stages.model, sol, 1.0)
+        return ext.V_max_abs, ext.x_V_max_abs
+    nodes = stages.model.nodes
+    best = (0.0, span[0])
+    for e in _elements(nodes, span):
+        le = float(nodes[e + 1] - nodes[e])
+        xs = [0.0, le]
+        if sol.dq[e] != 0 and 0 < -sol.q[e] / sol.dq[e] < le:
+            xs.append(float(-sol.q[e] / sol.dq[e]))
+        for x in xs:
+            v = abs(float(sol.V0[e] + sol.q[e] * x + sol.dq[e] * x * x / 2))
+            if v > best[0]:
+                best = (v, float(nodes[e]) + x)
+    return best
+
+
 def _shear(c: Check, combo: CombinationResult, existing: Section, built: Section,
-           stages: StageSolutions) -> Check:
+           stages: StageSolutions, span: tuple[float, float] | None = None) -> Check:
     i2 = _index(built, c.ply or "")
     if i2 is None:
         return c
     i1 = _index(existing, c.ply or "")
     s1, s2 = _stage_pair(stages, combo.combination.factors)
-    e1 = extremes(stages.model, s1, 1.0)
-    e2 = extremes(stages.model, s2, 1.0)
+    V1, x1 = _V_max(stages, s1, span)
+    V2, x2 = _V_max(stages, s2, span)
     t1 = 0.0 if i1 is None else float(unit_shear_stress(existing)[i1])
     t2 = float(unit_shear_stress(built)[i2])
-    demand = e1.V_max_abs * t1 + e2.V_max_abs * t2
-    return _replaced(c, demand, e1.x_V_max_abs if e1.V_max_abs * t1 > e2.V_max_abs * t2
-                     else e2.x_V_max_abs)
+    demand = V1 * t1 + V2 * t2
+    return _replaced(c, demand, x1 if V1 * t1 > V2 * t2 else x2)
 
 
 def _replaced(c: Check, demand: float, x: float | None) -> Check:
@@ -149,6 +230,24 @@ def _deflection_solution(stages: StageSolutions, f: Mapping[str, float],
     return out
 
 
+def _stepped_deflection_solution(stages: StageSolutions, f: Mapping[str, float],
+                                 sus: Mapping[str, float] | None) -> CaseSolution:
+    """Both stages of a stepped member in true units: each stage on its own stepped EI;
+    with ``sus`` the sustained part of each on its crept stepped EI.
+    """
+    out = None
+    for which in ("before", "after"):
+        if sus is None:
+            s = stages.stage(which, f)
+        else:
+            rest = {c: v - sus.get(c, 0.0) for c, v in f.items()}
+            s = (stages.stage(which, {c: sus.get(c, 0.0) for c in f}, crept=True)
+                 + stages.stage(which, rest))
+        out = s if out is None else out + s
+    assert out is not None
+    return out
+
+
 def _deflection(c: Check, beam: BeamResult, EI: tuple[float, float],
                 EI_c: tuple[float, float], stages: StageSolutions) -> Check:
     combo = next((k for k in beam.combinations if k.name == c.combination), None)
@@ -158,42 +257,61 @@ def _deflection(c: Check, beam: BeamResult, EI: tuple[float, float],
     else:
         f = combo.combination.factors
         sus = combo.sustained_factors if c.id == "deflection-long-term" else None
-    sol = _deflection_solution(stages, f, sus, EI, EI_c)
-    ext = extremes(stages.model, sol, EI[1])
+    if stages.stepped:
+        sol = _stepped_deflection_solution(stages, f, sus)
+        ext = extremes(stages.model, sol, 1.0)
+    else:
+        sol = _deflection_solution(stages, f, sus, EI, EI_c)
+        ext = extremes(stages.model, sol, EI[1])
     w, x = next(((abs(w), x) for name, w, x in ext.deflection_by_region
                  if name == c.location), (c.demand, c.x))
     return _replaced(c, w, x)
 
 
 def staged_checks(checks: tuple[Check, ...], existing: Section, built: Section,
-                  beam: BeamResult, stages: StageSolutions
+                  beam: BeamResult, stages: StageSolutions, design: DesignSpec, system: str,
+                  parts: Sequence[StagePart] = ()
                   ) -> tuple[tuple[Check, ...], list[Problem], StagesResult]:
-    """The checks with staged demands, warnings, and both stages for the output."""
+    """The checks with staged demands, warnings, and both stages for the output;
+    ``parts``: the segments of a stepped member (a check made in a segment takes that
+    segment's sections, within it).
+    """
     combos = {c.name: c for c in beam.combinations}
+    warnings: list[Problem] = []
     crept = with_moduli(existing, creep_moduli(existing, beam.creep_factor))
     EI = (existing.EI, built.EI)
     EI_c = (crept.EI, beam.creep_section.EI)
     out = []
     for c in checks:
         combo = combos.get(c.combination or "")
+        old, new, span = existing, built, None
+        if c.segment is not None and parts:
+            part = parts[c.segment]
+            old, new, span = part.existing, part.built_up, (part.start, part.end)
         if c.id == "bending" and combo is not None:
-            out.append(_bending(c, combo, existing, built, stages))
+            out.append(_bending(c, combo, old, new, stages, span))
         elif c.id == "shear" and combo is not None:
-            out.append(_shear(c, combo, existing, built, stages))
+            out.append(_shear(c, combo, old, new, stages, span))
         elif c.id.startswith("deflection"):
             out.append(_deflection(c, beam, EI, EI_c, stages))
+        elif c.id in ("tension-bending", "compression-bending") and combo is not None:
+            out.append(staged_interaction(c, combo, old, new, beam, design, stages, span,
+                                          _max_fibre, warnings))
+        elif c.id == "bending-net" and combo is not None:
+            out.append(staged_net(c, combo, old, new, beam, design, stages, span, _max_fibre,
+                                  system))
+        elif c.id == "bearing":
+            out.append(staged_bearing(c, beam, stages))
         else:
             out.append(c)
-    warnings = [Problem("plies", "staged loading: the combined bending and axial "
-                        "checks, bearing, bolts and connectors are made for the finished "
-                        "member under every load (not by stage)")]
-    return tuple(out), warnings, _result(existing, built, beam, stages)
+    out, gaps = upper_bound_notes(out, beam, existing, stages)
+    return tuple(out), warnings + gaps, _result(existing, built, beam, stages)
 
 
 def _actions(which: str, sec: Section, combo: CombinationResult,
              stages: StageSolutions) -> StageActions:
     sol = stages.stage(which, combo.combination.factors)
-    e = extremes(stages.model, sol, sec.EI)
+    e = extremes(stages.model, sol, 1.0 if stages.stepped else sec.EI)
     m = e.M_max if abs(e.M_max) >= abs(e.M_min) else e.M_min
     top, bot = sec.ply_extreme_stresses(m)
     return StageActions(combo.name, e.M_max, e.M_min, e.deflection_max_abs,

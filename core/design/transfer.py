@@ -279,3 +279,94 @@ def support_shear_checks(section: Section, beam: BeamResult, combo: CombinationR
                    f"shear beside it, |V| = {fmt(V, 'force', system)}, on the section "
                    "without the plate (its share reaches them through the bolts there).",)))
     return out
+
+
+@dataclass(frozen=True)
+class PlateActions:
+    """The stress resultants a plate carries at a cut, from the section's moment and shear
+    (the transformed-section method: the plate's strain is the section's).
+
+    Attributes:
+        x: the cut, m.
+        F: axial force, N (tension positive), sigma at the plate's centroid x A_plate,
+            sigma = -E_p M (y_c - y_na) / EI.
+        V: the plate's share of the shear, alpha V, N.
+        M_own: the plate's own moment about its centroid, E_p I_p,own M / EI, N m.
+        y_c: height of the plate's centroid, m.
+
+    """
+
+    x: float
+    F: float
+    V: float
+    M_own: float
+    y_c: float
+
+
+def plate_actions(section: Section, i: int, x: float, M: float, V: float) -> PlateActions:
+    """Ply i's stress resultants at a cut where the section carries M and V."""
+    E_p, EI = float(section.E[i]), section.EI
+    A = float(section.area[i])
+    y_c = float(section.first_y[i]) / A
+    I_own = float(section.second_y[i]) - A * y_c * y_c
+    F = -E_p * M * (y_c - section.neutral_axis_y) / EI * A
+    alpha = E_p * float(section.I_na[i]) / EI
+    return PlateActions(x, F, alpha * V, E_p * I_own * M / EI, y_c)
+
+
+@dataclass(frozen=True)
+class GroupForce:
+    """The elastic bolt-group analysis of the bolts that develop a plate's actions (common
+    practice, the elastic method for eccentric bolt groups: each bolt takes the direct
+    share F / n, V / n and the moment about the group's centroid in proportion to its
+    distance r, M_g r / J, J = sum r^2).
+
+    Attributes:
+        actions: the plate's actions at the cut.
+        bolts: bolts in the group.
+        x_g: centroid of the group along the member, m.
+        y_g: its height, m.
+        M_g: moment about the group's centroid, N m: |M_own| + |F| |y_c - y_g| +
+            |V| |x - x_g| (the parts added by magnitude, conservative).
+        J: sum of r^2 of the bolts about the centroid, m^2.
+        f_max: force on the most loaded bolt, N (components added by magnitude,
+            conservative); infinite where J = 0 and M_g > 0 (one bolt cannot resist a
+            moment).
+
+    """
+
+    actions: PlateActions
+    bolts: int
+    x_g: float
+    y_g: float
+    M_g: float
+    J: float
+    f_max: float
+
+    @property
+    def resultant(self) -> float:
+        """sqrt(F^2 + V^2), the plate's force at the cut without the moment, N."""
+        return math.hypot(self.actions.F, self.actions.V)
+
+
+def group_force(bolts: tuple[tuple[float, float], ...], act: PlateActions) -> GroupForce:
+    """The force on the most loaded bolt of ``bolts`` ((x, y), m) developing ``act``."""
+    n = len(bolts)
+    x_g = sum(b[0] for b in bolts) / n
+    y_g = sum(b[1] for b in bolts) / n
+    M_g = abs(act.M_own) + abs(act.F) * abs(act.y_c - y_g) + abs(act.V) * abs(act.x - x_g)
+    J = sum((x - x_g) ** 2 + (y - y_g) ** 2 for x, y in bolts)
+    if J <= 0.0:
+        f_max = math.hypot(act.F, act.V) / n if M_g == 0.0 else math.inf
+    else:
+        f_max = max(math.hypot(abs(act.F) / n + M_g * abs(y - y_g) / J,
+                               abs(act.V) / n + M_g * abs(x - x_g) / J) for x, y in bolts)
+    return GroupForce(act, n, x_g, y_g, M_g, J, f_max)
+
+
+def end_zone(layout: BoltLayout, x_end: float, depth: float) -> tuple[int, ...]:
+    """The stations that develop a plate's force at its end ``x_end``: those within the
+    member depth d of the end (the transfer-zone rule of the module text), at least the
+    nearest.
+    """
+    return _zone(layout, x_end, depth)

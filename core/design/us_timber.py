@@ -146,17 +146,23 @@ def _bending_for(i: int, section: Section, beam: BeamResult, combo: CombinationR
 
 
 def interaction_check(i: int, section: Section, beam: BeamResult, combo: CombinationResult,
-                      design: DesignSpec, warnings: list[Problem]) -> Check | None:
+                      design: DesignSpec, warnings: list[Problem],
+                      demand: PlyDemand | None = None) -> Check | None:
     """NDS 2018 3.9.1 (bending and axial tension) or 3.9.2 (bending and axial
     compression) for a ply wholly above or below the neutral axis: its centroid stress is
     the axial stress f_t or f_c, the rest about its own centroid the bending stress f_b.
+    ``demand``: the ply's stresses where the caller has them (a member
+    strengthened under load), else those of the combination.
     """
     ply, mat = section.plies[i], section.materials[i]
     y_na = section.neutral_axis_y
     if not (section.y_bottom[i] >= y_na - 1e-12 or section.y_top[i] <= y_na + 1e-12):
         return None
     wet, temp = design.wet_service, design.temperature
-    demands = ply_demands(section, beam, combo, i, design)
+    if demand is not None:
+        demands = [demand]
+    else:
+        demands = ply_demands(section, beam, combo, i, design)
     if not demands:
         return None
     d = max(demands, key=lambda x: x.stress)

@@ -158,6 +158,9 @@ def derive(a: Analysis, c: Check) -> Derivation:
         where, demand = support_shear_text(a, c, u, _symbols(a, c)[0])
     elif c.id == "shear":
         where, demand = _shear(a, c, u)
+    elif c.id == "load-transfer" and c.location.startswith("end of"):
+        # a plate's end inside the member: the bolt group's statics are in the notes
+        where, demand = [c.equation, *c.notes], f"demand = n f_max = {result(c, u)}"
     elif c.id == "load-transfer":
         where, demand = transfer_text(a, c, u)
     elif c.id in ("bolt-spacing", "bolt-edge", "bolt-end"):

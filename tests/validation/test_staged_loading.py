@@ -133,3 +133,120 @@ def test_stage_keys_read_write_and_name_bad_values():
         from_dict(bad)
     paths = {q.path for q in info.value.problems}
     assert {"plies[1].stage", "beam.loads[1].stage", "beam.shored"} <= paths
+
+
+# --- stepped and staged together -------------------------------------------------------
+# The plate of _project() stops 1.5 ft short of each support. Sources: the hand stages
+# above; the deflection of each stage by the unit-load method (virtual work, delta =
+# integral M m / EI(x) dx) integrated exactly by sympy over the stage's piecewise EI; a
+# propped member's reaction by compatibility (any structural analysis text).
+
+def _stepped(shored: bool = False, supports: str = "simple") -> dict:
+    d = _project(shored)
+    d["plies"][1]["from"] = "1.5 ft"
+    d["plies"][1]["to"] = "13.5 ft"
+    d["beam"]["supports"] = supports
+    return d
+
+
+def _virtual_work(L, w, pieces, x0):
+    import sympy as sp
+    x = sp.symbols("x")
+    M = w * x * (L - x) / 2
+    m = sp.Piecewise((x * (L - x0) / L, x <= x0), (x0 * (L - x) / L, True))
+    total = 0
+    for a, b, EI in pieces:
+        for lo, hi in ((a, min(b, x0)), (max(a, x0), b)):
+            if hi > lo:
+                total += sp.integrate(M * m / EI, (x, lo, hi))
+    return float(total)
+
+
+def test_stepped_and_staged_timber_stress_by_segment_by_hand():
+    """Simple span, so both stages' moments are the statics' w x (L - x) / 2 whatever the
+    stiffness. Middle segment: f = M1 c / I_joist + M2 c / I_t at midspan; end segment
+    (joist alone in both stages): f = (M1 + M2) c / I_joist at the plate's end, 1.5 ft."""
+    p = from_dict(_stepped())
+    a = run(p)
+    assert a.stages is not None and len(a.segments) == 3
+    f_mid, _, _ = _hand(p)
+    L, d, b = 15 * FT, 9.25 * INCH, 1.5 * INCH
+    x = 1.5 * FT
+    f_end = (140 * PLF) * x * (L - x) / 2 * (d / 2) / (b * d**3 / 12)
+    bend = {c.segment: c for c in a.checks if c.id == "bending" and c.ply == "joist"
+            and c.combination == "D + L"}
+    assert bend[1].demand == pytest.approx(f_mid, rel=1e-9)
+    assert bend[1].x == pytest.approx(7.5 * FT, rel=1e-9)
+    assert bend[0].demand == pytest.approx(f_end, rel=1e-9)
+    assert bend[0].x == pytest.approx(x, rel=1e-9)
+
+
+def test_stepped_and_staged_deflection_against_virtual_work():
+    """Before-stage (40 plf) on the joist alone (prismatic: 5 w L^4 / 384 EI); after-stage
+    (100 plf) on the stepped EI, joist alone beyond the plate. Long-term (US, D wholly
+    sustained): the before-stage on EI_joist / K_cr, the after-stage short-term."""
+    import sympy as sp
+    p = from_dict(_stepped())
+    a = run(p)
+    mats = p.all_materials()
+    Et, Es = mats["DFL-No2"].E, mats["A36"].E
+    b, t, d = 1.5 * INCH, 0.25 * INCH, 9.25 * INCH
+    EI_j = Et * b * d**3 / 12
+    EI_b = Et * (b + Es / Et * t) * d**3 / 12
+    L = sp.nsimplify(15 * FT)
+    c1, c2 = sp.nsimplify(1.5 * FT), sp.nsimplify(13.5 * FT)
+    after = [(0, c1, sp.Float(EI_j, 30)), (c1, c2, sp.Float(EI_b, 30)),
+             (c2, L, sp.Float(EI_j, 30))]
+    w1 = 40 * PLF
+    w2 = sp.Float(100 * PLF, 30)
+    Lf = 15 * FT
+    before = 5 * w1 * Lf**4 / (384 * EI_j)
+    ref = before + _virtual_work(L, w2, after, L / 2)
+    tot = [c for c in a.checks if c.id == "deflection-total" and c.combination == "D + L"]
+    assert tot[0].demand == pytest.approx(ref, rel=1e-9)
+    K = a.beam.creep_factor
+    lt = [c for c in a.checks if c.id == "deflection-long-term" and c.combination == "D + L"]
+    assert lt[0].demand == pytest.approx(before * K + _virtual_work(L, w2, after, L / 2),
+                                         rel=1e-9)
+
+
+def test_stepped_and_staged_propped_member_redistributes_each_stage():
+    """Fixed left, pinned right: each stage's right reaction from compatibility on its own
+    stiffness, R = -int M0 m / EI / int m^2 / EI (M0 the cantilever's moment, m = s = L - x);
+    before-stage: joist alone (prismatic, 3 w L / 8); after-stage: the stepped EI. The
+    stage moments are checked through the stages' JSON (M_max of each stage)."""
+    import sympy as sp
+    p = from_dict(_stepped(supports="propped"))
+    a = run(p)
+    mats = p.all_materials()
+    Et, Es = mats["DFL-No2"].E, mats["A36"].E
+    b, t, d = 1.5 * INCH, 0.25 * INCH, 9.25 * INCH
+    EI_j = sp.Float(Et * b * d**3 / 12, 30)
+    EI_b = sp.Float(Et * (b + Es / Et * t) * d**3 / 12, 30)
+    L = sp.nsimplify(15 * FT)
+    c1, c2 = sp.nsimplify(1.5 * FT), sp.nsimplify(13.5 * FT)
+    x, R = sp.symbols("x R")
+    s = L - x
+    w2 = sp.Float(100 * PLF, 30)
+    Mx = R * s - w2 * s**2 / 2
+    eq = sum(sp.integrate(Mx * s / EI, (x, lo, hi))
+             for lo, hi, EI in ((0, c1, EI_j), (c1, c2, EI_b), (c2, L, EI_j)))
+    R2 = float(sp.solve(eq, R)[0])
+    R1 = 3 * 40 * PLF * float(L) / 8
+    # the largest sagging moment of each stage: at s = R / w from the pinned end, R^2 / 2w
+    out = check_json(a)["stages"]
+    before = {c["combination"]: c for c in out["before"]["combinations"]}["D + L"]
+    after = {c["combination"]: c for c in out["after"]["combinations"]}["D + L"]
+    assert before["M_max"] == pytest.approx(R1**2 / (2 * 40 * PLF), rel=1e-9)
+    assert after["M_max"] == pytest.approx(R2**2 / (2 * float(w2)), rel=1e-9)
+    assert abs(R2 - 3 * float(w2 * L) / 8) > 1e-4 * float(w2 * L)
+
+
+def test_stepped_and_staged_needs_an_existing_ply_everywhere():
+    d = _stepped()
+    d["plies"][0]["from"] = "1 ft"  # the existing joist no longer reaches the left end
+    d["plies"][1]["from"] = "0 ft"
+    from plystack.core.model.errors import ProjectError
+    with pytest.raises(ProjectError) as err:
+        run(from_dict(d))
+    assert "existing ply" in str(err.value)

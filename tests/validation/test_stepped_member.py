@@ -167,14 +167,15 @@ def test_segments_in_json_and_every_stress_check_has_its_segment():
             and c["id"] == "bending"} == {1}
 
 
-def test_a_ply_ending_inside_the_member_makes_the_verdict_incomplete():
-    """The plate's share of the shear beyond its ends must enter through the bolts near
-    them; that transfer is not checked yet, so the verdict cannot be OK (project rule: a
-    check that cannot be made makes the verdict INCOMPLETE).
+def test_a_plate_ending_inside_the_member_is_checked_at_its_ends():
+    """The plate's share of the section's actions just inside each end must enter through
+    the bolts near it: a ``load-transfer`` check at each end (worked by hand in
+    test_ply_end_transfer.py) instead of a missing check.
     """
     a = run(from_dict(_demo("1 ft", "11 ft", True)))
     paths = [r.path for r in a.incomplete_reasons]
-    assert "plies[1].from" in paths and "plies[1].to" in paths
-    assert a.verdict == "INCOMPLETE"
+    assert "plies[1].from" not in paths and "plies[1].to" not in paths
+    ends = [c for c in a.checks if c.id == "load-transfer" and c.location.startswith("end of")]
+    assert {round(c.x / FT, 9) for c in ends} == {1.0, 11.0}
     whole = run(from_dict(_demo("0 ft", "12 ft", True)))
-    assert not any(r.path.startswith("plies[1].") for r in whole.incomplete_reasons)
+    assert not [c for c in whole.checks if c.location.startswith("end of")]
