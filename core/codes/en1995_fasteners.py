@@ -125,8 +125,8 @@ def s_ef(s_min: float, s_max: float | None = None) -> float:
 
 def k_def_joint(k_def_1: float, k_def_2: float | None) -> float:
     """2.3.2.2(3), (4) (from memory): creep factor of a joint. Two timbers of the same
-    creep: 2 k_def; of different creep: 2 sqrt(k_def,1 k_def,2); steel to timber (``k_def_2`` None): the
-    timber's k_def.
+    creep: 2 k_def; of different creep: 2 sqrt(k_def,1 k_def,2); steel to timber
+    (``k_def_2`` None): the timber's k_def.
     """
     if k_def_2 is None:
         return k_def_1
