@@ -39,6 +39,7 @@ from .model.errors import MissingCheck, Problem, ProjectError
 from .model.materials import Material
 from .model.plies import Ply
 from .model.project import Project
+from .section.gamma import with_slip
 from .section.segments import is_stepped, segment_sections, segments_of
 from .section.transformed import Section, analyse, with_moduli
 
@@ -126,9 +127,12 @@ class Evaluator:
                          else None)
 
     def section(self, plies: Sequence[Ply], reference: str | None = None) -> Section:
-        """The transformed section of ``plies``."""
-        return analyse(tuple(plies), self.materials,
-                       reference or self.project.reference_material)
+        """The transformed section of ``plies``; stacked plies joined by mechanical
+        fasteners with their slip (EN 1995-1-1 Annex B, ``section.gamma``).
+        """
+        return with_slip(analyse(tuple(plies), self.materials,
+                                 reference or self.project.reference_material),
+                         self.design.connector, self.project.beam)
 
     def analyse(self, plies: Sequence[Ply], reference: str | None = None) -> Analysis:
         """The full analysis of the project with these plies."""

@@ -1,7 +1,8 @@
 """EN 1995-1-1:2004+A1:2008 rules for dowel-type fasteners: the minimum spacings and
 distances of bolts (Table 8.4), the effective number along the grain (8.5.1.1(4)), the
 slip modulus K_ser (Table 7.1) and splitting by a force perpendicular to the grain
-(8.1.4). All from memory; verify against the current edition and the national annex.
+(8.1.4), with K_u (7.1(4)), the joint's creep (2.3.2.2) and the effective spacing of
+Annex B. All from memory; verify against the current edition and the national annex.
 
 d and distances in m; densities in kg/m^3; alpha the angle between force and grain, deg.
 """
@@ -79,3 +80,54 @@ def F90_Rk(b: float, h_e: float, h: float, w: float = 1.0) -> float:
     """
     he, hh, bb = h_e * 1000, h * 1000, b * 1000
     return 14 * bb * w * math.sqrt(he / (1 - he / hh))
+
+
+def rho_m_joint(rho_m1: float, rho_m2: float) -> float:
+    """7.1(2): two wood-based members of different mean density, rho_m = sqrt(rho_m1
+    rho_m2), kg/m^3.
+    """
+    return math.sqrt(rho_m1 * rho_m2)
+
+
+def K_ser(kind: str, rho_m: float, d: float, predrilled: bool = False,
+          steel_to_timber: bool = False) -> float:
+    """Table 7.1 slip modulus per shear plane per fastener for serviceability, N/m:
+    dowels, bolts, screws (lag screws among them) and predrilled nails rho_m^1.5 d / 23,
+    nails without predrilling rho_m^1.5 d^0.8 / 30 (N/mm, d in mm); 7.1(3): steel-to-timber
+    joints take twice the value of the timber (rho_m of the timber).
+
+    Args:
+        kind: "screw", "lag-screw", "bolt" or "nail".
+        rho_m: mean density, kg/m^3 (rho_m_joint for two timbers).
+        d: diameter, m.
+        predrilled: nails in predrilled holes.
+        steel_to_timber: one member is steel.
+
+    """
+    if kind == "nail" and not predrilled:
+        value = K_ser_nail(rho_m, d)
+    else:
+        value = K_ser_dowel(rho_m, d)
+    return 2 * value if steel_to_timber else value
+
+
+def K_u(K_ser_value: float) -> float:
+    """7.1(4): slip modulus for the ultimate limit states, K_u = 2/3 K_ser."""
+    return 2 * K_ser_value / 3
+
+
+def s_ef(s_min: float, s_max: float | None = None) -> float:
+    """Annex B (from memory): where the spacing varies with the shear force between s_min
+    and s_max (<= 4 s_min), s_ef = 0.75 s_min + 0.25 s_max; constant spacing: s_min. m.
+    """
+    return s_min if s_max is None else 0.75 * s_min + 0.25 * s_max
+
+
+def k_def_joint(k_def_1: float, k_def_2: float | None) -> float:
+    """2.3.2.2(3), (4) (from memory): creep factor of a joint. Two timbers of the same
+    creep: 2 k_def; of different creep: 2 sqrt(k_def,1 k_def,2); steel to timber
+    (``k_def_2`` None): the timber's k_def.
+    """
+    if k_def_2 is None:
+        return k_def_1
+    return 2 * math.sqrt(k_def_1 * k_def_2)

@@ -14,9 +14,11 @@ from ..model.constants import INCH
 from ..model.design import DesignSpec
 from ..model.errors import MissingCheck, Problem
 from ..model.units import fmt
+from ..section.gamma import PartialSection
 from ..section.geometry import TOUCH_TOLERANCE, near_pairs
 from ..section.transformed import Section
 from .check import Check, CheckId, Fasteners
+from .slip import slip_connector_checks
 
 #: Stock spacings tried for fasteners, largest first, at most 24 in / 600 mm (common
 #: practice: the 16 in and 24 in framing modules and their fractions; metric equivalents).
@@ -183,7 +185,12 @@ def connector_checks(section: Section, beam: BeamResult, design: DesignSpec, sys
     """
     if not section.interfaces:
         return []
+    if isinstance(section, PartialSection):
+        return slip_connector_checks(section, beam, design, system, warnings)
     conn = design.connector
+    if conn.type == "glue":
+        warnings.append(glue_line(section, beam, system))
+        return []
     combos = list(beam.strength()) or list(beam.combinations)
     V = max(c.extremes.V_max_abs for c in combos)
     worst = max(combos, key=lambda c: c.extremes.V_max_abs)
@@ -218,8 +225,27 @@ def connector_checks(section: Section, beam: BeamResult, design: DesignSpec, sys
             "along the region of highest shear",
             fasteners=Fasteners(rows=conn.rows, spacing=s),
             x=itf.y,
-            notes=(f"Shear flow q = {float(q):.1f} N/m at |V| = {V:.1f} N; Q = {itf.Q:.4e} m^3.",)))
+            notes=(f"Shear flow q = {float(q):.1f} N/m at |V| = {V:.1f} N; Q = {itf.Q:.4e} m^3.",
+                   FULL_COMPOSITE_NOTE)))
     return out
+
+
+#: Said on the connector check of fasteners whose slip is not analysed.
+FULL_COMPOSITE_NOTE = ("Full composite action is assumed (no slip): give the connector's "
+                       "diameter and spacing to take the slip of the fasteners into account "
+                       "(EN 1995-1-1 Annex B).")
+
+
+def glue_line(section: Section, beam: BeamResult, system: str) -> Problem:
+    """A glued interface is fully composite; its glue line is not checked here."""
+    combos = list(beam.strength()) or list(beam.combinations)
+    V = max(c.extremes.V_max_abs for c in combos)
+    flows = ", ".join(f"{fmt(float(q) / itf.length, 'stress', system)} at y = "
+                      f"{fmt(itf.y, 'length', system)}"
+                      for itf, q in section.interface_shear_flows(V))
+    return MissingCheck("design.connector.type", '"glue": the glued interfaces are taken as '
+                        f"fully composite; their glue-line shear stress q / b ({flows}) "
+                        "is not checked here (it depends on the adhesive and its bond)")
 
 
 def uplift_checks(beam: BeamResult, system: str) -> list[Check]:

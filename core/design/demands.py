@@ -52,9 +52,7 @@ def _ply_state(section: Section, i: int, M: float, sustained: float | None,
     """(|extreme stress|, centroid stress, |own bending stress|, any compression)."""
     def stresses(sec: Section, m: float) -> np.ndarray:
         top, bot = sec.ply_extreme_stresses(m)
-        a = float(sec.area[i])
-        yc = float(sec.first_y[i] / a) if a > 0 else float(section.plies[i].y)
-        mid = -float(sec.E[i]) * m * (yc - sec.neutral_axis_y) / sec.EI
+        mid = sec.centroid_stress(m, i)
         return np.array([float(top[i]), float(bot[i]), mid])
 
     if creep is None:

@@ -6,7 +6,15 @@ from dataclasses import replace
 from typing import Any
 
 from ..model import units
-from ..model.design import BASES, STEEL_RULES, TEMPERATURES, Bolt, Connector, DesignSpec
+from ..model.design import (
+    BASES,
+    CONNECTOR_TYPES,
+    STEEL_RULES,
+    TEMPERATURES,
+    Bolt,
+    Connector,
+    DesignSpec,
+)
 from ..model.errors import Problem
 from ..model.member import CASES
 from .fields import FieldSpec, read_fields, unknown_keys, write_fields
@@ -36,11 +44,17 @@ DESIGN_FIELDS = (
     FieldSpec("fabricated_wet", "flag"),
 )
 CONNECTOR_FIELDS = (
-    FieldSpec("type", "choice", choices=("screw", "bolt", "nail"), always=True),
+    FieldSpec("type", "choice", choices=CONNECTOR_TYPES, always=True),
     FieldSpec("allowable", "positive", dimension="force"),
     FieldSpec("rows", "count", lo=1, hi=20, always=True),
     FieldSpec("spacing", "positive", dimension="length"),
+    FieldSpec("diameter", "positive", dimension="length"),
+    FieldSpec("predrilled", "flag"),
+    FieldSpec("spacing_max", "positive", dimension="length"),
 )
+#: Largest fastener diameter read, m (a dowel-type fastener; bolts are bounded at 30 mm by
+#: EN 1995-1-1 8.5 and at 1 in by NDS 12.3).
+CONNECTOR_DIAMETER_MAX = 0.030
 BOLT_FIELDS = (
     FieldSpec("diameter", "positive", dimension="length", always=True),
     FieldSpec("Fyb", "positive", dimension="stress", always=True),
@@ -73,6 +87,7 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
     if "connector" in raw:
         kw["connector"] = _read_object(raw["connector"], Connector(), CONNECTOR_FIELDS,
                                        f"{path}.connector", "the connector", problems)
+        _connector_consistent(kw["connector"], f"{path}.connector", problems)
     if "bolt" in raw:
         kw["bolt"] = _read_bolt(raw["bolt"], f"{path}.bolt", problems)
         _bolt_diameter_in_range(kw["bolt"].diameter, kw.get("basis", "US-ASD"),
@@ -82,6 +97,32 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
     if len(problems) > before:
         return None
     return DesignSpec(**kw)
+
+
+def _connector_consistent(conn: Connector, path: str, problems: list[Problem]) -> None:
+    """Named problems where the connector's keys do not fit together: glue has no
+    diameter, predrilling is a choice for nails only, a varying spacing needs its
+    smallest value and at most 4 times it (EN 1995-1-1 Annex B effective spacing, from
+    memory).
+    """
+    if conn.type == "glue":
+        for key in ("diameter", "spacing_max"):
+            if getattr(conn, key) is not None:
+                problems.append(Problem(f"{path}.{key}", "does not apply to a glued "
+                                        "interface (glue is taken as fully composite)"))
+    if conn.predrilled and conn.type != "nail":
+        problems.append(Problem(f"{path}.predrilled", f'applies to nails only, not to '
+                                f'"{conn.type}"'))
+    if conn.diameter is not None and conn.diameter > CONNECTOR_DIAMETER_MAX:
+        problems.append(Problem(f"{path}.diameter", f"{conn.diameter * 1000:.4g} mm is "
+                                "larger than a dowel-type fastener (at most 30 mm)"))
+    if conn.spacing_max is not None:
+        if conn.spacing is None:
+            problems.append(Problem(f"{path}.spacing_max", 'needs "spacing", the smallest '
+                                    "spacing"))
+        elif not conn.spacing <= conn.spacing_max <= 4 * conn.spacing * (1 + 1e-12):
+            problems.append(Problem(f"{path}.spacing_max", "must lie between the spacing "
+                                    "and 4 times it (EN 1995-1-1 Annex B)"))
 
 
 def _bolt_diameter_in_range(d: float, basis: str, path: str,

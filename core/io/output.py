@@ -17,6 +17,7 @@ from ..model.caution import ASSUMPTIONS, CAUTION, FIRE_NOTE
 from ..model.errors import Problem, ProjectError
 from ..model.units import fmt, sig
 from ..pipeline import Analysis
+from ..section.gamma import PartialSection
 from ..section.transformed import PlyResult, Section
 
 
@@ -43,7 +44,20 @@ def dumps(value: Any) -> str:
 
 
 def section_dict(section: Section) -> dict[str, Any]:
-    """Section properties (SI)."""
+    """Section properties (SI); with the slip of mechanical connectors (EN 1995-1-1 Annex
+    B) also "EI_effective" and "gamma" (per ply, K_ser) and their ultimate values (K_u).
+    """
+    out = _section_dict(section)
+    if isinstance(section, PartialSection):
+        out["EI_effective"] = section.EI
+        out["gamma"] = [float(g) for g in section.gamma]
+        out["EI_effective_ultimate"] = section.EI_uls
+        out["gamma_ultimate"] = [float(g) for g in section.gamma_uls]
+        out["slip_length"] = section.length
+    return out
+
+
+def _section_dict(section: Section) -> dict[str, Any]:
     return {
         "EA": section.EA,
         "EI": section.EI,

@@ -15,18 +15,47 @@ STEEL_RULES = ("0.6Fy", "AISC-F11")
 TEMPERATURES = ("normal", "up-to-125F", "up-to-150F")
 
 
+#: Connector types of stacked plies ("bolt", "screw" and "nail" first, as before).
+CONNECTOR_TYPES = ("screw", "bolt", "nail", "lag-screw", "glue")
+#: The dowel-type connectors whose slip EN 1995-1-1 Table 7.1 gives (from memory).
+MECHANICAL_CONNECTORS = ("screw", "bolt", "nail", "lag-screw")
+
+
 @dataclass(frozen=True)
 class Connector:
     """A connector for the interfaces of stacked plies: screw, nail or bolt, with the
     allowable (US) or design (EU) lateral load per connector in N, as the user gives it
     (already adjusted); None: the spacing check is not made. ``spacing`` in m; None: the
     tool picks the largest stock spacing that works.
+
+    Attributes:
+        type: "screw", "bolt", "nail", "lag-screw" or "glue" (glue: full composite).
+        allowable: allowable (US) or design (EU) load per connector, N.
+        rows: connectors at each station along the member (across the width).
+        spacing: spacing of the stations along the member, m (the smallest where it
+            varies).
+        diameter: fastener diameter, m; given for a mechanical connector, the slip of
+            the fasteners is taken into account (EN 1995-1-1 Annex B with the slip
+            modulus of Table 7.1, from memory); None: full composite action is assumed.
+        predrilled: nails in predrilled holes (EN 1995-1-1 Table 7.1 takes the dowel
+            value for them); only read for nails.
+        spacing_max: the largest spacing where the spacing varies with the shear force,
+            m (at most 4 x ``spacing``); None: constant spacing.
+
     """
 
     type: str = "screw"
     allowable: float | None = None
     rows: int = 1
     spacing: float | None = None
+    diameter: float | None = None
+    predrilled: bool = False
+    spacing_max: float | None = None
+
+    @property
+    def slips(self) -> bool:
+        """True where the fasteners' slip is analysed (a mechanical type with a diameter)."""
+        return self.type in MECHANICAL_CONNECTORS and self.diameter is not None
 
 
 @dataclass(frozen=True)

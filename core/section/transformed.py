@@ -179,6 +179,20 @@ class Section:
         """Stress in ply ``ply_index`` at heights ``y``, Pa (tension positive)."""
         return float(self.E[ply_index]) * self.strain(moment, y)
 
+    def centroid_stress(self, moment: float, ply_index: int) -> float:
+        """Stress at ply ``ply_index``'s centroid, Pa (tension positive)."""
+        i = ply_index
+        a = float(self.area[i])
+        yc = float(self.first_y[i] / a) if a > 0 else float(self.plies[i].y)
+        return -float(self.E[i]) * moment * (yc - self.neutral_axis_y) / self.EI
+
+    def same_kind(self, plain: Section) -> Section:
+        """A section of this kind on the geometry and moduli of ``plain`` (a section of the
+        same plies with other moduli, see :func:`with_moduli`): ``plain`` itself here; a
+        section of another kind (partial composite action) rebuilds itself on it.
+        """
+        return plain
+
     def ply_extreme_stresses(self, moment: float | np.ndarray) -> tuple[np.ndarray, np.ndarray]:
         """Stress at each ply's highest and lowest fibre. With an array of moments, the
         result has shape (plies, moments).
@@ -346,10 +360,11 @@ def analyse(
 def with_moduli(section: Section, moduli: Sequence[float] | np.ndarray) -> Section:
     """The same geometry with other per-ply moduli (creep), without re-clipping."""
     size = max(max(p.width, p.height) for p in section.plies)
-    return _assemble(section.plies, section.materials, section.reference_material,
-                     section.E_ref, np.asarray(moduli, dtype=float), section.area,
-                     section.first_y, section.second_y, section.y_bottom, section.y_top,
-                     section.geoms, section.profiles, section.warnings, size)
+    plain = _assemble(section.plies, section.materials, section.reference_material,
+                      section.E_ref, np.asarray(moduli, dtype=float), section.area,
+                      section.first_y, section.second_y, section.y_bottom, section.y_top,
+                      section.geoms, section.profiles, section.warnings, size)
+    return section.same_kind(plain)
 
 
 def _assemble(plies: tuple[Ply, ...], mats: tuple[Material, ...], reference: str, E_ref: float,
