@@ -308,11 +308,13 @@ def cmd_plates(args: argparse.Namespace) -> int:
     plates cannot be laid out; nothing is written then.
     """
     from .fabrication.export import export_plates
+    from .fabrication.plates import plain
 
     plates, written = export_plates(_load(args.file), args.output, args.alternative,
                                     "-o/--output")
     for plate, path in zip(plates.plates, written, strict=False):
-        print(f"wrote {path}: {plate.mark}, \"{plate.ply_name}\", {len(plate.holes)} holes")
+        print(f'wrote {path}: {plate.mark}, "{plain(plate.ply_name)}", {len(plate.holes)} '
+              "holes")
     print(f"wrote {written[-1]}: {len(plates.plates)} plates")
     return 0
 

@@ -20,7 +20,7 @@ from ezdxf.filemanagement import new
 from ezdxf.layouts.layout import Modelspace
 
 from ..model.constants import INCH, MM
-from .plates import FabricatedPlate, PlateSet
+from .plates import FabricatedPlate, PlateSet, plain
 
 #: DXF $INSUNITS codes and $MEASUREMENT values per display system (DXF reference:
 #: 1 inches, 4 millimetres; $MEASUREMENT 0 imperial, 1 metric).
@@ -63,11 +63,6 @@ def number_text(value: float, system: str) -> str:
 def length_text(value: float, system: str) -> str:
     """A length in m as drawing-unit text with its unit, e.g. "8 3/4 in", "200 mm"."""
     return f"{number_text(to_drawing(value, system), system)} {UNIT_LABEL[system]}"
-
-
-def plain(text: str) -> str:
-    """User text made safe for a DXF TEXT entity: no control characters, no "%%" codes."""
-    return "".join(c if c.isprintable() else " " for c in text).replace("%%", "% %")
 
 
 def title_lines(plate: FabricatedPlate, plates: PlateSet) -> list[str]:

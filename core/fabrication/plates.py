@@ -120,6 +120,13 @@ class PlateSet:
     plates: tuple[FabricatedPlate, ...]
 
 
+def plain(text: str) -> str:
+    """User text made safe for one line of a drawing or a message: control characters
+    become spaces, and "%%" (a DXF text code) is split.
+    """
+    return "".join(c if c.isprintable() else " " for c in text).replace("%%", "% %")
+
+
 def select_alternative(project: Project, alternative: str | None) -> Project:
     """The project with the plies of the named alternative (the project itself for None)."""
     if alternative is None:
@@ -166,10 +173,10 @@ def _layout(a: Analysis, joint: Joint) -> BoltLayout:
     driver = us_asd if design.us else eu_lsd
     value = driver.bolt_value(s, design, joint, system, warnings)
     if value is None:
+        name = plain(s.plies[joint.steel].name)
         raise ProjectError([*warnings, Problem(
-            "design.bolt.spacing", f'the bolts of "{s.plies[joint.steel].name}" cannot be '
-            "checked, so no spacing was chosen for them; give the spacing or the stations "
-            "to draw the plate")])
+            "design.bolt.spacing", f'the bolts of "{name}" cannot be checked, so no spacing '
+            "was chosen for them; give the spacing or the stations to draw the plate")])
     return plate_layout(s, beam, design, joint, value, beam.strength() or beam.combinations,
                         system)
 
@@ -179,21 +186,29 @@ def _holes(layout: BoltLayout, start: float, bottom: float) -> tuple[tuple[float
 
 
 def _outside(plate: FabricatedPlate, explicit_stations: bool, system: str) -> list[Problem]:
-    """A named problem for every hole that does not lie wholly inside its plate."""
+    """One named problem for each field whose holes do not lie wholly inside the plate
+    (the first such hole shown, with the count).
+    """
     r = plate.hole_diameter / 2
-    out = []
+    found: dict[str, list[int]] = {}
     for k, (x, y) in enumerate(plate.holes):
         along = x - r < -EDGE_TOLERANCE or x + r > plate.length + EDGE_TOLERANCE
         across = y - r < -EDGE_TOLERANCE or y + r > plate.depth + EDGE_TOLERANCE
         if along or across:
             path = ("design.bolt.stations" if along and explicit_stations else
                     "design.bolt.rows" if across else "design.bolt")
-            out.append(Problem(path, f'hole {k + 1} of {plate.mark} ("{plate.ply_name}") '
-                               "does not lie wholly inside the plate (its centre is "
-                               f"{fmt(x, 'length', system)} from the plate's left end and "
-                               f"{fmt(y, 'length', system)} above its bottom edge; the "
-                               f"plate is {fmt(plate.length, 'length', system)} long and "
-                               f"{fmt(plate.depth, 'length', system)} deep)"))
+            found.setdefault(path, []).append(k)
+    out = []
+    for path, holes in found.items():
+        x, y = plate.holes[holes[0]]
+        which = (f"hole {holes[0] + 1} of {plate.mark} does" if len(holes) == 1 else
+                 f"{len(holes)} holes of {plate.mark} do")
+        out.append(Problem(path, f'{which} not lie wholly inside the plate '
+                           f'"{plain(plate.ply_name)}" (hole {holes[0] + 1} has its centre '
+                           f"{fmt(x, 'length', system)} from the plate's left end and "
+                           f"{fmt(y, 'length', system)} above its bottom edge; the plate is "
+                           f"{fmt(plate.length, 'length', system)} long and "
+                           f"{fmt(plate.depth, 'length', system)} deep)"))
     return out
 
 

@@ -172,12 +172,56 @@ def test_output_that_is_a_file_exits_2(tmp_path, capsys):
 
 
 def test_station_outside_a_short_plate_exits_2(tmp_path, capsys):
+    """Plate from 2 ft to 10 ft, stations at 1, 6 and 11 ft: the first and last stations
+    lie off the plate, 2 rows each, so 4 holes; the first is 1 ft - 2 ft = -12 in from the
+    plate's left end.
+    """
     data = _demo()
     data["plies"][1].update({"from": "2 ft", "to": "10 ft"})
     data["design"]["bolt"]["stations"] = ["1 ft", "6 ft", "11 ft"]
     _fails(["plates", str(_write(tmp_path, data)), "-o", str(tmp_path / "o")], capsys,
-           "design.bolt.stations: hole 1 of PL1", "does not lie wholly inside the plate")
+           "design.bolt.stations: 4 holes of PL1 do not lie wholly inside the plate "
+           '"flitch plate" (hole 1 has its centre -12.00 in from')
     assert not (tmp_path / "o").exists()
+
+
+def test_row_outside_the_plate_exits_2(tmp_path, capsys):
+    """Rows at 0.1 in and 5 in in the section: the plate starts at 1/4 in, so the lower row
+    is 0.15 in below its bottom edge; one problem for the six holes of that row.
+    """
+    data = _demo()
+    data["design"]["bolt"]["rows"] = ["0.1 in", "5 in"]
+    err = _fails(["plates", str(_write(tmp_path, data)), "-o", str(tmp_path / "o")], capsys,
+                 "design.bolt.rows: 6 holes of PL1 do not lie wholly inside the plate",
+                 "-0.1500 in above its bottom edge")
+    assert err.count("design.bolt.rows") == 1
+
+
+def test_bolts_that_cannot_be_checked_need_a_spacing(tmp_path, capsys):
+    """A steel without Fu: no bolt value, so no spacing was chosen; the message says so and
+    names the field that gives one. With a spacing the plate is drawn.
+    """
+    data = _demo()
+    data["materials"] = {"NO-FU": {"kind": "steel", "name": "steel without Fu",
+                                   "E": "29000 ksi", "Fy": "36 ksi"}}
+    data["plies"][1]["material"] = "NO-FU"
+    _fails(["plates", str(_write(tmp_path, data)), "-o", str(tmp_path / "o")], capsys,
+           'plies[1].material: steel "NO-FU" has no Fu',
+           'design.bolt.spacing: the bolts of "flitch plate" cannot be checked')
+    data["design"]["bolt"]["spacing"] = "24 in"
+    assert main(["plates", str(_write(tmp_path, data)), "-o", str(tmp_path / "o")]) == 0
+    (row,) = _rows(tmp_path / "o" / "cut-list.csv")
+    assert row["hole count"] == "12"
+
+
+def test_control_characters_leave_the_drawing(tmp_path):
+    data = _demo()
+    data["plies"][1]["name"] = "two\nlines %%c"
+    out = tmp_path / "out"
+    assert main(["plates", str(_write(tmp_path, data)), "-o", str(out)]) == 0
+    doc = ezdxf.readfile(out / "PL1.dxf")
+    title = doc.modelspace().query("TEXT")[0].dxf.text
+    assert title == 'PL1: steel plate "two lines % %c" (ply 2 of 3)'
 
 
 def test_no_beam_exits_2(tmp_path, capsys):
