@@ -316,6 +316,8 @@ def cmd_plates(args: argparse.Namespace) -> int:
         print(f'wrote {path}: {plate.mark}, "{plain(plate.ply_name)}", {len(plate.holes)} '
               "holes")
     print(f"wrote {written[-1]}: {len(plates.plates)} plates")
+    if plates.verdict != "OK":
+        print(f"{args.file}: {plates.verdict_note} (see plystack check)", file=sys.stderr)
     return 0
 
 

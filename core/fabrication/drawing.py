@@ -11,6 +11,7 @@ bottom edge) and TEXT (the title).
 from __future__ import annotations
 
 import io
+import textwrap
 from collections.abc import Sequence
 from fractions import Fraction
 
@@ -19,6 +20,7 @@ from ezdxf.enums import TextEntityAlignment
 from ezdxf.filemanagement import new
 from ezdxf.layouts.layout import Modelspace
 
+from ..model.caution import CAUTION
 from ..model.constants import INCH, MM
 from .plates import FabricatedPlate, PlateSet, plain
 
@@ -33,6 +35,9 @@ UNIT_LABEL = {"US": "in", "SI": "mm"}
 
 #: Layers and their colours (DXF colour index: 7 black or white, 1 red, 5 blue).
 LAYERS = {"OUTLINE": 7, "HOLES": 1, "DIMENSIONS": 5, "TEXT": 7}
+
+#: Longest line of a note in the title, characters.
+NOTE_WIDTH = 100
 
 #: The dimension style of the drawings.
 DIMSTYLE = "PLATE"
@@ -90,9 +95,11 @@ def title_lines(plate: FabricatedPlate, plates: PlateSet) -> list[str]:
     if plates.alternative is not None:
         project += f'; alternative "{plain(plates.alternative)}"'
     lines.append(f"Project: {project}")
+    lines.append(plates.verdict_note)
     lines.append(f"True size in {'inches' if u == 'US' else 'millimetres'}; hole centres "
                  "from the plate's left end and bottom edge.")
-    lines += [plain(n) for n in plate.notes]
+    for note in (*plate.notes, CAUTION):
+        lines += textwrap.wrap(plain(note), NOTE_WIDTH)
     return lines
 
 

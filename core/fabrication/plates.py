@@ -108,6 +108,7 @@ class PlateSet:
         member_length: m.
         ply_count: plies in the section.
         plates: the steel plates in ply order.
+        verdict: the verdict of the design checks ("OK", "NOT OK" or "INCOMPLETE").
 
     """
 
@@ -118,6 +119,15 @@ class PlateSet:
     member_length: float
     ply_count: int
     plates: tuple[FabricatedPlate, ...]
+    verdict: str
+
+    @property
+    def verdict_note(self) -> str:
+        """The verdict in words, with a warning where it is not OK."""
+        if self.verdict == "OK":
+            return "Design checks: OK."
+        return (f"Design checks: {self.verdict}. Not for fabrication until every check of "
+                "the member is OK.")
 
 
 def plain(text: str) -> str:
@@ -257,7 +267,8 @@ def plates_of(a: Analysis, alternative: str | None = None) -> PlateSet:
         raise ProjectError(problems)
     return PlateSet(title=project.title, alternative=alternative,
                     member=project.info.get("member", ""), system=project.display_units,
-                    member_length=length, ply_count=len(s.plies), plates=tuple(plates))
+                    member_length=length, ply_count=len(s.plies), plates=tuple(plates),
+                    verdict=a.verdict)
 
 
 def project_plates(project: Project, alternative: str | None = None) -> PlateSet:

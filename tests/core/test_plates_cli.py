@@ -117,6 +117,21 @@ def test_default_density_and_a_cover_plate_without_holes(tmp_path):
     assert "Holes: none" in text and "ply 4 of 4" in text
 
 
+def test_a_design_that_fails_is_marked(tmp_path, capsys):
+    """A plate on one face of one 2x10 fails its checks (``plystack check``): the files are
+    written, the drawing and the message say NOT OK and not for fabrication.
+    """
+    data = _demo()
+    data["plies"] = data["plies"][:2]
+    out = tmp_path / "out"
+    assert main(["plates", str(_write(tmp_path, data)), "-o", str(out)]) == 0
+    assert "NOT OK. Not for fabrication" in capsys.readouterr().err
+    doc = ezdxf.readfile(out / "PL1.dxf")
+    text = "\n".join(e.dxf.text for e in doc.modelspace().query("TEXT"))
+    assert "Design checks: NOT OK. Not for fabrication" in text
+    assert "Caution:" in text
+
+
 def test_formula_like_names_are_quoted(tmp_path):
     data = _demo()
     data["plies"][1]["name"] = "=1+1"

@@ -243,3 +243,40 @@ def test_two_plates_two_files(tmp_path):
         # 6 stations at 24 in centred on 144 in (first at 12 in), rows 2 and 6 3/4 in
         _assert_holes(doc, [(12.0 + 24.0 * k, y) for k in range(6) for y in (2.0, 6.75)],
                       0.5625)
+
+
+@pytest.mark.parametrize("demo, plies, plate", [
+    (US_DEMO, None, {"stage": "added"}),
+    (US_DEMO, None, {"from": "1 ft", "to": "11 ft"}),
+    (US_DEMO, 2, None),
+    (EU_DEMO, None, {"from": "300 mm"}),
+])
+def test_drawn_bolts_are_the_checked_bolts(tmp_path, demo, plies, plate):
+    """Strengthened under load, stopping short, on one face, EU: the holes drawn are the
+    bolts the ``bolts`` check counts (its locations, rows and count), at the spacing it
+    states (the project's own record of the layout it checked).
+    """
+    from plystack.core.io.project_file import load
+    from plystack.core.pipeline import run
+
+    data = json.loads(demo.read_text(encoding="utf-8"))
+    data.pop("alternatives", None)
+    if plies is not None:
+        data["plies"] = data["plies"][:plies]
+    if plate is not None:
+        data["plies"][1].update(plate)
+    if data["plies"][1].get("stage") == "added":
+        data["beam"]["shored"] = False
+    path = tmp_path / "v.plystack.json"
+    path.write_text(json.dumps(data), encoding="utf-8")
+    checked = next(c for c in run(load(path)).checks if c.id == "bolts").fasteners
+    out = tmp_path / "out"
+    _run(path, out)
+    circles = _circles(ezdxf.readfile(out / "PL1.dxf"))
+    xs = sorted({x for x, _y, _r in circles})
+    assert len(circles) == checked.count
+    assert len(xs) == checked.locations
+    assert len({y for _x, y, _r in circles}) == checked.rows
+    unit = 0.0254 if demo == US_DEMO else 0.001
+    gaps = [b - a for a, b in zip(xs, xs[1:], strict=False)]
+    assert min(gaps) == pytest.approx(checked.spacing / unit, abs=TOL)
