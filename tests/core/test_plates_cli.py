@@ -165,6 +165,13 @@ def test_missing_file_exits_2(tmp_path, capsys):
     assert not (tmp_path / "o").exists()
 
 
+def test_file_that_is_not_json_exits_2(tmp_path, capsys):
+    bad = tmp_path / "bad.plystack.json"
+    bad.write_text("{ not json", encoding="utf-8")
+    _fails(["plates", str(bad), "-o", str(tmp_path / "o")], capsys, "bad.plystack.json")
+    assert not (tmp_path / "o").exists()
+
+
 def test_no_steel_plate_exits_2(tmp_path, capsys):
     data = _demo()
     data["plies"] = [data["plies"][0]]

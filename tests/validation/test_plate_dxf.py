@@ -11,8 +11,8 @@ Sources:
   below as a hand calculation.
 - Hole diameter: D + 1/16 in, AISC 360-16 Table J3.3 standard hole for bolts under 1 in
   (from memory); d + 1 mm, EN 1090-2 Table 11 normal clearance for M12 (from memory).
-- DXF header: $INSUNITS 1 = inches, 4 = millimetres; version AC1024 = R2010 (the DXF
-  reference).
+- DXF header: $INSUNITS 1 = inches, 4 = millimetres; $MEASUREMENT 0 = imperial, 1 =
+  metric; version AC1024 = R2010 (the DXF reference).
 - Drawing units: 1 in = 25.4 mm exactly (the international inch).
 """
 
@@ -98,7 +98,7 @@ def test_us_demo_layout_by_hand(tmp_path):
     out = tmp_path / "out"
     _run(US_DEMO, out)
     doc = ezdxf.readfile(out / "PL1.dxf")
-    assert doc.header["$INSUNITS"] == 1
+    assert doc.header["$INSUNITS"] == 1 and doc.header["$MEASUREMENT"] == 0
     assert doc.dxfversion >= "AC1024"
     xs = [12.0, 36.0, 60.0, 84.0, 108.0, 132.0]
     _assert_holes(doc, [(x, y) for x in xs for y in (2.0, 6.75)], 0.5 + 1 / 16)
@@ -173,7 +173,7 @@ def test_eu_demo_in_millimetres(tmp_path):
     out = tmp_path / "out"
     _run(EU_DEMO, out)
     doc = ezdxf.readfile(out / "PL1.dxf")
-    assert doc.header["$INSUNITS"] == 4
+    assert doc.header["$INSUNITS"] == 4 and doc.header["$MEASUREMENT"] == 1
     xs = [300.0 + 600.0 * k for k in range(6)]
     _assert_holes(doc, [(x, y) for x in xs for y in (48.0, 152.0)], 13.0)
     _assert_outline(doc, 3600.0, 200.0)
