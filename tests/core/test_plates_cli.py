@@ -261,3 +261,27 @@ def test_help_lists_the_command(capsys):
     with pytest.raises(SystemExit):
         main(["--help"])
     assert "plates" in capsys.readouterr().out
+
+
+@pytest.mark.parametrize("demo, diameter, hole, closer", [
+    (US_DEMO, "3/4 in", 0.8125, False),  # AISC 360-16 Table J3.3: 3/4 in bolt, 13/16 in hole
+    (US_DEMO, "1 in", 1.0625, True),  # standard hole 1 1/8 in: the checked 1 1/16 in is kept
+    (EU_DEMO, "16 mm", 17.0, True),  # EN 1090-2 Table 11: M16 normal clearance 2 mm
+    (EU_DEMO, "12 mm", 13.0, False),  # M12: 1 mm
+])
+def test_hole_is_the_checked_hole_and_says_where_the_standard_is_larger(
+        tmp_path, demo, diameter, hole, closer):
+    """Holes D + 1/16 in and d + 1 mm (the net-section check's); where the standard hole
+    is larger (from memory of the tables named beside each case), the drawing says so.
+    """
+    data = _demo(demo)
+    data["design"]["bolt"]["diameter"] = diameter
+    data["design"]["bolt"]["spacing"] = "24 in" if demo == US_DEMO else "600 mm"
+    out = tmp_path / "out"
+    assert main(["plates", str(_write(tmp_path, data)), "-o", str(out)]) == 0
+    (row,) = _rows(out / "cut-list.csv")
+    unit = "in" if demo == US_DEMO else "mm"
+    assert float(row[f"hole diameter ({unit})"]) == pytest.approx(hole, abs=1e-9)
+    doc = ezdxf.readfile(out / "PL1.dxf")
+    text = " ".join(e.dxf.text for e in doc.modelspace().query("TEXT"))
+    assert ("keeps the closer fit that was checked" in text) == closer
