@@ -184,6 +184,7 @@ class MainWindow(FileActions, ToolActions, QMainWindow):
         self._action(f, "&Save", self.save, QKeySequence.StandardKey.Save)
         self._action(f, "Save &as\u2026", self.save_as, QKeySequence.StandardKey.SaveAs)
         self._action(f, "&Export calculation sheet (PDF)\u2026", self.export_sheet, "Ctrl+E")
+        self._action(f, "Export &plate drawings\u2026", self.export_plates)
         f.addSeparator()
         self._action(f, "&Quit", self.close, QKeySequence.StandardKey.Quit)
         e = bar.addMenu("&Edit")

@@ -11,6 +11,8 @@ A mixin of :class:`~plystack.app.main_window.MainWindow` (it uses the window's
   was opened or last saved here (another program or another Plystack saved it).
 - Autosaves and locks: see :mod:`plystack.app.autosave`. Saving, discarding and closing
   remove this window's autosave; opening another file releases the lock.
+- Export plate drawings asks for a folder and writes what ``plystack plates`` writes
+  (``plystack.core.fabrication.export``) for the plies on screen.
 """
 
 from __future__ import annotations
@@ -82,6 +84,10 @@ class FileActions:
         """The Open dialog: a file name, or "" when cancelled."""
         name, _ = QFileDialog.getOpenFileName(self, "Open project", start, FILTER)  # type: ignore[arg-type]
         return name
+
+    def ask_plates_dir(self, start: str) -> str:
+        """The folder dialog of Export plate drawings: a folder, or "" when cancelled."""
+        return QFileDialog.getExistingDirectory(self, "Export plate drawings", start)  # type: ignore[arg-type]
 
     def _last_dir(self) -> str:
         value = self.settings.value("last_dir", "")  # type: ignore[attr-defined]
@@ -214,6 +220,27 @@ class FileActions:
         self._opened(Path(path))
         self._remember(Path(path))
         self.statusBar().showMessage(f"Saved {path}", 5000)  # type: ignore[attr-defined]
+        return True
+
+    def export_plates(self, target: Path | None = None) -> bool:
+        """File > Export plate drawings: a DXF drawing of every steel plate and the cut
+        list, into a folder the user picks (``target`` skips the dialog).
+        """
+        from plystack.core.fabrication.export import CUT_LIST, export_plates
+
+        if target is None:
+            name = self.ask_plates_dir(self._last_dir())
+            if not name:
+                return False
+            target = Path(name)
+        try:
+            plates, _written = export_plates(self.document.project, target,  # type: ignore[attr-defined]
+                                             field="folder")
+        except (OSError, ProjectError) as exc:
+            self.warn("Export plate drawings", f"{target}: {_problem_text(exc)}")  # type: ignore[attr-defined]
+            return False
+        marks = ", ".join(f"{p.mark}.dxf" for p in plates.plates)
+        self.statusBar().showMessage(f"Wrote {marks} and {CUT_LIST} to {target}")  # type: ignore[attr-defined]
         return True
 
     def _remember(self, path: Path) -> None:

@@ -68,6 +68,12 @@ def build_parser() -> argparse.ArgumentParser:
     sh.add_argument("--alternative", metavar="NAME")
     sh.add_argument("--paper", choices=["letter", "a4"], default=None,
                     help="paper size (default: letter for US units, a4 for SI)")
+    pl = sub.add_parser("plates", help="write a DXF drawing of every steel plate and a cut "
+                        "list (CSV) into a folder")
+    pl.add_argument("file")
+    pl.add_argument("-o", "--output", required=True, metavar="DIR",
+                    help="folder for <mark>.dxf and cut-list.csv (made where missing)")
+    pl.add_argument("--alternative", metavar="NAME", help="the plates of this alternative")
     sc = sub.add_parser("schedule", help="check every member of a schedule (CSV) in one run")
     sc.add_argument("file", metavar="SCHEDULE.csv")
     sc.add_argument("-o", "--output", metavar="RESULTS.csv",
@@ -129,7 +135,8 @@ def _empty_arguments(args: argparse.Namespace) -> list[str]:
     out = []
     for key, value in vars(args).items():
         if isinstance(value, str) and not value.strip():
-            positional = {"file": "FILE", "output": ("-o/--output" if args.command == "sheet"
+            positional = {"file": "FILE", "output": ("-o/--output"
+                                                     if args.command in ("sheet", "plates")
                                                      else "OUT")}
             name = positional.get(key, f"--{key.replace('_', '-')}")
             out.append(f"plystack: {name}: is empty; give a value")
@@ -296,6 +303,24 @@ def cmd_sheet(args: argparse.Namespace) -> int:
     return 0
 
 
+def cmd_plates(args: argparse.Namespace) -> int:
+    """``plystack plates``: refuses (exit 2) a project without a steel plate or whose
+    plates cannot be laid out; nothing is written then.
+    """
+    from .fabrication.export import export_plates
+    from .fabrication.plates import plain
+
+    plates, written = export_plates(_load(args.file), args.output, args.alternative,
+                                    "-o/--output")
+    for plate, path in zip(plates.plates, written, strict=False):
+        print(f'wrote {path}: {plate.mark}, "{plain(plate.ply_name)}", {len(plate.holes)} '
+              "holes")
+    print(f"wrote {written[-1]}: {len(plates.plates)} plates")
+    if plates.verdict != "OK":
+        print(f"{args.file}: {plates.verdict_note} (see plystack check)", file=sys.stderr)
+    return 0
+
+
 def cmd_schedule(args: argparse.Namespace) -> int:
     """``plystack schedule``: exit 0 when every member ran and is OK, 1 when any is NOT OK,
     INCOMPLETE or could not run, 2 when the schedule file cannot be read.
@@ -392,7 +417,7 @@ def main(argv: list[str] | None = None,
         return _fail(empty)
     commands = {"check": cmd_check, "compare": cmd_compare, "sweep": cmd_sweep,
                 "size": cmd_size, "span": cmd_span, "sheet": cmd_sheet, "demo": cmd_demo,
-                "schedule": cmd_schedule}
+                "schedule": cmd_schedule, "plates": cmd_plates}
     if args.command in commands:
         try:
             with warnings.catch_warnings():

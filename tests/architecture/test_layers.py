@@ -15,7 +15,7 @@ ROOT = Path(__file__).resolve().parents[2]
 
 #: Lowest first; a module may import only from its own layer or the layers below it.
 LAYERS = ("model", "codes", "section", "actions", "design", "pipeline", "study", "io",
-          "report", "cli")
+          "fabrication", "report", "cli")
 
 
 def _module_name(path: Path, package_root: Path, package: str) -> str:
