@@ -418,39 +418,57 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
     w = np.where(np.isnan(xw), 0.0, w)
     aw = np.abs(w)
     i_w = np.argmax(aw.reshape(k, -1), axis=1)
-    regions = model.layout.regions()
-    element_region = np.array([[n_ for n_, _, _ in regions].index(r) if r in
-                               [n_ for n_, _, _ in regions] else -1
-                               for r in model.element_regions[e0:e1]])
     pos_w = x0[None, :, None] + xw_safe
+    by_region = _by_region(model, e0, e1, aw, w, pos_w)
     out = []
     xm_flat = (x0[None, :, None] + xm).reshape(k, -1)
     xv_flat = (x0[None, :, None] + xv_loc).reshape(k, -1)
+    m_hi = np.take_along_axis(m.reshape(k, -1), i_max[:, None], axis=1)[:, 0].tolist()
+    m_lo = np.take_along_axis(m.reshape(k, -1), i_min[:, None], axis=1)[:, 0].tolist()
     for c in range(k):
-        m_flat = m[c].reshape(-1)
-        m_max, m_min = float(m_flat[i_max[c]]), float(m_flat[i_min[c]])
+        m_max, m_min = m_hi[c], m_lo[c]
         scale = max(abs(m_max), abs(m_min), 1e-300)
         if abs(m_max) < 1e-9 * scale:
             m_max = 0.0
         if abs(m_min) < 1e-9 * scale:
             m_min = 0.0
-        by_region = []
-        for r, (name, _, _) in enumerate(regions):
-            mask = element_region == r
-            if not mask.any():
-                continue
-            a_r = aw[c][mask].reshape(-1)
-            j = int(np.argmax(a_r))
-            by_region.append((name, float(w[c][mask].reshape(-1)[j]),
-                              float(pos_w[c][mask].reshape(-1)[j])))
         out.append(Extremes(
             M_max=m_max, x_M_max=float(xm_flat[c, i_max[c]]),
             M_min=m_min, x_M_min=float(xm_flat[c, i_min[c]]),
             V_max_abs=float(v[c, i_v[c]]), x_V_max_abs=float(xv_flat[c, i_v[c]]),
             deflection_max_abs=float(aw[c].reshape(-1)[i_w[c]]),
             x_deflection_max=float(pos_w[c].reshape(-1)[i_w[c]]),
-            deflection_by_region=tuple(by_region)))
+            deflection_by_region=by_region[c]))
     return out
+
+
+def _by_region(model: BeamModel, e0: int, e1: int, aw: np.ndarray, w: np.ndarray,
+               pos_w: np.ndarray) -> list[tuple[tuple[str, float, float], ...]]:
+    """Per solution, (region, deflection, x) where |deflection| is largest in each region
+    (span, overhang) holding elements ``e0`` to ``e1``: the first of the largest in the
+    order of the elements and their stations, as one search over the region would find.
+
+    ``aw``, ``w`` and ``pos_w`` have shape (solutions, elements, stations). The elements
+    of a region are gathered once; each region's search covers only its own elements, so
+    the work grows with the elements, not with elements times regions.
+    """
+    k = aw.shape[0]
+    names = [n_ for n_, _, _ in model.layout.regions()]
+    members: dict[int, list[int]] = {}
+    for e, region in enumerate(model.element_regions[e0:e1]):
+        if region in names:
+            members.setdefault(names.index(region), []).append(e)
+    rows: list[list[tuple[str, float, float]]] = [[] for _ in range(k)]
+    every = np.arange(k)
+    for r in sorted(members):
+        els = np.array(members[r], dtype=int)
+        a_r = aw[:, els].reshape(k, -1)
+        j = np.argmax(a_r, axis=1)
+        w_r = w[:, els].reshape(k, -1)[every, j].tolist()
+        x_r = pos_w[:, els].reshape(k, -1)[every, j].tolist()
+        for c in range(k):
+            rows[c].append((names[r], w_r[c], x_r[c]))
+    return [tuple(row) for row in rows]
 
 
 @dataclass(frozen=True, eq=False)
