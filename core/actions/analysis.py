@@ -501,24 +501,38 @@ def _finish_section(prepared: PreparedBeam, section: Section, job: _Job,
         j = tgov["deflection_max_abs"]
         sus_i, rest_i = idx["sustained"][j], idx["rest"][j]
         f = dict(item.combination.factors)
-        base = combine(job.cases, {c: v for c, v in f.items()
-                                   if prepared.parts is None or c not in prepared.parts.parts})
-        hi, lo = (reaction_envelope(base, prepared.parts, item.plan, n_sup)
-                  if prepared.parts is not None else _reactions(job.cases, f, n_sup))
+        first = built[_index(idx["solution"][0])]
+        if prepared.parts is not None:
+            base = combine(job.cases, {c: v for c, v in f.items()
+                                       if c not in prepared.parts.parts})
+            hi, lo = reaction_envelope(base, prepared.parts, item.plan, n_sup)
+        elif _carries(job.cases, f):  # the first solution is combine(cases, f) itself
+            hi, lo = first.reactions.copy(), first.reactions.copy()
+        else:
+            hi, lo = _reactions(job.cases, f, n_sup)
         masks = item.plan.masks
         variable = (envelope([ext[i] for i in idx["variable"] if i is not None])[0]
                     if idx["variable"] else None)
         sus = item.sustained
         rest = {c: v - sus.get(c, 0.0) for c, v in f.items()}
+        crept = prepared.creep or prepared
+        sustained = None
+        if any(sus.values()):
+            sustained = (built[_index(idx["sustained"][0])]
+                         if crept.parts is None and _carries(job.creep_cases, sus)
+                         else combine(job.creep_cases, sus))
+        rest_solution = None
+        if any(rest.values()):
+            rest_solution = (built[_index(idx["rest"][0])]
+                             if prepared.parts is None and _carries(job.cases, rest)
+                             else combine(job.cases, rest))
         m_sus = [moment_at(prepared.model, built[_index(idx["sustained"][gov[k]])], x)
                  if any(sus.values()) else 0.0
                  for k, x in (("M_max", env.x_M_max), ("M_min", env.x_M_min))]
         results.append(CombinationResult(
             combination=item.combination, duration=duration_of(item.combination, basis),
-            solution=built[_index(idx["solution"][0])], extremes=env,
-            sustained_factors=sus,
-            sustained=combine(job.creep_cases, sus) if any(sus.values()) else None,
-            rest=combine(job.cases, rest) if any(rest.values()) else None,
+            solution=first, extremes=env,
+            sustained_factors=sus, sustained=sustained, rest=rest_solution,
             total=total, total_solution=built[_index(idx["total"][0])],
             long_term=None if sus_i is None else ext[sus_i],
             short_term_rest=None if rest_i is None else ext[rest_i],
@@ -541,6 +555,11 @@ def _finish_section(prepared: PreparedBeam, section: Section, job: _Job,
         patterned_cases=tuple(prepared.parts.parts) if prepared.parts is not None else (),
         regions=tuple(n for n, _, _ in prepared.spec.layout.regions()),
         stepped=prepared.stepped)
+
+
+def _carries(cases: Mapping[str, CaseSolution], g: Mapping[str, float]) -> bool:
+    """True where :func:`combine` of ``g`` has a case to add (it is not None)."""
+    return any(c in cases and v != 0 for c, v in g.items())
 
 
 def _index(i: int | None) -> int:
