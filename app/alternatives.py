@@ -25,6 +25,7 @@ from PySide6.QtWidgets import (
 )
 
 from plystack.app.analysis_model import AnalysisModel
+from plystack.app.dialogs import StudyProgress
 from plystack.app.document import Document
 from plystack.app.safe import plain_label, reporter
 from plystack.core.model import units
@@ -32,7 +33,13 @@ from plystack.core.model.caution import CAUTION
 from plystack.core.model.errors import ProjectError
 from plystack.core.model.project import Alternative
 from plystack.core.pipeline import Analysis
-from plystack.core.study.compare import Outcome, alternatives_with_current, summarise, sweep
+from plystack.core.study.compare import (
+    Outcome,
+    Stopped,
+    alternatives_with_current,
+    summarise,
+    sweep,
+)
 
 #: Rows of the side-by-side table: label, how to read it, display kind, best is "min"/"max".
 ROWS = (
@@ -297,11 +304,25 @@ class SweepDialog(QDialog):
         try:
             vals = [units.parse(t.strip(), "length", f"values[{i}]")
                     for i, t in enumerate(self.values.text().split(","))]
-            self.rows = sweep(p, self.ply.currentText(), self.dimension.currentText(), vals)
         except (units.UnitError, ProjectError) as exc:
             self.message.setText(str(exc))
             return
-        self.message.setText(CAUTION)
+        progress = StudyProgress(self, "Sweep", f"Evaluating {len(vals)} values\u2026")
+        note = CAUTION
+        try:
+            try:
+                self.rows = sweep(p, self.ply.currentText(), self.dimension.currentText(),
+                                  vals, progress.report)
+            finally:
+                progress.close()
+        except (units.UnitError, ProjectError) as exc:
+            self.message.setText(str(exc))
+            return
+        except Stopped as stop:
+            self.rows = list(stop.outcomes)
+            note = (f"Stopped: {len(self.rows)} of {len(vals)} values evaluated.\n"
+                    + CAUTION)
+        self.message.setText(note)
         self.table.setRowCount(len(self.rows))
         for r, o in enumerate(self.rows):
             cells = (units.fmt(o.value, "length", u), f"{o.governing_ratio:.3f}",

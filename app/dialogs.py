@@ -1,19 +1,24 @@
-"""Dialogs: a new section from a template, the materials browser and editor, the sheet."""
+"""Dialogs: a new section from a template, the materials browser and editor, the sheet,
+and the progress of a long study (sweep, auto-size, longest span) with Cancel.
+"""
 
 from __future__ import annotations
 
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (
+    QApplication,
     QComboBox,
     QDialog,
     QDialogButtonBox,
     QFormLayout,
     QHBoxLayout,
     QLineEdit,
+    QProgressDialog,
     QPushButton,
     QTreeWidget,
     QTreeWidgetItem,
     QVBoxLayout,
+    QWidget,
 )
 
 from plystack.app.safe import plain_label, plain_tip
@@ -29,6 +34,45 @@ from plystack.core.section.templates import (
     TemplateChoice,
     build,
 )
+
+#: Milliseconds a study runs before its progress dialog appears (a short one never shows).
+PROGRESS_DELAY_MS = 400
+
+
+class StudyProgress:
+    """A modal progress dialog with Cancel for a study of core.study.compare; its
+    :meth:`report` is the study's progress callback (False once Cancel is pressed, so
+    the study stops after the candidates in hand).
+    """
+
+    def __init__(self, parent: QWidget | None, title: str, text: str):
+        self.dialog = QProgressDialog(text, "Cancel", 0, 0, parent)
+        self.dialog.setWindowTitle(title)
+        self.dialog.setWindowModality(Qt.WindowModality.WindowModal)
+        self.dialog.setMinimumDuration(PROGRESS_DELAY_MS)
+        self.dialog.setAutoClose(False)
+        self.dialog.setAutoReset(False)
+        self.dialog.setValue(0)
+        self.reports = 0
+
+    def report(self, done: int, total: int | None) -> bool:
+        """Show ``done`` of ``total`` (a busy bar where the total is not known) and tell
+        whether to go on.
+        """
+        self.reports += 1
+        if total is not None:
+            self.dialog.setMaximum(max(total, 1))
+            self.dialog.setValue(min(done, total))
+        else:
+            self.dialog.setLabelText(f"{self.dialog.labelText().split(' (')[0]} "
+                                     f"({done} tried)")
+        QApplication.processEvents()  # paints the dialog and hears Cancel
+        return not self.dialog.wasCanceled()
+
+    def close(self) -> None:
+        """Hide and release the dialog."""
+        self.dialog.close()
+        self.dialog.deleteLater()
 
 
 class NewSectionDialog(QDialog):

@@ -16,8 +16,9 @@ class ToolActions:
 
     def auto_size_selected(self) -> None:
         """Smallest stock plate thickness of the selected ply that passes."""
+        from plystack.app.dialogs import StudyProgress
         from plystack.core.section.templates import PLATES_SI, PLATES_US
-        from plystack.core.study.compare import auto_size, with_dimension
+        from plystack.core.study.compare import Stopped, auto_size, with_dimension
 
         i = self.canvas.selected  # type: ignore[attr-defined]
         p = self.document.project  # type: ignore[attr-defined]
@@ -25,11 +26,17 @@ class ToolActions:
             self.inform("Auto-size", "Select a ply first.")  # type: ignore[attr-defined]
             return
         options = list((PLATES_US if p.display_units == "US" else PLATES_SI).values())
+        progress = StudyProgress(self, "Auto-size", "Trying stock thicknesses\u2026")  # type: ignore[arg-type]
         try:
-            r = auto_size(p, p.plies[i].name, "width", options)
+            try:
+                r = auto_size(p, p.plies[i].name, "width", options, progress.report)
+            finally:
+                progress.close()
         except ProjectError as exc:
             self.warn("Auto-size", "\n".join(str(q) for q in exc.problems))  # type: ignore[attr-defined]
             return
+        except Stopped:
+            return  # cancelled: nothing to offer
         u = p.display_units
         if r.chosen is None:
             self.inform("Auto-size", r.message)  # type: ignore[attr-defined]
@@ -48,14 +55,21 @@ class ToolActions:
 
     def show_longest_span(self) -> None:
         """Tools > Longest span."""
-        from plystack.core.study.compare import longest_span
+        from plystack.app.dialogs import StudyProgress
+        from plystack.core.study.compare import Stopped, longest_span
 
         p = self.document.project  # type: ignore[attr-defined]
+        progress = StudyProgress(self, "Longest span", "Trying spans\u2026")  # type: ignore[arg-type]
         try:
-            r = longest_span(p)
+            try:
+                r = longest_span(p, progress=progress.report)
+            finally:
+                progress.close()
         except ProjectError as exc:
             self.warn("Longest span", "\n".join(str(q) for q in exc.problems))  # type: ignore[attr-defined]
             return
+        except Stopped:
+            return  # cancelled
         u = p.display_units
         self.inform("Longest span",  # type: ignore[attr-defined]
                     f"Longest span that passes every check: {fmt(r.span, 'span', u)} (to "

@@ -10,7 +10,8 @@ import argparse
 import json
 import sys
 import warnings
-from collections.abc import Callable
+from collections.abc import Callable, Iterator
+from contextlib import contextmanager
 from typing import TYPE_CHECKING, Any
 
 from . import __version__
@@ -183,7 +184,16 @@ def cmd_compare(args: argparse.Namespace) -> int:
 
     project = _load(args.file)
     alts = alternatives_with_current(project)
-    results = [(alt, run(project.with_plies(alt.plies))) for alt in alts]
+    bar = _bar(args, len(alts), "alternative")
+    try:
+        results = []
+        for alt in alts:
+            results.append((alt, run(project.with_plies(alt.plies))))
+            if bar is not None:
+                bar.update(1)
+    finally:
+        if bar is not None:
+            bar.close()
     rows = [(alt, a, summarise(a)) for alt, a in results]
     if args.json:
         _print_json([{"name": alt.name, **check_json(a)} for alt, a, _ in rows])
@@ -207,7 +217,8 @@ def cmd_sweep(args: argparse.Namespace) -> int:
 
     project = _load(args.file)
     values = _values(args.values, "--values")
-    rows = sweep(project, args.ply, args.dimension, values)
+    with _study_bar(args, len(values), "candidate") as report:
+        rows = sweep(project, args.ply, args.dimension, values, report)
     if args.json:
         _print_json({"units": "SI", "ply": args.ply, "dimension": args.dimension,
                      "rows": [r.to_dict() for r in rows]})
@@ -243,7 +254,8 @@ def cmd_size(args: argparse.Namespace) -> int:
         step = 0.0127 if project.display_units == "US" else 0.01
         top = max(p.top for p in project.plies) - min(p.y for p in project.plies)
         options = [step * k for k in range(2, int(top / step) + 2)] or [ply.height]
-    result = auto_size(project, args.ply, args.dimension, options)
+    with _study_bar(args, len(options), "option") as report:
+        result = auto_size(project, args.ply, args.dimension, options, report)
     if args.json:
         _print_json({"units": "SI", **result.to_dict()})
     else:
@@ -268,9 +280,11 @@ def cmd_span(args: argparse.Namespace) -> int:
     from .study.compare import longest_span, span_table
 
     project = _load(args.file)
-    result = longest_span(project)
-    table = (span_table(project, _values(args.tributary_widths, "--tributary-widths"))
-             if args.tributary_widths is not None else [])
+    with _study_bar(args, None, "span") as report:
+        result = longest_span(project, progress=report)
+        table = (span_table(project, _values(args.tributary_widths, "--tributary-widths"),
+                            report)
+                 if args.tributary_widths is not None else [])
     if args.json:
         _print_json({"units": "SI", **result.to_dict(), "table": table})
         return 0
@@ -383,10 +397,40 @@ def cmd_schedule(args: argparse.Namespace) -> int:
     return exit_status(results)
 
 
-def _progress(total: int) -> Any:
+def _progress(total: int | None, unit: str = "member") -> Any:
     from tqdm import tqdm
 
-    return tqdm(total=total, unit="member", file=sys.stderr, leave=False)
+    return tqdm(total=total, unit=unit, file=sys.stderr, leave=False)
+
+
+def _bar(args: argparse.Namespace, total: int | None, unit: str) -> Any:
+    """A progress bar on stderr, or None where stderr is not a terminal or the output
+    is JSON.
+    """
+    if getattr(args, "json", False) or not sys.stderr.isatty():
+        return None
+    return _progress(total, unit)
+
+
+@contextmanager
+def _study_bar(args: argparse.Namespace, total: int | None, unit: str
+               ) -> Iterator[Callable[[int, int | None], bool] | None]:
+    """The progress callback of a study (core.study.compare) drawing a bar on stderr,
+    or None where no bar is drawn (see :func:`_bar`); the bar is closed at the end.
+    """
+    bar = _bar(args, total, unit)
+    if bar is None:
+        yield None
+        return
+
+    def report(done: int, total_now: int | None) -> bool:
+        bar.update(done - bar.n)
+        return True
+
+    try:
+        yield report
+    finally:
+        bar.close()
 
 
 def cmd_demo(args: argparse.Namespace) -> int:

@@ -361,8 +361,40 @@ def _finite_fields(a: Analysis) -> Iterator[tuple[str, object]]:
             yield f"factor {sym} of the {label}", v
 
 
+def _plainly_finite(a: Analysis) -> bool:
+    """True where every number :func:`_finite_fields` lists is finite and no capacity is
+    negative (the same numbers, gathered without naming them; the names are made only
+    where one fails).
+    """
+    s = a.section
+    scalars = [s.EA, s.EI, s.neutral_axis_y, s.I_transformed, s.mass_per_length]
+    arrays = [s.E, s.n, s.area, s.I_na, s.y_bottom, s.y_top]
+    if a.beam is not None:
+        b = a.beam
+        scalars += [b.self_weight_line, b.creep_section.EI]
+        for sol in b.cases.values():
+            arrays += [sol.reactions, sol.reaction_moments]
+        for c in b.combinations:
+            for e in (c.extremes, c.total, c.long_term, c.short_term_rest):
+                if e is not None:
+                    scalars += [e.M_max, e.M_min, e.V_max_abs, e.deflection_max_abs]
+            arrays.append(c.solution.reactions)
+    for k in a.checks:
+        if not (isinstance(k.capacity, float | int) and k.capacity >= 0):
+            return False  # negative, NaN or not a plain number: the named path decides
+        scalars += [k.demand, k.capacity, *k.factors.values(), *k.partial_factors.values()]
+    try:
+        values = np.array(scalars, dtype=float)
+    except (TypeError, ValueError):
+        return False
+    return bool(np.isfinite(values).all()) and all(
+        bool(np.isfinite(np.asarray(v, dtype=float)).all()) for v in arrays)
+
+
 def _require_finite(a: Analysis) -> None:
     """A named problem where any reported number is NaN or infinite."""
+    if _plainly_finite(a):
+        return
     for what, value in _finite_fields(a):
         if isinstance(value, float | int):  # most of them: no array made for a number
             if math.isfinite(value) and not (what.startswith("capacity") and value < 0):

@@ -416,7 +416,7 @@ def analyse_beams(prepared: PreparedBeam, sections: Sequence[Section],
     batch = _Batch()
     jobs = [_ask_section(prepared, section, design, batch) for section in sections]
     ext = extremes_many(prepared.model, batch.solutions, batch.stiffness)
-    return [_finish_section(prepared, section, job, ext)
+    return [_finish_section(prepared, section, job, ext, batch.solutions)
             for section, job in zip(sections, jobs, strict=True)]
 
 
@@ -484,7 +484,11 @@ def _total(prepared: PreparedBeam, cases: Mapping[str, CaseSolution],
 
 
 def _finish_section(prepared: PreparedBeam, section: Section, job: _Job,
-                    ext: list[Extremes]) -> BeamResult:
+                    ext: list[Extremes], built: Sequence[CaseSolution]) -> BeamResult:
+    """The beam result of one section from the extremes of the batch; ``built`` holds
+    the batch's solutions, reused where a result is one of them (the solution and the
+    total of the first arrangement, the sustained part of the governing ones).
+    """
     basis = prepared.basis
     names = prepared.parts.names if prepared.parts is not None else ()
     n_sup = len(prepared.spec.layout.support_positions())
@@ -497,29 +501,39 @@ def _finish_section(prepared: PreparedBeam, section: Section, job: _Job,
         j = tgov["deflection_max_abs"]
         sus_i, rest_i = idx["sustained"][j], idx["rest"][j]
         f = dict(item.combination.factors)
-        base = combine(job.cases, {c: v for c, v in f.items()
-                                   if prepared.parts is None or c not in prepared.parts.parts})
-        hi, lo = (reaction_envelope(base, prepared.parts, item.plan, n_sup)
-                  if prepared.parts is not None else _reactions(job.cases, f, n_sup))
+        first = built[_index(idx["solution"][0])]
+        if prepared.parts is not None:
+            base = combine(job.cases, {c: v for c, v in f.items()
+                                       if c not in prepared.parts.parts})
+            hi, lo = reaction_envelope(base, prepared.parts, item.plan, n_sup)
+        elif _carries(job.cases, f):  # the first solution is combine(cases, f) itself
+            hi, lo = first.reactions.copy(), first.reactions.copy()
+        else:
+            hi, lo = _reactions(job.cases, f, n_sup)
         masks = item.plan.masks
         variable = (envelope([ext[i] for i in idx["variable"] if i is not None])[0]
                     if idx["variable"] else None)
         sus = item.sustained
         rest = {c: v - sus.get(c, 0.0) for c, v in f.items()}
         crept = prepared.creep or prepared
-        m_sus = [moment_at(prepared.model, _build(crept, job.creep_cases, item.plan,
-                                                  masks[gov[k]], sus), x)
+        sustained = None
+        if any(sus.values()):
+            sustained = (built[_index(idx["sustained"][0])]
+                         if crept.parts is None and _carries(job.creep_cases, sus)
+                         else combine(job.creep_cases, sus))
+        rest_solution = None
+        if any(rest.values()):
+            rest_solution = (built[_index(idx["rest"][0])]
+                             if prepared.parts is None and _carries(job.cases, rest)
+                             else combine(job.cases, rest))
+        m_sus = [moment_at(prepared.model, built[_index(idx["sustained"][gov[k]])], x)
                  if any(sus.values()) else 0.0
                  for k, x in (("M_max", env.x_M_max), ("M_min", env.x_M_min))]
         results.append(CombinationResult(
             combination=item.combination, duration=duration_of(item.combination, basis),
-            solution=_build(prepared, job.cases, item.plan, masks[0], f), extremes=env,
-            sustained_factors=sus,
-            sustained=combine(job.creep_cases, sus) if any(sus.values()) else None,
-            rest=combine(job.cases, rest) if any(rest.values()) else None,
-            total=total, total_solution=_total(prepared, job.cases, job.creep_cases,
-                                               item.plan, masks[0], f, sus,
-                                               section.EI / job.creep_section.EI),
+            solution=first, extremes=env,
+            sustained_factors=sus, sustained=sustained, rest=rest_solution,
+            total=total, total_solution=built[_index(idx["total"][0])],
             long_term=None if sus_i is None else ext[sus_i],
             short_term_rest=None if rest_i is None else ext[rest_i],
             M_governing=env.M_max if abs(env.M_max) >= abs(env.M_min) else env.M_min,
@@ -543,6 +557,17 @@ def _finish_section(prepared: PreparedBeam, section: Section, job: _Job,
         stepped=prepared.stepped)
 
 
+def _carries(cases: Mapping[str, CaseSolution], g: Mapping[str, float]) -> bool:
+    """True where :func:`combine` of ``g`` has a case to add (it is not None)."""
+    return any(c in cases and v != 0 for c, v in g.items())
+
+
+def _index(i: int | None) -> int:
+    """A batch index that the job always asks for."""
+    assert i is not None
+    return i
+
+
 def analyse_stepped(prepared: PreparedBeam, section: Section, design: DesignSpec,
                     bounds: Sequence[tuple[float, float]]) -> BeamResult:
     """A stepped member's beam actions for its (whole-member) ``section``, with
@@ -555,12 +580,14 @@ def analyse_stepped(prepared: PreparedBeam, section: Section, design: DesignSpec
     batch = _Batch()
     job = _ask_section(prepared, section, design, batch)
     whole = _finish_section(prepared, section, job,
-                            extremes_many(prepared.model, batch.solutions, batch.stiffness))
+                            extremes_many(prepared.model, batch.solutions, batch.stiffness),
+                            batch.solutions)
     parts = []
     for a, b in bounds:
         span = (prepared.model.node_index(a), prepared.model.node_index(b))
         ext = extremes_many(prepared.model, batch.solutions, batch.stiffness, span)
-        parts.append(replace(_finish_section(prepared, section, job, ext), bounds=(a, b)))
+        parts.append(replace(_finish_section(prepared, section, job, ext, batch.solutions),
+                             bounds=(a, b)))
     return replace(whole, segments=tuple(parts))
 
 

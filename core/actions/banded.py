@@ -79,7 +79,14 @@ def solve_banded_spd(a: np.ndarray, b: np.ndarray,
     n = a.shape[0]
     w = min(half_bandwidth, max(n - 1, 0))
     diagonals = [np.diagonal(a, -k).tolist() for k in range(w + 1)]
-    rows = cholesky_band(diagonals, n, w)
+    return solve_with_factor(cholesky_band(diagonals, n, w), b, w)
+
+
+def solve_with_factor(rows: list[list[float]], b: np.ndarray, w: int) -> np.ndarray:
+    """Solve a x = b with the banded Cholesky factor of ``a`` (:func:`cholesky_band`),
+    so one factor serves every right-hand side of a matrix.
+    """
+    n = len(rows)
     rhs = np.asarray(b, dtype=float).tolist()
     y = [0.0] * n
     for i in range(n):  # L y = b

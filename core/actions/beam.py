@@ -30,7 +30,7 @@ import numpy as np
 
 from ..model.errors import ProjectError
 from ..model.member import MERGE_TOLERANCE, BeamLayout, Load, validate_layout
-from .banded import solve_banded_spd
+from .banded import BEAM_HALF_BANDWIDTH, cholesky_band, solve_with_factor
 
 
 @dataclass(frozen=True, eq=False)
@@ -128,10 +128,20 @@ class BeamModel:
                 fixed.append(2 * node + 1)
         self.fixed = np.array(sorted(fixed))
         self.free = np.setdiff1d(np.arange(n_dof), self.fixed)
-        kff = K[np.ix_(self.free, self.free)]
         # symmetric diagonal scaling: short elements next to long ones make K badly scaled
-        self._scale = 1.0 / np.sqrt(np.diag(kff))
-        self._kff_scaled = kff * np.outer(self._scale, self._scale)
+        free = self.free
+        self._scale = 1.0 / np.sqrt(K[free, free])
+        # the band of the scaled free-dof matrix, diagonal by diagonal (entry (j + k, j)
+        # is K[free[j + k], free[j]] * (scale[j + k] * scale[j])), factored once
+        self._w = min(BEAM_HALF_BANDWIDTH, max(free.size - 1, 0))
+        diagonals = [(K[free[k:], free[: free.size - k]]
+                      * (self._scale[k:] * self._scale[: free.size - k])).tolist()
+                     for k in range(self._w + 1)]
+        self._factor: list[list[float]] | None
+        try:
+            self._factor = cholesky_band(diagonals, free.size, self._w)
+        except np.linalg.LinAlgError:
+            self._factor = None  # rounding defeats the banded factor: LU in solve
         regions = layout.regions()
         mids = (self.nodes[:-1] + self.nodes[1:]) / 2
         #: The named region (span, overhang) of every element.
@@ -166,6 +176,23 @@ class BeamModel:
         else:
             reactions[0] = down
             moments[0] = arm - reactions[0] * pos[0]
+
+    def scaled_free_stiffness(self) -> np.ndarray:
+        """The stiffness of the free degrees of freedom, scaled symmetrically to a unit
+        diagonal (dense; the solve itself keeps only its band).
+        """
+        kff = self.K[np.ix_(self.free, self.free)]
+        return np.asarray(kff * np.outer(self._scale, self._scale))
+
+    def _linear_solve(self, b: np.ndarray) -> np.ndarray:
+        """Solve the scaled free-dof system: banded Cholesky, or, where rounding makes a
+        pivot of that factorisation non-positive (an element a millionth of its
+        neighbour's length), the dense LU solve with pivoting, which raises on a singular
+        system (a mechanism).
+        """
+        if self._factor is not None:
+            return solve_with_factor(self._factor, b, self._w)
+        return np.asarray(np.linalg.solve(self.scaled_free_stiffness(), b))
 
     def node_index(self, x: float) -> int:
         """Index of the node nearest to ``x``."""
@@ -204,14 +231,15 @@ class BeamModel:
         le = self.lengths
         Fe = np.zeros_like(F)
         # consistent nodal loads of q + dq s: uniform part and linear part (Hermite shapes)
-        np.add.at(Fe, 2 * np.arange(n_el), q_el * le / 2 + dq_el * 3 * le**2 / 20)
-        np.add.at(Fe, 2 * np.arange(n_el) + 1, q_el * le**2 / 12 + dq_el * le**3 / 30)
-        np.add.at(Fe, 2 * np.arange(n_el) + 2, q_el * le / 2 + dq_el * 7 * le**2 / 20)
-        np.add.at(Fe, 2 * np.arange(n_el) + 3, -q_el * le**2 / 12 - dq_el * le**3 / 20)
+        # (each index once per line, so slices add the same numbers as np.add.at)
+        Fe[0 : 2 * n_el : 2] += q_el * le / 2 + dq_el * 3 * le**2 / 20
+        Fe[1 : 2 * n_el : 2] += q_el * le**2 / 12 + dq_el * le**3 / 30
+        Fe[2 : 2 * n_el + 2 : 2] += q_el * le / 2 + dq_el * 7 * le**2 / 20
+        Fe[3 : 2 * n_el + 2 : 2] += -q_el * le**2 / 12 - dq_el * le**3 / 20
         total = F + Fe
         u = np.zeros_like(F)
         rhs = total[self.free]
-        u[self.free] = self._scale * _linear_solve(self._kff_scaled, rhs * self._scale)
+        u[self.free] = self._scale * self._linear_solve(rhs * self._scale)
         R = self.K @ u - total
         reactions = np.array([R[2 * n] for n in self.support_nodes])
         kinds = self.layout.support_kinds()
@@ -242,15 +270,6 @@ class BeamModel:
                             q_el * self.flexibility, dq_el * self.flexibility)
 
 
-def _linear_solve(a: np.ndarray, b: np.ndarray) -> np.ndarray:
-    """Solve the scaled free-dof system: banded Cholesky, or, where rounding makes a pivot
-    of that factorisation non-positive (an element a millionth of its neighbour's length),
-    the dense LU solve with pivoting, which raises on a singular system (a mechanism).
-    """
-    try:
-        return solve_banded_spd(a, b)
-    except np.linalg.LinAlgError:
-        return np.asarray(np.linalg.solve(a, b))
 
 
 def _element_flexibility(nodes: np.ndarray,
@@ -418,39 +437,57 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
     w = np.where(np.isnan(xw), 0.0, w)
     aw = np.abs(w)
     i_w = np.argmax(aw.reshape(k, -1), axis=1)
-    regions = model.layout.regions()
-    element_region = np.array([[n_ for n_, _, _ in regions].index(r) if r in
-                               [n_ for n_, _, _ in regions] else -1
-                               for r in model.element_regions[e0:e1]])
     pos_w = x0[None, :, None] + xw_safe
+    by_region = _by_region(model, e0, e1, aw, w, pos_w)
     out = []
     xm_flat = (x0[None, :, None] + xm).reshape(k, -1)
     xv_flat = (x0[None, :, None] + xv_loc).reshape(k, -1)
+    m_hi = np.take_along_axis(m.reshape(k, -1), i_max[:, None], axis=1)[:, 0].tolist()
+    m_lo = np.take_along_axis(m.reshape(k, -1), i_min[:, None], axis=1)[:, 0].tolist()
     for c in range(k):
-        m_flat = m[c].reshape(-1)
-        m_max, m_min = float(m_flat[i_max[c]]), float(m_flat[i_min[c]])
+        m_max, m_min = m_hi[c], m_lo[c]
         scale = max(abs(m_max), abs(m_min), 1e-300)
         if abs(m_max) < 1e-9 * scale:
             m_max = 0.0
         if abs(m_min) < 1e-9 * scale:
             m_min = 0.0
-        by_region = []
-        for r, (name, _, _) in enumerate(regions):
-            mask = element_region == r
-            if not mask.any():
-                continue
-            a_r = aw[c][mask].reshape(-1)
-            j = int(np.argmax(a_r))
-            by_region.append((name, float(w[c][mask].reshape(-1)[j]),
-                              float(pos_w[c][mask].reshape(-1)[j])))
         out.append(Extremes(
             M_max=m_max, x_M_max=float(xm_flat[c, i_max[c]]),
             M_min=m_min, x_M_min=float(xm_flat[c, i_min[c]]),
             V_max_abs=float(v[c, i_v[c]]), x_V_max_abs=float(xv_flat[c, i_v[c]]),
             deflection_max_abs=float(aw[c].reshape(-1)[i_w[c]]),
             x_deflection_max=float(pos_w[c].reshape(-1)[i_w[c]]),
-            deflection_by_region=tuple(by_region)))
+            deflection_by_region=by_region[c]))
     return out
+
+
+def _by_region(model: BeamModel, e0: int, e1: int, aw: np.ndarray, w: np.ndarray,
+               pos_w: np.ndarray) -> list[tuple[tuple[str, float, float], ...]]:
+    """Per solution, (region, deflection, x) where |deflection| is largest in each region
+    (span, overhang) holding elements ``e0`` to ``e1``: the first of the largest in the
+    order of the elements and their stations, as one search over the region would find.
+
+    ``aw``, ``w`` and ``pos_w`` have shape (solutions, elements, stations). The elements
+    of a region are gathered once; each region's search covers only its own elements, so
+    the work grows with the elements, not with elements times regions.
+    """
+    k = aw.shape[0]
+    names = [n_ for n_, _, _ in model.layout.regions()]
+    members: dict[int, list[int]] = {}
+    for e, region in enumerate(model.element_regions[e0:e1]):
+        if region in names:
+            members.setdefault(names.index(region), []).append(e)
+    rows: list[list[tuple[str, float, float]]] = [[] for _ in range(k)]
+    every = np.arange(k)
+    for r in sorted(members):
+        els = np.array(members[r], dtype=int)
+        a_r = aw[:, els].reshape(k, -1)
+        j = np.argmax(a_r, axis=1)
+        w_r = w[:, els].reshape(k, -1)[every, j].tolist()
+        x_r = pos_w[:, els].reshape(k, -1)[every, j].tolist()
+        for c in range(k):
+            rows[c].append((names[r], w_r[c], x_r[c]))
+    return [tuple(row) for row in rows]
 
 
 @dataclass(frozen=True, eq=False)

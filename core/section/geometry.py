@@ -198,6 +198,81 @@ class WidthProfile:
         return area, first
 
 
+@dataclass(frozen=True, eq=False)
+class ProfileStack:
+    """The width profiles of every ply of a section, their segments side by side, so the
+    widths and the parts above a set of cuts are found for all plies in one pass.
+
+    Per segment, the same arithmetic as :meth:`WidthProfile.width_inside` and
+    :meth:`WidthProfile.above` (element by element, so the numbers are the same), and the
+    segments of a ply added up in their own order.
+    """
+
+    count: int
+    owner: np.ndarray
+    lo: np.ndarray
+    hi: np.ndarray
+    b_start: np.ndarray
+    b_end: np.ndarray
+    single: bool
+
+    @staticmethod
+    def of(profiles: tuple[WidthProfile, ...] | list[WidthProfile]) -> ProfileStack:
+        """Stack the segments of ``profiles`` (one per ply)."""
+        owner: list[int] = []
+        lo: list[float] = []
+        hi: list[float] = []
+        b0: list[float] = []
+        b1: list[float] = []
+        for i, prof in enumerate(profiles):
+            ys = prof.y.tolist()
+            owner.extend([i] * (len(ys) - 1) if ys else [])
+            lo.extend(ys[:-1])
+            hi.extend(ys[1:])
+            b0.extend(prof.b_start.tolist())
+            b1.extend(prof.b_end.tolist())
+        single = owner == list(range(len(profiles)))
+        return ProfileStack(len(profiles), np.array(owner, dtype=int), np.array(lo),
+                            np.array(hi), np.array(b0), np.array(b1), single)
+
+    def _gather(self, seg: np.ndarray, ny: int, use_max: bool) -> np.ndarray:
+        out = np.zeros((self.count, ny))
+        if self.single:
+            return np.asarray(np.maximum(out, seg) if use_max else out + seg)
+        if use_max:
+            np.maximum.at(out, self.owner, seg)
+        else:
+            np.add.at(out, self.owner, seg)  # in segment order, as a loop would
+        return out
+
+    def width_inside(self, y: np.ndarray) -> np.ndarray:
+        """Width of every ply at heights ``y``, shape (plies, len(y))."""
+        y = np.asarray(y, dtype=float)[None, :]
+        lo, hi = self.lo[:, None], self.hi[:, None]
+        b0, b1 = self.b_start[:, None], self.b_end[:, None]
+        t = np.clip((y - lo) / (hi - lo), 0.0, 1.0)
+        inside = (y >= lo) & (y <= hi)
+        value = b0 + t * (b1 - b0)
+        return self._gather(np.where(inside, np.maximum(0.0, value), 0.0), y.size, True)
+
+    def above(self, cut: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        """Area and first moment (about y = 0) of every ply's part above each cut,
+        each of shape (plies, len(cut)).
+        """
+        cut = np.asarray(cut, dtype=float)[None, :]
+        lo, hi = self.lo[:, None], self.hi[:, None]
+        b0, b1 = self.b_start[:, None], self.b_end[:, None]
+        slope = (b1 - b0) / (hi - lo)
+        a = np.clip(cut, lo, hi)
+        ba = b0 + slope * (a - lo)
+        seg_area = (ba + b1) / 2 * (hi - a)
+        mid = (a + hi) / 2
+        bm = b0 + slope * (mid - lo)
+        seg_first = (hi - a) / 6 * (a * ba + 4 * mid * bm + hi * b1)
+        return (self._gather(seg_area, cut.size, False),
+                self._gather(seg_first, cut.size, False))
+
+
 def width_profile(geom: BaseGeometry) -> WidthProfile:
     """Build the exact piecewise-linear width function of a (multi)polygon."""
     if geom.is_empty:

@@ -28,6 +28,7 @@ from ..model.materials import Material
 from ..model.plies import Ply, validate_ply
 from .geometry import (
     TOUCH_TOLERANCE,
+    ProfileStack,
     WidthProfile,
     clip_plies,
     is_unclipped,
@@ -112,6 +113,7 @@ class Section:
     I_na: np.ndarray
     interfaces: tuple[Interface, ...]
     warnings: tuple[Problem, ...]
+    stack: ProfileStack | None = None
 
     # --- per-ply results --------------------------------------------------------------
 
@@ -215,10 +217,14 @@ class Section:
         """
         cuts = np.atleast_1d(np.asarray(y, dtype=float))
         total = np.zeros_like(cuts)
-        for i, prof in enumerate(self.profiles):
-            a, s = prof.above(cuts)
-            total += self.n[i] * (s - self.neutral_axis_y * a)
+        a, s = self._stack().above(cuts)
+        terms = self.n[:, None] * (s - self.neutral_axis_y * a)
+        for row in terms:  # ply by ply, in order
+            total += row
         return total
+
+    def _stack(self) -> ProfileStack:
+        return self.stack if self.stack is not None else ProfileStack.of(self.profiles)
 
     def shear_flow(self, shear: float, y: np.ndarray | float) -> np.ndarray:
         """Shear flow q(y) = V Q_t(y) / I_t across a full horizontal cut, N/m."""
@@ -235,26 +241,25 @@ class Section:
         axis the first moments are taken of what lies above the cut, below it of what
         lies below, so that every free edge carries no shear.
         """
-        y = np.asarray(y, dtype=float)
-        n_p = len(self.plies)
+        y = np.asarray(y, dtype=float).reshape(-1)
         y_na = self.neutral_axis_y
         upper = y >= y_na
-        widths = np.zeros((n_p, y.size))
-        own_q = np.zeros((n_p, y.size))
+        stack = self._stack()
+        widths = stack.width_inside(y)
+        a, s = stack.above(y)  # every ply at once, shape (plies, cuts)
+        q_above = s - y_na * a
+        q_total = (self.first_y - y_na * self.area)[:, None]
+        # from the nearer free edge: the part above the cut above the neutral axis,
+        # minus the part below the cut below it (so a free edge carries no shear)
+        q_i = np.where(upper, q_above, q_above - q_total)
+        crossing = widths > 0
+        own_q = np.where(crossing, q_i, 0.0)
+        wholly_beyond = np.where(upper, self.y_bottom[:, None] >= y, self.y_top[:, None] <= y)
+        terms = np.where((~crossing) & wholly_beyond,
+                         self.n[:, None] * np.where(upper, q_total, -q_total), 0.0)
         beyond = np.zeros(y.size)
-        for i, prof in enumerate(self.profiles):
-            widths[i] = prof.width_inside(y)
-            a, s = prof.above(y)
-            q_above = s - y_na * a
-            q_total = self.first_y[i] - y_na * self.area[i]
-            # from the nearer free edge: the part above the cut above the neutral axis,
-            # minus the part below the cut below it (so a free edge carries no shear)
-            q_i = np.where(upper, q_above, q_above - q_total)
-            crossing = widths[i] > 0
-            own_q[i] = np.where(crossing, q_i, 0.0)
-            wholly_beyond = np.where(upper, self.y_bottom[i] >= y, self.y_top[i] <= y)
-            beyond += np.where((~crossing) & wholly_beyond,
-                               self.n[i] * np.where(upper, q_total, -q_total), 0.0)
+        for row in terms:  # ply by ply, in order
+            beyond += row
         nb = (self.n[:, None] * widths).sum(axis=0)
         with np.errstate(divide="ignore", invalid="ignore"):
             share = np.where(nb > 0, beyond / nb, 0.0)
@@ -354,16 +359,20 @@ def analyse(
         E[loose] = 0.0
     profiles = tuple(width_profile(g) for g in geoms)
     return _assemble(plies, mats, reference, E_ref, E, area, first_y, second_y, y_bottom, y_top,
-                     geoms, profiles, tuple(warnings), size)
+                     geoms, profiles, tuple(warnings), size, ProfileStack.of(profiles))
 
 
 def with_moduli(section: Section, moduli: Sequence[float] | np.ndarray) -> Section:
-    """The same geometry with other per-ply moduli (creep), without re-clipping."""
+    """The same geometry with other per-ply moduli (creep), without re-clipping; the
+    contacts between plies are the section's own (they do not depend on the moduli),
+    only the first moments they hold are found again.
+    """
     size = max(max(p.width, p.height) for p in section.plies)
     plain = _assemble(section.plies, section.materials, section.reference_material,
                       section.E_ref, np.asarray(moduli, dtype=float), section.area,
                       section.first_y, section.second_y, section.y_bottom, section.y_top,
-                      section.geoms, section.profiles, section.warnings, size)
+                      section.geoms, section.profiles, section.warnings, size,
+                      section.stack, section.interfaces)
     return section.same_kind(plain)
 
 
@@ -371,7 +380,8 @@ def _assemble(plies: tuple[Ply, ...], mats: tuple[Material, ...], reference: str
               E: np.ndarray, area: np.ndarray, first_y: np.ndarray, second_y: np.ndarray,
               y_bottom: np.ndarray, y_top: np.ndarray, geoms: tuple[BaseGeometry, ...],
               profiles: tuple[WidthProfile, ...], warnings: tuple[Problem, ...],
-              size: float) -> Section:
+              size: float, stack: ProfileStack | None = None,
+              contacts_of: tuple[Interface, ...] | None = None) -> Section:
     EA = float((E * area).sum())
     if EA <= 0:
         raise ProjectError(Problem("plies", "the section has no stiffness left after clipping"))
@@ -379,7 +389,12 @@ def _assemble(plies: tuple[Ply, ...], mats: tuple[Material, ...], reference: str
     I_na = second_y - 2 * y_na * first_y + y_na**2 * area
     EI = float((E * I_na).sum())
     n = E / E_ref
-    section = Section(
+    beyond = _Beyond(n * (first_y - y_na * area), area > 0, y_bottom, y_top, size * 1e-9)
+    if contacts_of is not None:  # the contacts do not depend on the moduli
+        interfaces = _with_first_moments(contacts_of, beyond)
+    else:
+        interfaces = _find_interfaces(plies, area, geoms, beyond)
+    return Section(
         plies=plies,
         materials=mats,
         reference_material=reference,
@@ -399,18 +414,30 @@ def _assemble(plies: tuple[Ply, ...], mats: tuple[Material, ...], reference: str
         I_transformed=EI / E_ref,
         mass_per_length=float(sum(m.density * a for m, a in zip(mats, area, strict=True))),
         I_na=I_na,
-        interfaces=(),
+        interfaces=interfaces,
         warnings=warnings,
+        stack=stack,
     )
-    # interfaces need the neutral axis: a new object, never a write into this one
-    return replace(section, interfaces=_find_interfaces(section, size))
 
 
-def _rectangle_contacts(section: Section, tol: float
+@dataclass(frozen=True, eq=False)
+class _Beyond:
+    """What the first moments held at an interface are found from: per ply, n Q about
+    the neutral axis, whether it has material, its lowest and highest fibre; and the
+    tolerance of "level with".
+    """
+
+    q: np.ndarray
+    valid: np.ndarray
+    y_bottom: np.ndarray
+    y_top: np.ndarray
+    tol: float
+
+
+def _rectangle_contacts(plies: tuple[Ply, ...], area: np.ndarray, tol: float
                         ) -> dict[float, list[tuple[int, int, float]]] | None:
     """Horizontal contacts of unclipped rectangles (None where some ply is clipped)."""
-    plies = section.plies
-    if not all(section.is_unclipped(i) for i in range(len(plies))):
+    if not all(is_unclipped(float(a), p) for a, p in zip(area, plies, strict=True)):
         return None
     found = []
     for a, b in near_pairs(plies, tol):
@@ -428,14 +455,16 @@ def _rectangle_contacts(section: Section, tol: float
     return contacts
 
 
-def _find_interfaces(section: Section, size: float) -> tuple[Interface, ...]:
+def _find_interfaces(plies: tuple[Ply, ...], area: np.ndarray,
+                     all_geoms: tuple[BaseGeometry, ...],
+                     beyond: _Beyond) -> tuple[Interface, ...]:
     """Find horizontal contacts between plies and the first moment they must hold."""
-    tol = size * 1e-9
-    fast = _rectangle_contacts(section, tol)
+    tol = beyond.tol
+    fast = _rectangle_contacts(plies, area, tol)
     contacts: dict[float, list[tuple[int, int, float]]] = fast or {}
-    geoms = section.geoms if fast is None else ()
+    geoms = all_geoms if fast is None else ()
     near: list[list[int]] = [[] for _ in geoms]
-    for a, b in near_pairs(section.plies, tol * 20) if geoms else ():
+    for a, b in near_pairs(plies, tol * 20) if geoms else ():
         near[a].append(b)
         near[b].append(a)
     for i, gi in enumerate(geoms):
@@ -466,7 +495,7 @@ def _find_interfaces(section: Section, size: float) -> tuple[Interface, ...]:
     if not contacts:
         return ()
     heights = sorted(contacts)
-    q_above, q_below = _first_moments_beyond(section, np.array(heights), tol)
+    q_above, q_below = _first_moments_beyond(beyond, np.array(heights))
     out = []
     for k, yc in enumerate(heights):
         items = contacts[yc]
@@ -477,18 +506,28 @@ def _find_interfaces(section: Section, size: float) -> tuple[Interface, ...]:
     return tuple(out)
 
 
-def _first_moments_beyond(section: Section, heights: np.ndarray,
-                          tol: float) -> tuple[np.ndarray, np.ndarray]:
+def _with_first_moments(interfaces: tuple[Interface, ...],
+                        beyond: _Beyond) -> tuple[Interface, ...]:
+    """The same contacts (heights, pairs, lengths) with the first moments of ``beyond``,
+    found as :func:`_find_interfaces` finds them.
+    """
+    if not interfaces:
+        return ()
+    heights = np.array([itf.y for itf in interfaces])
+    q_above, q_below = _first_moments_beyond(beyond, heights)
+    return tuple(replace(itf, Q=max(abs(float(q_above[k])), abs(float(q_below[k]))))
+                 for k, itf in enumerate(interfaces))
+
+
+def _first_moments_beyond(b: _Beyond, heights: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     """At each height, the sums of n Q of the plies wholly above it and wholly below it.
 
     The sums run over the plies in order (a cumulative sum of rows in which the other
     plies count zero), so they are the same numbers as a loop adding one ply at a time.
     """
-    y_na = section.neutral_axis_y
-    q = section.n * (section.first_y - y_na * section.area)
-    valid = section.area > 0
-    above = valid & (section.y_bottom[None, :] >= heights[:, None] - tol)
-    below = valid & ~above & (section.y_top[None, :] <= heights[:, None] + tol)
+    q, valid, tol = b.q, b.valid, b.tol
+    above = valid & (b.y_bottom[None, :] >= heights[:, None] - tol)
+    below = valid & ~above & (b.y_top[None, :] <= heights[:, None] + tol)
     q_above = np.cumsum(np.where(above, q, 0.0), axis=1)[:, -1]
     q_below = np.cumsum(np.where(below, q, 0.0), axis=1)[:, -1]
     return q_above, q_below

@@ -4,12 +4,17 @@ Evaluating one candidate is the full section, beam and check pipeline. The beam'
 and stiffness do not depend on the section, and every load case is linear in the loads,
 so the pipeline's Evaluator solves each case once (self-weight as its own unit case)
 and only redoes the section, scaling and checks per candidate.
+
+Long studies report their progress to an optional callback, ``progress(done, total)``
+(``total`` None where the count is not known in advance, as in the longest-span search);
+a callback that returns False asks the study to stop, which it does after the candidate
+(or batch of candidates) in hand by raising :class:`Stopped` with what it had found.
 """
 
 from __future__ import annotations
 
 import math
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass, replace
 
 from ..model.constants import INCH
@@ -19,6 +24,13 @@ from ..model.project import Alternative, Project
 from ..pipeline import Analysis, Evaluator, run
 
 IN = INCH
+
+#: A progress report: (candidates done, candidates in all or None); False asks to stop.
+Progress = Callable[[int, int | None], bool | None]
+
+#: Candidates evaluated together between two progress reports of a sweep (their beam
+#: extremes in one batched pass, as for a whole sweep).
+SWEEP_BATCH = 16
 
 
 @dataclass(frozen=True)
@@ -50,6 +62,28 @@ def summarise(a: Analysis, value: float = math.nan) -> Outcome:
                default=0.0) if a.beam else 0.0
     return Outcome(value, gov.ratio, gov.id, defl, a.section.mass_per_length,
                    all(c.ok for c in a.checks), a.section.EI)
+
+
+class Stopped(Exception):
+    """A study stopped at the request of its progress callback.
+
+    Attributes:
+        outcomes: the candidates evaluated before the stop, in order.
+
+    """
+
+    def __init__(self, outcomes: Sequence[Outcome] = ()):
+        super().__init__("stopped on request")
+        self.outcomes = tuple(outcomes)
+
+
+def _report(progress: Progress | None, done: int, total: int | None,
+            outcomes: Sequence[Outcome], more: bool = True) -> None:
+    """Tell ``progress``; raise :class:`Stopped` where it asks to stop and work is left
+    (``more``).
+    """
+    if progress is not None and progress(done, total) is False and more:
+        raise Stopped(outcomes)
 
 
 class Candidates:
@@ -109,14 +143,27 @@ def ply_index(plies: Sequence[Ply], name: str) -> int:
     raise ProjectError(Problem("--ply", f'"{name}" is not a ply of this project ({names})'))
 
 
-def sweep(project: Project, name: str, dimension: str, values: Sequence[float]
-          ) -> list[Outcome]:
-    """Governing ratio, deflection and mass for each value of one ply dimension."""
+def sweep(project: Project, name: str, dimension: str, values: Sequence[float],
+          progress: Progress | None = None) -> list[Outcome]:
+    """Governing ratio, deflection and mass for each value of one ply dimension.
+
+    With ``progress``, the candidates go in batches of :data:`SWEEP_BATCH`, each batch
+    reported when done (the outcomes are the same as in one batch: every candidate's
+    numbers are its own).
+    """
     for v in values:
         if not v > 0:
             raise ProjectError(Problem("--values", f"{v} must be greater than zero"))
     candidates = [with_dimension(project.plies, name, dimension, v) for v in values]
-    return Candidates(project).evaluate_many(candidates, list(values))
+    ev = Candidates(project)
+    if progress is None:
+        return ev.evaluate_many(candidates, list(values))
+    out: list[Outcome] = []
+    for start in range(0, len(candidates), SWEEP_BATCH):
+        stop = start + SWEEP_BATCH
+        out += ev.evaluate_many(candidates[start:stop], list(values[start:stop]))
+        _report(progress, len(out), len(candidates), out, len(out) < len(candidates))
+    return out
 
 
 @dataclass(frozen=True)
@@ -144,19 +191,24 @@ class SizeResult:
                 "next_smaller": nxt, "message": self.message}
 
 
-def auto_size(project: Project, name: str, dimension: str, options: Sequence[float]
-              ) -> SizeResult:
-    """The smallest option (in ascending order) that passes every check."""
+def auto_size(project: Project, name: str, dimension: str, options: Sequence[float],
+              progress: Progress | None = None) -> SizeResult:
+    """The smallest option (in ascending order) that passes every check; ``progress``
+    hears after each option tried (of all the options: the search may end sooner).
+    """
     ordered = sorted(set(options))
     ev = Candidates(project)
     previous: Outcome | None = None
+    tried: list[Outcome] = []
     for v in ordered:
         out = ev.evaluate(with_dimension(project.plies, name, dimension, v), v)
+        tried.append(out)
         if out.ok:
             return SizeResult(name, dimension, out, previous,
                               "smallest passing option" if previous else
                               "the smallest option in the list passes")
         previous = out
+        _report(progress, len(tried), len(ordered), tried, len(tried) < len(ordered))
     return SizeResult(name, dimension, None, previous,
                       f"no option passes: the largest, {ordered[-1]:.6g} m, still has "
                       f"{previous.governing_id if previous else '?'} ratio "
@@ -202,14 +254,20 @@ class SpanResult:
                 "next_governing_ratio": self.next_fails.governing_ratio}
 
 
-def longest_span(project: Project, tolerance: float | None = None) -> SpanResult:
+def longest_span(project: Project, tolerance: float | None = None,
+                 progress: Progress | None = None) -> SpanResult:
     """Longest (first) span, a whole number of tolerance steps (1/8 in or 5 mm), that
-    passes every check, with the next step failing.
+    passes every check, with the next step failing. ``progress`` hears after each span
+    tried (the number of tries is not known in advance: total None).
     """
     tol = tolerance or (IN / 8 if project.display_units == "US" else 0.005)
+    tried: list[Outcome] = []
 
     def outcome(n: int) -> Outcome:
-        return summarise(run(scaled_spans(project, n * tol)), n * tol)
+        out = summarise(run(scaled_spans(project, n * tol)), n * tol)
+        tried.append(out)
+        _report(progress, len(tried), None, tried)
+        return out
 
     lo = max(1, int(0.3 / tol))  # 0.3 m
     if not outcome(lo).ok:
@@ -230,11 +288,18 @@ def longest_span(project: Project, tolerance: float | None = None) -> SpanResult
     return SpanResult(lo * tol, best.governing_id, best.governing_ratio, tol, outcome(lo + 1))
 
 
-def span_table(project: Project, widths: Sequence[float]) -> list[dict[str, object]]:
+def span_table(project: Project, widths: Sequence[float],
+               progress: Progress | None = None) -> list[dict[str, object]]:
     """Longest span per alternative (current design first) and tributary width of the
-    area loads.
+    area loads; ``progress`` hears the spans tried over all the searches.
     """
     rows = []
+    counted = [0, 0]  # spans tried in the searches finished, and in the one running
+
+    def running(done: int, total: int | None) -> bool | None:
+        counted[1] = done
+        return progress(counted[0] + done, total) if progress is not None else None
+
     for alt in alternatives_with_current(project):
         p = project.with_plies(alt.plies)
         for w in widths:
@@ -243,7 +308,8 @@ def span_table(project: Project, widths: Sequence[float]) -> list[dict[str, obje
                 continue
             loads = tuple(replace(ld, tributary_width=w) if ld.type == "area" else ld
                           for ld in spec.loads)
-            r = longest_span(replace(p, beam=replace(spec, loads=loads)))
+            r = longest_span(replace(p, beam=replace(spec, loads=loads)), progress=running)
+            counted[0] += counted[1]
             rows.append({"alternative": alt.name, "tributary_width": w, "span": r.span,
                          "governing_id": r.governing_id})
     return rows
