@@ -88,7 +88,7 @@ class Joint:
         return fasteners.K_u(self.K_ser / self.creep)
 
 
-@dataclass(frozen=True, eq=False)
+@dataclass(frozen=True, eq=False, kw_only=True)
 class PartialSection(Section):
     """A section of stacked plies with slip between them (EN 1995-1-1 Annex B).
 
