@@ -373,3 +373,24 @@ def slip_summary(section: Section) -> Sequence[str]:
         f"gamma = {float(section.gamma[j.flange]):.4g} (K_ser), "
         f"{float(section.gamma_uls[j.flange]):.4g} (K_u)"
         for j in section.joints)
+
+
+#: The assumptions that replace "fully connected" and "strain linear over the depth"
+#: where the slip of the fasteners is analysed.
+SLIP_ASSUMPTIONS = (
+    "Plane sections remain plane within each ply; stacked plies slip on their fasteners "
+    "(EN 1995-1-1 Annex B, the gamma method, from memory): one simply supported span, "
+    "fasteners evenly spaced (or at the effective spacing 0.75 s_min + 0.25 s_max), "
+    "slip modulus K_ser of Table 7.1 for deflections and K_u = 2/3 K_ser for stresses and "
+    "fastener loads.",
+)
+
+
+def assumptions(section: Section, plain: Sequence[str]) -> tuple[str, ...]:
+    """The stated assumptions ``plain`` for this section: for a partial section the lines
+    on full connection and on strain linear over the depth replaced by the slip's.
+    """
+    if not isinstance(section, PartialSection):
+        return tuple(plain)
+    kept = tuple(t for t in plain if "no slip" not in t and "linear over the depth" not in t)
+    return SLIP_ASSUMPTIONS + kept

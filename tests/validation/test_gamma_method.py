@@ -380,3 +380,37 @@ def test_us_basis_uses_the_same_method():
     assert sec.gamma[1] == pytest.approx(g, rel=1e-12)
     assert sec.EI == pytest.approx(EI * 1e-6, rel=1e-12)
     assert any(c.id == "connectors" for c in a.checks)
+
+
+def _us(d: dict) -> dict:
+    d["design"]["basis"] = "US-ASD"
+    d["beam"]["combinations"] = "ASD"
+    for p in d["plies"]:
+        if p["material"] == "C24":
+            p["material"] = "DFL-No2"
+    d["design"]["connector"]["allowable"] = "500 lbf"
+    return d
+
+
+@pytest.mark.parametrize("d", [project(bottom=True), project("S275"), _us(project()),
+                               _us(project("S275"))],
+                         ids=["EU two timber flanges", "EU steel flange", "US timber flange",
+                              "US steel flange"])
+def test_sheet_writes_the_slip_out(d):
+    """Every check of the sheet recomputed from its printed numbers (the sheet's text read
+    back with pypdf, as in test_sheet_recompute), the gamma method's among them.
+    """
+    import io
+
+    from pypdf import PdfReader
+
+    from plystack.core.report.sheet import build_sheet
+    from tests.validation.test_sheet_recompute import assert_recomputes
+
+    p = from_dict(d)
+    buf = io.BytesIO()
+    build_sheet(p, buf)
+    text = "\n".join(pg.extract_text() for pg in PdfReader(io.BytesIO(buf.getvalue())).pages)
+    assert "not written out" not in text
+    assert "EN 1995-1-1 Annex B" in text
+    assert_recomputes(text, check_json(run(p))["checks"])
