@@ -28,6 +28,7 @@ from ..model.combination import EN1990_PSI
 from ..pipeline import Analysis
 from ..section.gamma import PartialSection
 from ..section.transformed import Section
+from . import slip_text
 from .bolts import bolt_derivation
 from .connections import (
     geometry_text,
@@ -281,7 +282,10 @@ def _bending(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
         return _bending_creep_us(a, c, u, combo, d, where)
     sec = final if d.state == "with creep" and final is not None else s
     if isinstance(sec, PartialSection):
-        return _bending_slip(sec, i, d, c, u, sym, where, sec is not s)
+        lines, demand, value = slip_text.bending(sec, i, abs(d.M), u, sym, sec is not s,
+                                                 _moment_factor(u), result(c, u))
+        _check_close(value, c, "bending")
+        return where + lines, demand
     sub = ",fin" if sec is not s else ""
     low = "_fin" if sec is not s else ""
     fibre = _fibre(sec, i)
@@ -310,35 +314,6 @@ def _bending(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     return where, demand
 
 
-def _bending_slip(sec: PartialSection, i: int, d: PlyDemand, c: Check, u: str, sym: str,
-                  where: list[str], final: bool) -> tuple[list[str], str]:
-    """EN 1995-1-1 Annex B (B.7), (B.8), from memory: the edge stress sigma_i + sigma_m,i =
-    E_i (gamma_i a_i + h_i / 2) |M| / (EI)_ef with K_u, written n c |M| / I_ef with
-    n = E_i / E_ref, c = gamma_i a_i + h_i / 2 and I_ef = (EI)_ef / E_ref.
-    """
-    g, n = float(sec.gamma_uls[i]), float(sec.n[i])
-    a_i = float(sec.centroid[i]) - sec.neutral_axis_y
-    h = float(sec.y_top[i] - sec.y_bottom[i])
-    if abs(a_i) <= 1e-9 * h:  # the web of a symmetric section: a_2 = 0
-        a_i = 0.0
-    I_ef = sec.EI_uls / sec.E_ref
-    dist = g * abs(a_i) + h / 2
-    value = n * abs(d.M) * dist / I_ef
-    _check_close(value, c, "bending")
-    L = "length"
-    where = [*where,
-             f"ply {c.ply}: \u03b3 = {factor_text(g)} (K_u = 2/3 K_ser, EN 1995-1-1 7.1(4)), "
-             f"a = |y_c \u2212 y_na| = {q(abs(a_i), L, u, IN)}, h = {q(h, L, u, IN)}: c = "
-             f"\u03b3 a + h / 2 = {q(dist, L, u, IN)}; n = E / E_ref = {num(n, IN)}; I_ef = "
-             f"(EI)_ef / E_ref = {q(I_ef, 'second_moment', u, IN)} (EN 1995-1-1 Annex B"
-             + (", final state: timber moduli and slip moduli / (1 + \u03c8\u2082 k_def))"
-                if final else ")")]
-    demand = (f"{sym} = n |M| c / I_ef = {num(n, IN)} {TIMES} {q(abs(d.M), 'moment', u, IN)} "
-              f"{TIMES} {_moment_factor(u)} {TIMES} {q(dist, L, u, IN)} / "
-              f"{q_den(I_ef, 'second_moment', u, IN)} = {result(c, u)}")
-    return where, demand
-
-
 def _psi2_kdef(a: Analysis, combo: CombinationResult) -> tuple[float, float]:
     """psi2 of the leading variable action (1.0 without one) and k_def, as
     :func:`eu_uls_section` takes them.
@@ -349,20 +324,6 @@ def _psi2_kdef(a: Analysis, combo: CombinationResult) -> tuple[float, float]:
     variables = {k: f for k, f in combo.combination.factors.items() if k != "D" and f > 0}
     psi2 = psi[max(variables, key=lambda k: variables[k])][2] if variables else 1.0
     return psi2, beam.creep_factor - 1.0
-
-
-def _zero_line(sec: Section, i: int) -> float:
-    """The height where ply i's stress is zero: the neutral axis, or with slip (EN 1995-1-1
-    Annex B) the ply's own z_i = y_c - gamma (y_c - y_na).
-    """
-    if isinstance(sec, PartialSection):
-        return float(sec.zero_stress_heights()[i])
-    return sec.neutral_axis_y
-
-
-def _stress_I(sec: Section) -> float:
-    """The second moment stresses are taken with: I_t, or with slip (EI)_ef / E_ref (K_u)."""
-    return sec.EI_uls / sec.E_ref if isinstance(sec, PartialSection) else sec.I_transformed
 
 
 def _bending_creep_us(a: Analysis, c: Check, u: str, combo: CombinationResult, d: PlyDemand,
@@ -377,8 +338,8 @@ def _bending_creep_us(a: Analysis, c: Check, u: str, combo: CombinationResult, d
     m_sus = combo.M_sustained_at_max if d.sign > 0 else combo.M_sustained_at_min
     M, Ms = abs(d.M), d.sign * m_sus
     n, nc = float(s.n[i]), float(cs.n[i])
-    I0, Ic = _stress_I(s), _stress_I(cs)
-    z0, zc = _zero_line(s, i), _zero_line(cs, i)
+    I0, Ic = slip_text.stress_I(s), slip_text.stress_I(cs)
+    z0, zc = slip_text.zero_line(s, i), slip_text.zero_line(cs, i)
     options = []
     for y in (float(s.y_top[i]), float(s.y_bottom[i])):
         o = 1.0 if y >= z0 else -1.0
@@ -652,7 +613,13 @@ def _connectors(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     s, beam = a.section, a.beam
     assert beam is not None and c.fasteners is not None
     if isinstance(s, PartialSection):
-        return _slip_connectors(a, s, c, u)
+        combo = combination(beam, c.combination)
+        joint = next(j for j in s.joints
+                     if (c.ply or "").startswith(s.plies[j.flange].name + " /"))
+        where, demand, value = slip_text.connector(s, joint, combo.extremes.V_max_abs,
+                                                   combo.name, u, result(c, u))
+        _check_close(value, c, "connector")
+        return where, demand
     itf = min(s.interfaces, key=lambda t: abs(t.y - (c.x or 0.0)))
     combo = combination(beam, c.combination)
     V = combo.extremes.V_max_abs
@@ -671,32 +638,3 @@ def _connectors(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
               f"{result(c, u)}")
     return where, demand
 
-
-def _slip_connectors(a: Analysis, s: PartialSection, c: Check, u: str
-                     ) -> tuple[list[str], str]:
-    """EN 1995-1-1 Annex B (B.10), from memory: F_i = gamma_i E_i A_i a_i s_i V / (EI)_ef,
-    written gamma n A a s_i |V| / I_ef with n = E_i / E_ref and I_ef = (EI)_ef / E_ref.
-    """
-    assert a.beam is not None
-    combo = combination(a.beam, c.combination)
-    V = combo.extremes.V_max_abs
-    joint = next(j for j in s.joints if c.ply and c.ply.startswith(s.plies[j.flange].name))
-    i = joint.flange
-    g, n, A = float(s.gamma_uls[i]), float(s.n[i]), float(s.area[i])
-    a_i = abs(float(s.centroid[i]) - s.neutral_axis_y)
-    I_ef = s.EI_uls / s.E_ref
-    value = s.fastener_force(joint, V)
-    _check_close(value, c, "connector")
-    L = "length"
-    where = [f"|V| = {q(V, 'force', u, IN)} (largest shear, {combo.name}); ply "
-             f"{s.plies[i].name}: \u03b3 = {factor_text(g)} (K_u = 2/3 K_ser, EN 1995-1-1 "
-             f"7.1(4)), n = E / E_ref = {num(n, IN)}, A = {q(A, 'area', u, IN)}, a = "
-             f"{q(a_i, L, u, IN)} from the neutral axis; I_ef = (EI)_ef / E_ref = "
-             f"{q(I_ef, 'second_moment', u, IN)} (EN 1995-1-1 Annex B)",
-             f"s_i = {q(joint.force_spacing, L, u, IN)} per fastener (the largest spacing "
-             "over the fasteners per station)"]
-    demand = (f"F = \u03b3 n A a s_i |V| / I_ef = {factor_text(g)} {TIMES} {num(n, IN)} {TIMES} "
-              f"{q(A, 'area', u, IN)} {TIMES} {q(a_i, L, u, IN)} {TIMES} "
-              f"{q(joint.force_spacing, L, u, IN)} {TIMES} {q(V, 'force', u, IN)} / "
-              f"{q_den(I_ef, 'second_moment', u, IN)} = {result(c, u)}")
-    return where, demand

@@ -44,9 +44,13 @@ LAYERS = (2, 3)
 
 def gamma_factor(E: float, A: float, s: float, K: float, length: float) -> float:
     """EN 1995-1-1 Annex B (B.5), from memory: gamma_i = [1 + pi^2 E_i A_i s_i /
-    (K_i l^2)]^-1. E in Pa, A in m^2, s in m, K in N/m per fastener, l in m.
+    (K_i l^2)]^-1. E in Pa, A in m^2, s in m, K in N/m per fastener, l in m. A slip
+    modulus that rounds to zero gives 0 (the flange is not held at all).
     """
-    return 1.0 / (1.0 + math.pi**2 * E * A * s / (K * length * length))
+    stiffness = K * length * length
+    if not stiffness > 0:
+        return 0.0
+    return 1.0 / (1.0 + math.pi**2 * E * A * s / stiffness)
 
 
 def effective_stiffness(E: np.ndarray, A: np.ndarray, centroid: np.ndarray,
@@ -308,6 +312,9 @@ def _refusal(section: Section, connector: Connector, beam: BeamSpec | None) -> P
         return MissingCheck("beam.supports", f"{what} is analysed for one simply supported "
                             "span without overhangs, whose l Annex B takes as the span"
                             + _FULL)
+    if beam.notches or beam.holes:
+        return MissingCheck("beam.notches" if beam.notches else "beam.holes",
+                            f"{what} is not analysed together with notches or holes" + _FULL)
     if is_stepped(section.plies, lay.length):
         return MissingCheck("plies", f"{what} is not analysed where a ply stops short of "
                             "the member's ends" + _FULL)

@@ -414,3 +414,45 @@ def test_sheet_writes_the_slip_out(d):
     assert "not written out" not in text
     assert "EN 1995-1-1 Annex B" in text
     assert_recomputes(text, check_json(run(p))["checks"])
+
+
+def _notched(d: dict) -> dict:
+    d["beam"]["notches"] = [{"at": "support 1", "face": "bottom", "depth": "20 mm",
+                             "length": "50 mm"}]
+    return d
+
+
+def _flange_stops_short(d: dict) -> dict:
+    d["plies"][1]["from"] = "0.5 m"
+    d["plies"][1]["to"] = "3.5 m"
+    return d
+
+
+def _steel_on_steel(d: dict) -> dict:
+    d["plies"][0]["material"] = "S275"
+    return d
+
+
+def _no_density(d: dict) -> dict:
+    d["materials"] = {"wood": {"kind": "timber", "name": "wood without density",
+                               "E": "11000 MPa", "fm_k": "24 MPa", "fv_k": "4 MPa"}}
+    d["plies"][1]["material"] = "wood"
+    return d
+
+
+def _no_beam(d: dict) -> dict:
+    del d["beam"]
+    return d
+
+
+@pytest.mark.parametrize(("change", "path"), [
+    (_notched, "beam.notches"), (_flange_stops_short, "plies"),
+    (_steel_on_steel, "design.connector.type"), (_no_density, "materials.wood.density"),
+    (_no_beam, "beam")])
+def test_more_refusals_name_their_field(change, path):
+    """Where Annex B or Table 7.1 does not reach, a named missing check, never OK."""
+    a = run(from_dict(change(project("S275") if change is _steel_on_steel else project())))
+    assert not isinstance(a.section, PartialSection)
+    assert any(w.path == path and isinstance(w, MissingCheck) for w in a.warnings), [
+        str(w) for w in a.warnings]
+    assert a.verdict in ("INCOMPLETE", "NOT OK")
