@@ -456,3 +456,37 @@ def test_more_refusals_name_their_field(change, path):
     assert any(w.path == path and isinstance(w, MissingCheck) for w in a.warnings), [
         str(w) for w in a.warnings]
     assert a.verdict in ("INCOMPLETE", "NOT OK")
+
+
+def test_web_of_a_t_carries_tension_with_its_bending():
+    """The web of the T carries an axial force gamma-weighted by (B.7), so EN 1995-1-1
+    6.2.3 applies (from memory): sigma_t,0,d / f_t,0,d + sigma_m,d / f_m,d <= 1.
+
+    ULS 1.35 G + 1.5 Q, M = (1.35 + 3.0) x 4^2 / 8 = 8.7 kN m, in the final state of
+    2.3.2.2(2) (from memory): psi_2 = 0.3 (domestic, EN 1990 Table A1.1), k_def = 0.6:
+    E_fin = 11000 / 1.18 = 9322.03 N/mm^2; the joint of two timbers 2 k_def (2.3.2.2(3)):
+    K_u,fin = 1496.946 / (1 + 0.3 x 1.2) = 1100.696 N/mm.
+    gamma_1 = 1 / (1 + pi^2 x 9322.03 x 4000 x 100 / (1100.696 x 4000^2)) = 0.3236564,
+    a_2 = 0.3236564 x 4000 x 240 / (2 (0.3236564 x 4000 + 10000)) = 13.75478 mm,
+    a_1 = 106.24522 mm, (EI)_ef = 4.695732e11 N mm^2.
+    sigma_t,2 = 9322.03 x 13.75478 x 8.7e6 / 4.695732e11 = 2.37564 N/mm^2,
+    sigma_m,2 = 0.5 x 9322.03 x 200 x 8.7e6 / 4.695732e11 = 17.27136 N/mm^2,
+    f_t,0,d = 0.8 x 14.5 / 1.3 = 8.92308, f_m,d = 0.8 x 24 / 1.3 = 14.76923 (k_mod 0.8
+    medium term, gamma_M 1.3, k_h 1 at 200 mm, from memory of EN 1995-1-1 3.1.3, 2.4.1,
+    3.2): 2.37564 / 8.92308 + 17.27136 / 14.76923 = 1.43565.
+    """
+    a = run(from_dict(project()))
+    E = E_T / 1.18
+    K = K_U / 1.36
+    g = 1 / (1 + PI2 * E * 4000 * S / (K * L**2))
+    a2 = g * 4000 * 240 / (2 * (g * 4000 + 10000))
+    a1 = 120 - a2
+    EI = E * (100 * 40**3 / 12 + 50 * 200**3 / 12 + g * 4000 * a1**2 + 10000 * a2**2)
+    assert (g, a2, EI) == pytest.approx((0.3236564, 13.75478, 4.695732e11), rel=1e-6)
+    M = 8.7e6
+    ratio = (E * a2 * M / EI) / (0.8 * 14.5 / 1.3) + (0.5 * E * 200 * M / EI) / (0.8 * 24 / 1.3)
+    assert ratio == pytest.approx(1.43565, rel=1e-5)
+    c = next(c for c in a.checks if c.id == "tension-bending" and c.ply == "web"
+             and c.combination.startswith("ULS 1.35G + 1.5Q[L]"))
+    assert c.demand == pytest.approx(ratio, rel=1e-12)
+    assert not c.ok
