@@ -22,8 +22,8 @@ K_i is K_ser of EN 1995-1-1 Table 7.1 for the stiffness (deflections) and K_u = 
 divided by 1 + k_def of the joint (2.3.2.2(3), (4), from memory), k_def of each timber
 read off the ratio of its short-term to its crept modulus (on the US basis K_cr - 1 of
 NDS 2018 3.5.2 stands for k_def). On the US basis the method is used as a published
-method for the slip; NDS 2018 gives none, and its ASD loads meet K_u here as well (the
-smaller slip modulus, the larger stresses).
+method for the slip (NDS 2018 gives none): the strength checks take K_u and the
+deflections K_ser, as EN 1995-1-1 7.1(4) splits them.
 """
 
 from __future__ import annotations
