@@ -22,6 +22,7 @@ from ..section.transformed import Section
 from .check import Check, CheckId, capacity_from
 from .common import apply_overrides
 from .demands import PlyDemand, eu_uls_section, ply_demands
+from .slip import carries_axial
 from .stability import edge_stability
 
 S_KMOD = "EN 1995-1-1 Table 3.1 (from memory)"
@@ -111,7 +112,8 @@ def interaction_check(i: int, section: Section, beam: BeamResult, combo: Combina
     """
     ply, mat = section.plies[i], section.materials[i]
     y_na = section.neutral_axis_y
-    if not (section.y_bottom[i] >= y_na - 1e-12 or section.y_top[i] <= y_na + 1e-12):
+    if not (section.y_bottom[i] >= y_na - 1e-12 or section.y_top[i] <= y_na + 1e-12
+            or carries_axial(section, i)):
         return None
     if demand is not None:
         demands = [demand]

@@ -12,7 +12,21 @@ from ..model.design import DesignSpec
 from ..model.errors import MissingCheck, Problem
 from ..model.units import fmt
 from ..section.gamma import PartialSection
+from ..section.transformed import Section
 from .check import Check, Fasteners
+
+
+def carries_axial(section: Section, i: int) -> bool:
+    """True where ply i of a section that slips carries an axial force with its bending
+    (gamma_i a_i not zero, EN 1995-1-1 Annex B (B.7)), so that the combined checks (NDS
+    2018 3.9.1 / 3.9.2, EN 1995-1-1 6.2.3 / 6.2.4) apply to it even where it holds the
+    neutral axis (the web of a T); False for any other section.
+    """
+    if not isinstance(section, PartialSection):
+        return False
+    offset = float(section.gamma_uls[i]) * abs(float(section.centroid[i])
+                                               - section.neutral_axis_y)
+    return offset > 1e-9 * section.depth
 
 
 def slip_connector_checks(section: PartialSection, beam: BeamResult, design: DesignSpec,

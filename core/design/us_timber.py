@@ -25,6 +25,7 @@ from ..section.transformed import Section
 from .check import Check, CheckId, capacity_from
 from .common import apply_overrides
 from .demands import PlyDemand, ply_demands
+from .slip import carries_axial
 from .stability import edge_stability
 
 S_TABLE = "NDS 2018 Table 2.3.2 (from memory)"
@@ -156,7 +157,8 @@ def interaction_check(i: int, section: Section, beam: BeamResult, combo: Combina
     """
     ply, mat = section.plies[i], section.materials[i]
     y_na = section.neutral_axis_y
-    if not (section.y_bottom[i] >= y_na - 1e-12 or section.y_top[i] <= y_na + 1e-12):
+    if not (section.y_bottom[i] >= y_na - 1e-12 or section.y_top[i] <= y_na + 1e-12
+            or carries_axial(section, i)):
         return None
     wet, temp = design.wet_service, design.temperature
     if demand is not None:

@@ -17,7 +17,7 @@ from ..model.caution import ASSUMPTIONS, CAUTION, FIRE_NOTE
 from ..model.errors import Problem, ProjectError
 from ..model.units import fmt, sig
 from ..pipeline import Analysis
-from ..section.gamma import PartialSection
+from ..section.gamma import PartialSection, assumptions
 from ..section.transformed import PlyResult, Section
 
 
@@ -233,7 +233,7 @@ def check_json(a: Analysis, moment: float | None = None, shear: float | None = N
     out["ok"] = a.verdict == "OK"
     out["incomplete_reasons"] = [{"field": p.path, "message": p.message, "text": str(p)}
                                  for p in a.incomplete_reasons]
-    out["assumptions"] = list(ASSUMPTIONS)
+    out["assumptions"] = list(assumptions(a.section, ASSUMPTIONS))
     out["fire_note"] = FIRE_NOTE
     out["warnings"] = [str(w) for w in a.warnings]
     return out
@@ -313,7 +313,7 @@ def check_text(a: Analysis, moment: float | None = None, shear: float | None = N
         lines.append("Warnings")
         lines.extend(f"  {w}" for w in a.warnings)
     lines.append("")
-    lines.append("Assumptions: " + " ".join(ASSUMPTIONS))
+    lines.append("Assumptions: " + " ".join(assumptions(a.section, ASSUMPTIONS)))
     lines.append("")
     lines.append(FIRE_NOTE)
     return "\n".join(lines) + "\n"

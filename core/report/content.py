@@ -16,6 +16,7 @@ from ..design.check import governing
 from ..model.caution import ASSUMPTIONS, CAUTION, FIRE_NOTE
 from ..model.project import Project
 from ..pipeline import Analysis, run
+from ..section.gamma import assumptions
 from ..study.compare import alternatives_with_current, summarise
 from .checks import checks_section, place
 from .derive import symbol_text
@@ -74,7 +75,7 @@ def _basis(a: Analysis, u: str) -> list[Any]:
                  f"temperature: {temperature}; compression edge braced: "
                  f"{'yes' if d.compression_edge_braced else 'no'}.", BODY),
             para("Assumptions:", BODY)]
-    out += [para("\u2022 " + text, BODY) for text in ASSUMPTIONS]
+    out += [para("\u2022 " + text, BODY) for text in assumptions(a.section, ASSUMPTIONS)]
     if a.warnings:
         out.append(para("Warnings:", BODY))
         out += [para("\u2022 " + words(str(w)), BODY) for w in a.warnings]

@@ -26,7 +26,9 @@ from ..design.check import Check
 from ..design.demands import PlyDemand, eu_uls_section, ply_demands
 from ..model.combination import EN1990_PSI
 from ..pipeline import Analysis
+from ..section.gamma import PartialSection
 from ..section.transformed import Section
+from . import slip_text
 from .bolts import bolt_derivation
 from .connections import (
     geometry_text,
@@ -282,6 +284,11 @@ def _bending(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     if d.state == "with creep" and final is None:
         return _bending_creep_us(a, c, u, combo, d, where)
     sec = final if d.state == "with creep" and final is not None else s
+    if isinstance(sec, PartialSection):
+        lines, demand, value = slip_text.bending(sec, i, abs(d.M), u, sym, sec is not s,
+                                                 _moment_factor(u), result(c, u))
+        _check_close(value, c, "bending")
+        return where + lines, demand
     sub = ",fin" if sec is not s else ""
     low = "_fin" if sec is not s else ""
     fibre = _fibre(sec, i)
@@ -334,11 +341,12 @@ def _bending_creep_us(a: Analysis, c: Check, u: str, combo: CombinationResult, d
     m_sus = combo.M_sustained_at_max if d.sign > 0 else combo.M_sustained_at_min
     M, Ms = abs(d.M), d.sign * m_sus
     n, nc = float(s.n[i]), float(cs.n[i])
-    I0, Ic = s.I_transformed, cs.I_transformed
+    I0, Ic = slip_text.stress_I(s), slip_text.stress_I(cs)
+    z0, zc = slip_text.zero_line(s, i), slip_text.zero_line(cs, i)
     options = []
     for y in (float(s.y_top[i]), float(s.y_bottom[i])):
-        o = 1.0 if y >= s.neutral_axis_y else -1.0
-        cc, c0 = o * (y - cs.neutral_axis_y), o * (y - s.neutral_axis_y)
+        o = 1.0 if y >= z0 else -1.0
+        cc, c0 = o * (y - zc), o * (y - z0)
         options.append((abs(nc * Ms * cc / Ic + n * (M - Ms) * c0 / I0), y, cc, c0))
     value, y, cc, c0 = max(options)
     _check_close(value, c, "bending")
@@ -350,11 +358,16 @@ def _bending_creep_us(a: Analysis, c: Check, u: str, combo: CombinationResult, d
     where += [f"M_sus = {q(Ms, 'moment', u, IN)}: the sustained part ({sus}) of the moment "
               "there",
               f"creep section: timber moduli / K_cr, K_cr = {factor_text(beam.creep_factor)}; "
-              f"y_na,c = {L(cs.neutral_axis_y)}, I_t,c = "
+              f"y_na,c = {L(zc)}, I_t,c = "
               f"{q(Ic, 'second_moment', u, IN)}, n_c = E_c / E_ref = {num(nc, IN)}",
               f"fibre y = {L(y)} of {c.ply} (the edge with the larger stress): c_c = "
-              f"{L(cc)} from y_na,c; c = {L(c0)} from y_na = {L(s.neutral_axis_y)}; n = "
+              f"{L(cc)} from y_na,c; c = {L(c0)} from y_na = {L(z0)}; n = "
               f"{num(n, IN)}; I_t = {q(I0, 'second_moment', u, IN)} (section 3)"]
+    if isinstance(s, PartialSection):
+        where.append("slip of the fasteners (EN 1995-1-1 Annex B, K_u = 2/3 K_ser, the "
+                     "creep section's slip moduli / (1 + k_def of the joint)): y_na is the "
+                     "ply's zero-stress height y_c \u2212 \u03b3 (y_c \u2212 y_na) and I_t = "
+                     "(EI)_ef / E_ref")
     mf = _moment_factor(u)
     demand = (f"{_symbols(a, c)[0]} = n_c M_sus c_c / I_t,c + n (M \u2212 M_sus) c / I_t = "
               f"{num(nc, IN)} {TIMES} {q(Ms, 'moment', u, IN)} {TIMES} {mf} {TIMES} {L(cc)} / "
@@ -602,6 +615,14 @@ def _deflection_demand(a: Analysis, c: Check, u: str, factors: dict[str, float],
 def _connectors(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     s, beam = a.section, a.beam
     assert beam is not None and c.fasteners is not None
+    if isinstance(s, PartialSection):
+        combo = combination(beam, c.combination)
+        joint = next(j for j in s.joints
+                     if (c.ply or "").startswith(s.plies[j.flange].name + " /"))
+        where, demand, value = slip_text.connector(s, joint, combo.extremes.V_max_abs,
+                                                   combo.name, u, result(c, u))
+        _check_close(value, c, "connector")
+        return where, demand
     itf = min(s.interfaces, key=lambda t: abs(t.y - (c.x or 0.0)))
     combo = combination(beam, c.combination)
     V = combo.extremes.V_max_abs

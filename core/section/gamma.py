@@ -20,7 +20,10 @@ bend about the horizontal axis over a simply supported span l:
 K_i is K_ser of EN 1995-1-1 Table 7.1 for the stiffness (deflections) and K_u = 2/3 K_ser
 (7.1(4)) for the stresses and the fastener loads. Under creep the slip modulus is
 divided by 1 + k_def of the joint (2.3.2.2(3), (4), from memory), k_def of each timber
-read off the ratio of its short-term to its crept modulus.
+read off the ratio of its short-term to its crept modulus (on the US basis K_cr - 1 of
+NDS 2018 3.5.2 stands for k_def). On the US basis the method is used as a published
+method for the slip (NDS 2018 gives none): the strength checks take K_u and the
+deflections K_ser, as EN 1995-1-1 7.1(4) splits them.
 """
 
 from __future__ import annotations
@@ -44,9 +47,13 @@ LAYERS = (2, 3)
 
 def gamma_factor(E: float, A: float, s: float, K: float, length: float) -> float:
     """EN 1995-1-1 Annex B (B.5), from memory: gamma_i = [1 + pi^2 E_i A_i s_i /
-    (K_i l^2)]^-1. E in Pa, A in m^2, s in m, K in N/m per fastener, l in m.
+    (K_i l^2)]^-1. E in Pa, A in m^2, s in m, K in N/m per fastener, l in m. A slip
+    modulus that rounds to zero gives 0 (the flange is not held at all).
     """
-    return 1.0 / (1.0 + math.pi**2 * E * A * s / (K * length * length))
+    stiffness = K * length * length
+    if not stiffness > 0:
+        return 0.0
+    return 1.0 / (1.0 + math.pi**2 * E * A * s / stiffness)
 
 
 def effective_stiffness(E: np.ndarray, A: np.ndarray, centroid: np.ndarray,
@@ -308,6 +315,9 @@ def _refusal(section: Section, connector: Connector, beam: BeamSpec | None) -> P
         return MissingCheck("beam.supports", f"{what} is analysed for one simply supported "
                             "span without overhangs, whose l Annex B takes as the span"
                             + _FULL)
+    if beam.notches or beam.holes:
+        return MissingCheck("beam.notches" if beam.notches else "beam.holes",
+                            f"{what} is not analysed together with notches or holes" + _FULL)
     if is_stepped(section.plies, lay.length):
         return MissingCheck("plies", f"{what} is not analysed where a ply stops short of "
                             "the member's ends" + _FULL)
@@ -373,3 +383,24 @@ def slip_summary(section: Section) -> Sequence[str]:
         f"gamma = {float(section.gamma[j.flange]):.4g} (K_ser), "
         f"{float(section.gamma_uls[j.flange]):.4g} (K_u)"
         for j in section.joints)
+
+
+#: The assumptions that replace "fully connected" and "strain linear over the depth"
+#: where the slip of the fasteners is analysed.
+SLIP_ASSUMPTIONS = (
+    "Plane sections remain plane within each ply; stacked plies slip on their fasteners "
+    "(EN 1995-1-1 Annex B, the gamma method, from memory): one simply supported span, "
+    "fasteners evenly spaced (or at the effective spacing 0.75 s_min + 0.25 s_max), "
+    "slip modulus K_ser of Table 7.1 for deflections and K_u = 2/3 K_ser for stresses and "
+    "fastener loads.",
+)
+
+
+def assumptions(section: Section, plain: Sequence[str]) -> tuple[str, ...]:
+    """The stated assumptions ``plain`` for this section: for a partial section the lines
+    on full connection and on strain linear over the depth replaced by the slip's.
+    """
+    if not isinstance(section, PartialSection):
+        return tuple(plain)
+    kept = tuple(t for t in plain if "no slip" not in t and "linear over the depth" not in t)
+    return SLIP_ASSUMPTIONS + kept

@@ -380,3 +380,113 @@ def test_us_basis_uses_the_same_method():
     assert sec.gamma[1] == pytest.approx(g, rel=1e-12)
     assert sec.EI == pytest.approx(EI * 1e-6, rel=1e-12)
     assert any(c.id == "connectors" for c in a.checks)
+
+
+def _us(d: dict) -> dict:
+    d["design"]["basis"] = "US-ASD"
+    d["beam"]["combinations"] = "ASD"
+    for p in d["plies"]:
+        if p["material"] == "C24":
+            p["material"] = "DFL-No2"
+    d["design"]["connector"]["allowable"] = "500 lbf"
+    return d
+
+
+@pytest.mark.parametrize("d", [project(bottom=True), project("S275"), _us(project()),
+                               _us(project("S275"))],
+                         ids=["EU two timber flanges", "EU steel flange", "US timber flange",
+                              "US steel flange"])
+def test_sheet_writes_the_slip_out(d):
+    """Every check of the sheet recomputed from its printed numbers (the sheet's text read
+    back with pypdf, as in test_sheet_recompute), the gamma method's among them.
+    """
+    import io
+
+    from pypdf import PdfReader
+
+    from plystack.core.report.sheet import build_sheet
+    from tests.validation.test_sheet_recompute import assert_recomputes
+
+    p = from_dict(d)
+    buf = io.BytesIO()
+    build_sheet(p, buf)
+    text = "\n".join(pg.extract_text() for pg in PdfReader(io.BytesIO(buf.getvalue())).pages)
+    assert "not written out" not in text
+    assert "EN 1995-1-1 Annex B" in text
+    assert_recomputes(text, check_json(run(p))["checks"])
+
+
+def _notched(d: dict) -> dict:
+    d["beam"]["notches"] = [{"at": "support 1", "face": "bottom", "depth": "20 mm",
+                             "length": "50 mm"}]
+    return d
+
+
+def _flange_stops_short(d: dict) -> dict:
+    d["plies"][1]["from"] = "0.5 m"
+    d["plies"][1]["to"] = "3.5 m"
+    return d
+
+
+def _steel_on_steel(d: dict) -> dict:
+    d["plies"][0]["material"] = "S275"
+    return d
+
+
+def _no_density(d: dict) -> dict:
+    d["materials"] = {"wood": {"kind": "timber", "name": "wood without density",
+                               "E": "11000 MPa", "fm_k": "24 MPa", "fv_k": "4 MPa"}}
+    d["plies"][1]["material"] = "wood"
+    return d
+
+
+def _no_beam(d: dict) -> dict:
+    del d["beam"]
+    return d
+
+
+@pytest.mark.parametrize(("change", "path"), [
+    (_notched, "beam.notches"), (_flange_stops_short, "plies"),
+    (_steel_on_steel, "design.connector.type"), (_no_density, "materials.wood.density"),
+    (_no_beam, "beam")])
+def test_more_refusals_name_their_field(change, path):
+    """Where Annex B or Table 7.1 does not reach, a named missing check, never OK."""
+    a = run(from_dict(change(project("S275") if change is _steel_on_steel else project())))
+    assert not isinstance(a.section, PartialSection)
+    assert any(w.path == path and isinstance(w, MissingCheck) for w in a.warnings), [
+        str(w) for w in a.warnings]
+    assert a.verdict in ("INCOMPLETE", "NOT OK")
+
+
+def test_web_of_a_t_carries_tension_with_its_bending():
+    """The web of the T carries an axial force gamma-weighted by (B.7), so EN 1995-1-1
+    6.2.3 applies (from memory): sigma_t,0,d / f_t,0,d + sigma_m,d / f_m,d <= 1.
+
+    ULS 1.35 G + 1.5 Q, M = (1.35 + 3.0) x 4^2 / 8 = 8.7 kN m, in the final state of
+    2.3.2.2(2) (from memory): psi_2 = 0.3 (domestic, EN 1990 Table A1.1), k_def = 0.6:
+    E_fin = 11000 / 1.18 = 9322.03 N/mm^2; the joint of two timbers 2 k_def (2.3.2.2(3)):
+    K_u,fin = 1496.946 / (1 + 0.3 x 1.2) = 1100.696 N/mm.
+    gamma_1 = 1 / (1 + pi^2 x 9322.03 x 4000 x 100 / (1100.696 x 4000^2)) = 0.3236564,
+    a_2 = 0.3236564 x 4000 x 240 / (2 (0.3236564 x 4000 + 10000)) = 13.75478 mm,
+    a_1 = 106.24522 mm, (EI)_ef = 4.695732e11 N mm^2.
+    sigma_t,2 = 9322.03 x 13.75478 x 8.7e6 / 4.695732e11 = 2.37564 N/mm^2,
+    sigma_m,2 = 0.5 x 9322.03 x 200 x 8.7e6 / 4.695732e11 = 17.27136 N/mm^2,
+    f_t,0,d = 0.8 x 14.5 / 1.3 = 8.92308, f_m,d = 0.8 x 24 / 1.3 = 14.76923 (k_mod 0.8
+    medium term, gamma_M 1.3, k_h 1 at 200 mm, from memory of EN 1995-1-1 3.1.3, 2.4.1,
+    3.2): 2.37564 / 8.92308 + 17.27136 / 14.76923 = 1.43565.
+    """
+    a = run(from_dict(project()))
+    E = E_T / 1.18
+    K = K_U / 1.36
+    g = 1 / (1 + PI2 * E * 4000 * S / (K * L**2))
+    a2 = g * 4000 * 240 / (2 * (g * 4000 + 10000))
+    a1 = 120 - a2
+    EI = E * (100 * 40**3 / 12 + 50 * 200**3 / 12 + g * 4000 * a1**2 + 10000 * a2**2)
+    assert (g, a2, EI) == pytest.approx((0.3236564, 13.75478, 4.695732e11), rel=1e-6)
+    M = 8.7e6
+    ratio = (E * a2 * M / EI) / (0.8 * 14.5 / 1.3) + (0.5 * E * 200 * M / EI) / (0.8 * 24 / 1.3)
+    assert ratio == pytest.approx(1.43565, rel=1e-5)
+    c = next(c for c in a.checks if c.id == "tension-bending" and c.ply == "web"
+             and c.combination.startswith("ULS 1.35G + 1.5Q[L]"))
+    assert c.demand == pytest.approx(ratio, rel=1e-12)
+    assert not c.ok
