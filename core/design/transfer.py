@@ -206,9 +206,14 @@ def distributed_load(model: BeamModel, sol: CaseSolution, a: float, b: float) ->
     upward positive, q + dq s along each element).
     """
     total = 0.0
-    for e, x0 in enumerate(model.nodes[:-1]):
-        s0 = max(a, float(x0)) - float(x0)
-        s1 = min(b, float(model.nodes[e + 1])) - float(x0)
+    nodes = model.nodes
+    # only the elements that can overlap (a, b): the same terms, in the same order
+    first = int(np.searchsorted(nodes[1:], a, side="right"))
+    last = int(np.searchsorted(nodes[:-1], b, side="left"))
+    for e in range(first, max(first, last)):
+        x0 = float(nodes[e])
+        s0 = max(a, x0) - x0
+        s1 = min(b, float(nodes[e + 1])) - x0
         if s1 > s0:
             total -= float(sol.q[e]) * (s1 - s0) + float(sol.dq[e]) * (s1**2 - s0**2) / 2
     return total

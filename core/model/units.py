@@ -167,6 +167,53 @@ def _reason(exc: Exception) -> str:
     return "cannot be read as a quantity"
 
 
+#: A plain number and one unit (a name, or name/name, each with an optional whole power),
+#: as most quantities of a file are written ("1600000 psi", "9.25 in", "500 kg/m**3").
+_PLAIN = re.compile(r"^(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s+"
+                    r"([A-Za-z_]+(?:\*\*\d)?(?:/[A-Za-z_]+(?:\*\*\d)?)?)$")
+
+
+@lru_cache(maxsize=256)
+def _unit_factor(unit: str, dimension: str) -> int | float | None:
+    """The factor pint converts ``unit`` to SI base units with, where the unit is of ``dimension``
+    and plainly proportional (no offset); None otherwise (the full reading decides).
+
+    pint reads "x unit" as the number x times one unit and converts it by multiplying
+    the magnitude by this factor, so ``x * factor`` is the number pint gives.
+    """
+    ureg = registry()
+    try:
+        one = ureg.parse_expression(f"1 {unit}")
+        if not hasattr(one, "magnitude") or not one.check(DIMENSIONS[dimension]):
+            return None
+        factor = one.to_base_units().magnitude
+        two = ureg.parse_expression(f"2 {unit}").to_base_units().magnitude
+        zero = ureg.parse_expression(f"0 {unit}").to_base_units().magnitude
+    except Exception:  # pint raises many kinds of errors: the full reading says which
+        return None
+    if not isinstance(factor, int | float) or two != 2 * factor or zero != 0:
+        return None
+    return factor
+
+
+def _plain_value(expr: str, dimension: str) -> float | None:
+    """The value of a plain "number unit" text without pint's parser (see
+    :data:`_PLAIN`), or None where the text is not of that form.
+    """
+    m = _PLAIN.match(expr)
+    if m is None or _POUND.search(expr):
+        return None
+    factor = _unit_factor(m.group(3), dimension)
+    if factor is None:
+        return None
+    text = m.group(1) + (m.group(2) or "")
+    try:  # as pint's tokenizer reads a number: whole numbers as int
+        number: int | float = int(text)
+    except ValueError:
+        number = float(text)
+    return float(number * factor)
+
+
 @lru_cache(maxsize=4096)
 def _parse_cached(text: str, dimension: str) -> float:
     _bounded(text)
@@ -174,9 +221,12 @@ def _parse_cached(text: str, dimension: str) -> float:
         raise UnitError("has no unit")
     if not any(ch.isdigit() for ch in text):
         raise UnitError("has no number")
-    ureg = registry()
     expr = _normalise(text)
     _bounded_expression(expr)
+    plain = _plain_value(expr, dimension)
+    if plain is not None:
+        return _checked(plain, dimension)
+    ureg = registry()
     try:
         q = ureg.parse_expression(expr)
         if not hasattr(q, "magnitude"):
@@ -194,6 +244,11 @@ def _parse_cached(text: str, dimension: str) -> float:
         raise UnitError("is too large a number") from None
     except Exception as exc:  # pint raises many kinds of errors
         raise UnitError(_reason(exc)) from None
+    return _checked(value, dimension)
+
+
+def _checked(value: float, dimension: str) -> float:
+    """The value, where it is finite and within :data:`MAX_MAGNITUDE`."""
     if not math.isfinite(value):
         raise UnitError("is not a finite number")
     if abs(value) > MAX_MAGNITUDE[dimension]:
