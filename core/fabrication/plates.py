@@ -226,8 +226,8 @@ def plates_of(a: Analysis, alternative: str | None = None) -> PlateSet:
     """The steel plates of an analysed project, in ply order.
 
     Raises:
-        ProjectError: no beam, no steel plate, a bolt layout that cannot be made or a
-            hole outside its plate.
+        ProjectError: no beam, no steel plate, a plate cut by a ply that overlaps it, a
+            bolt layout that cannot be made or a hole outside its plate.
 
     """
     project, s = a.project, a.section
@@ -245,6 +245,11 @@ def plates_of(a: Analysis, alternative: str | None = None) -> PlateSet:
     for i, (ply, material) in enumerate(zip(s.plies, s.materials, strict=True)):
         if material.kind != "steel":
             continue
+        if not s.is_unclipped(i):
+            problems.append(Problem(f"plies[{i}]", f'"{plain(ply.name)}" is cut by a later ply '
+                                    "that overlaps it, so the plate analysed is not its "
+                                    "rectangle; move the plies apart to draw it"))
+            continue
         start, end = plate_extent(s, i, length)
         joint = joints.get(i)
         holes = () if joint is None else _holes(_layout(a, joint), start, ply.y)
@@ -260,11 +265,11 @@ def plates_of(a: Analysis, alternative: str | None = None) -> PlateSet:
             bolted=joint is not None, notes=notes)
         problems += _outside(plate, bool(bolt.stations), project.display_units)
         plates.append(plate)
+    if problems:
+        raise ProjectError(problems)
     if not plates:
         raise ProjectError(Problem("plies", "hold no steel plate (no ply of a steel "
                                    "material): there is nothing to fabricate"))
-    if problems:
-        raise ProjectError(problems)
     return PlateSet(title=project.title, alternative=alternative,
                     member=project.info.get("member", ""), system=project.display_units,
                     member_length=length, ply_count=len(s.plies), plates=tuple(plates),

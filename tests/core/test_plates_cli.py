@@ -246,6 +246,17 @@ def test_control_characters_leave_the_drawing(tmp_path):
     assert title == 'PL1: steel plate "two lines % %c" (ply 2 of 3)'
 
 
+def test_plate_cut_by_an_overlapping_ply_exits_2(tmp_path, capsys):
+    """The right 2x10 moved 1/8 in left overlaps the plate, and the later ply wins: the
+    plate analysed is not the rectangle that would be drawn.
+    """
+    data = _demo()
+    data["plies"][2]["x"] = "1 3/4 in"
+    _fails(["plates", str(_write(tmp_path, data)), "-o", str(tmp_path / "o")], capsys,
+           'plies[1]: "flitch plate" is cut by a later ply that overlaps it')
+    assert not (tmp_path / "o").exists()
+
+
 def test_no_beam_exits_2(tmp_path, capsys):
     data = _demo()
     data.pop("beam")
