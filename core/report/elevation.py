@@ -143,15 +143,21 @@ def _band(d: Drawing, a: Analysis, f: _Frame, bottom: float,
     fill = TIMBER if any(m.kind == "timber" for m in s.materials) else STEEL
     d.add(Rect(f.x(0), bottom, f.x(f.length) - f.x(0), BAND, fillColor=fill,
                strokeColor=colors.black, strokeWidth=0.6))
-    for notch in spec.notches:
+    for k, notch in enumerate(spec.notches, start=1):
         xa, xb = notch_extent(notch, f.length)
         hh = f.h(notch.depth)
         yb = bottom if notch.face == "bottom" else bottom + BAND - hh
         d.add(Rect(f.x(xa), yb, f.x(xb) - f.x(xa), hh, fillColor=colors.white,
                    strokeColor=colors.black, strokeWidth=0.6))
-    for hole in spec.holes:
-        d.add(Circle(f.x(hole.x), f.y(hole.y, bottom), max(f.h(hole.diameter) / 2, 0.6),
-                     fillColor=colors.white, strokeColor=colors.black, strokeWidth=0.6))
+        ty = yb + hh + 0.6 * mm if notch.face == "bottom" else yb - 2.4 * mm
+        d.add(String(min(f.x(xb) + 0.6 * mm, f.x(f.length) - 4 * mm), ty, f"N{k}",
+                     fontName=FONT, fontSize=5.5))
+    for k, hole in enumerate(spec.holes, start=1):
+        r = max(f.h(hole.diameter) / 2, 0.6)
+        d.add(Circle(f.x(hole.x), f.y(hole.y, bottom), r, fillColor=colors.white,
+                     strokeColor=colors.black, strokeWidth=0.6))
+        d.add(String(f.x(hole.x) + r + 0.6 * mm, f.y(hole.y, bottom) - 1.8, f"H{k}",
+                     fontName=FONT, fontSize=5.5))
     length = f.length
     for i, (ply, mat) in enumerate(zip(s.plies, s.materials, strict=True)):
         if mat.kind != "steel" or s.area[i] <= 0:

@@ -274,7 +274,9 @@ def _stations_line(lay: BoltLayout, u: str) -> str:
 def plate_details(a: Analysis, width: float) -> list[Any]:
     """Section 8: the plate details and the bolt schedule (nothing without bolted plates)."""
     items = plate_layouts(a)
-    head = [CondPageBreak(120 * mm if items else 30 * mm),
+    # room for the heading, its lines and the first plate's drawings (about 40 mm of
+    # elevation and 60 mm of cross-section), so the heading never stands alone
+    head = [CondPageBreak(150 * mm if items else 30 * mm),
             para("8  Plate details and bolt schedule", H1),
             para("Member: " + member_description(a), BODY)]
     if not items:
@@ -304,6 +306,6 @@ def plate_details(a: Analysis, width: float) -> list[Any]:
                      style=[("VALIGN", (0, 0), (-1, -1), "TOP"),
                             ("FONTNAME", (0, 0), (-1, -1), FONT)])
         out += [CondPageBreak(elev.height + 80 * mm),
-                para(f"Plate {name} (bolts B{k})", H2), elev, side]
+                para(f"Steel plate \u201c{name}\u201d (bolts B{k})", H2), elev, side]
     out += [para("Bolt schedule", H2), table(schedule_rows(a, items), width, font_size=6.6)]
     return out
