@@ -120,7 +120,7 @@ def _lane(d: Drawing, f: _Frame, lane: Lane, base: float, u: str) -> None:
         d.add(Polygon([xa, top, xa, top + ha, xb, top + hb, xb, top],
                       fillColor=colors.Color(0.9, 0.9, 0.9), strokeColor=colors.black,
                       strokeWidth=0.4))
-        n = max(2, int((xb - xa) / (4 * mm)) + 1)
+        n = min(max(2, int((xb - xa) / (6 * mm)) + 1), 40)
         for k in range(n):
             xx = xa + (xb - xa) * k / (n - 1)
             _arrow(d, xx, top, base, 0.35)

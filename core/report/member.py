@@ -187,7 +187,13 @@ def transfer_rows(a: Analysis) -> list[list[str]]:
     for c in checks:
         jt, lay = lays[c.ply or ""]
         share = plate_share(a.section, jt.steel)
-        t = _transfer_of(a, c, lay, share)
+        try:
+            t = _transfer_of(a, c, lay, share)
+        except ValueError as exc:
+            rows.append([label(a, c), c.ply or "", c.combination or "", c.location, "",
+                         num(share, 5), q(c.demand, "force", u), f"not written out: {exc}",
+                         "", "", "", q(c.capacity, "force", u), f"{c.ratio:.3f}"])
+            continue
         L = a.beam.model.layout.length
         lo, hi = max(t.x - t.zone_half_width, lay.extent[0], 0.0), min(
             t.x + t.zone_half_width, lay.extent[1], L)
