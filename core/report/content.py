@@ -189,6 +189,10 @@ def _profiles(a: Analysis, u: str, width: float) -> list[Any]:
                  "y_na) / EI, \u03c3_i = E_i \u03b5 (tension positive). Strains are equal on "
                  "both sides of an interface; stresses differ by the ratio of the moduli.",
                  SMALL),
+            *([para("Staged loading: this profile is the built-up section under the whole "
+                    "moment; the stresses of the stages, which the bending checks use where "
+                    "they govern, are in the staged loading table of section 4.", SMALL)]
+              if a.stages is not None else []),
             profile_drawing(a.section, M, u, width=width), Spacer(1, 2 * mm),
             table(rows, width, align_right=(1, 2, 3, 4, 5, 6))]
 

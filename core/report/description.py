@@ -140,11 +140,24 @@ def bolt_text(diameter: float, layouts: Sequence[BoltLayout], system: str) -> st
     rows = max(len(lay.rows) for lay in layouts)
     staggered = any(len(r) != len(lay.rows) for lay in layouts for r in lay.station_rows)
     tail = (f", {rows} rows" if rows > 1 else "") + (" staggered" if staggered else "")
+    regular = all(evenly_spaced(lay) for lay in layouts)
     if system == "US":
-        return f"{inch_text(diameter)} in dia bolts @ {' / '.join(spacings)} o.c.{tail}"
+        where = f"@ {' / '.join(spacings)} o.c." if regular else "as detailed"
+        return f"{inch_text(diameter)} in dia bolts {where}{tail}"
     dm = diameter / MM
     name = f"M{round(dm)}" if abs(dm - round(dm)) < 1e-6 else f"\u2300{mm_text(diameter)} mm"
-    return f"{name} bolts at {' / '.join(spacings)}{tail}"
+    where = f"at {' / '.join(spacings)}" if regular else "as detailed"
+    return f"{name} bolts {where}{tail}"
+
+
+def evenly_spaced(layout: BoltLayout) -> bool:
+    """True where the stations are equally spaced (to 1e-9 of the plate's length), so
+    that one spacing describes them.
+    """
+    xs = layout.stations
+    gaps = [b - a for a, b in zip(xs, xs[1:], strict=False)]
+    size = max(layout.extent[1] - layout.extent[0], 1.0)
+    return not gaps or max(gaps) - min(gaps) <= 1e-9 * size
 
 
 def describe(plies: Sequence[Ply], materials: Sequence[Material], length: float,

@@ -120,7 +120,7 @@ def _lane(d: Drawing, f: _Frame, lane: Lane, base: float, u: str) -> None:
         d.add(Polygon([xa, top, xa, top + ha, xb, top + hb, xb, top],
                       fillColor=colors.Color(0.9, 0.9, 0.9), strokeColor=colors.black,
                       strokeWidth=0.4))
-        n = max(2, int((xb - xa) / (4 * mm)) + 1)
+        n = min(max(2, int((xb - xa) / (6 * mm)) + 1), 40)
         for k in range(n):
             xx = xa + (xb - xa) * k / (n - 1)
             _arrow(d, xx, top, base, 0.35)
@@ -143,15 +143,21 @@ def _band(d: Drawing, a: Analysis, f: _Frame, bottom: float,
     fill = TIMBER if any(m.kind == "timber" for m in s.materials) else STEEL
     d.add(Rect(f.x(0), bottom, f.x(f.length) - f.x(0), BAND, fillColor=fill,
                strokeColor=colors.black, strokeWidth=0.6))
-    for notch in spec.notches:
+    for k, notch in enumerate(spec.notches, start=1):
         xa, xb = notch_extent(notch, f.length)
         hh = f.h(notch.depth)
         yb = bottom if notch.face == "bottom" else bottom + BAND - hh
         d.add(Rect(f.x(xa), yb, f.x(xb) - f.x(xa), hh, fillColor=colors.white,
                    strokeColor=colors.black, strokeWidth=0.6))
-    for hole in spec.holes:
-        d.add(Circle(f.x(hole.x), f.y(hole.y, bottom), max(f.h(hole.diameter) / 2, 0.6),
-                     fillColor=colors.white, strokeColor=colors.black, strokeWidth=0.6))
+        ty = yb + hh + 0.6 * mm if notch.face == "bottom" else yb - 2.4 * mm
+        d.add(String(min(f.x(xb) + 0.6 * mm, f.x(f.length) - 4 * mm), ty, f"N{k}",
+                     fontName=FONT, fontSize=5.5))
+    for k, hole in enumerate(spec.holes, start=1):
+        r = max(f.h(hole.diameter) / 2, 0.6)
+        d.add(Circle(f.x(hole.x), f.y(hole.y, bottom), r, fillColor=colors.white,
+                     strokeColor=colors.black, strokeWidth=0.6))
+        d.add(String(f.x(hole.x) + r + 0.6 * mm, f.y(hole.y, bottom) - 1.8, f"H{k}",
+                     fontName=FONT, fontSize=5.5))
     length = f.length
     for i, (ply, mat) in enumerate(zip(s.plies, s.materials, strict=True)):
         if mat.kind != "steel" or s.area[i] <= 0:

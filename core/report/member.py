@@ -9,7 +9,7 @@ import math
 from typing import Any
 
 from reportlab.lib.units import mm
-from reportlab.platypus import CondPageBreak
+from reportlab.platypus import CondPageBreak, KeepTogether
 
 from ..design.bolt_layout import BoltLayout
 from ..design.check import Check, governing
@@ -32,7 +32,8 @@ def elevation_block(a: Analysis, width: float) -> list[Any]:
     return [CondPageBreak(drawing.height + 20 * mm), para("Member elevation", H2),
             para("Loads by case above the member (arrows down: loads act downward); the "
                  "member with its notches and holes, steel plates dashed where hidden by the "
-                 "timbers, bolts as dots; supports R1, R2, ... with the spans; below, every "
+                 "timbers, bolts as dots, notches N1, N2, ... and holes H1, H2, ... as in the "
+                 "project's lists; supports R1, R2, ... with the spans; below, every "
                  "ply's extent along the member with its from and to (bolt stations as "
                  "circles on the plates). Lengths along the member to scale; the depth, the "
                  "notches, holes and bolt rows at the depth's own scale.", SMALL),
@@ -119,9 +120,11 @@ def staged_block(a: Analysis, width: float) -> list[Any]:
                            "adds the two columns (where the stages peak at different places it "
                            "bounds the checks' values from above, which take the largest sum "
                            "along the member).", SMALL)]
-    for name in staged_combinations(a):
-        out += [para(f"Stages under {name}", H3),
+    for k, name in enumerate(staged_combinations(a)):
+        part = [para(f"Stages under {name}", H3),
                 table(staged_rows(a, name), width, align_right=(1, 2, 3))]
+        # the rule stays on the page of the first table
+        out = [*out[:1], KeepTogether(out[1:] + part)] if k == 0 else out + part
     return out
 
 
@@ -184,7 +187,13 @@ def transfer_rows(a: Analysis) -> list[list[str]]:
     for c in checks:
         jt, lay = lays[c.ply or ""]
         share = plate_share(a.section, jt.steel)
-        t = _transfer_of(a, c, lay, share)
+        try:
+            t = _transfer_of(a, c, lay, share)
+        except ValueError as exc:
+            rows.append([label(a, c), c.ply or "", c.combination or "", c.location, "",
+                         num(share, 5), q(c.demand, "force", u), f"not written out: {exc}",
+                         "", "", "", q(c.capacity, "force", u), f"{c.ratio:.3f}"])
+            continue
         L = a.beam.model.layout.length
         lo, hi = max(t.x - t.zone_half_width, lay.extent[0], 0.0), min(
             t.x + t.zone_half_width, lay.extent[1], L)

@@ -103,17 +103,26 @@ def plate_dims(a: Analysis, jt: Joint, lay: BoltLayout) -> PlateDims:
                      max(float(s.y_top[j]) for j in jt.timbers))
 
 
-def _dim_h(d: Drawing, xa: float, xb: float, y: float, text: str, size: float = 6) -> None:
-    """A horizontal dimension from xa to xb at height y, its text above the line where it
-    fits between the ticks and above the middle otherwise (never over another chain).
+def _dim_h(d: Drawing, xa: float, xb: float, y: float, text: str, size: float = 6,
+           outside: str | None = None) -> None:
+    """A horizontal dimension from xa to xb at height y, its text above the middle of the
+    line; where it does not fit between the ticks and ``outside`` is "start" or "end",
+    beside that end of the line instead.
     """
     d.add(Line(xa, y, xb, y, strokeWidth=0.4))
     for x in (xa, xb):
         d.add(Line(x, y - 1.2 * mm, x, y + 1.2 * mm, strokeWidth=0.4))
         d.add(Line(x - 0.7 * mm, y - 0.7 * mm, x + 0.7 * mm, y + 0.7 * mm, strokeWidth=0.6))
-    if text:
+    if not text:
+        return
+    if stringWidth(text, FONT, size) + 1 * mm <= xb - xa or outside is None:
         d.add(String((xa + xb) / 2, y + 0.9 * mm, text, fontName=FONT, fontSize=size,
                      textAnchor="middle"))
+    elif outside == "start":  # too short: the text before the dimension's start
+        d.add(String(xa - 1.2 * mm, y + 0.9 * mm, text, fontName=FONT, fontSize=size,
+                     textAnchor="end"))
+    else:
+        d.add(String(xb + 1.2 * mm, y + 0.9 * mm, text, fontName=FONT, fontSize=size))
 
 
 def _dim_v(d: Drawing, x: float, ya: float, yb: float, text: str, right: bool) -> None:
@@ -139,7 +148,7 @@ def plate_elevation(dims: PlateDims, lay: BoltLayout, hole: float, system: str,
     """The plate in elevation with its holes and dimension chains; returns the drawing
     and whether its depth is drawn enlarged (True where to scale would be too small).
     """
-    left, right = 6 * mm, 16 * mm
+    left, right = 11 * mm, 16 * mm
     sx = (width - left - right) / max(dims.length, 1e-12)
     depth = dims.top - dims.bottom
     sy = max(sx, PLATE_H / max(depth, 1e-12)) if depth * sx < PLATE_H else sx
@@ -168,16 +177,20 @@ def plate_elevation(dims: PlateDims, lay: BoltLayout, hole: float, system: str,
     marks = [dims.start, *lay.stations, dims.end]
     if dims.uniform and len(lay.stations) > 2:
         n = len(lay.stations) - 1
-        _dim_h(d, px(marks[0]), px(marks[1]), y1, length_text(dims.gaps[0], system))
+        _dim_h(d, px(marks[0]), px(marks[1]), y1, length_text(dims.gaps[0], system),
+               outside="start")
         _dim_h(d, px(marks[1]), px(marks[-2]), y1,
                f"{n} @ {length_text(dims.gaps[1], system)} = "
                f"{length_text(n * dims.gaps[1], system)}")
-        _dim_h(d, px(marks[-2]), px(marks[-1]), y1, length_text(dims.gaps[-1], system))
+        _dim_h(d, px(marks[-2]), px(marks[-1]), y1, length_text(dims.gaps[-1], system),
+               outside="end")
     else:
-        for xa, xb, g in zip(marks[:-1], marks[1:], dims.gaps, strict=True):
+        last = len(dims.gaps) - 1
+        for k, (xa, xb, g) in enumerate(zip(marks[:-1], marks[1:], dims.gaps, strict=True)):
             text = length_text(g, system)
             fits = stringWidth(text, FONT, 6) < px(xb) - px(xa) - 1 * mm
-            _dim_h(d, px(xa), px(xb), y1, text if fits else "")
+            side = "start" if k == 0 else "end" if k == last else None
+            _dim_h(d, px(xa), px(xb), y1, text if fits or side else "", outside=side)
     # chain 2: overall length
     overall = (f"{feet_inches(dims.length)} ({length_text(dims.length, system)})"
                if system == "US" else length_text(dims.length, system))
@@ -274,7 +287,9 @@ def _stations_line(lay: BoltLayout, u: str) -> str:
 def plate_details(a: Analysis, width: float) -> list[Any]:
     """Section 8: the plate details and the bolt schedule (nothing without bolted plates)."""
     items = plate_layouts(a)
-    head = [CondPageBreak(120 * mm if items else 30 * mm),
+    # room for the heading, its lines and the first plate's drawings (about 40 mm of
+    # elevation and 60 mm of cross-section), so the heading never stands alone
+    head = [CondPageBreak(150 * mm if items else 30 * mm),
             para("8  Plate details and bolt schedule", H1),
             para("Member: " + member_description(a), BODY)]
     if not items:
@@ -304,6 +319,6 @@ def plate_details(a: Analysis, width: float) -> list[Any]:
                      style=[("VALIGN", (0, 0), (-1, -1), "TOP"),
                             ("FONTNAME", (0, 0), (-1, -1), FONT)])
         out += [CondPageBreak(elev.height + 80 * mm),
-                para(f"Plate {name} (bolts B{k})", H2), elev, side]
+                para(f"Steel plate \u201c{name}\u201d (bolts B{k})", H2), elev, side]
     out += [para("Bolt schedule", H2), table(schedule_rows(a, items), width, font_size=6.6)]
     return out

@@ -170,3 +170,11 @@ def test_every_page_of_the_variants_keeps_the_caution(variant):
         assert f"page {k} of {pages}" in text
     full = " ".join(" ".join(p.extract_text().split()) for p in reader.pages)
     assert "Member elevation" in full and "8 Plate details and bolt schedule" in full
+
+
+def test_stations_given_unevenly_are_described_as_detailed():
+    """Stations at 1, 2, 5, 9 and 11 ft have no one spacing: the line refers to the detail."""
+    a = run(from_dict(_demo(US, lambda d: d["design"]["bolt"].update(
+        stations=["1 ft", "2 ft", "5 ft", "9 ft", "11 ft"], stagger=True,
+        rows=["2 in", "4.625 in", "7.25 in"]))))
+    assert member_description(a).endswith("1/2 in dia bolts as detailed, 3 rows staggered")
