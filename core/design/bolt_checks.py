@@ -1,7 +1,8 @@
 """The bolt checks of a plate shared by both bases: the layout, the force on every bolt at
 its station (``bolts``, the most loaded bolt of each combination) and one ``load-transfer``
 check for every support the plate does not bear on and every point load (see
-``transfer``). Each basis supplies the value of one bolt and its factors.
+``transfer``), with the ``splitting`` of the timbers there (see ``splitting``). Each basis
+supplies the value of one bolt and its factors.
 """
 
 from __future__ import annotations
@@ -19,7 +20,14 @@ from .bolt_layout import BoltLayout, layout_of
 from .check import Check, Fasteners, capacity_from
 from .common import STOCK_SPACINGS_SI, STOCK_SPACINGS_US, Joint, plate_share
 from .net_section import net_checks
-from .transfer import StationDemand, Transfer, plate_extent, station_demands, transfers
+from .splitting import SplitSite, shear_capacities, splitting_checks
+from .transfer import (
+    StationDemand,
+    Transfer,
+    plate_extent,
+    station_demands,
+    transfers,
+)
 
 
 @dataclass(frozen=True)
@@ -139,7 +147,22 @@ def plate_bolt_checks(section: Section, beam: BeamResult, design: DesignSpec, jo
                    f"at x = {fmt(gov.x, 'span', system)}, {gov.bolts} bolts, governed by "
                    f"{source}.", CAUTION)))
         out += [_transfer_check(t, layout, combo, value, f, steel, system) for t in items]
+        shear = shear_capacities(gross, combo.name)
+        for t in items:
+            out += splitting_checks(section, joint, split_site(t, layout, system), design,
+                                    combo.name, f.get("k_mod"), shear, L, system)
     return out
+
+
+def split_site(t: Transfer, layout: BoltLayout, system: str) -> SplitSite:
+    """The splitting site of a transfer: at a support the plate's share goes down into
+    the timbers, under a point load the bolts push them up (see ``splitting``).
+    """
+    force = -t.share * t.force if t.kind == "support" else t.share * t.force
+    where = fmt(t.x, "span", system)
+    return SplitSite(t.label if t.kind == "support" else f"point load at x = {where}",
+                     t.x, force, tuple(layout.stations[k] for k in t.zone),
+                     tuple(layout.rows[r] for k in t.zone for r in layout.station_rows[k]))
 
 
 def _transfer_check(t: Transfer, layout: BoltLayout, combo: CombinationResult,

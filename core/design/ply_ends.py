@@ -33,6 +33,7 @@ from typing import Protocol
 
 from ..actions.analysis import BeamResult, CombinationResult
 from ..actions.beam import moment_at
+from ..codes import en1995 as ec5
 from ..codes import en1995_fasteners as en
 from ..codes import nds_fasteners as nf
 from ..model.caution import CAUTION
@@ -47,6 +48,8 @@ from .check import Check, Fasteners, capacity_from
 from .common import Joint, side_by_side_joints
 from .demands import eu_uls_section
 from .eu_lsd import bolt_value as eu_bolt_value
+from .eu_timber import eu_duration
+from .splitting import SplitSite, shear_capacities, splitting_checks
 from .transfer import (
     GroupForce,
     end_zone,
@@ -122,9 +125,12 @@ def _gap(section: Section, e: PlyEnd, why: str) -> MissingCheck:
 
 
 def ply_end_checks(section: Section, beam: BeamResult, segments: Sequence[SegmentLike],
-                   design: DesignSpec, system: str) -> tuple[list[Check], list[Problem]]:
+                   design: DesignSpec, system: str, gross: Sequence[Check] = ()
+                   ) -> tuple[list[Check], list[Problem]]:
     """The ``load-transfer`` check of every bolted plate end inside the member under every
-    strength combination, and a named missing check for every other ply end.
+    strength combination with the ``splitting`` of its timbers there (``gross``: the
+    member's checks, whose shear checks give F'_v on the US basis), and a named missing
+    check for every other ply end.
     """
     L = beam.model.layout.length
     ends = ply_ends(section, L)
@@ -161,6 +167,9 @@ def ply_end_checks(section: Section, beam: BeamResult, segments: Sequence[Segmen
             gaps.append(_gap(section, e, "a single bolt in the transfer zone cannot develop "
                              "the plate's moment; give more rows or stations near the end"))
         checks += [m for m in made if m is not None]
+        for c in combos:
+            checks += _end_splitting(section, beam, seg, design, jt, e, layout, c, system,
+                                     list(gross))
     return checks, gaps
 
 
@@ -310,3 +319,36 @@ def _end_check(section: Section, beam: BeamResult, seg: SegmentLike, design: Des
                "Actions at the plate's end and at the end of the zone, at once and with "
                "creep, the worst; one bolt's value perpendicular to the grain "
                "(conservative for the part along the grain).", CAUTION))
+
+
+def _end_splitting(section: Section, beam: BeamResult, seg: SegmentLike, design: DesignSpec,
+                   jt: Joint, e: PlyEnd, layout: BoltLayout, combo: CombinationResult,
+                   system: str, gross: list[Check]) -> list[Check]:
+    """The ``splitting`` of the timbers at a plate's end: the plate's share of the shear
+    goes into them through the end zone's bolts (force on the timber -inward alpha V: down
+    for gravity loads at either end), the largest over the two cuts and both states.
+    """
+    L = beam.model.layout.length
+    start, end = plate_extent(section, jt.steel, L)
+    zone = end_zone(layout, e.x, section.depth)
+    reach = max([section.depth, *(abs(layout.stations[k] - e.x) for k in zone)])
+    x_far = min(max(e.x + e.inward * reach, start), end)
+    local = seg.plies.index(e.ply)
+    force = 0.0
+    for x in (e.x, x_far):
+        M, V = _cut_actions(beam, combo, x, e.inward)
+        for sec in _states(seg, combo, design):
+            f = -e.inward * plate_actions(sec, local, x, M, V).V
+            if abs(f) > abs(force):
+                force = f
+    if force == 0.0:
+        return []
+    plate = section.plies[jt.steel].name
+    site = SplitSite(f"end of {plate} at x = {fmt(e.x, 'span', system)}", e.x, force,
+                     tuple(layout.stations[k] for k in zone),
+                     tuple(layout.rows[r] for k in zone for r in layout.station_rows[k]))
+    k_mod = None
+    if not design.us:
+        k_mod = ec5.k_mod(eu_duration(combo.duration), design.service_class)
+    return splitting_checks(section, jt, site, design, combo.name, k_mod,
+                            shear_capacities(gross, combo.name), L, system)

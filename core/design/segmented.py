@@ -87,7 +87,8 @@ def segmented_checks(project: Project, section: Section, beam: BeamResult,
     its segment and its x; warnings once each.
     """
     member, warnings = run_checks(project, section, beam, design)
-    ends, gaps = ply_end_checks(section, beam, segments, design, project.display_units)
+    ends, gaps = ply_end_checks(section, beam, segments, design, project.display_units,
+                                member)
     warnings += gaps
     checks = [c for c in member if c.id not in SEGMENT_IDS] + ends
     seen = {(w.path, w.message) for w in warnings}

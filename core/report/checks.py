@@ -27,7 +27,7 @@ def label(a: Analysis, c: Check) -> str:
 
 def place(c: Check) -> str:
     """The ply or place a check is about."""
-    if c.id in ("bearing", "load-transfer"):
+    if c.id in ("bearing", "load-transfer", "splitting"):
         return f"{c.location}: {c.ply}"
     if c.id in ("bolts", "connectors"):
         return c.ply or ""
@@ -37,8 +37,8 @@ def place(c: Check) -> str:
 
 
 def _group_key(c: Check) -> tuple[str, str | None, str]:
-    return (c.id, c.ply, c.location if c.id.startswith(("deflection", "bearing", "load-transfer"))
-            else "")
+    return (c.id, c.ply, c.location if c.id.startswith(("deflection", "bearing", "load-transfer",
+                                                        "splitting")) else "")
 
 
 #: Notes the derivation already writes out (yield modes, plate share, bolt layout).

@@ -68,6 +68,7 @@ CLAUSES = {
     ("US", "connectors"): "shear flow V Q / I_t; the user's connector value",
     ("US", "load-transfer"): "NDS 2018 12.3.1 and Table 11.3.1; transfer zone (common practice)",
     ("US", "bending-net"): "NDS 2018 3.1.2; AISC 360-16 B4.3 and F13.1 for steel",
+    ("US", "splitting"): "NDS 2018 3.4.3.3 (shear at connections)",
     ("EU", "bending"): "EN 1995-1-1 6.1.6; EN 1993-1-1 6.2.1(5) for steel",
     ("EU", "shear"): "EN 1995-1-1 6.1.7; EN 1993-1-1 6.2.6 for steel",
     ("EU", "bearing"): "EN 1995-1-1 6.1.5",
@@ -78,6 +79,7 @@ CLAUSES = {
     ("EU", "connectors"): "shear flow V Q / I_t; the user's connector value",
     ("EU", "load-transfer"): "EN 1995-1-1 8.2.3; transfer zone (common practice)",
     ("EU", "bending-net"): "EN 1995-1-1 5.1(2); EN 1993-1-1 6.2.5(4) for steel",
+    ("EU", "splitting"): "EN 1995-1-1 8.1.4",
 }
 
 

@@ -213,3 +213,22 @@ def test_us_row_along_the_grain_takes_the_lesser_C_g():
     along = _C_g_by_hand(2, E_S * 0.375 * 4, E_W * 2 * 1.5 * 9.25, 6.0, 270000 * 0.5**1.5)
     bolts = next(b for b in a.checks if b.id == "bolts" and b.combination == "D + L")
     assert c.factors["C_g"] == pytest.approx(min(along, bolts.factors["C_g"]), rel=1e-12)
+
+
+def test_splitting_at_the_plate_end_by_hand():
+    """At the plate's end the plate's share of the shear, alpha V, goes down into the two
+    timbers (half each) through the end zone's bolts: loaded edge the bottom. The largest
+    alpha V: at the end (V = w (72 - 12) in = 1560 lbf) with creep (timber E / 1.5, the
+    larger alpha). NDS 2018 3.4.3.3 (from memory): d_e = 7.0 + 0.25 = 7.25 in, the stations
+    at 15 and 21 in are within 5 d of the end: V'_r = (2/3) 180 psi x 1.5 in x d_e (d_e / d)^2."""
+    I_w = 2 * 1.5 * 9.25**3 / 12
+    I_s = 0.375 * 8.75**3 / 12
+    alpha = E_S * I_s / (E_W / 1.5 * I_w + E_S * I_s)
+    V = 312 / 12 * (72 - 12)
+    a = run(from_dict(_short_plate()))
+    c = next(c for c in a.checks if c.id == "splitting" and c.combination == "D + L"
+             and c.location.startswith("end of P") and c.ply == "L")
+    assert c.demand / LBF == pytest.approx(alpha * V / 2, rel=1e-9)
+    assert c.capacity / LBF == pytest.approx(2 / 3 * 180 * 1.5 * 7.25 * (7.25 / 9.25) ** 2,
+                                             rel=1e-9)
+    assert "loaded edge bottom" in c.location

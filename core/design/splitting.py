@@ -1,0 +1,148 @@
+"""Splitting of a timber where a plate's bolts load it perpendicular to the grain (check
+id ``splitting``).
+
+Where the bolts of a transfer zone push a timber towards one of its edges (the loaded
+edge), the timber may split along the grain at the bolts. The sites: a support the plate
+does not bear on (the plate's share alpha R goes down into the timbers), a point load that
+bears on the timbers (alpha P goes up into the plate, so the bolts push the timbers up) and
+an end of the plate inside the member (the plate's share of the shear, alpha V, goes into
+the timbers there). The force of a site is shared by the timbers of the joint in proportion
+to E b (equal halves for a flitch of like timbers).
+
+EU: EN 1995-1-1 8.1.4 (from memory): F_v,Ed <= F_90,Rd = k_mod F_90,Rk / gamma_M, F_90,Rk =
+14 b w sqrt(h_e / (1 - h_e / h)) (N, mm; w = 1 for bolts), h_e the distance from the loaded
+edge to the centre of the most distant bolt; F_v,Ed is taken as the whole force the timber
+receives (the larger of the shears either side of the connection is never more:
+conservative).
+
+US: NDS 2018 3.4.3.3 (from memory): the shear the connection puts into the timber V <=
+V'_r = (2/3) F'_v b d_e, times (d_e / d)^2 where the connection is less than 5 d from the
+end of the member; d_e = d less the distance from the unloaded edge to the nearest edge of
+the nearest bolt (= h_e + D / 2 here, at most d). V: the whole force the timber receives
+at the site (the larger of the shears either side of the connection is never more).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from ..codes import en1995_fasteners as en
+from ..model.design import DesignSpec
+from ..model.units import fmt
+from ..section.transformed import Section
+from .check import Check, capacity_from
+from .common import Joint
+
+#: EN 1995-1-1 Table 2.3, connections (from memory).
+GAMMA_M_CONNECTION = 1.3
+
+
+@dataclass(frozen=True)
+class SplitSite:
+    """Where a plate's bolts push the timbers across the grain.
+
+    Attributes:
+        label: the site (the check's location).
+        x: its position along the member, m.
+        force: the force the bolts put into the timbers there, N (upward positive).
+        stations: positions of the bolt stations delivering it, m.
+        heights: heights of those bolts, m.
+
+    """
+
+    label: str
+    x: float
+    force: float
+    stations: tuple[float, ...]
+    heights: tuple[float, ...]
+
+
+def _edge(section: Section, j: int, site: SplitSite) -> tuple[str, float, float]:
+    """(loaded edge, h_e, h) of timber j: the edge the force pushes towards; h_e from it to
+    the centre of the most distant bolt.
+    """
+    lo, hi = float(section.y_bottom[j]), float(section.y_top[j])
+    if site.force < 0:
+        return "bottom", max(site.heights) - lo, hi - lo
+    return "top", hi - min(site.heights), hi - lo
+
+
+def _share(section: Section, joint: Joint, j: int) -> float:
+    """Timber j's share of the joint's timbers, in proportion to E b."""
+    def weight(k: int) -> float:
+        return float(section.E[k]) * section.plies[k].width
+    return weight(j) / sum(weight(k) for k in joint.timbers)
+
+
+def splitting_checks(section: Section, joint: Joint, site: SplitSite, design: DesignSpec,
+                     combination: str, k_mod: float | None, shear_capacity: dict[str, float],
+                     length: float, system: str) -> list[Check]:
+    """The ``splitting`` check of every timber of the joint at one site under one
+    combination. EU: ``k_mod`` of the combination; US: ``shear_capacity`` (F'_v of each
+    timber under the combination, by ply name; a timber without one is left out).
+    """
+    out = []
+    for j in joint.timbers:
+        name = section.plies[j].name
+        edge, h_e, h = _edge(section, j, site)
+        b = section.plies[j].width
+        where = (f"{site.label}: bolts at y = "
+                 + ", ".join(fmt(y, "length", system) for y in sorted(set(site.heights)))
+                 + f"; loaded edge {edge}")
+        if not design.us:
+            if k_mod is None or not 0 < h_e < h:
+                continue
+            F90 = en.F90_Rk(b, h_e, h)
+            demand = abs(site.force) * _share(section, joint, j)
+            f = {"k_mod": k_mod}
+            g = {"gamma_M": GAMMA_M_CONNECTION}
+            out.append(Check(
+                id="splitting", ply=name, combination=combination, demand=demand,
+                capacity=capacity_from(F90, f, g), quantity="force",
+                reference=("F_90,Rk", F90), factors=f, partial_factors=g,
+                sources={"F_90,Rk": "EN 1995-1-1 8.1.4 (8.4), w = 1 (from memory)",
+                         "k_mod": "EN 1995-1-1 Table 3.1 (from memory)",
+                         "gamma_M": "EN 1995-1-1 Table 2.3, connections (from memory)"},
+                equation="F_v,Ed <= k_mod 14 b w sqrt(h_e / (1 - h_e / h)) / gamma_M",
+                location=where, x=site.x,
+                notes=(f"b = {b * 1000:.4g} mm, h = {h * 1000:.4g} mm, h_e = "
+                       f"{h_e * 1000:.4g} mm (loaded edge to the most distant bolt); F_v,Ed "
+                       "= the whole force into this timber (conservative).",)))
+            continue
+        Fv = shear_capacity.get(name)
+        if Fv is None or h_e <= 0:
+            continue
+        D = design.bolt.diameter
+        d_e = min(h_e + D / 2, h)
+        near_end = min(min(x, length - x) for x in site.stations) < 5 * h
+        f = {"2/3": 2 / 3, "b d_e": b * d_e}
+        if near_end:
+            f["(d_e/d)^2"] = (d_e / h) ** 2
+        demand = abs(site.force) * _share(section, joint, j)
+        out.append(Check(
+            id="splitting", ply=name, combination=combination, demand=demand,
+            capacity=capacity_from(Fv, f), quantity="force", reference=("F'v", Fv),
+            factors=f, partial_factors={},
+            sources={"F'v": "the timber's adjusted shear value under the combination (its "
+                     "shear check)", "2/3": "NDS 2018 3.4.3.3 (from memory)",
+                     "b d_e": "NDS 2018 3.4.3.3: d_e = d less the distance from the unloaded "
+                     "edge to the nearest edge of the nearest bolt (from memory)",
+                     **({"(d_e/d)^2": "NDS 2018 3.4.3.3(a): connection less than 5d from "
+                         "the end of the member (from memory)"} if near_end else {})},
+            equation=("V <= (2/3) F'v b d_e (d_e / d)^2" if near_end
+                      else "V <= (2/3) F'v b d_e"),
+            location=where, x=site.x,
+            notes=(f"d = {fmt(h, 'length', system)}, d_e = {fmt(d_e, 'length', system)}, "
+                   f"b = {fmt(b, 'length', system)}; V = the whole force into this timber "
+                   "(conservative).",)))
+    return out
+
+
+def shear_capacities(gross: list[Check], combination: str) -> dict[str, float]:
+    """F'_v of every timber under a combination: the capacity of its ordinary shear check
+    (the one with no location).
+    """
+    return {c.ply: c.capacity for c in gross if c.id == "shear" and c.ply is not None
+            and c.combination == combination and not c.location
+            and math.isfinite(c.capacity)}
