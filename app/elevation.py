@@ -234,7 +234,11 @@ class ElevationView(QGraphicsView):
         u = self.document.project.display_units
         x = min(max(f.x_m(pos.x()), 0.0), f.length)
         where = f"x = {_shown(x, 'span', u)}"
-        if hit is not None:
+        rule = next((str(it.data(0)) for it in self.drawing.rings.items
+                     if it.isVisible() and it.contains(pos)), None)
+        if rule is not None:  # a bolt a failing rule concerns: say which (as its tooltip)
+            self.status.emit(f"{where}. {rule}")
+        elif hit is not None:
             name = self.document.project.plies[hit[0]].name
             end = "start (from)" if hit[1] == "start" else "end (to)"
             self.status.emit(f"{where}. Drag to move the {end} of \u201c{name}\u201d; Shift "

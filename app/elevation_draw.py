@@ -271,6 +271,7 @@ class ElevationDrawing:
             item.setPen(pen(FAIL, 2.0))
             item.setZValue(21)
             item.setToolTip(plain_tip("\n".join(pb.marks[b])))
+            item.setData(0, "; ".join(pb.marks[b]))
         self._dimensions(project, f, plates)
 
     def _dimensions(self, project: Project, f: Frame, plates: Sequence[PlateBolts]) -> None:
@@ -294,16 +295,17 @@ class ElevationDrawing:
             for a, b, what, more in pairs:
                 texts.append((f"{what}{fmt(b - a, 'length', u)}{more}",
                               (f.x_px(a) + f.x_px(b)) / 2, y + 3, 0.5, 0.0))
-            x_dim = f.x_px(xs[0]) - 10
+            x_dim, side = _edge_dimension_x(f, xs)
             rows = pb.layout.rows
             paths[3 * k + 1].setPath(vertical_dimension_path(x_dim, f.y_px(pb.timber_top),
                                                              f.y_px(max(rows))))
             paths[3 * k + 2].setPath(vertical_dimension_path(x_dim, f.y_px(min(rows)),
                                                              f.y_px(pb.timber_bottom)))
-            texts.append((f"edge {fmt(pb.edge_top, 'length', u)}", x_dim - 3,
-                          (f.y_px(pb.timber_top) + f.y_px(max(rows))) / 2, 1.0, 0.5))
-            texts.append((f"edge {fmt(pb.edge_bottom, 'length', u)}", x_dim - 3,
-                          (f.y_px(min(rows)) + f.y_px(pb.timber_bottom)) / 2, 1.0, 0.5))
+            tx, anchor = (x_dim - 3, 1.0) if side < 0 else (x_dim + 3, 0.0)
+            texts.append((f"edge {fmt(pb.edge_top, 'length', u)}", tx,
+                          (f.y_px(pb.timber_top) + f.y_px(max(rows))) / 2, anchor, 0.5))
+            texts.append((f"edge {fmt(pb.edge_bottom, 'length', u)}", tx,
+                          (f.y_px(min(rows)) + f.y_px(pb.timber_bottom)) / 2, anchor, 0.5))
         for p in paths:
             p.setPen(pen(QColor(60, 60, 60), 1.0))
             p.setZValue(30)
@@ -316,8 +318,7 @@ class ElevationDrawing:
                 x = row.free_x(x - w / 2) + w / 2
                 row.took(label.place(text, x, y, dx, dy, QColor(40, 40, 40)))
             else:
-                label.place(text, max(x, label.size_of(text)[0] + 2), y, dx, dy,
-                            QColor(40, 40, 40))
+                label.place(text, x, y, dx, dy, QColor(40, 40, 40))
 
     # --- one bar per ply ------------------------------------------------------------------
 
@@ -361,6 +362,19 @@ class ElevationDrawing:
                                 0.0 if right else 1.0, 0.5, QColor(30, 30, 30))
             labels[i].setZValue(43)
 
+
+
+def _edge_dimension_x(f: Frame, stations: Sequence[float]) -> tuple[float, int]:
+    """Where the edge distances are dimensioned: beside the station with the most room on
+    one side (before the first, after the last, or in the widest gap), 10 px from it;
+    returns the pixel column and the side its text goes (-1 left, +1 right).
+    """
+    xs = [f.x_px(x) for x in stations]
+    options = [(xs[0] - f.x_px(0.0), xs[0] - 10, -1),
+               (f.x_px(f.length) - xs[-1], xs[-1] + 10, 1)]
+    options += [(b - a, a + 10, 1) for a, b in zip(xs, xs[1:], strict=False)]
+    _room, x, side = max(options, key=lambda o: o[0])
+    return x, side
 
 
 def _load_text(ld: Load, u: str) -> str:

@@ -55,9 +55,9 @@ class Frame:
     view_width: float
 
     #: Heights of the fixed bands, pixels.
-    ARROWS = 32.0
-    SUPPORTS = 16.0
-    DIM_ROW = 26.0
+    ARROWS = 28.0
+    SUPPORTS = 14.0
+    DIM_ROW = 24.0
 
     @classmethod
     def of(cls, project: Project, width: float, height: float) -> Frame | None:
@@ -79,13 +79,13 @@ class Frame:
         plates = sum(1 for p in project.plies
                      if project.all_materials().get(p.material) is not None
                      and project.all_materials()[p.material].kind == "steel")
-        lane = 18.0 if len(project.plies) <= 8 else 13.0
-        band = 17.0
+        lane = 17.0 if len(project.plies) <= 8 else 13.0
+        band = 15.0
         top = 6.0
         arrows = cls.ARROWS if points else 8.0
         fixed = (top + band * len(cases) + arrows + cls.SUPPORTS + cls.DIM_ROW * plates
                  + lane * len(project.plies) + 24.0)
-        member_h = min(max(height - fixed, 44.0), 130.0)
+        member_h = min(max(height - fixed, 36.0), 130.0)
         left = 30.0
         member_top = top + band * len(cases) + arrows
         dims_top = member_top + member_h + cls.SUPPORTS

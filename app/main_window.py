@@ -155,7 +155,7 @@ class MainWindow(FileActions, ToolActions, QMainWindow):
         centre.addWidget(shown)
         centre.addWidget(self.elevation)
         centre.addWidget(self.right_tabs)
-        centre.setSizes([430, 240, 280])
+        centre.setSizes([400, 260, 280])
         main = QSplitter(Qt.Orientation.Horizontal)
         main.addWidget(panels)
         main.addWidget(centre)

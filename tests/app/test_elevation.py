@@ -15,7 +15,8 @@ import math
 from pathlib import Path
 
 import pytest
-from PySide6.QtCore import QPoint, QPointF, Qt
+from PySide6.QtCore import QEvent, QPoint, QPointF, Qt
+from PySide6.QtGui import QMouseEvent
 from PySide6.QtTest import QTest
 from PySide6.QtWidgets import QApplication, QGraphicsPathItem
 
@@ -374,3 +375,36 @@ def test_concerned_bolts_of_each_rule():
     assert concerned_bolts(_rule("bolt-spacing", "spread", 0.04, 0.03, "spread <= limit"),
                            lay, 1.0, 0.03, 0.05) == {0, 1, 2, 3}
     assert [bolts[b] for b in (0, 1)] == [(0.1, 0.05), (0.1, 0.09)]
+
+
+def test_hovering_a_marked_bolt_names_the_rule_in_the_status_bar(qtbot, tmp_path):
+    path = project_file(tmp_path, plate={}, openings=False,
+                        bolt={"stations": ["1/2 in", "3 ft", "6 ft", "9 ft", "11 ft"]})
+    w = open_window(qtbot, path)
+    view = w.elevation
+    ring = view.drawing.rings.items[0]
+    at = QPointF(view.mapFromScene(ring.rect().center()))
+    move = QMouseEvent(QEvent.Type.MouseMove, at, view.viewport().mapToGlobal(at),
+                       Qt.MouseButton.NoButton, Qt.MouseButton.NoButton, NONE)
+    with qtbot.waitSignal(view.status) as blocker:
+        QApplication.sendEvent(view.viewport(), move)
+    assert "bolt-end" in blocker.args[0] and "required 1 in" in blocker.args[0]
+
+
+def test_supports_loads_and_openings_are_drawn_one_item_each(short_plate):
+    d = short_plate.elevation.drawing
+    beam = short_plate.document.project.beam
+    # the demo: two pinned supports; area loads D and L as bands, one point load (D 300
+    # lbf) as an arrow; one notch and one hole from the test file
+    assert len(d.supports.items) == 2
+    assert len(d.bands.items) == 2 and len(d.arrows.items) == 1
+    labels = [label.text() for label in d.load_labels.items]
+    # hand: 12 psf x 6 ft = 72 plf, 40 psf x 6 ft = 240 plf
+    assert labels == ["D 72 plf", "L 240 plf", "D 300 lbf"]
+    assert len(d.notches.items) == len(beam.notches) == 1
+    assert len(d.holes.items) == len(beam.holes) == 1
+    f = short_plate.elevation.frame
+    hole = d.holes.items[0].rect()
+    # hand: the hole's centre 6 ft along and 4 5/8 in up, 1 in across
+    assert f.x_m(hole.center().x()) == pytest.approx(6 * FT, abs=1e-9)
+    assert hole.width() == pytest.approx(1 * IN / f.length * f.width, abs=1e-9)
