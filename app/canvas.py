@@ -82,7 +82,14 @@ class SectionCanvas(QGraphicsView):
         self._nudge_key: str | None = None
         self._dimensions: dict[int, QGraphicsRectItem] = {}
         analysis.section_changed.connect(self.rebuild)
+        analysis.station_changed.connect(self.rebuild)
+        analysis.analysis_changed.connect(self._analysis_changed)
         self.rebuild()
+
+    def _analysis_changed(self) -> None:
+        """A segment's section comes with the full analysis: redraw when one is shown."""
+        if self.analysis.shown_plies() is not None:
+            self.rebuild()
 
     @property
     def section(self) -> Section | None:
@@ -164,28 +171,45 @@ class SectionCanvas(QGraphicsView):
         if not project.plies:
             return
         mats = project.all_materials()
-        section = self.section
-        if section is not None and section.plies != project.plies:
-            section = None  # published for other plies (cannot happen once signals settle)
-        geoms = section.geoms if section else [p.rectangle() for p in project.plies]
-        for i, (ply, geom) in enumerate(zip(project.plies, geoms, strict=True)):
+        shown, section = self._shown_section()
+        plies = [project.plies[i] for i in shown]
+        geoms = section.geoms if section else [p.rectangle() for p in plies]
+        for k, (i, ply, geom) in enumerate(zip(shown, plies, geoms, strict=True)):
             kind = mats[ply.material].kind if ply.material in mats else "other"
-            self._draw_ply(i, geom, kind, section is not None and not section.is_unclipped(i),
+            self._draw_ply(i, geom, kind, section is not None and not section.is_unclipped(k),
                            ply)
         if section is not None and self.show_transformed:
-            for i in range(len(project.plies)):
+            for i in range(len(plies)):
                 t = QGraphicsPathItem(geometry_path(section.transformed_geometry(i)))
                 tp = QPen(QColor(200, 40, 40), 0, Qt.PenStyle.DashLine)
                 tp.setCosmetic(True)
                 t.setPen(tp)
                 t.setZValue(1500)
                 scene.addItem(t)
-        self._draw_annotations()
-        self._draw_names()
-        if self.selected is not None:
+        self._draw_annotations(plies, section)
+        self._draw_names(shown)
+        if self.selected is not None and self.selected in shown:
             self._draw_handles(project.plies[self.selected])
         if not self._fitted and self.press is None:
             self.fit()
+
+    def _shown_section(self) -> tuple[list[int], Section | None]:
+        """The plies drawn (indices into the project's plies) and their section: every
+        ply, or the plies of the segment chosen on the elevation; the section is None
+        while the analysis of the current plies is not published yet (the plies are then
+        drawn uncut).
+        """
+        plies = self.document.project.plies
+        seg = self.analysis.shown_plies()
+        if seg is None:
+            section = self.section
+            if section is not None and section.plies != plies:
+                section = None  # published for other plies (not once signals settle)
+            return list(range(len(plies))), section
+        section = self.analysis.shown_section()
+        if section is not None and section.plies != tuple(plies[i] for i in seg):
+            section = None
+        return list(seg), section
 
     def _draw_ply(self, i: int, geom, kind: str, clipped: bool, ply) -> None:  # type: ignore[no-untyped-def]
         color, style, line = FILLS.get(kind, FILLS["other"])
@@ -225,13 +249,15 @@ class SectionCanvas(QGraphicsView):
         self.scene().addItem(item)
         return item
 
-    def _draw_names(self) -> None:
-        """Each ply's name at its centre; its dimensions below it (shown on hover or
-        selection).
+    def _draw_names(self, shown: list[int]) -> None:
+        """Each drawn ply's name at its centre; its dimensions below it (shown on hover
+        or selection).
         """
         u = self.system
         s = self._scale()
-        for i, ply in enumerate(self.document.project.plies):
+        plies = self.document.project.plies
+        for i in shown:
+            ply = plies[i]
             c = self._rect(ply).center()
             name = tag(ply.name, size=8.5)
             r = name.rect()
@@ -260,8 +286,9 @@ class SectionCanvas(QGraphicsView):
         for i, item in self._dimensions.items():
             item.setVisible(i in (self.selected, self.hovered))
 
-    def _draw_annotations(self) -> None:
-        plies = self.document.project.plies
+    def _draw_annotations(self, plies, section: Section | None) -> None:  # type: ignore[no-untyped-def]
+        if not plies:
+            return
         x0 = min(p.x for p in plies) * 1000
         x1 = max(p.x + p.width for p in plies) * 1000
         y0 = min(p.y for p in plies) * 1000
@@ -279,8 +306,8 @@ class SectionCanvas(QGraphicsView):
                     -y0 + gap, -0.5, 0.1)
         self._place(tag(f"depth {fmt((y1 - y0) / 1000, 'length', u)}"), x1 + gap,
                     -(y0 + y1) / 2, 0.05, -0.5)
-        if self.section is not None and math.isfinite(self.section.neutral_axis_y):
-            yna = self.section.neutral_axis_y * 1000
+        if section is not None and math.isfinite(section.neutral_axis_y):
+            yna = section.neutral_axis_y * 1000
             na_pen = QPen(QColor(200, 30, 30), 0, Qt.PenStyle.DashDotLine)
             na_pen.setCosmetic(True)
             na_pen.setWidthF(1.5)
@@ -401,10 +428,14 @@ class SectionCanvas(QGraphicsView):
 
     def _hit(self, event: QMouseEvent) -> tuple[str, int | None, str | None]:
         at = event.position().toPoint()
-        for item in self.items(at):
-            edges = item.data(1)
-            if edges and self.selected is not None:
-                return "handle", self.selected, str(edges)
+        handles = [item for item in self.items(at) if item.data(1)]
+        if handles and self.selected is not None:
+            # on a narrow ply the handles overlap: the one whose centre is nearest wins
+            def away(item: QGraphicsItem) -> float:
+                c = self.mapFromScene(item.pos())
+                return float((c.x() - at.x()) ** 2 + (c.y() - at.y()) ** 2)
+
+            return "handle", self.selected, str(min(handles, key=away).data(1))
         for item in self.items(at):
             idx = item.data(0)
             if idx is not None and isinstance(item, QGraphicsPathItem):
@@ -498,6 +529,9 @@ class SectionCanvas(QGraphicsView):
         key = event.key()
         if key == Qt.Key.Key_F and not event.modifiers():
             self.fit()
+            return
+        if key == Qt.Key.Key_Escape and self.analysis.station is not None:
+            self.analysis.set_station(None)  # back to the full section
             return
         moves = {Qt.Key.Key_Left: (-1, 0), Qt.Key.Key_Right: (1, 0), Qt.Key.Key_Up: (0, 1),
                  Qt.Key.Key_Down: (0, -1)}

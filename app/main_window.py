@@ -2,8 +2,9 @@
 
 Layout (fits 1366 x 768): on the left the ply table and the selected ply (tab "Plies")
 or the beam, loads and reactions (tab "Beam / Loads"); in the middle the section canvas
-beside the plots (tabs: stresses over the depth, actions along the member); below them
-the results and the alternatives.
+beside the plots (tabs: stresses over the depth, actions along the member), under them
+the elevation of the member (a click there picks the station whose section the canvas
+and the stress plot show); below them the results and the alternatives.
 
 Undo and redo (Ctrl+Z, Ctrl+Shift+Z or Ctrl+Y) act on the project wherever the focus is:
 a text field with an entry not yet committed commits it first (so Ctrl+Z then takes the
@@ -40,6 +41,7 @@ from plystack.app.beam_panel import BeamPanel, default_beam
 from plystack.app.canvas import SectionCanvas
 from plystack.app.dialogs import MaterialsDialog, NewSectionDialog, SheetDialog
 from plystack.app.document import Document
+from plystack.app.elevation import ElevationView, segment_caption
 from plystack.app.icons import app_icon
 from plystack.app.plots import DiagramPlot, ProfilePlot
 from plystack.app.ply_panel import PlyPanel
@@ -77,6 +79,9 @@ class MainWindow(FileActions, ToolActions, QMainWindow):
         self.analysis_model = AnalysisModel(self.document)
         self.settings = QSettings("Plystack", "Plystack")
         self.canvas = SectionCanvas(self.document, self.analysis_model)
+        self.elevation = ElevationView(self.document, self.analysis_model, self.canvas)
+        self.section_caption = plain_label(segment_caption(self.analysis_model),
+                                           word_wrap=False)
         self.ply_panel = PlyPanel(self.document)
         self.beam_panel = BeamPanel(self.document, self.analysis_model)
         self.results = ResultsPanel(self.settings)
@@ -93,6 +98,9 @@ class MainWindow(FileActions, ToolActions, QMainWindow):
         self.statusBar().showMessage("Drag on the section to draw a ply; click a ply to "
                                      "select it.")
         self.canvas.status.connect(self.statusBar().showMessage)
+        self.elevation.status.connect(self.statusBar().showMessage)
+        self.elevation.ply_picked.connect(self.canvas.select)
+        self.analysis_model.station_changed.connect(self._station_changed)
         reporter().message.connect(self.statusBar().showMessage)
         self.canvas.selection_changed.connect(self.ply_panel.set_index)
         self.ply_panel.table.picked.connect(self.canvas.select)
@@ -132,14 +140,22 @@ class MainWindow(FileActions, ToolActions, QMainWindow):
         top.addWidget(self.canvas)
         top.addWidget(plot_box)
         top.setSizes([480, 520])
+        shown = QWidget()  # the section and its plots, under the line naming the section
+        sl = QVBoxLayout(shown)
+        sl.setContentsMargins(0, 0, 0, 0)
+        sl.setSpacing(2)
+        self.section_caption.setStyleSheet("color: #00509e;")
+        sl.addWidget(self.section_caption)
+        sl.addWidget(top, 1)
         self.right_tabs = QTabWidget()
         self.right_tabs.addTab(self.results, "Results")
         self.right_tabs.addTab(self.alternatives, "Alternatives")
         self.right_tabs.currentChanged.connect(lambda _i: self._refresh_alternatives())
         centre = QSplitter(Qt.Orientation.Vertical)
-        centre.addWidget(top)
+        centre.addWidget(shown)
+        centre.addWidget(self.elevation)
         centre.addWidget(self.right_tabs)
-        centre.setSizes([420, 330])
+        centre.setSizes([400, 260, 280])
         main = QSplitter(Qt.Orientation.Horizontal)
         main.addWidget(panels)
         main.addWidget(centre)
@@ -310,11 +326,18 @@ class MainWindow(FileActions, ToolActions, QMainWindow):
         if self.right_tabs.currentWidget() is self.alternatives:
             self.alternatives.refresh()
 
+    @guarded("Showing the station")
+    def _station_changed(self) -> None:
+        """Another station picked on the elevation: its section in the stress plot."""
+        self.section_caption.setText(segment_caption(self.analysis_model))
+        self._redraw_plots()
+
     @guarded("Drawing the plots")
     def _redraw_plots(self) -> None:
         name = self.combo_pick.currentText()
         pick = None if name == "governing combination" else name
-        self.profiles.update_from(self.analysis, pick)
+        self.section_caption.setText(segment_caption(self.analysis_model))
+        self.profiles.update_from(self.analysis_model.shown_analysis(), pick)
         self.diagrams.update_from(self.analysis, pick)
 
     # --- edits ------------------------------------------------------------------------

@@ -229,7 +229,7 @@ class ProfilePlot(BlitCanvas):
         k = to_display(1.0, "length", u)
         ks = to_display(1.0, "stress", u)
         plies = [i for i in range(len(s.plies)) if s.area[i] > 0]
-        mats = [a.project.plies[i].material for i in range(len(s.plies))]
+        mats = [s.plies[i].material for i in range(len(s.plies))]  # a segment's own
         kind_of = [s.materials[i].kind if s.materials[i].kind in KIND_COLOURS else "other"
                    for i in range(len(s.plies))]
         kinds = tuple(kd for kd in KIND_COLOURS if any(kind_of[i] == kd for i in plies))
