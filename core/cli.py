@@ -329,7 +329,8 @@ def cmd_plates(args: argparse.Namespace) -> int:
     for plate, path in zip(plates.plates, written, strict=False):
         print(f'wrote {path}: {plate.mark}, "{plain(plate.ply_name)}", {len(plate.holes)} '
               "holes")
-    print(f"wrote {written[-1]}: {len(plates.plates)} plates")
+    n = len(plates.plates)
+    print(f"wrote {written[-1]}: {n} plate{'' if n == 1 else 's'}")
     if plates.verdict != "OK":
         print(f"{args.file}: {plates.verdict_note} (see plystack check)", file=sys.stderr)
     return 0
