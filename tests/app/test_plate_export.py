@@ -33,15 +33,15 @@ def test_menu_writes_the_drawings_and_the_cut_list(window, qtbot, tmp_path):
 
 
 def test_the_plies_on_screen_are_drawn(window, qtbot, tmp_path):
-    """An edit of the plate's thickness is what the cut list holds."""
+    """An edit of the plate's depth is what the cut list holds."""
     p = window.document.project
     plies = list(p.plies)
-    plies[1] = replace(plies[1], width=0.5 * 0.0254)
-    window.document.apply(p.with_plies(tuple(plies)), "thicker plate")
+    plies[1] = replace(plies[1], height=8.25 * 0.0254)
+    window.document.apply(p.with_plies(tuple(plies)), "shallower plate")
     assert window.export_plates(tmp_path)
     with (tmp_path / "cut-list.csv").open(encoding="utf-8", newline="") as fh:
         (row,) = list(csv.DictReader(fh))
-    assert row["thickness (in)"] == "0.5"
+    assert row["width (in)"] == "8.25"
 
 
 def test_cancel_writes_nothing(window, qtbot, tmp_path):
