@@ -178,3 +178,41 @@ def test_stations_given_unevenly_are_described_as_detailed():
         stations=["1 ft", "2 ft", "5 ft", "9 ft", "11 ft"], stagger=True,
         rows=["2 in", "4.625 in", "7.25 in"]))))
     assert member_description(a).endswith("1/2 in dia bolts as detailed, 3 rows staggered")
+
+
+LAYOUTS = {
+    "cantilever": lambda d: d["beam"].update(supports="cantilever", spans=["6 ft"]),
+    "three spans with overhangs": lambda d: d["beam"].update(
+        spans=["8 ft", "10 ft", "8 ft"], overhang_left="2 ft", overhang_right="1 ft"),
+    "fixed-fixed": lambda d: d["beam"].update(supports="fixed-fixed"),
+    "two plates, three timbers": lambda d: d.update(plies=[
+        d["plies"][0], d["plies"][1], d["plies"][2],
+        {**d["plies"][1], "name": "plate 2", "x": "3 3/8 in"},
+        {**d["plies"][0], "name": "third <2x10> & co", "x": "3.75 in"}]),
+    "cover plate, no bolts": lambda d: (d.update(plies=[
+        {"name": "joist", "material": "DFL-No2", "x": "0 in", "y": "0 in", "width": "1.5 in",
+         "height": "9.25 in"},
+        {"name": "cover", "material": "A36", "x": "0 in", "y": "9.25 in", "width": "1.5 in",
+         "height": "1/4 in"}]),
+        d["design"].update(connector={"type": "screw", "allowable": "300 lbf", "rows": 2})),
+    "many point loads": lambda d: d["beam"]["loads"].extend(
+        [{"case": "S", "type": "point", "value": "50 lbf", "at": f"{k / 2} ft"}
+         for k in range(1, 24)]),
+}
+
+
+@pytest.mark.parametrize("layout", sorted(LAYOUTS))
+def test_sheet_builds_for_other_layouts_with_a_detail_per_plate(layout):
+    """Every support kind, several spans, two plates, none, markup characters in a name."""
+    p = from_dict(_demo(US, LAYOUTS[layout]))
+    buf = io.BytesIO()
+    build_sheet(p, buf)
+    text = " ".join(" ".join(pg.extract_text().split())
+                    for pg in PdfReader(io.BytesIO(buf.getvalue())).pages)
+    a = run(p)
+    plates = plate_layouts(a)
+    assert "Member elevation" in text and "8 Plate details and bolt schedule" in text
+    for k, (jt, _lay) in enumerate(plates, start=1):
+        assert f"Steel plate “{a.section.plies[jt.steel].name}” (bolts B{k})" in text
+    if not plates:
+        assert "no steel plate bolted to timbers beside it" in text
