@@ -12,6 +12,7 @@ from __future__ import annotations
 
 import json
 import math
+from dataclasses import replace
 from pathlib import Path
 
 import pytest
@@ -408,3 +409,34 @@ def test_supports_loads_and_openings_are_drawn_one_item_each(short_plate):
     # hand: the hole's centre 6 ft along and 4 5/8 in up, 1 in across
     assert f.x_m(hole.center().x()) == pytest.approx(6 * FT, abs=1e-9)
     assert hole.width() == pytest.approx(1 * IN / f.length * f.width, abs=1e-9)
+
+
+def test_plies_that_leave_a_stretch_empty_draw_and_pick_without_a_crash(qtbot, tmp_path):
+    data = json.loads(DEMO.read_text(encoding="utf-8"))
+    for ply in data["plies"]:
+        ply["from"] = "2 ft"  # nothing from 0 to 2 ft: the analysis names the problem
+    path = tmp_path / "gap.plystack.json"
+    path.write_text(json.dumps(data), encoding="utf-8")
+    w = open_window(qtbot, path)
+    assert w.analysis is None and "no ply runs" in (w.analysis_model.error or "")
+    view = w.elevation
+    f = view.frame
+    assert len(view.drawing.bars.items) == 3 and not view.drawing.bolt_items.items
+    drag(view, view_point(view, f.x_px(1 * FT), f.member_top + 3), [])
+    assert w.analysis_model.station is not None
+    assert w.analysis_model.shown_plies() is None  # no segment to show: every ply drawn
+    assert canvas_plies(w) == {0, 1, 2}
+
+
+def test_a_project_without_a_beam_draws_an_empty_elevation(qtbot):
+    from plystack.app.main_window import MainWindow
+    from plystack.core.io.project_file import load
+
+    w = MainWindow(replace(load(DEMO), beam=None), None)
+    qtbot.addWidget(w)
+    w.show()
+    qtbot.waitExposed(w)
+    assert w.elevation.frame is None
+    assert not w.elevation.drawing.bars.items
+    QTest.mouseClick(w.elevation.viewport(), LEFT, NONE, QPoint(50, 50))
+    assert w.analysis_model.station is None
