@@ -116,26 +116,25 @@ def splitting_checks(section: Section, joint: Joint, site: SplitSite, design: De
         D = design.bolt.diameter
         d_e = min(h_e + D / 2, h)
         near_end = min(min(x, length - x) for x in site.stations) < 5 * h
-        f = {"2/3": 2 / 3, "b d_e": b * d_e}
-        if near_end:
-            f["(d_e/d)^2"] = (d_e / h) ** 2
+        V_r = 2 / 3 * Fv * b * d_e
+        f = {"(d_e/d)^2": (d_e / h) ** 2} if near_end else {}
         demand = abs(site.force) * _share(section, joint, j)
         out.append(Check(
             id="splitting", ply=name, combination=combination, demand=demand,
-            capacity=capacity_from(Fv, f), quantity="force", reference=("F'v", Fv),
-            factors=f, partial_factors={},
-            sources={"F'v": "the timber's adjusted shear value under the combination (its "
-                     "shear check)", "2/3": "NDS 2018 3.4.3.3 (from memory)",
-                     "b d_e": "NDS 2018 3.4.3.3: d_e = d less the distance from the unloaded "
-                     "edge to the nearest edge of the nearest bolt (from memory)",
+            capacity=capacity_from(V_r, f), quantity="force",
+            reference=("(2/3) F'v b d_e", V_r), factors=f, partial_factors={},
+            sources={"(2/3) F'v b d_e": "NDS 2018 3.4.3.3 (from memory): F'v the timber's "
+                     "adjusted shear value under the combination (its shear check), d_e = d "
+                     "less the distance from the unloaded edge to the nearest edge of the "
+                     "nearest bolt",
                      **({"(d_e/d)^2": "NDS 2018 3.4.3.3(a): connection less than 5d from "
                          "the end of the member (from memory)"} if near_end else {})},
             equation=("V <= (2/3) F'v b d_e (d_e / d)^2" if near_end
                       else "V <= (2/3) F'v b d_e"),
             location=where, x=site.x,
-            notes=(f"d = {fmt(h, 'length', system)}, d_e = {fmt(d_e, 'length', system)}, "
-                   f"b = {fmt(b, 'length', system)}; V = the whole force into this timber "
-                   "(conservative).",)))
+            notes=(f"F'v = {fmt(Fv, 'stress', system)}, d = {fmt(h, 'length', system)}, "
+                   f"d_e = {fmt(d_e, 'length', system)}, b = {fmt(b, 'length', system)}; "
+                   "V = the whole force into this timber (conservative).",)))
     return out
 
 

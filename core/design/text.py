@@ -16,7 +16,7 @@ def governing_per_group(checks: tuple[Check, ...] | list[Check]) -> list[Check]:
     """For each (id, ply, location), the check with the highest ratio, highest first."""
     best: dict[tuple[str, str | None, str], Check] = {}
     for c in checks:
-        by_place = c.id.startswith(("deflection", "bearing", "load-transfer"))
+        by_place = c.id.startswith(("deflection", "bearing", "load-transfer", "splitting"))
         key = (c.id, c.ply, c.location if by_place else "")
         if key not in best or c.ratio > best[key].ratio:
             best[key] = c
@@ -34,7 +34,7 @@ def checks_text(checks: tuple[Check, ...], system: str, verdict: str | None = No
     for c in governing_per_group(checks):
         kind = QUANTITY_KIND[c.quantity]
         where = c.ply or c.location
-        if c.ply and c.location and c.id in ("bearing", "load-transfer"):
+        if c.ply and c.location and c.id in ("bearing", "load-transfer", "splitting"):
             where = f"{c.location}: {c.ply}"
         lines.append(f"  {c.id:<22}{where[:25]:<26}{(c.combination or '')[:25]:<26}"
                      f"{fmt(c.demand, kind, system):>18}{fmt(c.capacity, kind, system):>18}"

@@ -23,6 +23,7 @@ from ..actions.beam import CaseSolution, element_polynomials
 from ..actions.patterns import region_parts
 from ..design.bearing import bearing_sites, bearing_surface, en_effective_length
 from ..design.check import Check
+from ..design.common import side_by_side_joints
 from ..design.demands import PlyDemand, eu_uls_section, ply_demands
 from ..model.combination import EN1990_PSI
 from ..pipeline import Analysis
@@ -164,7 +165,12 @@ def derive(a: Analysis, c: Check) -> Derivation:
         where, demand = _shear(a, c, u)
     elif c.id == "load-transfer" and c.location.startswith("end of"):
         # a plate's end inside the member: the bolt group's statics are in the notes
-        where, demand = [c.equation, *c.notes], f"demand = n f_max = {result(c, u)}"
+        n = c.factors["n"]
+        where = [c.equation, *c.notes]
+        demand = (f"P_t = n f_max = {num(n, IN)} {TIMES} {q(c.demand / n, 'force', u, IN)} "
+                  f"= {result(c, u)}")
+    elif c.id == "splitting":
+        where, demand = _splitting(a, c, u)
     elif c.id == "load-transfer":
         where, demand = transfer_text(a, c, u)
     elif c.id in ("bolt-spacing", "bolt-edge", "bolt-end"):
@@ -186,6 +192,23 @@ def derive(a: Analysis, c: Check) -> Derivation:
         return Derivation(bolt.where, bolt.demand, capacity_line(a, c, u), ratio_line(c, u),
                           bolt.table, bolt.shared)
     return Derivation(tuple(where), demand, capacity_line(a, c, u), ratio_line(c, u))
+
+
+def _splitting(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
+    """A ``splitting`` check: the force of the site and this timber's share of it (E b
+    among the timbers of the joint, as ``design.splitting`` shares it).
+    """
+    s = a.section
+    j = next(k for k, p in enumerate(s.plies) if p.name == c.ply)
+    joint = next(jt for jt in side_by_side_joints(s) if j in jt.timbers)
+    weights = {k: float(s.E[k]) * s.plies[k].width for k in joint.timbers}
+    share = weights[j] / sum(weights.values())
+    sym = "V" if a.design.us else "F_v,Ed"
+    where = [c.equation, *c.notes,
+             f"Share of this timber: E b / Σ E b = {num(share, IN)}"]
+    demand = (f"{sym} = F s = {q(c.demand / share, 'force', u, IN)} {TIMES} {num(share, IN)} "
+              f"= {result(c, u)}")
+    return where, demand
 
 
 def _kind(c: Check) -> str:

@@ -99,3 +99,37 @@ def test_hole_close_to_an_edge_is_named():
     a = run(from_dict(d))
     assert any(w.path == "beam.holes[0]" and "common practice" in w.message
                for w in a.warnings)
+
+
+def test_eu_notch_end_to_end_through_a_project_file(tmp_path):
+    """EU basis, end to end: a project file written to disk, read and checked. Two C24
+    timbers 45 x 220 mm side by side, 4 m simple span, 1 kN/m G and 2 kN/m Q, a 40 mm deep,
+    100 mm long notch on the bottom face at support 1. By hand (EN 1995-1-1 6.5.2, (6.60)
+    and (6.62), from memory): V = w L / 2 with w = 1.35 x 1 + 1.5 x 2 kN/m (EN 1990 (6.10));
+    tau_d = 1.5 V / (b h_ef), b = 90 mm, h_ef = 180 mm; alpha = 180 / 220, x = 100 mm from
+    the reaction at the member's end to the notch corner; k_v = min(1, k_n / (sqrt(h)
+    (sqrt(alpha (1 - alpha)) + 0.8 (x / h) sqrt(1 / alpha - alpha^2)))), k_n = 5 (solid
+    timber), h in mm; f_v,d = k_mod k_cr f_v,k / gamma_M = 0.8 x 0.67 x 4.0 MPa / 1.3
+    (Table 3.1, 6.1.7(2), EN 338 C24, Table 2.3, all from memory)."""
+    from plystack.core.io.project_file import load
+    from tests.validation.test_splitting import _eu
+
+    d = _eu([])
+    d["plies"].pop(1)
+    d["plies"][1]["x"] = "45 mm"
+    d["design"].pop("bolt")
+    d["beam"]["notches"] = [{"at": "support 1", "face": "bottom", "depth": "40 mm",
+                             "length": "100 mm"}]
+    path = tmp_path / "notched.plystack.json"
+    path.write_text(json.dumps(d), encoding="utf-8")
+    a = run(load(path))
+    c = next(k for k in a.checks if k.id == "shear-notch"
+             and k.combination == "ULS 1.35G + 1.5Q[L]")
+    V = (1.35 * 1000 + 1.5 * 2000) * 4 / 2
+    assert c.demand == pytest.approx(1.5 * V / (0.090 * 0.180), rel=1e-9)
+    h, alpha, x = 220.0, 180 / 220, 100.0
+    k_v = min(1.0, 5 / (math.sqrt(h) * (math.sqrt(alpha * (1 - alpha))
+                                        + 0.8 * x / h * math.sqrt(1 / alpha - alpha**2))))
+    assert c.factors["k_v"] == pytest.approx(k_v, rel=1e-12)
+    assert c.capacity == pytest.approx(k_v * 0.8 * 0.67 * 4.0e6 / 1.3, rel=1e-9)
+    assert c.ok
