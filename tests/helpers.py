@@ -23,3 +23,21 @@ def steel(mid: str = "steel", E: float = 200e9, density: float = 7850.0, **value
 
 def rect(name: str, material: str, x: float, y: float, w: float, h: float) -> Ply:
     return Ply(name, material, x, y, w, h)
+
+
+def unit_load_deflection(L, w, pieces, x0) -> float:
+    """delta(x0) of a simple span under a uniform load w, by virtual work (the unit-load
+    method: delta = integral of M m / EI(x) dx, any structural analysis text), integrated
+    exactly by sympy over the piecewise stiffness; pieces: (a, b, EI).
+    """
+    import sympy as sp
+
+    x = sp.symbols("x")
+    M = w * x * (L - x) / 2
+    m = sp.Piecewise((x * (L - x0) / L, x <= x0), (x0 * (L - x) / L, True))
+    total = 0
+    for a, b, EI in pieces:
+        for lo, hi in ((a, min(b, x0)), (max(a, x0), b)):
+            if hi > lo:
+                total += sp.integrate(M * m / EI, (x, lo, hi))
+    return float(total)

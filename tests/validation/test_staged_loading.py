@@ -16,6 +16,7 @@ from plystack.core.io.output import check_json
 from plystack.core.io.project_file import from_dict
 from plystack.core.model.constants import INCH, LBF
 from plystack.core.pipeline import run
+from tests.helpers import unit_load_deflection
 
 FT = 12 * INCH
 PLF = LBF / FT
@@ -149,19 +150,6 @@ def _stepped(shored: bool = False, supports: str = "simple") -> dict:
     return d
 
 
-def _virtual_work(L, w, pieces, x0):
-    import sympy as sp
-    x = sp.symbols("x")
-    M = w * x * (L - x) / 2
-    m = sp.Piecewise((x * (L - x0) / L, x <= x0), (x0 * (L - x) / L, True))
-    total = 0
-    for a, b, EI in pieces:
-        for lo, hi in ((a, min(b, x0)), (max(a, x0), b)):
-            if hi > lo:
-                total += sp.integrate(M * m / EI, (x, lo, hi))
-    return float(total)
-
-
 def test_stepped_and_staged_timber_stress_by_segment_by_hand():
     """Simple span, so both stages' moments are the statics' w x (L - x) / 2 whatever the
     stiffness. Middle segment: f = M1 c / I_joist + M2 c / I_t at midspan; end segment
@@ -181,7 +169,7 @@ def test_stepped_and_staged_timber_stress_by_segment_by_hand():
     assert bend[0].x == pytest.approx(x, rel=1e-9)
 
 
-def test_stepped_and_staged_deflection_against_virtual_work():
+def test_stepped_and_staged_deflection_againstunit_load_deflection():
     """Before-stage (40 plf) on the joist alone (prismatic: 5 w L^4 / 384 EI); after-stage
     (100 plf) on the stepped EI, joist alone beyond the plate. Long-term (US, D wholly
     sustained): the before-stage on EI_joist / K_cr, the after-stage short-term."""
@@ -201,12 +189,12 @@ def test_stepped_and_staged_deflection_against_virtual_work():
     w2 = sp.Float(100 * PLF, 30)
     Lf = 15 * FT
     before = 5 * w1 * Lf**4 / (384 * EI_j)
-    ref = before + _virtual_work(L, w2, after, L / 2)
+    ref = before + unit_load_deflection(L, w2, after, L / 2)
     tot = [c for c in a.checks if c.id == "deflection-total" and c.combination == "D + L"]
     assert tot[0].demand == pytest.approx(ref, rel=1e-9)
     K = a.beam.creep_factor
     lt = [c for c in a.checks if c.id == "deflection-long-term" and c.combination == "D + L"]
-    assert lt[0].demand == pytest.approx(before * K + _virtual_work(L, w2, after, L / 2),
+    assert lt[0].demand == pytest.approx(before * K + unit_load_deflection(L, w2, after, L / 2),
                                          rel=1e-9)
 
 

@@ -24,6 +24,7 @@ from plystack.core.io.project_file import from_dict
 from plystack.core.model.constants import INCH
 from plystack.core.model.member import BeamLayout, Load
 from plystack.core.pipeline import run
+from tests.helpers import unit_load_deflection
 
 DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
 FT = 12 * INCH
@@ -44,19 +45,6 @@ def _demo(plate_from: str | None, plate_to: str | None, self_weight: bool = Fals
     return d
 
 
-def _unit_load_deflection(L, w, pieces, x0):
-    """delta(x0) of a simple span under uniform w by virtual work; pieces: (a, b, EI)."""
-    x = sp.symbols("x")
-    M = w * x * (L - x) / 2
-    m = sp.Piecewise((x * (L - x0) / L, x <= x0), (x0 * (L - x) / L, True))
-    total = 0
-    for a, b, EI in pieces:
-        for lo, hi in ((a, min(b, x0)), (max(a, x0), b)):
-            if hi > lo:
-                total += sp.integrate(M * m / EI, (x, lo, hi))
-    return float(total)
-
-
 def test_stepped_simple_span_deflection_against_virtual_work():
     L, w = sp.Rational(53, 10), sp.Integer(1750)
     EI_end, EI_mid = sp.Integer(2_000_000), sp.Integer(5_000_000)
@@ -72,7 +60,7 @@ def test_stepped_simple_span_deflection_against_virtual_work():
         e = min(e, model.lengths.size - 1)
         poly = element_polynomials(model, sol, 1.0)[e]["w"]
         ours = float(np.polyval(poly, float(x0) - model.nodes[e]))
-        ref = _unit_load_deflection(L, w, pieces, x0)
+        ref = unit_load_deflection(L, w, pieces, x0)
         assert ours == pytest.approx(ref, rel=1e-9)
 
 
@@ -128,8 +116,8 @@ def test_stepped_member_midspan_deflections_short_and_long_term():
     creep_full = a.segments[1].beam.creep_section.EI
     long_ = [(0, cut1, sp.Float(bare.EI / K, 30)), (cut1, cut2, sp.Float(creep_full, 30)),
              (cut2, L, sp.Float(bare.EI / K, 30))]
-    ref_short = _unit_load_deflection(L, w_D, short, L / 2)
-    ref_long = _unit_load_deflection(L, w_D, long_, L / 2)
+    ref_short = unit_load_deflection(L, w_D, short, L / 2)
+    ref_long = unit_load_deflection(L, w_D, long_, L / 2)
     tot = [c for c in a.checks if c.id == "deflection-total" and c.combination == "D"]
     lt = [c for c in a.checks if c.id == "deflection-long-term" and c.combination == "D"]
     assert tot[0].demand == pytest.approx(ref_short, rel=1e-9)
