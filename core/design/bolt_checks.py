@@ -19,7 +19,7 @@ from .bolt_geometry import geometry_checks, layout_factors
 from .bolt_layout import BoltLayout, layout_of
 from .check import Check, Fasteners, capacity_from
 from .common import STOCK_SPACINGS_SI, STOCK_SPACINGS_US, Joint, plate_share
-from .net_section import net_checks
+from .net_section import net_checks, net_shear_checks
 from .splitting import SplitSite, shear_capacities, splitting_checks
 from .transfer import (
     StationDemand,
@@ -112,7 +112,8 @@ def governing_station(demands: list[StationDemand]) -> StationDemand:
 def plate_bolt_checks(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
                       value: BoltValue, system: str, gross: list[Check]) -> list[Check]:
     """The ``bolts`` and ``load-transfer`` checks of one plate, the geometry of its layout
-    and the bending on the net section at its holes (from the ``gross`` bending checks).
+    and the bending and the timbers' shear on the net section at its holes (from the
+    ``gross`` bending and shear checks).
     """
     combos = beam.strength() or beam.combinations
     layout = plate_layout(section, beam, design, joint, value, combos, system)
@@ -126,6 +127,7 @@ def plate_bolt_checks(section: Section, beam: BeamResult, design: DesignSpec, jo
                                                          if k in value.sources}})
     out: list[Check] = geometry_checks(section, joint, layout, design, L, system)
     out += net_checks(section, joint, layout, design, gross)
+    out += net_shear_checks(section, joint, layout, design, beam, gross, system)
     for combo in beam.strength():
         f = value.adjusted(combo, geo)
         items = transfers(section, beam, combo, design, layout, share)

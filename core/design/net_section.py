@@ -13,6 +13,17 @@ Demand: the ply's gross bending demand (its ``bending`` check of the combination
 the loss of section modulus at the station where the holes reduce it most,
 (c' / I_t,net) / (c / I_t): the holes are taken at the point of the largest moment
 (conservative where no station is there).
+
+Shear on the net section at the holes (check id ``shear``, located "net section at the
+bolt holes"), NDS 2018 3.1.2 / EN 1995-1-1 5.1(2) (from memory): in each timber of the
+joint, f_v = |V| n_i Q_i,net / (I_t,net b_i), with I_t,net the transformed net section
+of the station (above) and Q_i,net the first moment about its neutral axis of the part of
+the timber's net area beyond the cut (its holes taken out), at the net neutral axis and at
+each hole's edge, the largest governing; b_i the timber's width (a cut at a hole's edge
+passes through the whole width). V is the combination's largest |V| (conservative: at
+least the shear at any bolt station, the stations nearest the supports included), the
+station the one whose holes give the largest stress; the capacity that of the timber's
+own shear check (F'v, or f_v,d with k_cr).
 """
 
 from __future__ import annotations
@@ -21,8 +32,10 @@ from dataclasses import dataclass, replace
 
 import numpy as np
 
+from ..actions.analysis import BeamResult
 from ..model.constants import INCH
 from ..model.design import DesignSpec
+from ..model.units import fmt
 from ..section.transformed import Section
 from .bolt_layout import BoltLayout
 from .check import Check
@@ -157,4 +170,135 @@ def net_checks(section: Section, joint: Joint, layout: BoltLayout, design: Desig
                        f"(hole diameter {d_hole * 1000:.4g} mm): I_t,net = {net.I_t:.6g} m^4, "
                        f"neutral axis y = {net.y_na:.6g} m; section modulus loss "
                        f"{loss:.5g}; holes taken at the largest moment (conservative).",)))
+    return out
+
+
+@dataclass(frozen=True)
+class NetShear:
+    """The largest shear stress of one timber on the net section of one station.
+
+    Attributes:
+        station: the station's index.
+        y: height of the governing cut, m.
+        Q: the timber's own first moment of its net area beyond the cut about the net
+            neutral axis, m^3 (magnitude).
+        b: the timber's width at the cut, m.
+        n: E_i / E_ref of the timber.
+        I_t: transformed second moment of the net section, m^4.
+
+    """
+
+    station: int
+    y: float
+    Q: float
+    b: float
+    n: float
+    I_t: float
+
+    @property
+    def unit(self) -> float:
+        """Shear stress per newton of V, Pa per N: n Q / (I_t b)."""
+        return self.n * self.Q / (self.I_t * self.b)
+
+
+def _solid(lo: float, hi: float, bands: list[tuple[float, float]]) -> list[tuple[float, float]]:
+    """The parts of [lo, hi] outside the (sorted, disjoint) hole bands."""
+    out, y = [], lo
+    for a, b in bands:
+        if b <= y or a >= hi:
+            continue
+        if a > y:
+            out.append((y, a))
+        y = max(y, b)
+    if y < hi:
+        out.append((y, hi))
+    return out
+
+
+def _bands(lo: float, hi: float, heights: tuple[float, ...],
+           d_hole: float) -> list[tuple[float, float]]:
+    """The hole bands inside [lo, hi], sorted, overlapping ones merged."""
+    out: list[tuple[float, float]] = []
+    for y in sorted(heights):
+        a, b = max(lo, y - d_hole / 2), min(hi, y + d_hole / 2)
+        if b <= a:
+            continue
+        if out and a <= out[-1][1]:
+            out[-1] = (out[-1][0], max(out[-1][1], b))
+        else:
+            out.append((a, b))
+    return out
+
+
+def net_shear(section: Section, i: int, net: NetSection, d_hole: float) -> NetShear:
+    """Timber i's largest shear stress per unit V on the net section ``net`` (a
+    rectangle with its holes taken out; see the module docstring). Cuts above the net
+    neutral axis take the part above, cuts below it the part below; at the neutral axis
+    both are taken and the larger kept.
+    """
+    ply = section.plies[i]
+    lo, hi, b, y0 = ply.y, ply.top, ply.width, net.y_na
+    bands = _bands(lo, hi, net.holes, d_hole)
+
+    def first_moment(a: float, c: float) -> float:
+        return sum(b * (t - s) * ((s + t) / 2 - y0) for s, t in _solid(a, c, bands))
+
+    cuts: list[tuple[float, float]] = []
+    if lo < y0 < hi and not any(a < y0 < c for a, c in bands):
+        cuts += [(y0, first_moment(y0, hi)), (y0, -first_moment(lo, y0))]
+    for a, c in bands:
+        for y in (a, c):
+            if lo < y < hi:
+                cuts.append((y, first_moment(y, hi) if y >= y0 else -first_moment(lo, y)))
+    y, Q = max(cuts, key=lambda t: abs(t[1])) if cuts else (y0, 0.0)
+    return NetShear(net.station, y, abs(Q), b, float(section.E[i]) / section.E_ref, net.I_t)
+
+
+def net_shear_checks(section: Section, joint: Joint, layout: BoltLayout, design: DesignSpec,
+                     beam: BeamResult, gross: list[Check], system: str) -> list[Check]:
+    """A ``shear`` check of each timber of the joint on the net section at its bolt holes
+    under every combination of its own shear check (see the module docstring).
+    """
+    d_hole = hole_diameter(design)
+    nets = [net_section(section, joint, layout, k, d_hole) for k in range(len(layout.stations))]
+    supports = beam.model.layout.support_positions()
+    plate = section.plies[joint.steel].name
+
+    def to_support(k: int) -> float:
+        return min(abs(layout.stations[k] - s) for s in supports)
+
+    out = []
+    for i in joint.timbers:
+        name = section.plies[i].name
+        found = [net_shear(section, i, net, d_hole) for net in nets]
+        if not found:
+            continue
+        top = max(f.unit for f in found)
+        gov = min((f for f in found if f.unit >= top * (1 - 1e-12)),
+                  key=lambda f: to_support(f.station))
+        x = layout.stations[gov.station]
+        where = fmt(x, "span", system)
+        holes = ", ".join(fmt(y, "length", system) for y in nets[gov.station].holes)
+        for combo in beam.strength():
+            own = next((c for c in gross if c.id == "shear" and c.ply == name
+                        and c.combination == combo.name and c.location == ""
+                        and c.segment is None), None)
+            if own is None:
+                continue
+            V = combo.extremes.V_max_abs
+            out.append(replace(
+                own, demand=gov.unit * V, x=x,
+                location=f"net section at the bolt holes, station {gov.station + 1} of "
+                         f"{plate} at x = {where}",
+                equation="f_v = |V| n Q_net / (I_t,net b) <= the ply's shear capacity",
+                sources={**own.sources, "net section": (
+                    "NDS 2018 3.1.2 (from memory)" if design.us
+                    else "EN 1995-1-1 5.1(2) (from memory)")},
+                notes=(f"Holes of {plate} at station {gov.station + 1} (x = {where}): "
+                       f"diameter {fmt(d_hole, 'length', system)} at y = {holes}, taken out "
+                       f"of the plate and its timbers; the cut at y = "
+                       f"{fmt(gov.y, 'length', system)} governs (net neutral axis and each "
+                       "hole's edge tried).",
+                       f"|V| = {fmt(V, 'force', system)}: the combination's largest shear "
+                       "(conservative: at least the shear at any bolt station).")))
     return out

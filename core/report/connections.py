@@ -18,7 +18,7 @@ from ..design.bolt_checks import plate_layout
 from ..design.bolt_layout import BoltLayout
 from ..design.check import Check
 from ..design.common import Joint, plate_share, side_by_side_joints
-from ..design.net_section import hole_diameter, modulus_loss, net_section
+from ..design.net_section import hole_diameter, modulus_loss, net_section, net_shear
 from ..design.transfer import (
     StationDemand,
     Transfer,
@@ -230,3 +230,31 @@ def net_text(a: Analysis, c: Check, u: str, sym: str) -> tuple[list[str], str]:
               f"{q(gross.demand, 'stress', u, IN + 2)} {TIMES} {num(loss, IN + 2)} = "
               f"{q(c.demand, 'stress', u)}")
     return where, demand
+
+
+def net_shear_text(a: Analysis, c: Check, u: str, sym: str) -> tuple[list[str], str]:
+    """A timber's shear on the net section at a plate's bolt holes, worked again."""
+    assert a.beam is not None
+    head, _, _x = c.location.rpartition(" at x = ")
+    station, _, plate = head.removeprefix("net section at the bolt holes, ").partition(" of ")
+    jt, layout, _share = plate_setup(a, c, plate)
+    k = int(station.split()[-1]) - 1
+    d_hole = hole_diameter(a.design)
+    net = net_section(a.section, jt, layout, k, d_hole)
+    i = next(j for j, p in enumerate(a.section.plies) if p.name == c.ply)
+    ns = net_shear(a.section, i, net, d_hole)
+    V = combination_of(a, c).extremes.V_max_abs
+    if not math.isclose(ns.unit * V, c.demand, rel_tol=1e-9):
+        raise ValueError("the sheet's net section does not reproduce the check's shear")
+    where = [c.equation, *c.notes,
+             f"Net section: I_t,net = {q(ns.I_t, 'second_moment', u, IN)}, neutral axis y = "
+             f"{q(net.y_na, 'length', u, IN)}; Q_net = {q(ns.Q, 'first_moment', u, IN)} of "
+             f"{c.ply} beyond the cut y = {q(ns.y, 'length', u, IN)}"]
+    return where, shear_demand_text(sym, V, ns.n, ns.Q, ns.I_t, ns.b, u, q(c.demand, "stress",
+                                                                           u))
+
+
+def combination_of(a: Analysis, c: Check) -> CombinationResult:
+    """The combination a check is made under."""
+    assert a.beam is not None
+    return next(cb for cb in a.beam.combinations if cb.name == c.combination)

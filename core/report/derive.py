@@ -33,6 +33,7 @@ from . import slip_text
 from .bolts import bolt_derivation
 from .connections import (
     geometry_text,
+    net_shear_text,
     net_text,
     shear_demand_text,
     support_shear_text,
@@ -161,6 +162,8 @@ def derive(a: Analysis, c: Check) -> Derivation:
         where, demand = _bending(a, c, u)
     elif c.id == "shear" and c.location.startswith("support"):
         where, demand = support_shear_text(a, c, u, _symbols(a, c)[0])
+    elif c.id == "shear" and c.location.startswith("net section at the bolt holes"):
+        where, demand = net_shear_text(a, c, u, _symbols(a, c)[0])
     elif c.id == "shear":
         where, demand = _shear(a, c, u)
     elif c.id == "load-transfer" and c.location.startswith("end of"):
