@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from dataclasses import replace
 
-from PySide6.QtCore import Qt
+from PySide6.QtCore import Qt, Signal
 from PySide6.QtGui import QColor
 from PySide6.QtWidgets import (
     QCheckBox,
@@ -20,6 +20,7 @@ from PySide6.QtWidgets import (
     QLineEdit,
     QPushButton,
     QScrollArea,
+    QSpinBox,
     QStyledItemDelegate,
     QTableWidget,
     QTableWidgetItem,
@@ -29,10 +30,18 @@ from PySide6.QtWidgets import (
 
 from plystack.app.analysis_model import AnalysisModel
 from plystack.app.document import Document
-from plystack.app.quantity import QuantityEdit, parse_entry
+from plystack.app.quantity import BAD_STYLE, QuantityEdit, parse_entry
 from plystack.app.safe import guarded, plain_label, plain_tip
+from plystack.core.io.design_file import _connector_consistent
 from plystack.core.model import units
-from plystack.core.model.design import STEEL_RULES, TEMPERATURES, DesignSpec
+from plystack.core.model.design import (
+    CONNECTOR_TYPES,
+    STEEL_RULES,
+    TEMPERATURES,
+    Connector,
+    DesignSpec,
+)
+from plystack.core.model.errors import Problem
 from plystack.core.model.member import (
     CASES,
     LOAD_TYPES,
@@ -72,6 +81,26 @@ def default_beam(system: str) -> BeamSpec:
     span = 12 * 0.3048 if system == "US" else 3.6
     return BeamSpec(BeamLayout((span,), "simple"), (), True, None,
                     "ASD" if system == "US" else "EN1990")
+
+
+class OptionalQuantityEdit(QuantityEdit):
+    """A :class:`QuantityEdit` that may be left empty: emptying it emits ``cleared``."""
+
+    cleared = Signal()
+
+    def _commit(self) -> None:
+        if not self.text().strip():
+            self._mark("")
+            self.cleared.emit()
+            return
+        super()._commit()
+
+
+#: Connector keys that apply to some types only, with the types they apply to (the file
+#: rules of the design object's connector).
+CONNECTOR_ONLY = {"diameter": ("screw", "bolt", "nail", "lag-screw"),
+                  "spacing_max": ("screw", "bolt", "nail", "lag-screw"),
+                  "predrilled": ("nail",)}
 
 
 class BeamPanel(QWidget):
@@ -117,6 +146,30 @@ class BeamPanel(QWidget):
         self.connector_allowable = QuantityEdit("force", "connector allowable", system, positive)
         self.connector_allowable.setToolTip("Allowable (US) or design (EU) lateral load of one "
                                             "connector, already adjusted")
+        self.connector_type = QComboBox()
+        self.connector_type.addItems(list(CONNECTOR_TYPES))
+        self.connector_type.setToolTip("Fastener of the interfaces between stacked plies "
+                                       "(glue: fully composite)")
+        self.connector_diameter = OptionalQuantityEdit("length", "connector diameter", system,
+                                                       positive)
+        self.connector_diameter.setToolTip("Fastener diameter; with it the slip of the "
+                                           "fasteners is analysed (EN 1995-1-1 Annex B); "
+                                           "empty: fully composite")
+        self.connector_spacing = OptionalQuantityEdit("length", "connector spacing", system,
+                                                      positive)
+        self.connector_spacing.setToolTip("Spacing of the stations along the member (the "
+                                          "smallest where it varies); empty: chosen by "
+                                          "the program")
+        self.connector_spacing_max = OptionalQuantityEdit("length", "connector largest spacing",
+                                                          system, positive)
+        self.connector_spacing_max.setToolTip("Largest spacing where it varies with the "
+                                              "shear force, at most 4 times the spacing; "
+                                              "empty: constant spacing")
+        self.connector_rows = QSpinBox()
+        self.connector_rows.setRange(1, 20)
+        self.connector_rows.setKeyboardTracking(False)
+        self.connector_rows.setToolTip("Connectors at each station, across the width")
+        self.connector_predrilled = QCheckBox("Nails in predrilled holes")
         self.error = plain_label("")
         self.error.setStyleSheet("color: #b00000")
         self.reactions = QTableWidget(0, 0)
@@ -150,6 +203,12 @@ class BeamPanel(QWidget):
         form.addRow("Deflection limit, total L /", self.total_limit)
         form.addRow("Bolt diameter (flitch)", self.bolt_diameter)
         form.addRow("Connector allowable (stacked)", self.connector_allowable)
+        form.addRow("Connector type", self.connector_type)
+        form.addRow("Connector diameter", self.connector_diameter)
+        form.addRow("Connector spacing", self.connector_spacing)
+        form.addRow("Connector largest spacing", self.connector_spacing_max)
+        form.addRow("Connectors per station", self.connector_rows)
+        form.addRow(self.connector_predrilled)
         form.addRow(self.wet)
         form.addRow(self.repetitive)
         form.addRow(self.incised)
@@ -208,6 +267,16 @@ class BeamPanel(QWidget):
         self.connector_allowable.accepted.connect(self._set_connector)
         for edit in (self.bolt_diameter, self.connector_allowable):
             edit.rejected.connect(self.error.setText)
+        self.connector_type.activated.connect(lambda _i: self._set_connector_type(
+            self.connector_type.currentText()))
+        for key in ("diameter", "spacing", "spacing_max"):
+            edit = getattr(self, f"connector_{key}")
+            edit.accepted.connect(lambda v, k=key: self._set_connector_key(k, v))
+            edit.cleared.connect(lambda k=key: self._set_connector_key(k, None))
+            edit.rejected.connect(self.error.setText)
+        self.connector_rows.valueChanged.connect(lambda n: self._set_connector_key("rows", n))
+        self.connector_predrilled.toggled.connect(
+            lambda on: self._set_connector_key("predrilled", on))
         self.loads.cellChanged.connect(self._cell_changed)
         add.clicked.connect(self.add_load)
         remove.clicked.connect(self.remove_load)
@@ -242,7 +311,7 @@ class BeamPanel(QWidget):
         if not self.total_limit.hasFocus():
             self.total_limit.setText(f"{total:g}")
         self.bolt_diameter.set_value(design.bolt.diameter)
-        self.connector_allowable.set_value(design.connector.allowable)
+        self._show_connector(design.connector)
         if beam is not None:
             lay = beam.layout
             if not self.spans.hasFocus():
@@ -260,6 +329,18 @@ class BeamPanel(QWidget):
                 self.combos.setCurrentText("ASD" if design.us else "EN1990")
             self._fill_loads(beam.loads, u)
         self._updating = False
+
+    def _show_connector(self, conn: Connector) -> None:
+        self.connector_allowable.set_value(conn.allowable)
+        self.connector_type.setCurrentText(conn.type)
+        self.connector_diameter.set_value(conn.diameter)
+        self.connector_spacing.set_value(conn.spacing)
+        self.connector_spacing_max.set_value(conn.spacing_max)
+        self.connector_rows.setValue(conn.rows)
+        self.connector_predrilled.setChecked(conn.predrilled)
+        self.connector_predrilled.setEnabled(conn.type in CONNECTOR_ONLY["predrilled"])
+        for key in ("diameter", "spacing_max"):
+            getattr(self, f"connector_{key}").setEnabled(conn.type in CONNECTOR_ONLY[key])
 
     US_ONLY = ("temperature", "steel_rule", "wet", "repetitive", "incised", "braced")
     EU_ONLY = ("service_class",)
@@ -419,6 +500,48 @@ class BeamPanel(QWidget):
     def _set_connector(self, allowable: float) -> None:
         design = self.document.project.design_or_default()
         self._set_design(connector=replace(design.connector, allowable=allowable))
+
+    def _set_connector_type(self, kind: str) -> None:
+        """A new connector type; the keys that do not apply to it (a diameter and a
+        varying spacing for glue, predrilling but for nails) are dropped in the same step.
+        """
+        if self._updating:
+            return
+        conn = self.document.project.design_or_default().connector
+        changes: dict[str, object] = {"type": kind}
+        for key, kinds in CONNECTOR_ONLY.items():
+            if kind not in kinds:
+                changes[key] = False if key == "predrilled" else None
+        self._apply_connector(replace(conn, **changes), None)  # type: ignore[arg-type]
+
+    def _set_connector_key(self, key: str, value: object) -> None:
+        if self._updating:
+            return
+        conn = self.document.project.design_or_default().connector
+        self._apply_connector(replace(conn, **{key: value}), key)  # type: ignore[arg-type]
+
+    def _apply_connector(self, conn: Connector, key: str | None) -> None:
+        """One undoable design edit, or the problems named in place (the project as it
+        was) where the connector's keys do not fit together (the file's rules).
+        """
+        problems: list[Problem] = []
+        _connector_consistent(conn, "design.connector", problems)
+        if problems:
+            message = "; ".join(str(q) for q in problems)
+            self.error.setText(message)
+            edit = getattr(self, f"connector_{key}", None) if key else None
+            typed = edit.text() if isinstance(edit, QuantityEdit) else ""
+            self._updating = True
+            self._show_connector(self.document.project.design_or_default().connector)
+            self._updating = False
+            if isinstance(edit, QuantityEdit):  # keep the entry, marked, to correct it
+                edit.setText(typed)
+                edit.error_text = message
+                edit.setStyleSheet(BAD_STYLE)
+                edit.setToolTip(message)
+            return
+        self.error.setText("")
+        self._set_design(connector=conn)
 
     def _row_load(self, row: int) -> Load:
         u = self.document.project.display_units
