@@ -32,7 +32,7 @@ from plystack.app.analysis_model import AnalysisModel
 from plystack.app.document import Document
 from plystack.app.quantity import BAD_STYLE, QuantityEdit, parse_entry
 from plystack.app.safe import guarded, plain_label, plain_tip
-from plystack.core.io.design_file import _connector_consistent
+from plystack.core.io.design_file import connector_problems
 from plystack.core.model import units
 from plystack.core.model.design import (
     CONNECTOR_TYPES,
@@ -525,7 +525,7 @@ class BeamPanel(QWidget):
         was) where the connector's keys do not fit together (the file's rules).
         """
         problems: list[Problem] = []
-        _connector_consistent(conn, "design.connector", problems)
+        connector_problems(conn, "design.connector", problems)
         if problems:
             message = "; ".join(str(q) for q in problems)
             self.error.setText(message)

@@ -87,7 +87,7 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
     if "connector" in raw:
         kw["connector"] = _read_object(raw["connector"], Connector(), CONNECTOR_FIELDS,
                                        f"{path}.connector", "the connector", problems)
-        _connector_consistent(kw["connector"], f"{path}.connector", problems)
+        connector_problems(kw["connector"], f"{path}.connector", problems)
     if "bolt" in raw:
         kw["bolt"] = _read_bolt(raw["bolt"], f"{path}.bolt", problems)
         _bolt_diameter_in_range(kw["bolt"].diameter, kw.get("basis", "US-ASD"),
@@ -99,7 +99,7 @@ def read_design(raw: Any, path: str, problems: list[Problem]) -> DesignSpec | No
     return DesignSpec(**kw)
 
 
-def _connector_consistent(conn: Connector, path: str, problems: list[Problem]) -> None:
+def connector_problems(conn: Connector, path: str, problems: list[Problem]) -> None:
     """Named problems where the connector's keys do not fit together: glue has no
     diameter, predrilling is a choice for nails only, a varying spacing needs its
     smallest value and at most 4 times it (EN 1995-1-1 Annex B effective spacing, from
