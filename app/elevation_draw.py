@@ -284,14 +284,15 @@ class ElevationDrawing:
         for k, pb in enumerate(plates):
             xs = pb.layout.stations
             y = f.dims_top + 8 + k * f.DIM_ROW
-            chain = [0.0, *xs, f.length]
+            start, end = pb.layout.extent  # end distances from the plate's own ends
+            chain = [start, *xs, end]
             paths[3 * k].setPath(dimension_path([f.x_px(v) for v in chain], y))
             count = f" ({len(xs)} stations, {pb.layout.count} bolts)"
-            pairs = [(0.0, xs[0], "end ", ""), (xs[-1], f.length, "end ", "")]
+            pairs = [(start, xs[0], "end ", ""), (xs[-1], end, "end ", "")]
             if len(xs) > 1:
                 pairs.insert(1, (xs[0], xs[1], "spacing ", count))
             else:
-                pairs[0] = (0.0, xs[0], "end ", count)
+                pairs[0] = (start, xs[0], "end ", count)
             for a, b, what, more in pairs:
                 texts.append((f"{what}{fmt(b - a, 'length', u)}{more}",
                               (f.x_px(a) + f.x_px(b)) / 2, y + 3, 0.5, 0.0))

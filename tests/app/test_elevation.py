@@ -298,10 +298,11 @@ def test_a_failing_end_distance_marks_its_bolts(qtbot, tmp_path):
 
 def test_the_dimensions_name_the_end_distance_and_spacing(short_plate):
     texts = [label.text() for label in short_plate.elevation.drawing.dim_labels.items]
-    # hand: stations at 24 .. 120 in on a 144 in member: 24 in from each end, 24 in apart;
+    # hand: stations at 24 .. 120 in on the plate from 12 in to 132 in: 12 in from each of
+    # the plate's ends (the end distance the bolt-end rule measures), 24 in apart;
     # the rows 4 D = 2 in from the plate's shared height (1/4 in to 9 in) lie 2 1/4 in
     # inside the 2x10s' edges (0 and 9 1/4 in)
-    assert "end 24 in" in texts
+    assert texts.count("end 12 in") == 2 and "end 24 in" not in texts
     assert "spacing 24 in (5 stations, 10 bolts)" in texts
     assert texts.count("edge 2.25 in") == 2
 
