@@ -11,7 +11,7 @@ import numpy as np
 from ..actions.analysis import BeamResult, CombinationResult
 from ..actions.beam import CaseSolution, Extremes, extremes
 from ..model.constants import INCH
-from ..model.design import DesignSpec
+from ..model.design import MECHANICAL_CONNECTORS, DesignSpec
 from ..model.errors import MissingCheck, Problem
 from ..model.units import fmt
 from ..section.gamma import PartialSection
@@ -191,6 +191,15 @@ def connector_checks(section: Section, beam: BeamResult, design: DesignSpec, sys
     if conn.type == "glue":
         warnings.append(glue_line(section, beam, system))
         return []
+    if conn.type in MECHANICAL_CONNECTORS and not any(
+            isinstance(w, MissingCheck) and w.path.startswith("design.connector")
+            for w in warnings):
+        # fully composite overstates the stiffness of plies joined by fasteners that slip
+        warnings.append(MissingCheck(
+            "design.connector.diameter", f"not given: the slip of the {conn.type}s joining "
+            "the stacked plies (EN 1995-1-1 Annex B) is not analysed, and the section taken "
+            "as fully composite overstates their stiffness; give the connector's diameter "
+            "and spacing"))
     combos = list(beam.strength()) or list(beam.combinations)
     V = max(c.extremes.V_max_abs for c in combos)
     worst = max(combos, key=lambda c: c.extremes.V_max_abs)
