@@ -4,7 +4,10 @@ checks, joint layout of side-by-side plies, and stock fastener spacings.
 
 from __future__ import annotations
 
+import weakref
+from collections.abc import Callable
 from dataclasses import dataclass
+from typing import TypeVar
 
 import numpy as np
 
@@ -26,6 +29,25 @@ STOCK_SPACINGS_US = tuple(x * INCH for x in (24, 16, 12, 8, 6, 4, 3, 2))
 STOCK_SPACINGS_SI = tuple(x / 1000 for x in (600, 400, 300, 200, 150, 100, 75, 50))
 
 
+T = TypeVar("T")
+
+#: What is derived once per section (a section is immutable and compared by identity):
+#: its side-by-side joints, its unit shear stresses, its plate-less section. Entries go
+#: with the section.
+_PER_SECTION: weakref.WeakKeyDictionary[Section, dict[str, object]] = (
+    weakref.WeakKeyDictionary())
+
+
+def per_section(section: Section, key: str, make: Callable[[], T]) -> T:
+    """``make()``, computed once per section and key (the result must not be mutated)."""
+    memo = _PER_SECTION.get(section)
+    if memo is None:
+        memo = _PER_SECTION[section] = {}
+    if key not in memo:
+        memo[key] = make()
+    return memo[key]  # type: ignore[return-value]
+
+
 def bending_demand(section: Section, combo: CombinationResult, i: int) -> tuple[float, float]:
     """Largest |stress| at ply i's extreme fibres under the combination's extreme
     moments, and where it occurs. Returns (Pa, x).
@@ -41,13 +63,21 @@ def bending_demand(section: Section, combo: CombinationResult, i: int) -> tuple[
 
 
 def unit_shear_stress(section: Section) -> np.ndarray:
-    """Largest shear stress in each ply for V = 1 N (Pa per N)."""
+    """Largest shear stress in each ply for V = 1 N (Pa per N; read-only, found once per
+    section).
+    """
+    return per_section(section, "unit_shear_stress", lambda: _unit_shear_stress(section))
+
+
+def _unit_shear_stress(section: Section) -> np.ndarray:
     lo = float(section.y_bottom.min())
     hi = float(section.y_top.max())
     ys = np.unique(np.concatenate([np.linspace(lo, hi, 41), section.y_bottom, section.y_top,
                                    [section.neutral_axis_y]]))
     tau = np.abs(section.shear_stress(1.0, ys))
-    return np.asarray(np.nan_to_num(np.nanmax(np.where(np.isfinite(tau), tau, 0.0), axis=1)))
+    out = np.asarray(np.nan_to_num(np.nanmax(np.where(np.isfinite(tau), tau, 0.0), axis=1)))
+    out.setflags(write=False)
+    return out
 
 
 def region_span(name: str, x0: float, x1: float) -> float:
@@ -98,7 +128,26 @@ class Joint:
 
 
 def side_by_side_joints(section: Section) -> list[Joint]:
-    """Find steel plies with timber plies against their vertical faces."""
+    """Find steel plies with timber plies against their vertical faces (found once per
+    section; each call returns a new list).
+    """
+    return list(per_section(section, "joints", lambda: tuple(_joints(section))))
+
+
+def joints_of_timber(section: Section) -> dict[int, tuple[Joint, ...]]:
+    """The side-by-side joints each timber ply belongs to, by ply index (found once per
+    section; not to be mutated).
+    """
+    def make() -> dict[int, tuple[Joint, ...]]:
+        out: dict[int, list[Joint]] = {}
+        for jt in side_by_side_joints(section):
+            for j in jt.timbers:
+                out.setdefault(j, []).append(jt)
+        return {j: tuple(js) for j, js in out.items()}
+    return per_section(section, "joints_of_timber", make)
+
+
+def _joints(section: Section) -> list[Joint]:
     joints = []
     size = section.depth
     tol = size * TOUCH_TOLERANCE

@@ -31,7 +31,7 @@ from ..model.units import fmt
 from ..section.transformed import Section, with_moduli
 from .bolt_layout import BoltLayout
 from .check import Check
-from .common import side_by_side_joints, unit_shear_stress
+from .common import joints_of_timber, per_section, side_by_side_joints, unit_shear_stress
 
 
 def plate_extent(section: Section, i: int, length: float) -> tuple[float, float]:
@@ -239,9 +239,11 @@ def without_plates(section: Section) -> Section:
     """The section with the moduli of its side-by-side plates set to zero: the timbers
     alone, as they carry the shear beside a support the plates do not bear on.
     """
-    plates = {jt.steel for jt in side_by_side_joints(section)}
-    E = np.array([0.0 if i in plates else float(e) for i, e in enumerate(section.E)])
-    return with_moduli(section, E)
+    def make() -> Section:
+        plates = {jt.steel for jt in side_by_side_joints(section)}
+        E = np.array([0.0 if i in plates else float(e) for i, e in enumerate(section.E)])
+        return with_moduli(section, E)
+    return per_section(section, "without_plates", make)
 
 
 def support_shear(beam: BeamResult, combo: CombinationResult, k: int) -> float:
@@ -265,7 +267,7 @@ def support_shear_checks(section: Section, beam: BeamResult, combo: CombinationR
     there). ``shear`` is the ply's ordinary shear check of the combination, whose capacity
     and factors apply.
     """
-    joints = [jt for jt in side_by_side_joints(section) if i in jt.timbers]
+    joints = joints_of_timber(section).get(i, ())
     if not joints:
         return []
     L = beam.model.layout.length
