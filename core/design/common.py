@@ -4,10 +4,7 @@ checks, joint layout of side-by-side plies, and stock fastener spacings.
 
 from __future__ import annotations
 
-import weakref
-from collections.abc import Callable
 from dataclasses import dataclass
-from typing import TypeVar
 
 import numpy as np
 
@@ -21,31 +18,13 @@ from ..section.gamma import PartialSection
 from ..section.geometry import TOUCH_TOLERANCE, near_pairs
 from ..section.transformed import Section
 from .check import Check, CheckId, Fasteners
+from .memo import once
 from .slip import slip_connector_checks
 
 #: Stock spacings tried for fasteners, largest first, at most 24 in / 600 mm (common
 #: practice: the 16 in and 24 in framing modules and their fractions; metric equivalents).
 STOCK_SPACINGS_US = tuple(x * INCH for x in (24, 16, 12, 8, 6, 4, 3, 2))
 STOCK_SPACINGS_SI = tuple(x / 1000 for x in (600, 400, 300, 200, 150, 100, 75, 50))
-
-
-T = TypeVar("T")
-
-#: What is derived once per section (a section is immutable and compared by identity):
-#: its side-by-side joints, its unit shear stresses, its plate-less section. Entries go
-#: with the section.
-_PER_SECTION: weakref.WeakKeyDictionary[Section, dict[str, object]] = (
-    weakref.WeakKeyDictionary())
-
-
-def per_section(section: Section, key: str, make: Callable[[], T]) -> T:
-    """``make()``, computed once per section and key (the result must not be mutated)."""
-    memo = _PER_SECTION.get(section)
-    if memo is None:
-        memo = _PER_SECTION[section] = {}
-    if key not in memo:
-        memo[key] = make()
-    return memo[key]  # type: ignore[return-value]
 
 
 def bending_demand(section: Section, combo: CombinationResult, i: int) -> tuple[float, float]:
@@ -66,7 +45,7 @@ def unit_shear_stress(section: Section) -> np.ndarray:
     """Largest shear stress in each ply for V = 1 N (Pa per N; read-only, found once per
     section).
     """
-    return per_section(section, "unit_shear_stress", lambda: _unit_shear_stress(section))
+    return once(section, "unit_shear_stress", lambda: _unit_shear_stress(section))
 
 
 def _unit_shear_stress(section: Section) -> np.ndarray:
@@ -131,7 +110,7 @@ def side_by_side_joints(section: Section) -> list[Joint]:
     """Find steel plies with timber plies against their vertical faces (found once per
     section; each call returns a new list).
     """
-    return list(per_section(section, "joints", lambda: tuple(_joints(section))))
+    return list(once(section, "joints", lambda: tuple(_joints(section))))
 
 
 def joints_of_timber(section: Section) -> dict[int, tuple[Joint, ...]]:
@@ -144,7 +123,7 @@ def joints_of_timber(section: Section) -> dict[int, tuple[Joint, ...]]:
             for j in jt.timbers:
                 out.setdefault(j, []).append(jt)
         return {j: tuple(js) for j, js in out.items()}
-    return per_section(section, "joints_of_timber", make)
+    return once(section, "joints_of_timber", make)
 
 
 def _joints(section: Section) -> list[Joint]:

@@ -19,6 +19,7 @@ from ..actions.analysis import BeamResult, CombinationResult
 from ..model.combination import EN1990_PSI
 from ..model.design import DesignSpec
 from ..section.transformed import Section, with_moduli
+from .memo import once
 
 
 @dataclass(frozen=True)
@@ -73,9 +74,12 @@ def eu_uls_section(section: Section, beam: BeamResult, combo: CombinationResult,
     variables = {c: f for c, f in combo.combination.factors.items() if c != "D" and f > 0}
     psi2 = psi[max(variables, key=lambda c: variables[c])][2] if variables else 1.0
     k_def = beam.creep_factor - 1.0
-    moduli = np.array([e / (1 + psi2 * k_def) if m.kind == "timber" else e
-                       for m, e in zip(section.materials, section.E, strict=True)])
-    return with_moduli(section, moduli)
+
+    def make() -> Section:
+        moduli = np.array([e / (1 + psi2 * k_def) if m.kind == "timber" else e
+                           for m, e in zip(section.materials, section.E, strict=True)])
+        return with_moduli(section, moduli)
+    return once(section, ("eu_uls_section", psi2, k_def), make)
 
 
 def ply_demands(section: Section, beam: BeamResult, combo: CombinationResult, i: int,

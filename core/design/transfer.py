@@ -31,7 +31,8 @@ from ..model.units import fmt
 from ..section.transformed import Section, with_moduli
 from .bolt_layout import BoltLayout
 from .check import Check
-from .common import joints_of_timber, per_section, side_by_side_joints, unit_shear_stress
+from .common import joints_of_timber, side_by_side_joints, unit_shear_stress
+from .memo import once
 
 
 def plate_extent(section: Section, i: int, length: float) -> tuple[float, float]:
@@ -243,20 +244,22 @@ def without_plates(section: Section) -> Section:
         plates = {jt.steel for jt in side_by_side_joints(section)}
         E = np.array([0.0 if i in plates else float(e) for i, e in enumerate(section.E)])
         return with_moduli(section, E)
-    return per_section(section, "without_plates", make)
+    return once(section, "without_plates", make)
 
 
 def support_shear(beam: BeamResult, combo: CombinationResult, k: int) -> float:
     """The largest |V| beside support k (either side; at a member end the largest
     reaction over the arrangements), N.
     """
-    model, sol = beam.model, combo.solution
-    xs = model.layout.support_positions()[k]
-    V = max(abs(shear_left_of(model, sol, xs)), abs(shear_right_of(model, sol, xs)))
-    L = model.layout.length
-    if xs <= 1e-9 * L or xs >= L * (1 - 1e-9):
-        V = max(V, abs(float(combo.reactions_max[k])))
-    return V
+    def make() -> float:
+        model, sol = beam.model, combo.solution
+        xs = model.layout.support_positions()[k]
+        V = max(abs(shear_left_of(model, sol, xs)), abs(shear_right_of(model, sol, xs)))
+        L = model.layout.length
+        if xs <= 1e-9 * L or xs >= L * (1 - 1e-9):
+            V = max(V, abs(float(combo.reactions_max[k])))
+        return V
+    return once(combo, ("support_shear", k), make)
 
 
 def support_shear_checks(section: Section, beam: BeamResult, combo: CombinationResult,
