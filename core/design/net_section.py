@@ -40,6 +40,7 @@ from ..section.transformed import Section
 from .bolt_layout import BoltLayout
 from .check import Check
 from .common import Joint
+from .memo import once
 
 
 def hole_diameter(design: DesignSpec) -> float:
@@ -72,7 +73,10 @@ def net_section(section: Section, joint: Joint, layout: BoltLayout, k: int,
     each ply the bolt passes through, at every hole of station k.
     """
     heights = tuple(layout.rows[r] for r in layout.station_rows[k])
-    return holes_removed(section, (joint.steel, *joint.timbers), heights, d_hole, k)
+    plies = (joint.steel, *joint.timbers)
+    found = once(section, ("holes_removed", plies, heights, d_hole),
+                 lambda: holes_removed(section, plies, heights, d_hole, k))
+    return found if found.station == k else replace(found, station=k)
 
 
 def holes_removed(section: Section, plies: tuple[int, ...], heights: tuple[float, ...],
@@ -267,10 +271,17 @@ def net_shear_checks(section: Section, joint: Joint, layout: BoltLayout, design:
     def to_support(k: int) -> float:
         return min(abs(layout.stations[k] - s) for s in supports)
 
+    def shear_of(i: int, net: NetSection) -> NetShear:
+        found = once(section, ("net_shear", i, net.holes, net.y_na, net.I_t, d_hole),
+                     lambda: net_shear(section, i, net, d_hole))
+        return found if found.station == net.station else replace(found, station=net.station)
+
+    own_checks = {(c.ply, c.combination): c for c in reversed(gross) if c.id == "shear"
+                  and c.location == "" and c.segment is None}  # the first of each wins
     out = []
     for i in joint.timbers:
         name = section.plies[i].name
-        found = [net_shear(section, i, net, d_hole) for net in nets]
+        found = [shear_of(i, net) for net in nets]
         if not found:
             continue
         top = max(f.unit for f in found)
@@ -280,9 +291,7 @@ def net_shear_checks(section: Section, joint: Joint, layout: BoltLayout, design:
         where = fmt(x, "span", system)
         holes = ", ".join(fmt(y, "length", system) for y in nets[gov.station].holes)
         for combo in beam.strength():
-            own = next((c for c in gross if c.id == "shear" and c.ply == name
-                        and c.combination == combo.name and c.location == ""
-                        and c.segment is None), None)
+            own = own_checks.get((name, combo.name))
             if own is None:
                 continue
             V = combo.extremes.V_max_abs
