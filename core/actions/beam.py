@@ -61,7 +61,11 @@ class CaseSolution:
                 self.dq if self.wdq is None else self.wdq)
 
     def scaled(self, factor: float) -> CaseSolution:
-        """Return this solution times ``factor`` (the beam is linear)."""
+        """Return this solution times ``factor`` (the beam is linear); itself for 1 (the
+        same numbers: x * 1.0 is x; solutions are never changed in place).
+        """
+        if factor == 1.0:
+            return self
         return CaseSolution(self.V0 * factor, self.M0 * factor, self.q * factor,
                             self.u * factor, self.reactions * factor,
                             self.reaction_moments * factor, self.dq * factor,
@@ -324,12 +328,12 @@ def element_polynomials(model: BeamModel, sol: CaseSolution,
         out.append({
             "V": np.array([dq / 2, q, sol.V0[e]]),
             "M": np.array([dq / 6, q / 2, sol.V0[e], sol.M0[e]]),
-            "w": -_w_up_coefficients(v1, t1, v2, t2, wq, wdq, le) / EI,
+            "w": -w_up_coefficients(v1, t1, v2, t2, wq, wdq, le) / EI,
         })
     return out
 
 
-def _w_up_coefficients(v1: Any, t1: Any, v2: Any, t2: Any, q: Any, dq: Any,
+def w_up_coefficients(v1: Any, t1: Any, v2: Any, t2: Any, q: Any, dq: Any,
                        le: Any) -> np.ndarray:
     """Upward deflection times EI in local x, coefficients highest power (x^5) first,
     on the last axis: Hermite cubic plus the clamped particular solutions
@@ -425,7 +429,7 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
                                 axis=-1), np.abs(v_all), -1.0).reshape(k, -1)
     i_v = np.argmax(v, axis=1)
     v1, t1, v2, t2 = U[:, 0:-2:2], U[:, 1:-2:2], U[:, 2::2], U[:, 3::2]
-    w_c = -_w_up_coefficients(v1, t1, v2, t2, wq, wdq, le) / EI[..., None]
+    w_c = -w_up_coefficients(v1, t1, v2, t2, wq, wdq, le) / EI[..., None]
     dw = w_c[..., :5] * np.array([5.0, 4.0, 3.0, 2.0, 1.0])
     roots = _real_roots_batched(dw.reshape(k * n, 5), le_k).reshape(k, n, 4)
     xw = np.concatenate([np.zeros((k, n, 1)), np.broadcast_to(le[:, None], (k, n, 1)),

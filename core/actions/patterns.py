@@ -22,7 +22,7 @@ from dataclasses import dataclass, replace
 import numpy as np
 
 from ..model.member import MERGE_TOLERANCE, BeamSpec, Load
-from .beam import BeamModel, CaseSolution
+from .beam import BeamModel, CaseSolution, w_up_coefficients
 
 #: Cases loaded span by span, by basis.
 PATTERNED = {"US": ("L", "Lr", "S"), "EU": ("L", "Lr", "S", "W")}
@@ -118,15 +118,23 @@ class Plan:
 
 
 def _samples(model: BeamModel, sol: CaseSolution) -> np.ndarray:
-    """Moment, shear and deflection (EI = 1) at the sample points of every element."""
-    from .beam import element_polynomials
-
+    """Moment, shear and deflection (EI = 1) at the sample points of every element (the
+    elements' polynomials by Horner's rule, all elements at once).
+    """
+    le = model.lengths
+    x = SAMPLES[None, :] * le[:, None]
+    u = sol.u
+    wq, wdq = sol.deflection_loads()
+    coeffs = (np.stack([sol.dq / 6, sol.q / 2, sol.V0, sol.M0], axis=-1),
+              np.stack([sol.dq / 2, sol.q, sol.V0], axis=-1),
+              -w_up_coefficients(u[0:-2:2], u[1:-2:2], u[2::2], u[3::2], wq, wdq, le) / 1.0)
     out = []
-    for e, poly in enumerate(element_polynomials(model, sol, 1.0)):
-        x = SAMPLES * model.lengths[e]
-        out.append(np.concatenate([np.polyval(poly["M"], x), np.polyval(poly["V"], x),
-                                   np.polyval(poly["w"], x)]))
-    return np.concatenate(out)
+    for c in coeffs:
+        y = np.zeros_like(x)
+        for j in range(c.shape[1]):
+            y = y * x + c[:, j : j + 1]
+        out.append(y)
+    return np.concatenate(out, axis=1).reshape(-1)
 
 
 def plan(model: BeamModel, parts: RegionParts, factors: Mapping[str, float]) -> Plan:
