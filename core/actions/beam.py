@@ -202,6 +202,17 @@ class BeamModel:
         """Index of the node nearest to ``x``."""
         return int(np.argmin(np.abs(self.nodes - x)))
 
+    def node_indices(self, xs: np.ndarray) -> np.ndarray:
+        """Index of the node nearest to each of ``xs``: :meth:`node_index` of each (the
+        lower of two equally near nodes), found by bisection of the sorted nodes.
+        """
+        nodes = self.nodes
+        if nodes.size == 1:
+            return np.zeros(xs.shape, dtype=int)
+        right = np.clip(np.searchsorted(nodes, xs), 1, nodes.size - 1)
+        left = right - 1
+        return np.where(np.abs(nodes[left] - xs) <= np.abs(nodes[right] - xs), left, right)
+
     def solve(self, loads: list[Load] | tuple[Load, ...], extra_line: float = 0.0) -> CaseSolution:
         """Solve for the given loads (downward positive) with EI = 1.
 
@@ -217,9 +228,12 @@ class BeamModel:
         F = np.zeros(2 * self.nodes.size)
         x0 = self.nodes[:-1]
         L = self.layout.length
+        points = [ld for ld in loads if ld.type == "point"]
+        if points:  # in load order, as one subtraction each
+            at = np.array([float(ld.at or 0.0) for ld in points])
+            np.subtract.at(F, 2 * self.node_indices(at), np.array([ld.value for ld in points]))
         for ld in loads:
             if ld.type == "point":
-                F[2 * self.node_index(float(ld.at or 0.0))] -= ld.value
                 continue
             a = 0.0 if ld.start is None else ld.start
             b = L if ld.end is None else ld.end
@@ -259,21 +273,39 @@ class BeamModel:
         for k, n in enumerate(self.support_nodes):
             node_force[n] += reactions[k]
             node_couple[n] += reaction_moments[k]
-        V0 = np.empty(n_el)
-        M0 = np.empty(n_el)
-        v_end = m_end = 0.0
-        for e in range(n_el):
-            V0[e] = v_end + node_force[e]
-            M0[e] = m_end - node_couple[e]
-            v_end = V0[e] + q_el[e] * le[e] + dq_el[e] * le[e] ** 2 / 2
-            m_end = (M0[e] + V0[e] * le[e] + q_el[e] * le[e] ** 2 / 2
-                     + dq_el[e] * le[e] ** 3 / 6)
+        V0, M0 = _statics(node_force, node_couple, q_el, dq_el, le)
         if self.flexibility is None:
             return CaseSolution(V0, M0, q_el, u, reactions, reaction_moments, dq_el)
         return CaseSolution(V0, M0, q_el, u, reactions, reaction_moments, dq_el,
                             q_el * self.flexibility, dq_el * self.flexibility)
 
 
+
+
+def _statics(node_force: np.ndarray, node_couple: np.ndarray, q_el: np.ndarray,
+             dq_el: np.ndarray, le: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Shear and moment at the start of every element by statics, walking from the left
+    end: V0[e] = V_end[e-1] + node force, V_end = V0 + q le + dq le^2 / 2; M0[e] =
+    M_end[e-1] - node couple, M_end = M0 + V0 le + q le^2 / 2 + dq le^3 / 6.
+
+    Each walk is one running sum (numpy's cumulative sum adds in order) of its terms in
+    the order the walk adds them, so every partial sum is the walk's own; the powers are
+    taken as the walk took them (``float_power``: a scalar's ``**``).
+    """
+    n = le.size
+    l2, l3 = np.float_power(le, 2), np.float_power(le, 3)
+    terms = np.zeros(1 + 3 * n)
+    terms[1::3] = node_force[:n]
+    terms[2::3] = q_el * le
+    terms[3::3] = dq_el * l2 / 2
+    V0 = np.cumsum(terms)[1::3]
+    terms = np.zeros(1 + 4 * n)
+    terms[1::4] = -node_couple[:n]
+    terms[2::4] = V0 * le
+    terms[3::4] = q_el * l2 / 2
+    terms[4::4] = dq_el * l3 / 6
+    M0 = np.cumsum(terms)[1::4]
+    return V0, M0
 
 
 def _element_flexibility(nodes: np.ndarray,
