@@ -33,7 +33,6 @@ from ..model.member import MERGE_TOLERANCE, BeamLayout, Load, validate_layout
 from .banded import BEAM_HALF_BANDWIDTH, cholesky_band, solve_with_factor
 
 
-@dataclass(frozen=True, eq=False)
 class CaseSolution:
     """Exact solution of one load (or load set) for EI = 1.
 
@@ -41,46 +40,126 @@ class CaseSolution:
     q(x) = q + dq x upward positive: V(x) = V0 + q x + dq x^2 / 2,
     M(x) = M0 + V0 x + q x^2 / 2 + dq x^3 / 6, deflection (downward positive) =
     -(Hermite(v1, t1, v2, t2) + particular solution) / EI (see the module docstring).
+
+    The numbers are kept in one array (``data``: V0, M0, q, dq, then wq and wdq where
+    present, u, reactions, reaction moments), so that scaling and adding solutions, and
+    stacking many of them, are one operation each; every field is a read-only view.
+    Solutions are never changed in place.
     """
 
-    V0: np.ndarray
-    M0: np.ndarray
-    q: np.ndarray
-    u: np.ndarray
-    reactions: np.ndarray
-    reaction_moments: np.ndarray
-    dq: np.ndarray
-    wq: np.ndarray | None = None
-    wdq: np.ndarray | None = None
+    __slots__ = ("__weakref__", "_e", "_s", "_w", "data")
+
+    data: np.ndarray
+    _e: int
+    _s: int
+    _w: bool
+
+    def __init__(self, V0: np.ndarray, M0: np.ndarray, q: np.ndarray, u: np.ndarray,
+                 reactions: np.ndarray, reaction_moments: np.ndarray, dq: np.ndarray,
+                 wq: np.ndarray | None = None, wdq: np.ndarray | None = None):
+        w = wq is not None or wdq is not None
+        parts = [V0, M0, q, dq]
+        if w:
+            parts += [q if wq is None else wq, dq if wdq is None else wdq]
+        parts += [u, reactions, reaction_moments]
+        data = np.concatenate([np.asarray(a, dtype=float).reshape(-1) for a in parts])
+        self._set(data, len(V0), len(reactions), w)
+
+    def _set(self, data: np.ndarray, e: int, s: int, w: bool) -> None:
+        data.setflags(write=False)
+        self.data, self._e, self._s, self._w = data, e, s, w
+
+    @classmethod
+    def _of(cls, data: np.ndarray, e: int, s: int, w: bool) -> CaseSolution:
+        out = cls.__new__(cls)
+        out._set(data, e, s, w)
+        return out
+
+    @property
+    def V0(self) -> np.ndarray:
+        """Shear at the start of each element, N."""
+        return self.data[: self._e]
+
+    @property
+    def M0(self) -> np.ndarray:
+        """Moment at the start of each element, N m."""
+        return self.data[self._e : 2 * self._e]
+
+    @property
+    def q(self) -> np.ndarray:
+        """Upward line load at the start of each element, N/m."""
+        return self.data[2 * self._e : 3 * self._e]
+
+    @property
+    def dq(self) -> np.ndarray:
+        """Slope of the upward line load along each element, N/m^2."""
+        return self.data[3 * self._e : 4 * self._e]
+
+    @property
+    def wq(self) -> np.ndarray | None:
+        """The line load q divided by each element's EI on a stepped member, else None."""
+        return self.data[4 * self._e : 5 * self._e] if self._w else None
+
+    @property
+    def wdq(self) -> np.ndarray | None:
+        """The slope dq divided by each element's EI on a stepped member, else None."""
+        return self.data[5 * self._e : 6 * self._e] if self._w else None
+
+    def _offset(self) -> int:
+        return (6 if self._w else 4) * self._e
+
+    @property
+    def u(self) -> np.ndarray:
+        """Nodal deflections and rotations (v, theta per node, upward), for EI = 1."""
+        k = self._offset()
+        return self.data[k : k + 2 * self._e + 2]
+
+    @property
+    def reactions(self) -> np.ndarray:
+        """Upward reaction of every support, N."""
+        k = self._offset() + 2 * self._e + 2
+        return self.data[k : k + self._s]
+
+    @property
+    def reaction_moments(self) -> np.ndarray:
+        """Moment reaction of every support (zero where pinned), N m."""
+        k = self._offset() + 2 * self._e + 2 + self._s
+        return self.data[k : k + self._s]
+
+    def __repr__(self) -> str:
+        return (f"CaseSolution(V0={self.V0!r}, M0={self.M0!r}, q={self.q!r}, u={self.u!r}, "
+                f"reactions={self.reactions!r}, reaction_moments={self.reaction_moments!r}, "
+                f"dq={self.dq!r}, wq={self.wq!r}, wdq={self.wdq!r})")
 
     def deflection_loads(self) -> tuple[np.ndarray, np.ndarray]:
         """The loads of each element's particular deflection: q and dq divided by the
         element's EI on a stepped member, q and dq themselves otherwise.
         """
-        return (self.q if self.wq is None else self.wq,
-                self.dq if self.wdq is None else self.wdq)
+        if self._w:
+            return self.data[4 * self._e : 5 * self._e], self.data[5 * self._e : 6 * self._e]
+        return self.q, self.dq
+
+    def _with_deflection_loads(self) -> CaseSolution:
+        """The same solution with wq and wdq kept (equal to q and dq where absent)."""
+        if self._w:
+            return self
+        e, d = self._e, self.data
+        return CaseSolution._of(np.concatenate([d[: 4 * e], d[2 * e : 4 * e], d[4 * e :]]),
+                                e, self._s, True)
 
     def scaled(self, factor: float) -> CaseSolution:
         """Return this solution times ``factor`` (the beam is linear); itself for 1 (the
-        same numbers: x * 1.0 is x; solutions are never changed in place).
+        same numbers: x * 1.0 is x).
         """
         if factor == 1.0:
             return self
-        return CaseSolution(self.V0 * factor, self.M0 * factor, self.q * factor,
-                            self.u * factor, self.reactions * factor,
-                            self.reaction_moments * factor, self.dq * factor,
-                            None if self.wq is None else self.wq * factor,
-                            None if self.wdq is None else self.wdq * factor)
+        return CaseSolution._of(self.data * factor, self._e, self._s, self._w)
 
     def __add__(self, other: CaseSolution) -> CaseSolution:
-        wq = wdq = None
-        if self.wq is not None or other.wq is not None:
-            (a, da), (b, db) = self.deflection_loads(), other.deflection_loads()
-            wq, wdq = a + b, da + db
-        return CaseSolution(self.V0 + other.V0, self.M0 + other.M0, self.q + other.q,
-                            self.u + other.u, self.reactions + other.reactions,
-                            self.reaction_moments + other.reaction_moments,
-                            self.dq + other.dq, wq, wdq)
+        a, b = self, other
+        if a._w != b._w:  # one stepped: the other's deflection loads are its q and dq
+            a, b = a._with_deflection_loads(), b._with_deflection_loads()
+        return CaseSolution._of(a.data + b.data, a._e, a._s, a._w)
 
 
 class BeamModel:
@@ -431,13 +510,7 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
     le = model.lengths[e0:e1]
     x0 = model.nodes[e0:e1]
     k, n = len(sols), le.size
-    q = np.stack([s.q[e0:e1] for s in sols])
-    dq = np.stack([s.dq[e0:e1] for s in sols])
-    wq = np.stack([s.deflection_loads()[0][e0:e1] for s in sols])
-    wdq = np.stack([s.deflection_loads()[1][e0:e1] for s in sols])
-    V0 = np.stack([s.V0[e0:e1] for s in sols])
-    M0 = np.stack([s.M0[e0:e1] for s in sols])
-    U = np.stack([s.u[2 * e0 : 2 * e1 + 2] for s in sols])
+    V0, M0, q, dq, wq, wdq, U = _stacked(sols, e0, e1)
     EI = np.asarray(EIs, dtype=float).reshape(k, 1)
     le_k = np.tile(le, k)
     # moment: element ends and the roots of V = V0 + q x + dq x^2 / 2 inside the element
@@ -495,6 +568,28 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
             x_deflection_max=float(pos_w[c].reshape(-1)[i_w[c]]),
             deflection_by_region=by_region[c]))
     return out
+
+
+def _stacked(sols: Sequence[CaseSolution], e0: int, e1: int) -> tuple[np.ndarray, ...]:
+    """V0, M0, q, dq, wq, wdq (elements e0 to e1) and u (their nodes) of every solution,
+    one row each: one stack of the solutions' numbers where they share a layout.
+    """
+    first = sols[0]
+    e, w = first._e, first._w
+    if all(s._e == e and s._s == first._s and s._w == w for s in sols):
+        D = np.stack([s.data for s in sols])
+        k = (6 if w else 4) * e
+
+        def cut(a: int, b: int) -> np.ndarray:
+            return np.ascontiguousarray(D[:, a:b])
+        V0, M0, q, dq = (cut(j * e + e0, j * e + e1) for j in range(4))
+        wq, wdq = (cut(4 * e + e0, 4 * e + e1), cut(5 * e + e0, 5 * e + e1)) if w else (q, dq)
+        return V0, M0, q, dq, wq, wdq, cut(k + 2 * e0, k + 2 * e1 + 2)
+    return (np.stack([s.V0[e0:e1] for s in sols]), np.stack([s.M0[e0:e1] for s in sols]),
+            np.stack([s.q[e0:e1] for s in sols]), np.stack([s.dq[e0:e1] for s in sols]),
+            np.stack([s.deflection_loads()[0][e0:e1] for s in sols]),
+            np.stack([s.deflection_loads()[1][e0:e1] for s in sols]),
+            np.stack([s.u[2 * e0 : 2 * e1 + 2] for s in sols]))
 
 
 def _by_region(model: BeamModel, e0: int, e1: int, aw: np.ndarray, w: np.ndarray,
