@@ -70,6 +70,14 @@ def near_pairs(plies: tuple[Ply, ...] | list[Ply], tol: float) -> list[tuple[int
 
 def clip_plies(plies: tuple[Ply, ...] | list[Ply]) -> list[BaseGeometry]:
     """Clip each ply by every later ply (later plies win). Returns one geometry per ply."""
+    return clip_plies_marked(plies)[0]
+
+
+def clip_plies_marked(plies: tuple[Ply, ...] | list[Ply]
+                      ) -> tuple[list[BaseGeometry], list[bool]]:
+    """:func:`clip_plies`, and for each ply whether it is its own whole rectangle (no
+    later ply overlaps it).
+    """
     rects = list(shapely.box([p.x for p in plies], [p.y for p in plies],
                              [p.x + p.width for p in plies], [p.top for p in plies]))
     later_of: dict[int, list[int]] = {}
@@ -77,6 +85,7 @@ def clip_plies(plies: tuple[Ply, ...] | list[Ply]) -> list[BaseGeometry]:
         if _overlap(plies[i], plies[j]):
             later_of.setdefault(i, []).append(j)
     out: list[BaseGeometry] = []
+    whole: list[bool] = []
     for i, rect in enumerate(rects):
         later = [rects[j] for j in later_of.get(i, [])]
         if later:
@@ -84,7 +93,8 @@ def clip_plies(plies: tuple[Ply, ...] | list[Ply]) -> list[BaseGeometry]:
             out.append(_polygons_only(cut))
         else:
             out.append(rect)
-    return out
+        whole.append(not later)
+    return out, whole
 
 
 def _overlap(a: Ply, b: Ply) -> bool:
@@ -140,8 +150,26 @@ class PolygonMoments:
 
 def polygon_moments(geom: BaseGeometry) -> PolygonMoments:
     """Shoelace formulas for area, first and second moments (exact for polygons)."""
+    return _shoelace(_rings(geom))
+
+
+def rectangle_moments(ply: Ply) -> PolygonMoments:
+    """:func:`polygon_moments` of the ply's whole rectangle, without building it: the
+    counter-clockwise ring a box has (from its lower right corner), the same arithmetic.
+    """
+    x0, x1, y0, y1 = ply.x, ply.x + ply.width, ply.y, ply.top
+    return _shoelace([np.array([[x1, y0], [x1, y1], [x0, y1], [x0, y0], [x1, y0]])])
+
+
+def rectangle_profile(ply: Ply) -> WidthProfile:
+    """:func:`width_profile` of the ply's whole rectangle, without building it."""
+    w = np.array([(ply.x + ply.width) - ply.x])
+    return WidthProfile(np.array([ply.y, ply.top]), w, w.copy())
+
+
+def _shoelace(rings: list[np.ndarray]) -> PolygonMoments:
     area = sy = iy = sx = 0.0
-    for ring in _rings(geom):
+    for ring in rings:
         x0, y0 = ring[:-1, 0], ring[:-1, 1]
         x1, y1 = ring[1:, 0], ring[1:, 1]
         cross = x0 * y1 - x1 * y0

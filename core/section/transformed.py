@@ -30,10 +30,12 @@ from .geometry import (
     TOUCH_TOLERANCE,
     ProfileStack,
     WidthProfile,
-    clip_plies,
+    clip_plies_marked,
     is_unclipped,
     near_pairs,
     polygon_moments,
+    rectangle_moments,
+    rectangle_profile,
     rectangles_touch,
     touch_candidates,
     touches_any,
@@ -318,8 +320,10 @@ def analyse(
     E_ref = materials[reference].E
     E = np.array([m.E for m in mats], dtype=float) if moduli is None else np.asarray(
         moduli, dtype=float)
-    geoms = tuple(clip_plies(plies))
-    mom = [polygon_moments(g) for g in geoms]
+    clipped, whole = clip_plies_marked(plies)
+    geoms = tuple(clipped)
+    mom = [rectangle_moments(p) if w else polygon_moments(g)
+           for p, g, w in zip(plies, geoms, whole, strict=True)]
     area = np.array([m.area for m in mom])
     first_y = np.array([m.first_y for m in mom])
     second_y = np.array([m.second_y for m in mom])
@@ -328,7 +332,9 @@ def analyse(
     y_bottom = np.empty(len(plies))
     y_top = np.empty(len(plies))
     for i, (ply, g) in enumerate(zip(plies, geoms, strict=True)):
-        if g.is_empty or area[i] <= size * size * 1e-12:
+        if whole[i] and area[i] > size * size * 1e-12:
+            y_bottom[i], y_top[i] = ply.y, ply.top  # a box's bounds are its corners
+        elif g.is_empty or area[i] <= size * size * 1e-12:
             warnings.append(Problem(f"plies[{i}]", f'"{ply.name}" is clipped away completely '
                                     "by later plies and carries nothing"))
             area[i] = first_y[i] = second_y[i] = 0.0
@@ -357,7 +363,8 @@ def analyse(
     if loose and len(loose) < sum(1 for a in area if a > 0):
         E = E.copy()
         E[loose] = 0.0
-    profiles = tuple(width_profile(g) for g in geoms)
+    profiles = tuple(rectangle_profile(p) if w and area[i] > 0 else width_profile(g)
+                     for i, (p, g, w) in enumerate(zip(plies, geoms, whole, strict=True)))
     return _assemble(plies, mats, reference, E_ref, E, area, first_y, second_y, y_bottom, y_top,
                      geoms, profiles, tuple(warnings), size, ProfileStack.of(profiles))
 
