@@ -370,6 +370,8 @@ def envelope(ext: Sequence[Extremes]) -> tuple[Extremes, dict[str, int]]:
     """The worst of several extremes, and which one governs M_max, M_min, the shear and
     the deflection.
     """
+    if len(ext) == 1:  # one arrangement: its own extremes
+        return ext[0], {"M_max": 0, "M_min": 0, "V_max_abs": 0, "deflection_max_abs": 0}
     i_max = max(range(len(ext)), key=lambda i: ext[i].M_max)
     i_min = min(range(len(ext)), key=lambda i: ext[i].M_min)
     i_v = max(range(len(ext)), key=lambda i: ext[i].V_max_abs)

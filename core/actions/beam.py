@@ -677,10 +677,11 @@ def _roots_inside(poly: np.ndarray, le: float) -> list[float]:
 
 def moment_at(model: BeamModel, sol: CaseSolution, x: float) -> float:
     """The bending moment of ``sol`` at ``x`` (m from the left end), N m."""
-    e = int(np.clip(np.searchsorted(model.nodes, x, side="right") - 1, 0,
-                    model.lengths.size - 1))
+    e = min(max(int(np.searchsorted(model.nodes, x, side="right")) - 1, 0),
+            model.lengths.size - 1)
     s = x - float(model.nodes[e])
-    return float(sol.M0[e] + sol.V0[e] * s + sol.q[e] * s**2 / 2 + sol.dq[e] * s**3 / 6)
+    d, n = sol.data, sol._e  # V0, M0, q, dq side by side (see CaseSolution)
+    return float(d[n + e] + d[e] * s + d[2 * n + e] * s**2 / 2 + d[3 * n + e] * s**3 / 6)
 
 
 def combine(solutions: Mapping[str, CaseSolution],
