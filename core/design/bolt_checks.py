@@ -3,6 +3,10 @@ its station (``bolts``, the most loaded bolt of each combination) and one ``load
 check for every support the plate does not bear on and every point load (see
 ``transfer``), with the ``splitting`` of the timbers there (see ``splitting``). Each basis
 supplies the value of one bolt and its factors.
+
+The layout each plate's checks choose travels with the analysis (:class:`PlateLayout`,
+``pipeline.Analysis.layouts``), so the sheet, the plate drawings and the elevation show the
+bolts that were checked without placing them again.
 """
 
 from __future__ import annotations
@@ -65,6 +69,37 @@ class BoltValue:
                              self.partial)
 
 
+@dataclass(frozen=True)
+class PlateLayout:
+    """The bolt layout one plate's checks use.
+
+    Attributes:
+        ply: index of the steel ply.
+        joint: the plate with the timbers it is bolted to.
+        layout: where its bolts go.
+
+    """
+
+    ply: int
+    joint: Joint
+    layout: BoltLayout
+
+
+@dataclass(frozen=True)
+class BoltedPlate:
+    """The bolt checks of one plate with the layout they use.
+
+    Attributes:
+        checks: the ``bolts``, ``load-transfer`` and ``splitting`` checks, the geometry
+            of the layout and the net section at its holes.
+        layout: the plate's layout.
+
+    """
+
+    checks: tuple[Check, ...]
+    layout: PlateLayout
+
+
 def plate_layout(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
                  value: BoltValue, combos: tuple[CombinationResult, ...],
                  system: str) -> BoltLayout:
@@ -115,6 +150,12 @@ def plate_bolt_checks(section: Section, beam: BeamResult, design: DesignSpec, jo
     and the bending and the timbers' shear on the net section at its holes (from the
     ``gross`` bending and shear checks).
     """
+    return list(bolted_plate(section, beam, design, joint, value, system, gross).checks)
+
+
+def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
+                 value: BoltValue, system: str, gross: list[Check]) -> BoltedPlate:
+    """The checks of :func:`plate_bolt_checks` with the layout they use."""
     combos = beam.strength() or beam.combinations
     layout = plate_layout(section, beam, design, joint, value, combos, system)
     share = plate_share(section, joint.steel)
@@ -153,7 +194,7 @@ def plate_bolt_checks(section: Section, beam: BeamResult, design: DesignSpec, jo
         for t in items:
             out += splitting_checks(section, joint, split_site(t, layout, system), design,
                                     combo.name, f.get("k_mod"), shear, L, system)
-    return out
+    return BoltedPlate(tuple(out), PlateLayout(joint.steel, joint, layout))
 
 
 def split_site(t: Transfer, layout: BoltLayout, system: str) -> SplitSite:
