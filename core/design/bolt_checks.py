@@ -26,11 +26,13 @@ from .common import STOCK_SPACINGS_SI, STOCK_SPACINGS_US, Joint, plate_share
 from .net_section import net_checks, net_shear_checks
 from .splitting import SplitSite, shear_capacities, splitting_checks
 from .transfer import (
+    PlateLoads,
     StationDemand,
     Transfer,
+    governing_demand,
+    placed_transfers,
     plate_extent,
-    station_demands,
-    transfers,
+    plate_loads,
 )
 
 
@@ -107,28 +109,60 @@ def plate_layout(section: Section, beam: BeamResult, design: DesignSpec, joint: 
     (at least 4 D) at which every bolt of every strength combination passes (the most
     loaded station and every transfer zone); the smallest such spacing where none does.
     """
+    return _choose(section, beam, design, joint, value, combos, system).layout
+
+
+#: What a trial found under one combination: its transfers and its most loaded station.
+_Found = tuple[list[Transfer], StationDemand]
+
+
+@dataclass(frozen=True)
+class _Choice:
+    """The layout :func:`plate_layout` chose with what its trial found, for the checks.
+
+    Attributes:
+        layout: the layout.
+        factors: ``layout_factors`` of the layout (None where no spacing was tried).
+        loads: the loads of each combination on the plate (empty where none was tried).
+        found: for the index of a combination the trial reached, what it found.
+
+    """
+
+    layout: BoltLayout
+    factors: tuple[dict[str, float], dict[str, str]] | None
+    loads: tuple[PlateLoads, ...]
+    found: dict[int, _Found]
+
+
+def _choose(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
+            value: BoltValue, combos: tuple[CombinationResult, ...], system: str) -> _Choice:
+    """:func:`plate_layout`, keeping what the trial of the chosen spacing computed (the
+    loads of each combination are found once for all the spacings).
+    """
     bolt = design.bolt
     L = beam.model.layout.length
     extent = plate_extent(section, joint.steel, L)
     if bolt.stations or bolt.spacing is not None:
-        return layout_of(section, joint, bolt, extent, bolt.spacing or L, design.us)
+        return _Choice(layout_of(section, joint, bolt, extent, bolt.spacing or L, design.us),
+                       None, (), {})
     share = plate_share(section, joint.steel)
+    depth = section.depth
     stock = STOCK_SPACINGS_US if system == "US" else STOCK_SPACINGS_SI
     allowed = [s for s in stock if s >= 4 * bolt.diameter] or [stock[-1]]
-    layout = layout_of(section, joint, bolt, extent, allowed[0], design.us)
+    loads = tuple(plate_loads(section, beam, c, design, joint.steel, extent) for c in combos)
     for s in allowed:
         layout = layout_of(section, joint, bolt, extent, s, design.us)
-        geo = layout_factors(section, joint, layout, design, L)[0]
-        if all(_worst_per_bolt(section, beam, c, design, layout, share)
-               <= value.capacity(c, geo) for c in combos):
-            return layout
-    return layout
-
-
-def _worst_per_bolt(section: Section, beam: BeamResult, combo: CombinationResult,
-                    design: DesignSpec, layout: BoltLayout, share: float) -> float:
-    items = transfers(section, beam, combo, design, layout, share)
-    return governing_station(station_demands(section, beam, combo, layout, share, items)).per_bolt
+        factors = layout_factors(section, joint, layout, design, L)
+        found: dict[int, _Found] = {}
+        for k, c in enumerate(combos):
+            items = placed_transfers(loads[k], layout, share, depth)
+            gov = governing_demand(loads[k], layout, share, items)
+            found[k] = (items, gov)
+            if not gov.per_bolt <= value.capacity(c, factors[0]):
+                break
+        else:
+            break
+    return _Choice(layout, factors, loads, found)  # the last one tried where none passes
 
 
 def layout_text(layout: BoltLayout, system: str) -> str:
@@ -156,23 +190,33 @@ def plate_bolt_checks(section: Section, beam: BeamResult, design: DesignSpec, jo
 def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
                  value: BoltValue, system: str, gross: list[Check]) -> BoltedPlate:
     """The checks of :func:`plate_bolt_checks` with the layout they use."""
-    combos = beam.strength() or beam.combinations
-    layout = plate_layout(section, beam, design, joint, value, combos, system)
+    strength = beam.strength()
+    combos = strength or beam.combinations
+    choice = _choose(section, beam, design, joint, value, combos, system)
+    layout = choice.layout
     share = plate_share(section, joint.steel)
     steel = section.plies[joint.steel].name
     fasteners = Fasteners(locations=len(layout.stations), rows=len(layout.rows),
                           count=layout.count, spacing=layout.spacing)
     L = beam.model.layout.length
-    geo, geo_sources = layout_factors(section, joint, layout, design, L)
+    geo, geo_sources = (choice.factors if choice.factors is not None else
+                        layout_factors(section, joint, layout, design, L))
     value = replace(value, sources={**value.sources, **{k: v for k, v in geo_sources.items()
                                                          if k in value.sources}})
     out: list[Check] = geometry_checks(section, joint, layout, design, L, system)
     out += net_checks(section, joint, layout, design, gross)
     out += net_shear_checks(section, joint, layout, design, beam, gross, system)
-    for combo in beam.strength():
+    extent = layout.extent
+    where = layout_text(layout, system)
+    for k, combo in enumerate(strength):
         f = value.adjusted(combo, geo)
-        items = transfers(section, beam, combo, design, layout, share)
-        gov = governing_station(station_demands(section, beam, combo, layout, share, items))
+        found = choice.found.get(k)
+        if found is None:
+            loads = (choice.loads[k] if choice.loads else
+                     plate_loads(section, beam, combo, design, joint.steel, extent))
+            items = placed_transfers(loads, layout, share, section.depth)
+            found = (items, governing_demand(loads, layout, share, items))
+        items, gov = found
         source = ("the transfers of the zones it is in" if gov.from_transfers >= gov.net
                   else "the load on its tributary length with the transfers of its zones")
         out.append(Check(
@@ -183,7 +227,7 @@ def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: 
             equation=("load per bolt at its station = max(|alpha w_trib / n + sum (+/-) "
                       "alpha F / n_zone|, sum alpha F / n_zone) <= "
                       f"{value.capacity_symbol}"),
-            location=layout_text(layout, system), fasteners=fasteners, x=gov.x,
+            location=where, fasteners=fasteners, x=gov.x,
             notes=(*value.notes,
                    f"Plate's share of the load E_p I_p / EI = {share:.3f}.",
                    f"Most loaded bolts: station {gov.station + 1} of {len(layout.stations)} "
