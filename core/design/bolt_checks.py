@@ -30,6 +30,7 @@ from .transfer import (
     StationDemand,
     Transfer,
     governing_demand,
+    governing_within,
     placed_transfers,
     plate_extent,
     plate_loads,
@@ -156,9 +157,12 @@ def _choose(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint
         found: dict[int, _Found] = {}
         for k, c in enumerate(combos):
             items = placed_transfers(loads[k], layout, share, depth)
-            gov = governing_demand(loads[k], layout, share, items)
+            capacity = value.capacity(c, factors[0])
+            gov = governing_within(loads[k], layout, share, items, capacity)
+            if gov is None:  # a station carries more than the capacity
+                break
             found[k] = (items, gov)
-            if not gov.per_bolt <= value.capacity(c, factors[0]):
+            if not gov.per_bolt <= capacity:
                 break
         else:
             break
@@ -208,6 +212,7 @@ def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: 
     out += net_shear_checks(section, joint, layout, design, beam, gross, system)
     extent = layout.extent
     where = layout_text(layout, system)
+    said: dict[tuple[str, str, float, tuple[int, ...]], _Words] = {}
     for k, combo in enumerate(strength):
         f = value.adjusted(combo, geo)
         found = choice.found.get(k)
@@ -233,31 +238,70 @@ def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: 
                    f"Most loaded bolts: station {gov.station + 1} of {len(layout.stations)} "
                    f"at x = {fmt(gov.x, 'span', system)}, {gov.bolts} bolts, governed by "
                    f"{source}.", CAUTION)))
-        out += [_transfer_check(t, layout, combo, value, f, steel, system) for t in items]
+        words = [_words_of(t, layout, system, said) for t in items]
+        out += [_transfer_check(t, w, combo, value, f, steel)
+                for t, w in zip(items, words, strict=True)]
         shear = shear_capacities(gross, combo.name)
-        for t in items:
-            out += splitting_checks(section, joint, split_site(t, layout, system), design,
+        for t, w in zip(items, words, strict=True):
+            out += splitting_checks(section, joint, _site(t, w), design,
                                     combo.name, f.get("k_mod"), shear, L, system)
     return BoltedPlate(tuple(out), PlateLayout(joint.steel, joint, layout))
+
+
+@dataclass(frozen=True)
+class _Words:
+    """What the checks of a transfer say of its place, the same under every combination.
+
+    Attributes:
+        where: "support at x = ..." or "point load at x = ..." (display units).
+        location: the check's location.
+        zone: the note on the transfer zone.
+        stations: positions of the zone's stations, m.
+        heights: heights of the zone's bolts, m.
+
+    """
+
+    where: str
+    location: str
+    zone: str
+    stations: tuple[float, ...]
+    heights: tuple[float, ...]
+
+
+def _words(t: Transfer, layout: BoltLayout, system: str) -> _Words:
+    xs = ", ".join(fmt(layout.stations[k], "span", system) for k in t.zone)
+    at = fmt(t.x, "span", system)
+    where = f"support at x = {at}" if t.kind == "support" else f"point load at x = {at}"
+    return _Words(where, t.label if t.kind == "support" else where,
+                  f"Transfer zone of the {where}: {fmt(t.zone_half_width, 'length', system)} "
+                  f"either side; stations at {xs}, {t.bolts} bolts.",
+                  tuple(layout.stations[k] for k in t.zone),
+                  tuple(layout.rows[r] for k in t.zone for r in layout.station_rows[k]))
+
+
+def _words_of(t: Transfer, layout: BoltLayout, system: str,
+              said: dict[tuple[str, str, float, tuple[int, ...]], _Words]) -> _Words:
+    """:func:`_words`, made once for each transfer place of one layout (``said``)."""
+    key = (t.kind, t.label, t.x, t.zone)
+    if key not in said:
+        said[key] = _words(t, layout, system)
+    return said[key]
+
+
+def _site(t: Transfer, w: _Words) -> SplitSite:
+    force = -t.share * t.force if t.kind == "support" else t.share * t.force
+    return SplitSite(w.location, t.x, force, w.stations, w.heights)
 
 
 def split_site(t: Transfer, layout: BoltLayout, system: str) -> SplitSite:
     """The splitting site of a transfer: at a support the plate's share goes down into
     the timbers, under a point load the bolts push them up (see ``splitting``).
     """
-    force = -t.share * t.force if t.kind == "support" else t.share * t.force
-    where = fmt(t.x, "span", system)
-    return SplitSite(t.label if t.kind == "support" else f"point load at x = {where}",
-                     t.x, force, tuple(layout.stations[k] for k in t.zone),
-                     tuple(layout.rows[r] for k in t.zone for r in layout.station_rows[k]))
+    return _site(t, _words(t, layout, system))
 
 
-def _transfer_check(t: Transfer, layout: BoltLayout, combo: CombinationResult,
-                    value: BoltValue, f: dict[str, float], steel: str,
-                    system: str) -> Check:
-    xs = ", ".join(fmt(layout.stations[k], "span", system) for k in t.zone)
-    where = (f"support at x = {fmt(t.x, 'span', system)}" if t.kind == "support"
-             else f"point load at x = {fmt(t.x, 'span', system)}")
+def _transfer_check(t: Transfer, w: _Words, combo: CombinationResult, value: BoltValue,
+                    f: dict[str, float], steel: str) -> Check:
     factors = {"n": float(t.bolts), **f}
     return Check(
         id="load-transfer", ply=steel, combination=combo.name, demand=t.demand,
@@ -267,10 +311,9 @@ def _transfer_check(t: Transfer, layout: BoltLayout, combo: CombinationResult,
                  "member depth d of the support or load, at least the nearest (common "
                  "practice)"},
         equation=f"alpha F <= n {value.capacity_symbol}",
-        location=t.label if t.kind == "support" else where,
+        location=w.location,
         x=t.x, fasteners=Fasteners(locations=len(t.zone), count=t.bolts),
-        notes=(f"Transfer zone of the {where}: {fmt(t.zone_half_width, 'length', system)} "
-               f"either side; stations at {xs}, {t.bolts} bolts.",
+        notes=(w.zone,
                ("The plate does not bear on this support: its share of the reaction reaches "
                 "the timbers through these bolts." if t.kind == "support" else
                 "The load bears on the timbers: the plate's share enters through these "

@@ -315,6 +315,16 @@ def governing_demand(loads: PlateLoads, layout: BoltLayout, share: float,
     ``max(placed_demands(...), key=StationDemand.per_bolt)`` finds it, with the same
     arithmetic on plain numbers and only the governing station made.
     """
+    found = governing_within(loads, layout, share, items, math.inf)
+    assert found is not None  # nothing exceeds infinity (a NaN never compares greater)
+    return found
+
+
+def governing_within(loads: PlateLoads, layout: BoltLayout, share: float,
+                     items: list[Transfer], limit: float) -> StationDemand | None:
+    """:func:`governing_demand`, or None as soon as the most loaded station so far carries
+    more than ``limit`` per bolt (then the governing one does too: the layout fails).
+    """
     held = _zones_of(layout, items)
     own = [t.per_bolt for t in items]
     signed_own = [p * (1.0 if t.kind == "point" else -1.0) for p, t in zip(own, items,
@@ -329,6 +339,8 @@ def governing_demand(loads: PlateLoads, layout: BoltLayout, share: float,
         per = max(net, sum(own[j] for j in js))
         if best_k < 0 or per > best:
             best_k, best, best_w = k, per, w
+            if best > limit:
+                return None
     a, b = trib[best_k]
     return StationDemand(best_k, layout.stations[best_k], a, b, best_w,
                          layout.at_station(best_k), tuple(items[j] for j in held[best_k]),
