@@ -213,6 +213,7 @@ def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: 
     extent = layout.extent
     where = layout_text(layout, system)
     said: dict[tuple[str, str, float, tuple[int, ...]], _Words] = {}
+    named: dict[int, str] = {}
     for k, combo in enumerate(strength):
         f = value.adjusted(combo, geo)
         found = choice.found.get(k)
@@ -238,7 +239,7 @@ def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: 
                    f"Most loaded bolts: station {gov.station + 1} of {len(layout.stations)} "
                    f"at x = {fmt(gov.x, 'span', system)}, {gov.bolts} bolts, governed by "
                    f"{source}.", CAUTION)))
-        words = [_words_of(t, layout, system, said) for t in items]
+        words = [_words_of(t, layout, system, said, named) for t in items]
         out += [_transfer_check(t, w, combo, value, f, steel)
                 for t, w in zip(items, words, strict=True)]
         shear = shear_capacities(gross, combo.name)
@@ -268,8 +269,16 @@ class _Words:
     heights: tuple[float, ...]
 
 
-def _words(t: Transfer, layout: BoltLayout, system: str) -> _Words:
-    xs = ", ".join(fmt(layout.stations[k], "span", system) for k in t.zone)
+def _words(t: Transfer, layout: BoltLayout, system: str,
+           named: dict[int, str] | None = None) -> _Words:
+    """The words of a transfer's place (``named``: the stations' positions in words, by
+    index, filled as they are first written).
+    """
+    named = {} if named is None else named
+    for k in t.zone:
+        if k not in named:
+            named[k] = fmt(layout.stations[k], "span", system)
+    xs = ", ".join(named[k] for k in t.zone)
     at = fmt(t.x, "span", system)
     where = f"support at x = {at}" if t.kind == "support" else f"point load at x = {at}"
     return _Words(where, t.label if t.kind == "support" else where,
@@ -280,11 +289,12 @@ def _words(t: Transfer, layout: BoltLayout, system: str) -> _Words:
 
 
 def _words_of(t: Transfer, layout: BoltLayout, system: str,
-              said: dict[tuple[str, str, float, tuple[int, ...]], _Words]) -> _Words:
+              said: dict[tuple[str, str, float, tuple[int, ...]], _Words],
+              named: dict[int, str]) -> _Words:
     """:func:`_words`, made once for each transfer place of one layout (``said``)."""
     key = (t.kind, t.label, t.x, t.zone)
     if key not in said:
-        said[key] = _words(t, layout, system)
+        said[key] = _words(t, layout, system, named)
     return said[key]
 
 

@@ -209,14 +209,39 @@ def plate_loads(section: Section, beam: BeamResult, combo: CombinationResult,
                       tuple(sol.dq.tolist()))
 
 
+def _around(xs: tuple[float, ...], x: float, i: int, reach: float) -> tuple[int, ...]:
+    """The stations k with |xs[k] - x| <= reach, found outwards from index i (the first
+    station at or right of x) in ascending ``xs``: |xs[k] - x| grows away from x on either
+    side (rounded subtraction keeps order), so they are one run of indices.
+    """
+    lo, hi = i, i
+    while lo > 0 and abs(xs[lo - 1] - x) <= reach:
+        lo -= 1
+    while hi < len(xs) and abs(xs[hi] - x) <= reach:
+        hi += 1
+    return tuple(range(lo, hi))
+
+
+def _zone_ascending(xs: tuple[float, ...], x: float, depth: float) -> tuple[int, ...]:
+    """:func:`_zone` for ascending stations, by bisection: the same stations."""
+    i = bisect_left(xs, x)
+    near = _around(xs, x, i, depth * (1 + 1e-9))
+    if near:
+        return near
+    best = min(abs(xs[k] - x) for k in (i - 1, i) if 0 <= k < len(xs))
+    return _around(xs, x, i, best * (1 + 1e-9) + 1e-12)
+
+
 def placed_transfers(loads: PlateLoads, layout: BoltLayout, share: float,
                      depth: float) -> list[Transfer]:
     """The concentrated transfers of ``loads`` through the bolts of ``layout``, each with
     its zone (the stations within the member depth ``depth``, at least the nearest).
     """
+    xs = layout.stations
+    ascending = all(a <= b for a, b in zip(xs, xs[1:], strict=False))
     out = []
     for kind, label, x, force in loads.forces:
-        zone = _zone(layout, x, depth)
+        zone = _zone_ascending(xs, x, depth) if ascending else _zone(layout, x, depth)
         out.append(Transfer(label, kind, x, force, share, zone,
                             sum(layout.at_station(k) for k in zone), depth))
     return out

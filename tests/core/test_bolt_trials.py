@@ -36,6 +36,8 @@ from plystack.core.design.common import (
 from plystack.core.design.transfer import (
     StationDemand,
     _load_between,
+    _zone,
+    _zone_ascending,
     distributed_load,
     governing_demand,
     governing_within,
@@ -132,6 +134,7 @@ def test_quick_paths_equal_the_plain_rule_for_every_spacing(name):
         loads = plate_loads(a.section, a.beam, combo, a.design, layout.plate, layout.extent)
         items = placed_transfers(loads, layout, share, a.section.depth)
         assert items == transfers(a.section, a.beam, combo, a.design, layout, share)
+        assert [t.zone for t in items] == [_zone(layout, t.x, a.section.depth) for t in items]
         plain = _plain_demands(a, combo, layout, share, items)
         assert placed_demands(loads, layout, share, items) == plain
         assert station_demands(a.section, a.beam, combo, layout, share, items) == plain
@@ -202,3 +205,25 @@ def test_a_carried_layout_is_frozen():
         for f in fields(obj):
             with pytest.raises(FrozenInstanceError):
                 setattr(obj, f.name, getattr(obj, f.name))
+
+
+@pytest.mark.parametrize("spacing", [0.05, 0.1524, 0.3, 0.6096, 2.0])
+def test_zone_by_bisection_equals_the_plain_scan(spacing):
+    """Stations within d of x (at least the nearest), bisected or scanned: loads at the
+    stations, halfway between them, exactly d away, just inside and outside d, beyond the
+    ends and on a plate with one station."""
+    a = run(from_dict(_us()))
+    (placed,) = a.layouts
+    d = a.section.depth
+    for start, end in ((0.0, 3.6576), (0.3048, 3.3528), (1.0, 1.2)):
+        layout = layout_of(a.section, placed.joint, a.design.bolt, (start, end), spacing,
+                           True)
+        xs = layout.stations
+        probes = [start - 0.5, end + 0.5, *xs, *((p + q) / 2 for p, q in zip(xs, xs[1:],
+                                                                              strict=False))]
+        for x in xs:
+            for r in (d, d * (1 + 1e-9)):
+                for y in (x - r, x + r):
+                    probes += [y, math.nextafter(y, -math.inf), math.nextafter(y, math.inf)]
+        for x in probes:
+            assert _zone_ascending(xs, x, d) == _zone(layout, x, d), x
