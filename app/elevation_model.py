@@ -2,10 +2,8 @@
 with the geometry rules that fail on them, the stretch a notch takes, the segment at a
 station, and the extent a dragged ply end gives.
 
-The bolt layout is not part of the published analysis; it is found again here with core's
-own ``layout_of`` at the spacing the plate's ``bolts`` check reports (the stock spacing
-core chose, or the user's), so the bolts drawn are the bolts checked: the candidate whose
-locations, count and spacing equal the check's ``fasteners`` is taken.
+The bolt layout of each plate is the one its checks used, carried by the analysis
+(``Analysis.layouts``), so the bolts drawn are the bolts checked.
 """
 
 from __future__ import annotations
@@ -13,15 +11,8 @@ from __future__ import annotations
 from collections.abc import Sequence
 from dataclasses import dataclass, replace
 
-from plystack.core.design.bolt_layout import BoltLayout, layout_of
+from plystack.core.design.bolt_layout import BoltLayout
 from plystack.core.design.check import Check
-from plystack.core.design.common import (
-    STOCK_SPACINGS_SI,
-    STOCK_SPACINGS_US,
-    Joint,
-    side_by_side_joints,
-)
-from plystack.core.design.transfer import plate_extent
 from plystack.core.model.member import BeamLayout
 from plystack.core.model.openings import Notch
 from plystack.core.model.plies import Ply
@@ -66,41 +57,6 @@ class PlateBolts:
     def edge_bottom(self) -> float:
         """From the bottom row to the timber's bottom edge, m."""
         return min(self.layout.rows) - self.timber_bottom
-
-
-def _candidates(analysis: Analysis, joint: Joint) -> list[BoltLayout]:
-    """The layouts core may have chosen for this plate, in the order it tries them."""
-    a = analysis
-    bolt, design = a.design.bolt, a.design
-    assert a.beam is not None
-    length = a.beam.model.layout.length
-    extent = plate_extent(a.section, joint.steel, length)
-    if bolt.stations or bolt.spacing is not None:
-        spacings: list[float] = [bolt.spacing or length]
-    else:
-        first, second = ((STOCK_SPACINGS_US, STOCK_SPACINGS_SI)
-                         if a.project.display_units == "US"
-                         else (STOCK_SPACINGS_SI, STOCK_SPACINGS_US))
-        spacings = [s for s in (*first, *second) if s >= 4 * bolt.diameter] or [first[-1]]
-    return [layout_of(a.section, joint, bolt, extent, s, design.us) for s in spacings]
-
-
-def _layout_for(analysis: Analysis, joint: Joint, checks: Sequence[Check]) -> BoltLayout:
-    candidates = _candidates(analysis, joint)
-    fasteners = next((c.fasteners for c in checks if c.id == "bolts"
-                      and c.fasteners is not None), None)
-    if fasteners is not None:
-        for lay in candidates:
-            if (len(lay.stations) == fasteners.locations and lay.count == fasteners.count
-                    and lay.spacing == fasteners.spacing):
-                return lay
-        if fasteners.spacing is not None:  # not one of the stock spacings: the given one
-            assert analysis.beam is not None
-            length = analysis.beam.model.layout.length
-            extent = plate_extent(analysis.section, joint.steel, length)
-            return layout_of(analysis.section, joint, analysis.design.bolt, extent,
-                             fasteners.spacing, analysis.design.us)
-    return candidates[0]
 
 
 def _close(a: float, b: float) -> bool:
@@ -159,12 +115,12 @@ def plate_bolts(analysis: Analysis | None) -> tuple[PlateBolts, ...]:
     length = a.beam.model.layout.length
     system = a.project.display_units
     out = []
-    for joint in side_by_side_joints(a.section):
+    for placed in a.layouts:
+        joint, layout = placed.joint, placed.layout
         name = a.section.plies[joint.steel].name
         own = [c for c in a.checks if c.ply == name and c.id in ("bolts", *RULE_IDS)]
-        if not own:  # no bolt checks for this plate (a missing material value, say)
+        if not own:  # no bolt checks for this plate (no strength combination, say)
             continue
-        layout = _layout_for(a, joint, own)
         top = min(float(a.section.y_top[j]) for j in joint.timbers)
         bottom = max(float(a.section.y_bottom[j]) for j in joint.timbers)
         pb = PlateBolts(joint.steel, name, layout, top, bottom, {})

@@ -25,6 +25,7 @@ from .actions.analysis import (
     creep_moduli,
 )
 from .actions.stages import is_staged, stage_solutions, stepped_stage_solutions
+from .design.bolt_checks import PlateLayout
 from .design.check import Check
 from .design.eu_lsd import eu_checks
 from .design.material_notes import material_warnings
@@ -65,6 +66,8 @@ class Analysis:
         segments: where some ply stops short of the member's ends, every stretch of
             constant section with its section and actions (empty otherwise).
         stages: both stages of a member strengthened under load (None otherwise).
+        layouts: the bolt layout of every plate whose bolts are checked, in ply order (a
+            plate whose bolts cannot be valued has none).
 
     """
 
@@ -76,6 +79,7 @@ class Analysis:
     warnings: tuple[Problem, ...]
     segments: tuple[SegmentResult, ...] = ()
     stages: StagesResult | None = None
+    layouts: tuple[PlateLayout, ...] = ()
 
     @property
     def incomplete_reasons(self) -> tuple[Problem, ...]:
@@ -99,13 +103,16 @@ class Analysis:
         return "OK"
 
 
-def run_checks(project: Project, section: Section, beam: BeamResult,
-               design: DesignSpec) -> tuple[tuple[Check, ...], list[Problem]]:
-    """Every check of the project's design basis, with warnings."""
+def run_checks(project: Project, section: Section, beam: BeamResult, design: DesignSpec,
+               layouts: list[PlateLayout] | None = None
+               ) -> tuple[tuple[Check, ...], list[Problem]]:
+    """Every check of the project's design basis, with warnings (``layouts``, where given,
+    receives the bolt layout of every plate the checks place).
+    """
     if design.us:
-        checks, warnings = us_checks(project, section, beam, design)
+        checks, warnings = us_checks(project, section, beam, design, layouts)
     else:
-        checks, warnings = eu_checks(project, section, beam, design)
+        checks, warnings = eu_checks(project, section, beam, design, layouts)
     checks += vibration_checks(project, section, beam, design, warnings)
     return checks, warnings
 
@@ -175,13 +182,15 @@ class Evaluator:
             warnings += self._density_warnings(plies)
             checks: tuple[Check, ...] = ()
             segments: tuple[SegmentResult, ...] = ()
+            layouts: list[PlateLayout] = []
             if beam is not None and beam.stepped:
                 segments = self._segments(plies, section, beam)
                 checks, check_warnings = segmented_checks(project, section, beam, segments,
-                                                          self.design, run_checks)
+                                                          self.design, run_checks, layouts)
                 warnings.extend(check_warnings)
             elif beam is not None:
-                checks, check_warnings = run_checks(project, section, beam, self.design)
+                checks, check_warnings = run_checks(project, section, beam, self.design,
+                                                    layouts)
                 warnings.extend(check_warnings)
             stages = None
             if beam is not None and is_staged(plies, self.project.beam):
@@ -195,7 +204,7 @@ class Evaluator:
                 warnings.extend(open_warnings)
             warnings += material_warnings(section, beam, project.display_units)
             out.append(Analysis(project, section, beam, self.design, checks, tuple(warnings),
-                                segments, stages))
+                                segments, stages, tuple(layouts)))
         return out
 
     def _beams(self, candidates: list[tuple[Ply, ...]],

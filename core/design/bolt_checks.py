@@ -3,6 +3,10 @@ its station (``bolts``, the most loaded bolt of each combination) and one ``load
 check for every support the plate does not bear on and every point load (see
 ``transfer``), with the ``splitting`` of the timbers there (see ``splitting``). Each basis
 supplies the value of one bolt and its factors.
+
+The layout each plate's checks choose travels with the analysis (:class:`PlateLayout`,
+``pipeline.Analysis.layouts``), so the sheet, the plate drawings and the elevation show the
+bolts that were checked without placing them again.
 """
 
 from __future__ import annotations
@@ -22,11 +26,14 @@ from .common import STOCK_SPACINGS_SI, STOCK_SPACINGS_US, Joint, plate_share
 from .net_section import net_checks, net_shear_checks
 from .splitting import SplitSite, shear_capacities, splitting_checks
 from .transfer import (
+    PlateLoads,
     StationDemand,
     Transfer,
+    governing_demand,
+    governing_within,
+    placed_transfers,
     plate_extent,
-    station_demands,
-    transfers,
+    plate_loads,
 )
 
 
@@ -65,6 +72,37 @@ class BoltValue:
                              self.partial)
 
 
+@dataclass(frozen=True)
+class PlateLayout:
+    """The bolt layout one plate's checks use.
+
+    Attributes:
+        ply: index of the steel ply.
+        joint: the plate with the timbers it is bolted to.
+        layout: where its bolts go.
+
+    """
+
+    ply: int
+    joint: Joint
+    layout: BoltLayout
+
+
+@dataclass(frozen=True)
+class BoltedPlate:
+    """The bolt checks of one plate with the layout they use.
+
+    Attributes:
+        checks: the ``bolts``, ``load-transfer`` and ``splitting`` checks, the geometry
+            of the layout and the net section at its holes.
+        layout: the plate's layout.
+
+    """
+
+    checks: tuple[Check, ...]
+    layout: PlateLayout
+
+
 def plate_layout(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
                  value: BoltValue, combos: tuple[CombinationResult, ...],
                  system: str) -> BoltLayout:
@@ -72,28 +110,63 @@ def plate_layout(section: Section, beam: BeamResult, design: DesignSpec, joint: 
     (at least 4 D) at which every bolt of every strength combination passes (the most
     loaded station and every transfer zone); the smallest such spacing where none does.
     """
+    return _choose(section, beam, design, joint, value, combos, system).layout
+
+
+#: What a trial found under one combination: its transfers and its most loaded station.
+_Found = tuple[list[Transfer], StationDemand]
+
+
+@dataclass(frozen=True)
+class _Choice:
+    """The layout :func:`plate_layout` chose with what its trial found, for the checks.
+
+    Attributes:
+        layout: the layout.
+        factors: ``layout_factors`` of the layout (None where no spacing was tried).
+        loads: the loads of each combination on the plate (empty where none was tried).
+        found: for the index of a combination the trial reached, what it found.
+
+    """
+
+    layout: BoltLayout
+    factors: tuple[dict[str, float], dict[str, str]] | None
+    loads: tuple[PlateLoads, ...]
+    found: dict[int, _Found]
+
+
+def _choose(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
+            value: BoltValue, combos: tuple[CombinationResult, ...], system: str) -> _Choice:
+    """:func:`plate_layout`, keeping what the trial of the chosen spacing computed (the
+    loads of each combination are found once for all the spacings).
+    """
     bolt = design.bolt
     L = beam.model.layout.length
     extent = plate_extent(section, joint.steel, L)
     if bolt.stations or bolt.spacing is not None:
-        return layout_of(section, joint, bolt, extent, bolt.spacing or L, design.us)
+        return _Choice(layout_of(section, joint, bolt, extent, bolt.spacing or L, design.us),
+                       None, (), {})
     share = plate_share(section, joint.steel)
+    depth = section.depth
     stock = STOCK_SPACINGS_US if system == "US" else STOCK_SPACINGS_SI
     allowed = [s for s in stock if s >= 4 * bolt.diameter] or [stock[-1]]
-    layout = layout_of(section, joint, bolt, extent, allowed[0], design.us)
+    loads = tuple(plate_loads(section, beam, c, design, joint.steel, extent) for c in combos)
     for s in allowed:
         layout = layout_of(section, joint, bolt, extent, s, design.us)
-        geo = layout_factors(section, joint, layout, design, L)[0]
-        if all(_worst_per_bolt(section, beam, c, design, layout, share)
-               <= value.capacity(c, geo) for c in combos):
-            return layout
-    return layout
-
-
-def _worst_per_bolt(section: Section, beam: BeamResult, combo: CombinationResult,
-                    design: DesignSpec, layout: BoltLayout, share: float) -> float:
-    items = transfers(section, beam, combo, design, layout, share)
-    return governing_station(station_demands(section, beam, combo, layout, share, items)).per_bolt
+        factors = layout_factors(section, joint, layout, design, L)
+        found: dict[int, _Found] = {}
+        for k, c in enumerate(combos):
+            items = placed_transfers(loads[k], layout, share, depth)
+            capacity = value.capacity(c, factors[0])
+            gov = governing_within(loads[k], layout, share, items, capacity)
+            if gov is None:  # a station carries more than the capacity
+                break
+            found[k] = (items, gov)
+            if not gov.per_bolt <= capacity:
+                break
+        else:
+            break
+    return _Choice(layout, factors, loads, found)  # the last one tried where none passes
 
 
 def layout_text(layout: BoltLayout, system: str) -> str:
@@ -115,23 +188,41 @@ def plate_bolt_checks(section: Section, beam: BeamResult, design: DesignSpec, jo
     and the bending and the timbers' shear on the net section at its holes (from the
     ``gross`` bending and shear checks).
     """
-    combos = beam.strength() or beam.combinations
-    layout = plate_layout(section, beam, design, joint, value, combos, system)
+    return list(bolted_plate(section, beam, design, joint, value, system, gross).checks)
+
+
+def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
+                 value: BoltValue, system: str, gross: list[Check]) -> BoltedPlate:
+    """The checks of :func:`plate_bolt_checks` with the layout they use."""
+    strength = beam.strength()
+    combos = strength or beam.combinations
+    choice = _choose(section, beam, design, joint, value, combos, system)
+    layout = choice.layout
     share = plate_share(section, joint.steel)
     steel = section.plies[joint.steel].name
     fasteners = Fasteners(locations=len(layout.stations), rows=len(layout.rows),
                           count=layout.count, spacing=layout.spacing)
     L = beam.model.layout.length
-    geo, geo_sources = layout_factors(section, joint, layout, design, L)
+    geo, geo_sources = (choice.factors if choice.factors is not None else
+                        layout_factors(section, joint, layout, design, L))
     value = replace(value, sources={**value.sources, **{k: v for k, v in geo_sources.items()
                                                          if k in value.sources}})
     out: list[Check] = geometry_checks(section, joint, layout, design, L, system)
     out += net_checks(section, joint, layout, design, gross)
     out += net_shear_checks(section, joint, layout, design, beam, gross, system)
-    for combo in beam.strength():
+    extent = layout.extent
+    where = layout_text(layout, system)
+    said: dict[tuple[str, str, float, tuple[int, ...]], _Words] = {}
+    named: dict[int, str] = {}
+    for k, combo in enumerate(strength):
         f = value.adjusted(combo, geo)
-        items = transfers(section, beam, combo, design, layout, share)
-        gov = governing_station(station_demands(section, beam, combo, layout, share, items))
+        found = choice.found.get(k)
+        if found is None:
+            loads = (choice.loads[k] if choice.loads else
+                     plate_loads(section, beam, combo, design, joint.steel, extent))
+            items = placed_transfers(loads, layout, share, section.depth)
+            found = (items, governing_demand(loads, layout, share, items))
+        items, gov = found
         source = ("the transfers of the zones it is in" if gov.from_transfers >= gov.net
                   else "the load on its tributary length with the transfers of its zones")
         out.append(Check(
@@ -142,37 +233,85 @@ def plate_bolt_checks(section: Section, beam: BeamResult, design: DesignSpec, jo
             equation=("load per bolt at its station = max(|alpha w_trib / n + sum (+/-) "
                       "alpha F / n_zone|, sum alpha F / n_zone) <= "
                       f"{value.capacity_symbol}"),
-            location=layout_text(layout, system), fasteners=fasteners, x=gov.x,
+            location=where, fasteners=fasteners, x=gov.x,
             notes=(*value.notes,
                    f"Plate's share of the load E_p I_p / EI = {share:.3f}.",
                    f"Most loaded bolts: station {gov.station + 1} of {len(layout.stations)} "
                    f"at x = {fmt(gov.x, 'span', system)}, {gov.bolts} bolts, governed by "
                    f"{source}.", CAUTION)))
-        out += [_transfer_check(t, layout, combo, value, f, steel, system) for t in items]
+        words = [_words_of(t, layout, system, said, named) for t in items]
+        out += [_transfer_check(t, w, combo, value, f, steel)
+                for t, w in zip(items, words, strict=True)]
         shear = shear_capacities(gross, combo.name)
-        for t in items:
-            out += splitting_checks(section, joint, split_site(t, layout, system), design,
+        for t, w in zip(items, words, strict=True):
+            out += splitting_checks(section, joint, _site(t, w), design,
                                     combo.name, f.get("k_mod"), shear, L, system)
-    return out
+    return BoltedPlate(tuple(out), PlateLayout(joint.steel, joint, layout))
+
+
+@dataclass(frozen=True)
+class _Words:
+    """What the checks of a transfer say of its place, the same under every combination.
+
+    Attributes:
+        where: "support at x = ..." or "point load at x = ..." (display units).
+        location: the check's location.
+        zone: the note on the transfer zone.
+        stations: positions of the zone's stations, m.
+        heights: heights of the zone's bolts, m.
+
+    """
+
+    where: str
+    location: str
+    zone: str
+    stations: tuple[float, ...]
+    heights: tuple[float, ...]
+
+
+def _words(t: Transfer, layout: BoltLayout, system: str,
+           named: dict[int, str] | None = None) -> _Words:
+    """The words of a transfer's place (``named``: the stations' positions in words, by
+    index, filled as they are first written).
+    """
+    named = {} if named is None else named
+    for k in t.zone:
+        if k not in named:
+            named[k] = fmt(layout.stations[k], "span", system)
+    xs = ", ".join(named[k] for k in t.zone)
+    at = fmt(t.x, "span", system)
+    where = f"support at x = {at}" if t.kind == "support" else f"point load at x = {at}"
+    return _Words(where, t.label if t.kind == "support" else where,
+                  f"Transfer zone of the {where}: {fmt(t.zone_half_width, 'length', system)} "
+                  f"either side; stations at {xs}, {t.bolts} bolts.",
+                  tuple(layout.stations[k] for k in t.zone),
+                  tuple(layout.rows[r] for k in t.zone for r in layout.station_rows[k]))
+
+
+def _words_of(t: Transfer, layout: BoltLayout, system: str,
+              said: dict[tuple[str, str, float, tuple[int, ...]], _Words],
+              named: dict[int, str]) -> _Words:
+    """:func:`_words`, made once for each transfer place of one layout (``said``)."""
+    key = (t.kind, t.label, t.x, t.zone)
+    if key not in said:
+        said[key] = _words(t, layout, system, named)
+    return said[key]
+
+
+def _site(t: Transfer, w: _Words) -> SplitSite:
+    force = -t.share * t.force if t.kind == "support" else t.share * t.force
+    return SplitSite(w.location, t.x, force, w.stations, w.heights)
 
 
 def split_site(t: Transfer, layout: BoltLayout, system: str) -> SplitSite:
     """The splitting site of a transfer: at a support the plate's share goes down into
     the timbers, under a point load the bolts push them up (see ``splitting``).
     """
-    force = -t.share * t.force if t.kind == "support" else t.share * t.force
-    where = fmt(t.x, "span", system)
-    return SplitSite(t.label if t.kind == "support" else f"point load at x = {where}",
-                     t.x, force, tuple(layout.stations[k] for k in t.zone),
-                     tuple(layout.rows[r] for k in t.zone for r in layout.station_rows[k]))
+    return _site(t, _words(t, layout, system))
 
 
-def _transfer_check(t: Transfer, layout: BoltLayout, combo: CombinationResult,
-                    value: BoltValue, f: dict[str, float], steel: str,
-                    system: str) -> Check:
-    xs = ", ".join(fmt(layout.stations[k], "span", system) for k in t.zone)
-    where = (f"support at x = {fmt(t.x, 'span', system)}" if t.kind == "support"
-             else f"point load at x = {fmt(t.x, 'span', system)}")
+def _transfer_check(t: Transfer, w: _Words, combo: CombinationResult, value: BoltValue,
+                    f: dict[str, float], steel: str) -> Check:
     factors = {"n": float(t.bolts), **f}
     return Check(
         id="load-transfer", ply=steel, combination=combo.name, demand=t.demand,
@@ -182,10 +321,9 @@ def _transfer_check(t: Transfer, layout: BoltLayout, combo: CombinationResult,
                  "member depth d of the support or load, at least the nearest (common "
                  "practice)"},
         equation=f"alpha F <= n {value.capacity_symbol}",
-        location=t.label if t.kind == "support" else where,
+        location=w.location,
         x=t.x, fasteners=Fasteners(locations=len(t.zone), count=t.bolts),
-        notes=(f"Transfer zone of the {where}: {fmt(t.zone_half_width, 'length', system)} "
-               f"either side; stations at {xs}, {t.bolts} bolts.",
+        notes=(w.zone,
                ("The plate does not bear on this support: its share of the reaction reaches "
                 "the timbers through these bolts." if t.kind == "support" else
                 "The load bears on the timbers: the plate's share enters through these "

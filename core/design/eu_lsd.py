@@ -29,7 +29,7 @@ from ..model.project import Project
 from ..model.units import fmt
 from ..section.transformed import Section
 from .bearing import eu_bearing
-from .bolt_checks import BoltValue, plate_bolt_checks
+from .bolt_checks import BoltValue, PlateLayout, bolted_plate, plate_layout
 from .check import Check, capacity_from
 from .common import (
     EDGE_END_REMINDERS,
@@ -54,8 +54,11 @@ S_GM = "EN 1995-1-1 Table 2.3 (from memory)"
 
 
 def eu_checks(project: Project, section: Section, beam: BeamResult,
-              design: DesignSpec) -> tuple[tuple[Check, ...], list[Problem]]:
-    """Every EU-LSD check of the project."""
+              design: DesignSpec, layouts: list[PlateLayout] | None = None
+              ) -> tuple[tuple[Check, ...], list[Problem]]:
+    """Every EU-LSD check of the project (``layouts``, where given, receives the bolt
+    layout of every plate whose bolts can be valued).
+    """
     checks: list[Check] = []
     warnings: list[Problem] = []
     uls = list(beam.strength())
@@ -158,7 +161,8 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
                                          "checked"))
     checks += eu_bearing(section, beam, design, uls, warnings)
     checks += _deflections(section, beam, design, warnings)
-    checks += _bolts(section, beam, design, uls, project.display_units, warnings, checks)
+    checks += _bolts(section, beam, design, uls, project.display_units, warnings, checks,
+                     layouts)
     checks += connector_checks(section, beam, design, project.display_units, warnings)
     checks += uplift_checks(beam, project.display_units)
     warnings += pattern_notes(beam)
@@ -200,14 +204,39 @@ def _deflections(section: Section, beam: BeamResult, design: DesignSpec,
 
 
 def _bolts(section: Section, beam: BeamResult, design: DesignSpec, uls: list,  # type: ignore[type-arg]
-           system: str, warnings: list[Problem], gross: list[Check]) -> list[Check]:
+           system: str, warnings: list[Problem], gross: list[Check],
+           layouts: list[PlateLayout] | None = None) -> list[Check]:
+    """The bolt checks of every plate; each plate's layout appended to ``layouts`` (without
+    a ULS combination there are no checks, and the layout is placed over every
+    combination, as the plate drawings have always had it).
+    """
     if not uls:
+        if layouts is not None:
+            layouts += _layouts_without_checks(section, beam, design, system)
         return []
-    out = []
+    out: list[Check] = []
     for jt in side_by_side_joints(section):
         value = bolt_value(section, design, jt, system, warnings)
         if value is not None:
-            out += plate_bolt_checks(section, beam, design, jt, value, system, gross)
+            made = bolted_plate(section, beam, design, jt, value, system, gross)
+            out += made.checks
+            if layouts is not None:
+                layouts.append(made.layout)
+    return out
+
+
+def _layouts_without_checks(section: Section, beam: BeamResult, design: DesignSpec,
+                            system: str) -> list[PlateLayout]:
+    """The layout of every plate whose bolts can be valued, where no bolt is checked (no
+    ULS combination: the warnings are the combinations' own, so the bolts' are dropped).
+    """
+    scratch: list[Problem] = []
+    out = []
+    for jt in side_by_side_joints(section):
+        value = bolt_value(section, design, jt, system, scratch)
+        if value is not None:
+            out.append(PlateLayout(jt.steel, jt, plate_layout(
+                section, beam, design, jt, value, beam.combinations, system)))
     return out
 
 

@@ -16,8 +16,9 @@ missing check.
 from __future__ import annotations
 
 import re
-from collections.abc import Callable, Sequence
+from collections.abc import Sequence
 from dataclasses import dataclass, replace
+from typing import Protocol
 
 from ..actions.analysis import BeamResult, creep_moduli
 from ..model.design import DesignSpec
@@ -25,14 +26,20 @@ from ..model.errors import Problem
 from ..model.project import Project
 from ..section.segments import Segment
 from ..section.transformed import Section, with_moduli
+from .bolt_checks import PlateLayout
 from .check import Check
 from .ply_ends import ply_end_checks
 
 #: Checks made in every segment (the plies' stresses); the others are the member's.
 SEGMENT_IDS = frozenset({"bending", "shear", "tension-bending", "compression-bending"})
 
-RunChecks = Callable[[Project, Section, BeamResult, DesignSpec],
-                     tuple[tuple[Check, ...], list[Problem]]]
+class RunChecks(Protocol):
+    """The checks of a section under its actions (``pipeline.run_checks``)."""
+
+    def __call__(self, project: Project, section: Section, beam: BeamResult,
+                 design: DesignSpec, layouts: list[PlateLayout] | None = None
+                 ) -> tuple[tuple[Check, ...], list[Problem]]:
+        """Checks and warnings; the plates' bolt layouts appended to ``layouts``."""
 
 
 @dataclass(frozen=True, eq=False)
@@ -82,11 +89,13 @@ def _remap(problem: Problem, plies: tuple[int, ...]) -> Problem:
 
 def segmented_checks(project: Project, section: Section, beam: BeamResult,
                      segments: Sequence[SegmentResult], design: DesignSpec,
-                     run_checks: RunChecks) -> tuple[tuple[Check, ...], list[Problem]]:
+                     run_checks: RunChecks, layouts: list[PlateLayout] | None = None
+                     ) -> tuple[tuple[Check, ...], list[Problem]]:
     """Every check of a stepped member (see the module text), each stress check with
-    its segment and its x; warnings once each.
+    its segment and its x; warnings once each. ``layouts`` receives the bolt layouts of
+    the member's checks (the bolts are checked once, on the whole member).
     """
-    member, warnings = run_checks(project, section, beam, design)
+    member, warnings = run_checks(project, section, beam, design, layouts)
     ends, gaps = ply_end_checks(section, beam, segments, design, project.display_units,
                                 member)
     warnings += gaps

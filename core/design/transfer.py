@@ -20,6 +20,7 @@ station's bolts, plus the share per bolt of every transfer whose zone holds the 
 from __future__ import annotations
 
 import math
+from bisect import bisect_left, bisect_right
 from dataclasses import dataclass, replace
 
 import numpy as np
@@ -169,27 +170,92 @@ def _zone(layout: BoltLayout, x: float, depth: float) -> tuple[int, ...]:
     return tuple(k for k, s in enumerate(xs) if abs(s - x) <= best * (1 + 1e-9) + 1e-12)
 
 
+@dataclass(frozen=True)
+class PlateLoads:
+    """What one combination puts on one plate, whatever its layout: found once and used for
+    every spacing tried and for the checks of the one chosen.
+
+    Attributes:
+        forces: (kind, label, x, force) of every concentrated transfer on the plate's
+            length, in the order of :func:`transfers` (supports, then point loads).
+        nodes: the mesh nodes, m, ascending.
+        q: the solution's distributed load at the start of each element, N/m (upward
+            positive).
+        dq: its change along each element, N/m^2.
+
+    """
+
+    forces: tuple[tuple[str, str, float, float], ...]
+    nodes: tuple[float, ...]
+    q: tuple[float, ...]
+    dq: tuple[float, ...]
+
+
+def plate_loads(section: Section, beam: BeamResult, combo: CombinationResult,
+                design: DesignSpec, plate: int, extent: tuple[float, float]) -> PlateLoads:
+    """The loads of one combination on steel ply ``plate`` running over ``extent``: every
+    support it does not bear on (reaction: the largest over the arrangements), every point
+    load on its length, and the distributed load.
+    """
+    L = beam.model.layout.length
+    start, end = extent
+    items = [("support", f"support {k + 1}", xs, float(combo.reactions_max[k]))
+             for k, xs in enumerate(beam.model.layout.support_positions())
+             if start - 1e-9 <= xs <= end + 1e-9
+             and not plate_bears(design, section, plate, xs, L)]
+    items += [("point", f"point load at x = {x:.6g} m", x, P) for x, P in
+              point_loads(beam, combo) if start - 1e-9 <= x <= end + 1e-9]
+    sol = combo.solution
+    return PlateLoads(tuple(items), tuple(beam.model.nodes.tolist()), tuple(sol.q.tolist()),
+                      tuple(sol.dq.tolist()))
+
+
+def _around(xs: tuple[float, ...], x: float, i: int, reach: float) -> tuple[int, ...]:
+    """The stations k with |xs[k] - x| <= reach, found outwards from index i (the first
+    station at or right of x) in ascending ``xs``: |xs[k] - x| grows away from x on either
+    side (rounded subtraction keeps order), so they are one run of indices.
+    """
+    lo, hi = i, i
+    while lo > 0 and abs(xs[lo - 1] - x) <= reach:
+        lo -= 1
+    while hi < len(xs) and abs(xs[hi] - x) <= reach:
+        hi += 1
+    return tuple(range(lo, hi))
+
+
+def _zone_ascending(xs: tuple[float, ...], x: float, depth: float) -> tuple[int, ...]:
+    """:func:`_zone` for ascending stations, by bisection: the same stations."""
+    i = bisect_left(xs, x)
+    near = _around(xs, x, i, depth * (1 + 1e-9))
+    if near:
+        return near
+    best = min(abs(xs[k] - x) for k in (i - 1, i) if 0 <= k < len(xs))
+    return _around(xs, x, i, best * (1 + 1e-9) + 1e-12)
+
+
+def placed_transfers(loads: PlateLoads, layout: BoltLayout, share: float,
+                     depth: float) -> list[Transfer]:
+    """The concentrated transfers of ``loads`` through the bolts of ``layout``, each with
+    its zone (the stations within the member depth ``depth``, at least the nearest).
+    """
+    xs = layout.stations
+    ascending = all(a <= b for a, b in zip(xs, xs[1:], strict=False))
+    out = []
+    for kind, label, x, force in loads.forces:
+        zone = _zone_ascending(xs, x, depth) if ascending else _zone(layout, x, depth)
+        out.append(Transfer(label, kind, x, force, share, zone,
+                            sum(layout.at_station(k) for k in zone), depth))
+    return out
+
+
 def transfers(section: Section, beam: BeamResult, combo: CombinationResult,
               design: DesignSpec, layout: BoltLayout, share: float) -> list[Transfer]:
     """The concentrated transfers of one plate under one combination: every support the
     plate does not bear on (reaction: the largest over the arrangements) and every point
     load on the plate's length.
     """
-    L = beam.model.layout.length
-    d = section.depth
-    start, end = layout.extent
-    out = []
-    items = [("support", f"support {k + 1}", xs, float(combo.reactions_max[k]))
-             for k, xs in enumerate(beam.model.layout.support_positions())
-             if start - 1e-9 <= xs <= end + 1e-9
-             and not plate_bears(design, section, layout.plate, xs, L)]
-    items += [("point", f"point load at x = {x:.6g} m", x, P) for x, P in
-              point_loads(beam, combo) if start - 1e-9 <= x <= end + 1e-9]
-    for kind, label, x, force in items:
-        zone = _zone(layout, x, d)
-        out.append(Transfer(label, kind, x, force, share, zone,
-                            sum(layout.at_station(k) for k in zone), d))
-    return out
+    loads = plate_loads(section, beam, combo, design, layout.plate, layout.extent)
+    return placed_transfers(loads, layout, share, section.depth)
 
 
 def shear_right_of(model: BeamModel, sol: CaseSolution, x: float) -> float:
@@ -220,20 +286,104 @@ def distributed_load(model: BeamModel, sol: CaseSolution, a: float, b: float) ->
     return total
 
 
+def _tributaries(layout: BoltLayout) -> list[tuple[float, float]]:
+    """(a, b) of every station's tributary (``BoltLayout.tributary``, all at once)."""
+    xs = layout.stations
+    last = len(xs) - 1
+    return [(layout.extent[0] if k == 0 else (xs[k - 1] + xs[k]) / 2,
+             layout.extent[1] if k == last else (xs[k] + xs[k + 1]) / 2)
+            for k in range(len(xs))]
+
+
+def _load_between(loads: PlateLoads, a: float, b: float) -> float:
+    """:func:`distributed_load` on the loads' element values: the same terms in the same
+    order, so the same float.
+    """
+    nodes, q, dq = loads.nodes, loads.q, loads.dq
+    total = 0.0
+    first = bisect_right(nodes, a, 1) - 1  # searchsorted(nodes[1:], a, "right")
+    last = bisect_left(nodes, b, 0, len(nodes) - 1)  # searchsorted(nodes[:-1], b, "left")
+    for e in range(first, max(first, last)):
+        x0 = nodes[e]
+        s0 = max(a, x0) - x0
+        s1 = min(b, nodes[e + 1]) - x0
+        if s1 > s0:
+            total -= q[e] * (s1 - s0) + dq[e] * (s1**2 - s0**2) / 2
+    return total
+
+
+def _zones_of(layout: BoltLayout, items: list[Transfer]) -> list[list[int]]:
+    """For every station, the indices (into ``items``, in order) of the transfers whose
+    zone holds it.
+    """
+    held: list[list[int]] = [[] for _ in layout.stations]
+    for j, t in enumerate(items):
+        for k in t.zone:
+            held[k].append(j)
+    return held
+
+
+def placed_demands(loads: PlateLoads, layout: BoltLayout, share: float,
+                   items: list[Transfer]) -> list[StationDemand]:
+    """The bolt force of every station of ``layout`` under ``loads`` (see
+    :func:`station_demands`).
+    """
+    held = _zones_of(layout, items)
+    return [StationDemand(k, x, a, b, _load_between(loads, a, b), layout.at_station(k),
+                          tuple(items[j] for j in held[k]), share)
+            for k, (x, (a, b)) in enumerate(zip(layout.stations, _tributaries(layout),
+                                                strict=True))]
+
+
+def governing_demand(loads: PlateLoads, layout: BoltLayout, share: float,
+                     items: list[Transfer]) -> StationDemand:
+    """The station whose bolts carry the most (the first of equals), as
+    ``max(placed_demands(...), key=StationDemand.per_bolt)`` finds it, with the same
+    arithmetic on plain numbers and only the governing station made.
+    """
+    found = governing_within(loads, layout, share, items, math.inf)
+    assert found is not None  # nothing exceeds infinity (a NaN never compares greater)
+    return found
+
+
+def governing_within(loads: PlateLoads, layout: BoltLayout, share: float,
+                     items: list[Transfer], limit: float) -> StationDemand | None:
+    """:func:`governing_demand`, or None as soon as the most loaded station so far carries
+    more than ``limit`` per bolt (then the governing one does too: the layout fails).
+    """
+    held = _zones_of(layout, items)
+    own = [t.per_bolt for t in items]
+    signed_own = [p * (1.0 if t.kind == "point" else -1.0) for p, t in zip(own, items,
+                                                                             strict=True)]
+    trib = _tributaries(layout)
+    rows = layout.station_rows
+    best_k, best, best_w = -1, 0.0, 0.0
+    for k, js in enumerate(held):
+        a, b = trib[k]
+        w = _load_between(loads, a, b)
+        net = abs(share * w / len(rows[k]) + sum(signed_own[j] for j in js))
+        per = max(net, sum(own[j] for j in js))
+        if best_k < 0 or per > best:
+            best_k, best, best_w = k, per, w
+            if best > limit:
+                return None
+    a, b = trib[best_k]
+    return StationDemand(best_k, layout.stations[best_k], a, b, best_w,
+                         layout.at_station(best_k), tuple(items[j] for j in held[best_k]),
+                         share)
+
+
 def station_demands(section: Section, beam: BeamResult, combo: CombinationResult,
                     layout: BoltLayout, share: float,
                     items: list[Transfer]) -> list[StationDemand]:
     """The bolt force of every station of a plate under one combination (every region
     loaded: the load on a tributary is largest with the loads on it).
     """
+    sol = combo.solution
+    loads = PlateLoads((), tuple(beam.model.nodes.tolist()), tuple(sol.q.tolist()),
+                       tuple(sol.dq.tolist()))
     del section
-    out = []
-    for k, x in enumerate(layout.stations):
-        a, b = layout.tributary(k)
-        w = distributed_load(beam.model, combo.solution, a, b)
-        out.append(StationDemand(k, x, a, b, w, layout.at_station(k),
-                                 tuple(t for t in items if k in t.zone), share))
-    return out
+    return placed_demands(loads, layout, share, items)
 
 
 def without_plates(section: Section) -> Section:

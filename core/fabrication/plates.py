@@ -22,7 +22,6 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from ..design import eu_lsd, us_asd
-from ..design.bolt_checks import plate_layout
 from ..design.bolt_layout import BoltLayout, layout_of
 from ..design.common import Joint, side_by_side_joints
 from ..design.net_section import hole_diameter
@@ -171,7 +170,12 @@ def clearance_note(design: DesignSpec) -> str:
 
 
 def _layout(a: Analysis, joint: Joint) -> BoltLayout:
-    """The layout the bolt checks use for this plate (see ``design.bolt_checks``)."""
+    """The layout the bolt checks used for this plate (``Analysis.layouts``); the user's
+    stations or spacing where its bolts could not be valued.
+    """
+    placed = next((p.layout for p in a.layouts if p.ply == joint.steel), None)
+    if placed is not None:
+        return placed
     s, beam, design = a.section, a.beam, a.design
     assert beam is not None
     bolt, system = design.bolt, a.project.display_units
@@ -181,14 +185,11 @@ def _layout(a: Analysis, joint: Joint) -> BoltLayout:
                          bolt.spacing or length, design.us)
     warnings: list[Problem] = []
     driver = us_asd if design.us else eu_lsd
-    value = driver.bolt_value(s, design, joint, system, warnings)
-    if value is None:
-        name = plain(s.plies[joint.steel].name)
-        raise ProjectError([*warnings, Problem(
-            "design.bolt.spacing", f'the bolts of "{name}" cannot be checked, so no spacing '
-            "was chosen for them; give the spacing or the stations to draw the plate")])
-    return plate_layout(s, beam, design, joint, value, beam.strength() or beam.combinations,
-                        system)
+    driver.bolt_value(s, design, joint, system, warnings)  # the reasons, for the message
+    name = plain(s.plies[joint.steel].name)
+    raise ProjectError([*warnings, Problem(
+        "design.bolt.spacing", f'the bolts of "{name}" cannot be checked, so no spacing '
+        "was chosen for them; give the spacing or the stations to draw the plate")])
 
 
 def _holes(layout: BoltLayout, start: float, bottom: float) -> tuple[tuple[float, float], ...]:

@@ -2,8 +2,9 @@
 its tributary length and load, the transfer zones, and the timbers' shear beside a
 support the plate does not bear on.
 
-Each value is recomputed here with the design modules' own functions (layout, transfer
-zones, station loads) and compared with the check's demand.
+Each value is recomputed here with the design modules' own functions (transfer zones,
+station loads) on the layout the checks used (``Analysis.layouts``) and compared with the
+check's demand.
 """
 
 from __future__ import annotations
@@ -13,11 +14,9 @@ import math
 import numpy as np
 
 from ..actions.analysis import CombinationResult
-from ..design import eu_lsd, us_asd
-from ..design.bolt_checks import plate_layout
 from ..design.bolt_layout import BoltLayout
 from ..design.check import Check
-from ..design.common import Joint, plate_share, side_by_side_joints
+from ..design.common import Joint, plate_share
 from ..design.net_section import hole_diameter, modulus_loss, net_section, net_shear
 from ..design.transfer import (
     StationDemand,
@@ -27,7 +26,6 @@ from ..design.transfer import (
     transfers,
     without_plates,
 )
-from ..model.errors import Problem
 from ..pipeline import Analysis
 from ..section.transformed import Section
 from .numbers import NBSP, TIMES, num, q
@@ -46,39 +44,24 @@ def plate_setup(a: Analysis, c: Check, plate: str | None = None) -> tuple[Joint,
     s, beam = a.section, a.beam
     assert beam is not None
     name = plate or c.ply
-    jt = next(j for j in side_by_side_joints(s) if s.plies[j.steel].name == name)
-    layout = layout_for(a, jt)
-    if layout is None:
+    placed = next((p for p in a.layouts if s.plies[p.ply].name == name), None)
+    if placed is None:
         raise ValueError("the plate's bolt value cannot be made")
-    return jt, layout, plate_share(s, jt.steel)
+    return placed.joint, placed.layout, plate_share(s, placed.ply)
 
 
 def layout_for(a: Analysis, jt: Joint) -> BoltLayout | None:
-    """The bolt layout of one plate as its design checks place it (None where the bolt's
+    """The bolt layout of one plate as its design checks placed it (None where the bolt's
     value cannot be made, so neither can the layout).
     """
-    s, beam = a.section, a.beam
-    assert beam is not None
-    unit = a.project.display_units
-    driver = us_asd if a.design.us else eu_lsd
-    warnings: list[Problem] = []
-    value = driver.bolt_value(s, a.design, jt, unit, warnings)
-    if value is None:
-        return None
-    combos = beam.strength() or beam.combinations
-    return plate_layout(s, beam, a.design, jt, value, combos, unit)
+    return next((p.layout for p in a.layouts if p.ply == jt.steel), None)
 
 
 def plate_layouts(a: Analysis) -> list[tuple[Joint, BoltLayout]]:
     """Every bolted plate of the member with its layout, in ply order."""
     if a.beam is None:
         return []
-    out = []
-    for jt in side_by_side_joints(a.section):
-        layout = layout_for(a, jt)
-        if layout is not None:
-            out.append((jt, layout))
-    return out
+    return [(p.joint, p.layout) for p in a.layouts]
 
 
 def _items(a: Analysis, c: Check, layout: BoltLayout, share: float) -> list[Transfer]:
