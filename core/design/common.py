@@ -54,7 +54,7 @@ def _unit_shear_stress(section: Section) -> np.ndarray:
     ys = np.unique(np.concatenate([np.linspace(lo, hi, 41), section.y_bottom, section.y_top,
                                    [section.neutral_axis_y]]))
     tau = np.abs(section.shear_stress(1.0, ys))
-    out = np.asarray(np.nan_to_num(np.nanmax(np.where(np.isfinite(tau), tau, 0.0), axis=1)))
+    out = np.asarray(np.where(np.isfinite(tau), tau, 0.0).max(axis=1))  # no NaN is left
     out.setflags(write=False)
     return out
 
