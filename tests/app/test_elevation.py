@@ -25,6 +25,7 @@ from plystack.app.elevation_model import (
     concerned_bolts,
     dragged_extent,
     notch_span,
+    plate_bolts,
     segment_at,
 )
 from plystack.core.design.bolt_layout import BoltLayout
@@ -441,3 +442,20 @@ def test_a_project_without_a_beam_draws_an_empty_elevation(qtbot):
     assert not w.elevation.drawing.bars.items
     QTest.mouseClick(w.elevation.viewport(), LEFT, NONE, QPoint(50, 50))
     assert w.analysis_model.station is None
+
+
+def test_the_elevation_draws_the_layouts_the_analysis_carries():
+    """No layout is placed again for the drawing: each plate's bolts are the very layout
+    its checks used (``Analysis.layouts``), for the demo and for a plate stopping short."""
+    from plystack.core.io.project_file import from_dict
+    from plystack.core.pipeline import run
+
+    data = json.loads(DEMO.read_text(encoding="utf-8"))
+    data.pop("alternatives", None)
+    for extent in ({}, {"from": "1 ft", "to": "11 ft"}):
+        data["plies"][1].update(extent)
+        a = run(from_dict(data))
+        drawn = plate_bolts(a)
+        assert len(drawn) == len(a.layouts) == 1
+        assert drawn[0].layout is a.layouts[0].layout
+        assert drawn[0].plate == a.layouts[0].ply == 1
