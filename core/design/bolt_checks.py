@@ -22,9 +22,9 @@ from ..section.transformed import Section
 from .bolt_geometry import geometry_checks, layout_factors
 from .bolt_layout import BoltLayout, layout_of
 from .check import Check, Fasteners, capacity_from
-from .common import STOCK_SPACINGS_SI, STOCK_SPACINGS_US, Joint, plate_share
+from .common import STOCK_SPACINGS_SI, STOCK_SPACINGS_US, Joint, own_checks, plate_share
 from .net_section import net_checks, net_shear_checks
-from .splitting import SplitSite, shear_capacities, splitting_checks
+from .splitting import SplitSite, splitting_checks
 from .transfer import (
     PlateLoads,
     StationDemand,
@@ -242,7 +242,7 @@ def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: 
         words = [_words_of(t, layout, system, said, named) for t in items]
         out += [_transfer_check(t, w, combo, value, f, steel)
                 for t, w in zip(items, words, strict=True)]
-        shear = shear_capacities(gross, combo.name)
+        shear = own_checks(section, gross).shear_capacity.get(combo.name, {})
         for t, w in zip(items, words, strict=True):
             out += splitting_checks(section, joint, _site(t, w), design,
                                     combo.name, f.get("k_mod"), shear, L, system)

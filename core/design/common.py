@@ -4,6 +4,7 @@ checks, joint layout of side-by-side plies, and stock fastener spacings.
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 
 import numpy as np
@@ -18,7 +19,7 @@ from ..section.gamma import PartialSection
 from ..section.geometry import TOUCH_TOLERANCE, near_pairs
 from ..section.transformed import Section
 from .check import Check, CheckId, Fasteners
-from .memo import once
+from .memo import of_list, once
 from .slip import slip_connector_checks
 
 #: Stock spacings tried for fasteners, largest first, at most 24 in / 600 mm (common
@@ -154,6 +155,45 @@ def _joints(section: Section) -> list[Joint]:
         if timbers:
             joints.append(Joint(i, timbers, len(timbers) == 2))
     return joints
+
+
+@dataclass(frozen=True, eq=False)
+class OwnChecks:
+    """The ordinary checks of the plies, looked up instead of searched for.
+
+    Attributes:
+        shear: the first ``shear`` check without a location or segment of each
+            (ply, combination).
+        bending: the ``bending`` checks of each ply, in their order.
+        shear_capacity: per combination, F'v of each ply: the capacity of its last finite
+            ``shear`` check without a location.
+
+    """
+
+    shear: dict[tuple[str, str], Check]
+    bending: dict[str, list[Check]]
+    shear_capacity: dict[str, dict[str, float]]
+
+
+def own_checks(section: Section, gross: list[Check]) -> OwnChecks:
+    """The :class:`OwnChecks` of ``gross``, the checks of ``section`` (found once for the
+    list as it stands).
+    """
+    def make() -> OwnChecks:
+        shear: dict[tuple[str, str], Check] = {}
+        bending: dict[str, list[Check]] = {}
+        capacity: dict[str, dict[str, float]] = {}
+        for c in gross:
+            if c.id == "bending" and c.ply is not None:
+                bending.setdefault(c.ply, []).append(c)
+            elif (c.id == "shear" and c.ply is not None and c.combination is not None
+                  and not c.location):
+                if c.segment is None:
+                    shear.setdefault((c.ply, c.combination), c)
+                if math.isfinite(c.capacity):
+                    capacity.setdefault(c.combination, {})[c.ply] = c.capacity
+        return OwnChecks(shear, bending, capacity)
+    return of_list(section, "own_checks", gross, make)  # type: ignore[arg-type]
 
 
 def plate_share(section: Section, i: int) -> float:

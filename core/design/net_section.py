@@ -39,7 +39,7 @@ from ..model.units import fmt
 from ..section.transformed import Section
 from .bolt_layout import BoltLayout
 from .check import Check
-from .common import Joint
+from .common import Joint, own_checks
 from .memo import once
 
 
@@ -158,9 +158,7 @@ def net_checks(section: Section, joint: Joint, layout: BoltLayout, design: Desig
         extra: dict[str, float] = {}
         if i == joint.steel:
             extra = {"F13.1": f13_factor(section, joint, net, d_hole, design.us)}
-        for c in gross:
-            if c.id != "bending" or c.ply != name:
-                continue
+        for c in own_checks(section, gross).bending.get(name, ()):
             factors = {**c.factors, **extra}
             capacity = c.capacity * extra.get("F13.1", 1.0)
             out.append(replace(
@@ -276,8 +274,7 @@ def net_shear_checks(section: Section, joint: Joint, layout: BoltLayout, design:
                      lambda: net_shear(section, i, net, d_hole))
         return found if found.station == net.station else replace(found, station=net.station)
 
-    own_checks = {(c.ply, c.combination): c for c in reversed(gross) if c.id == "shear"
-                  and c.location == "" and c.segment is None}  # the first of each wins
+    own_shear = own_checks(section, gross).shear
     out = []
     for i in joint.timbers:
         name = section.plies[i].name
@@ -291,7 +288,7 @@ def net_shear_checks(section: Section, joint: Joint, layout: BoltLayout, design:
         where = fmt(x, "span", system)
         holes = ", ".join(fmt(y, "length", system) for y in nets[gov.station].holes)
         for combo in beam.strength():
-            own = own_checks.get((name, combo.name))
+            own = own_shear.get((name, combo.name))
             if own is None:
                 continue
             V = combo.extremes.V_max_abs

@@ -45,11 +45,11 @@ from .bolt_checks import BoltValue, plate_layout
 from .bolt_geometry import layout_factors
 from .bolt_layout import BoltLayout
 from .check import Check, Fasteners, capacity_from
-from .common import Joint, side_by_side_joints
+from .common import Joint, own_checks, side_by_side_joints
 from .demands import eu_uls_section
 from .eu_lsd import bolt_value as eu_bolt_value
 from .eu_timber import eu_duration
-from .splitting import SplitSite, shear_capacities, splitting_checks
+from .splitting import SplitSite, splitting_checks
 from .transfer import (
     GroupForce,
     end_zone,
@@ -351,4 +351,5 @@ def _end_splitting(section: Section, beam: BeamResult, seg: SegmentLike, design:
     if not design.us:
         k_mod = ec5.k_mod(eu_duration(combo.duration), design.service_class)
     return splitting_checks(section, jt, site, design, combo.name, k_mod,
-                            shear_capacities(gross, combo.name), L, system)
+                            own_checks(section, gross).shear_capacity.get(combo.name, {}), L,
+                            system)
