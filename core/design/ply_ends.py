@@ -27,7 +27,7 @@ missing check.
 from __future__ import annotations
 
 import math
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 from typing import Protocol
 
@@ -125,12 +125,14 @@ def _gap(section: Section, e: PlyEnd, why: str) -> MissingCheck:
 
 
 def ply_end_checks(section: Section, beam: BeamResult, segments: Sequence[SegmentLike],
-                   design: DesignSpec, system: str, gross: Sequence[Check] = ()
+                   design: DesignSpec, system: str, gross: Sequence[Check] = (),
+                   placed: Mapping[int, BoltLayout] | None = None
                    ) -> tuple[list[Check], list[Problem]]:
     """The ``load-transfer`` check of every bolted plate end inside the member under every
     strength combination with the ``splitting`` of its timbers there (``gross``: the
     member's checks, whose shear checks give F'_v on the US basis), and a named missing
-    check for every other ply end.
+    check for every other ply end. ``placed``: the layouts the member's bolt checks chose,
+    by plate (on the strength combinations, as here), used instead of choosing them again.
     """
     L = beam.model.layout.length
     ends = ply_ends(section, L)
@@ -150,7 +152,8 @@ def ply_end_checks(section: Section, beam: BeamResult, segments: Sequence[Segmen
                              "bolts"))
             continue
         if e.ply not in values:
-            values[e.ply] = bolts_of(section, beam, design, jt, system, combos)
+            values[e.ply] = bolts_of(section, beam, design, jt, system, combos,
+                                     (placed or {}).get(e.ply) if combos else None)
         got = values[e.ply]
         if got is None:
             gaps.append(_gap(section, e, "its bolts cannot be valued (see the bolt check's "
@@ -174,15 +177,19 @@ def ply_end_checks(section: Section, beam: BeamResult, segments: Sequence[Segmen
 
 
 def bolts_of(section: Section, beam: BeamResult, design: DesignSpec, jt: Joint, system: str,
-              combos: tuple[CombinationResult, ...]) -> tuple[BoltValue, BoltLayout] | None:
+              combos: tuple[CombinationResult, ...], layout: BoltLayout | None = None
+              ) -> tuple[BoltValue, BoltLayout] | None:
     """The plate's bolt value and layout, as its ``bolts`` check has them (the warnings of
-    a missing value are that check's).
+    a missing value are that check's); ``layout``, where given, is the one that check
+    chose.
     """
     scratch: list[Problem] = []
     value = (us_bolt_value(section, design, jt, system, scratch) if design.us
              else eu_bolt_value(section, design, jt, system, scratch))
     if value is None:
         return None
+    if layout is not None:
+        return value, layout
     return value, plate_layout(section, beam, design, jt, value, combos, system)
 
 

@@ -95,9 +95,12 @@ def segmented_checks(project: Project, section: Section, beam: BeamResult,
     its segment and its x; warnings once each. ``layouts`` receives the bolt layouts of
     the member's checks (the bolts are checked once, on the whole member).
     """
-    member, warnings = run_checks(project, section, beam, design, layouts)
+    mine: list[PlateLayout] = []
+    member, warnings = run_checks(project, section, beam, design, mine)
+    if layouts is not None:
+        layouts += mine
     ends, gaps = ply_end_checks(section, beam, segments, design, project.display_units,
-                                member)
+                                member, {p.ply: p.layout for p in mine})
     warnings += gaps
     checks = [c for c in member if c.id not in SEGMENT_IDS] + ends
     seen = {(w.path, w.message) for w in warnings}

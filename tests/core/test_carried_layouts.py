@@ -189,3 +189,22 @@ def test_eu_layout_without_a_uls_combination_is_still_placed():
     assert [(placed.ply, placed.layout)] == _independent(a)
     assert placed.layout.spacing == pytest.approx(0.6, rel=1e-15)
     assert len(plates_of(a).plates[0].holes) == 12
+
+
+def test_plate_end_checks_use_the_layout_the_bolt_checks_chose():
+    """The load-transfer and splitting checks at the ends of a plate stopping short take
+    the member's chosen layout; choosing it again (``placed`` not given) gives the same
+    checks (regression guard of the reuse).
+    """
+    from plystack.core.design.ply_ends import ply_end_checks
+
+    data = _data(US_DEMO)
+    data["plies"][1].update({"from": "1 ft", "to": "11 ft"})
+    a = run(from_dict(data))
+    assert a.beam is not None
+    system = a.project.display_units
+    placed = {p.ply: p.layout for p in a.layouts}
+    reused = ply_end_checks(a.section, a.beam, a.segments, a.design, system, a.checks, placed)
+    again = ply_end_checks(a.section, a.beam, a.segments, a.design, system, a.checks)
+    assert reused[0] and repr(reused) == repr(again)
+    assert {c.id for c in reused[0]} >= {"load-transfer"}
