@@ -29,6 +29,7 @@ from .design.bolt_checks import PlateLayout
 from .design.check import Check
 from .design.eu_lsd import eu_checks
 from .design.material_notes import material_warnings
+from .design.memo import once
 from .design.openings import opening_checks
 from .design.segmented import SegmentResult, segment_results, segmented_checks
 from .design.staged import StagePart, StagesResult, stage_stiffness, staged_checks
@@ -41,7 +42,7 @@ from .model.materials import Material
 from .model.plies import Ply
 from .model.project import Project
 from .section.gamma import with_slip
-from .section.segments import is_stepped, segment_sections, segments_of
+from .section.segments import Segment, is_stepped, segment_sections, segments_of
 from .section.transformed import Section, analyse, with_moduli
 
 #: Most plies analysed at once, far more than any built-up member has. The checks of
@@ -226,7 +227,7 @@ class Evaluator:
         spec = self.project.beam
         assert spec is not None
         segs = segments_of(plies, spec.layout.length)
-        secs = segment_sections(plies, segs, self.materials, section.reference_material)
+        secs = self._segment_sections(plies, segs, section)
         creep = [with_moduli(s, creep_moduli(s, creep_factor(s, self.design))) for s in secs]
         stepping = Stepping(
             tuple((s.start, s.end) for s in segs), tuple(s.EI for s in secs),
@@ -283,12 +284,21 @@ class Evaluator:
             out.append(StagePart(s.start, s.end, existing, s.section))
         return tuple(out)
 
+    def _segment_sections(self, plies: tuple[Ply, ...], segs: Sequence[Segment],
+                          section: Section) -> tuple[Section, ...]:
+        """Each segment's section, found once per member section (the stepped beam and
+        the segment checks use the same ones).
+        """
+        return once(section, ("segment_sections", plies, tuple(segs)),
+                    lambda: segment_sections(plies, segs, self.materials,
+                                             section.reference_material))
+
     def _segments(self, plies: tuple[Ply, ...], section: Section,
                   beam: BeamResult) -> tuple[SegmentResult, ...]:
         spec = self.project.beam
         assert spec is not None
         segs = segments_of(plies, spec.layout.length)
-        secs = segment_sections(plies, segs, self.materials, section.reference_material)
+        secs = self._segment_sections(plies, segs, section)
         return segment_results(segs, secs, beam)
 
     def _density_warnings(self, plies: Sequence[Ply]) -> list[Problem]:
