@@ -105,15 +105,16 @@ class Analysis:
 
 
 def run_checks(project: Project, section: Section, beam: BeamResult, design: DesignSpec,
-               layouts: list[PlateLayout] | None = None
+               layouts: list[PlateLayout] | None = None, segment: bool = False
                ) -> tuple[tuple[Check, ...], list[Problem]]:
     """Every check of the project's design basis, with warnings (``layouts``, where given,
-    receives the bolt layout of every plate the checks place).
+    receives the bolt layout of every plate the checks place; ``segment``: a segment's
+    run, where of the bolt checks only the timbers' net-section shear is made).
     """
     if design.us:
-        checks, warnings = us_checks(project, section, beam, design, layouts)
+        checks, warnings = us_checks(project, section, beam, design, layouts, segment)
     else:
-        checks, warnings = eu_checks(project, section, beam, design, layouts)
+        checks, warnings = eu_checks(project, section, beam, design, layouts, segment)
     checks += vibration_checks(project, section, beam, design, warnings)
     return checks, warnings
 

@@ -191,6 +191,17 @@ def plate_bolt_checks(section: Section, beam: BeamResult, design: DesignSpec, jo
     return list(bolted_plate(section, beam, design, joint, value, system, gross).checks)
 
 
+def net_shear_at_holes(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
+                       value: BoltValue, system: str, gross: list[Check]) -> list[Check]:
+    """Of :func:`bolted_plate`'s checks only the timbers' ``shear`` on the net section at
+    the plate's holes, at the layout it chooses (what a segment's checks keep of the
+    bolts; the other bolt checks are the whole member's).
+    """
+    combos = beam.strength() or beam.combinations
+    layout = _choose(section, beam, design, joint, value, combos, system).layout
+    return net_shear_checks(section, joint, layout, design, beam, gross, system)
+
+
 def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
                  value: BoltValue, system: str, gross: list[Check]) -> BoltedPlate:
     """The checks of :func:`plate_bolt_checks` with the layout they use."""

@@ -29,7 +29,7 @@ from ..model.project import Project
 from ..model.units import fmt
 from ..section.transformed import Section
 from .bearing import eu_bearing
-from .bolt_checks import BoltValue, PlateLayout, bolted_plate, plate_layout
+from .bolt_checks import BoltValue, PlateLayout, bolted_plate, net_shear_at_holes, plate_layout
 from .check import Check, capacity_from
 from .common import (
     EDGE_END_REMINDERS,
@@ -54,10 +54,11 @@ S_GM = "EN 1995-1-1 Table 2.3 (from memory)"
 
 
 def eu_checks(project: Project, section: Section, beam: BeamResult,
-              design: DesignSpec, layouts: list[PlateLayout] | None = None
-              ) -> tuple[tuple[Check, ...], list[Problem]]:
+              design: DesignSpec, layouts: list[PlateLayout] | None = None,
+              segment: bool = False) -> tuple[tuple[Check, ...], list[Problem]]:
     """Every EU-LSD check of the project (``layouts``, where given, receives the bolt
-    layout of every plate whose bolts can be valued).
+    layout of every plate whose bolts can be valued; ``segment``: a segment's run, where
+    of the bolt checks only the timbers' net-section shear is made).
     """
     checks: list[Check] = []
     warnings: list[Problem] = []
@@ -162,7 +163,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
     checks += eu_bearing(section, beam, design, uls, warnings)
     checks += _deflections(section, beam, design, warnings)
     checks += _bolts(section, beam, design, uls, project.display_units, warnings, checks,
-                     layouts)
+                     layouts, segment)
     checks += connector_checks(section, beam, design, project.display_units, warnings)
     checks += uplift_checks(beam, project.display_units)
     warnings += pattern_notes(beam)
@@ -205,10 +206,11 @@ def _deflections(section: Section, beam: BeamResult, design: DesignSpec,
 
 def _bolts(section: Section, beam: BeamResult, design: DesignSpec, uls: list,  # type: ignore[type-arg]
            system: str, warnings: list[Problem], gross: list[Check],
-           layouts: list[PlateLayout] | None = None) -> list[Check]:
+           layouts: list[PlateLayout] | None = None, segment: bool = False) -> list[Check]:
     """The bolt checks of every plate; each plate's layout appended to ``layouts`` (without
     a ULS combination there are no checks, and the layout is placed over every
-    combination, as the plate drawings have always had it).
+    combination, as the plate drawings have always had it). ``segment``: only the
+    timbers' net-section shear, with the values' warnings.
     """
     if not uls:
         if layouts is not None:
@@ -217,7 +219,9 @@ def _bolts(section: Section, beam: BeamResult, design: DesignSpec, uls: list,  #
     out: list[Check] = []
     for jt in side_by_side_joints(section):
         value = bolt_value(section, design, jt, system, warnings)
-        if value is not None:
+        if value is not None and segment:
+            out += net_shear_at_holes(section, beam, design, jt, value, system, gross)
+        elif value is not None:
             made = bolted_plate(section, beam, design, jt, value, system, gross)
             out += made.checks
             if layouts is not None:

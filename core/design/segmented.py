@@ -37,9 +37,11 @@ class RunChecks(Protocol):
     """The checks of a section under its actions (``pipeline.run_checks``)."""
 
     def __call__(self, project: Project, section: Section, beam: BeamResult,
-                 design: DesignSpec, layouts: list[PlateLayout] | None = None
-                 ) -> tuple[tuple[Check, ...], list[Problem]]:
-        """Checks and warnings; the plates' bolt layouts appended to ``layouts``."""
+                 design: DesignSpec, layouts: list[PlateLayout] | None = None,
+                 segment: bool = False) -> tuple[tuple[Check, ...], list[Problem]]:
+        """Checks and warnings; the plates' bolt layouts appended to ``layouts``
+        (``segment``: of the bolt checks only the timbers' net-section shear).
+        """
 
 
 @dataclass(frozen=True, eq=False)
@@ -105,7 +107,9 @@ def segmented_checks(project: Project, section: Section, beam: BeamResult,
     checks = [c for c in member if c.id not in SEGMENT_IDS] + ends
     seen = {(w.path, w.message) for w in warnings}
     for seg in segments:
-        own, notes = run_checks(project, seg.section, seg.beam, design)
+        # of the bolts a segment keeps only the timbers' shear at the holes (the
+        # others are the member's); its other checks are made in full for their warnings
+        own, notes = run_checks(project, seg.section, seg.beam, design, segment=True)
         tol = 1e-9 * max(seg.end, 1.0)
         # a check placed outside the segment (the shear beside a support that this
         # segment does not reach) belongs to the segment that holds it

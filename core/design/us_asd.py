@@ -22,7 +22,7 @@ from ..model.project import Project
 from ..model.units import fmt
 from ..section.transformed import Section
 from .bearing import us_bearing
-from .bolt_checks import BoltValue, PlateLayout, bolted_plate
+from .bolt_checks import BoltValue, PlateLayout, bolted_plate, net_shear_at_holes
 from .check import Check, capacity_from
 from .common import (
     EDGE_END_REMINDERS,
@@ -42,10 +42,11 @@ from .us_timber import S_CI, S_CM, S_CT, S_TABLE, bending_check, interaction_che
 
 
 def us_checks(project: Project, section: Section, beam: BeamResult,
-              design: DesignSpec, layouts: list[PlateLayout] | None = None
-              ) -> tuple[tuple[Check, ...], list[Problem]]:
+              design: DesignSpec, layouts: list[PlateLayout] | None = None,
+              segment: bool = False) -> tuple[tuple[Check, ...], list[Problem]]:
     """Every US-ASD check of the project (``layouts``, where given, receives the bolt
-    layout of every plate whose bolts are checked).
+    layout of every plate whose bolts are checked; ``segment``: a segment's run, where of
+    the bolt checks only the timbers' net-section shear is made).
     """
     checks: list[Check] = []
     warnings: list[Problem] = []
@@ -109,7 +110,7 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
     checks.extend(us_bearing(section, beam, design, warnings))
     checks.extend(_deflections(beam, section, design))
     checks.extend(_bolts(section, beam, design, project.display_units, warnings, checks,
-                         layouts))
+                         layouts, segment))
     checks.extend(connector_checks(section, beam, design, project.display_units, warnings))
     checks += uplift_checks(beam, project.display_units)
     warnings += pattern_notes(beam)
@@ -214,13 +215,17 @@ def _deflections(beam: BeamResult, section: Section, design: DesignSpec) -> list
 
 def _bolts(section: Section, beam: BeamResult, design: DesignSpec, system: str,
            warnings: list[Problem], gross: list[Check],
-           layouts: list[PlateLayout] | None = None) -> list[Check]:
-    """The bolt checks of every plate; each plate's layout appended to ``layouts``."""
+           layouts: list[PlateLayout] | None = None, segment: bool = False) -> list[Check]:
+    """The bolt checks of every plate; each plate's layout appended to ``layouts``
+    (``segment``: only the timbers' net-section shear, with the values' warnings).
+    """
     out: list[Check] = []
     joints = side_by_side_joints(section)
     for jt in joints:
         value = bolt_value(section, design, jt, system, warnings, joints)
-        if value is not None:
+        if value is not None and segment:
+            out += net_shear_at_holes(section, beam, design, jt, value, system, gross)
+        elif value is not None:
             made = bolted_plate(section, beam, design, jt, value, system, gross)
             out += made.checks
             if layouts is not None:

@@ -227,3 +227,23 @@ def test_zone_by_bisection_equals_the_plain_scan(spacing):
                     probes += [y, math.nextafter(y, -math.inf), math.nextafter(y, math.inf)]
         for x in probes:
             assert _zone_ascending(xs, x, d) == _zone(layout, x, d), x
+
+
+@pytest.mark.parametrize("demo", ["porch-header.plystack.json",
+                                  "stair-trimmer-eu.plystack.json"])
+def test_a_segments_bolt_checks_are_the_net_shear_of_the_full_ones(demo: str) -> None:
+    """A segment's run keeps, of the bolts, only the timbers' net-section shear: the
+    quick path equals the ``shear`` checks of the full bolt checks (regression guard)."""
+    from plystack.core.design.bolt_checks import bolted_plate, net_shear_at_holes
+
+    a = run(from_dict(_data(demo)))
+    assert a.beam is not None
+    driver = us_asd if a.design.us else eu_lsd
+    system = a.project.display_units
+    gross = list(a.checks)
+    for jt in side_by_side_joints(a.section):
+        value = driver.bolt_value(a.section, a.design, jt, system, [])
+        assert value is not None
+        full = bolted_plate(a.section, a.beam, a.design, jt, value, system, gross).checks
+        quick = net_shear_at_holes(a.section, a.beam, a.design, jt, value, system, gross)
+        assert quick and repr(quick) == repr([c for c in full if c.id == "shear"])
