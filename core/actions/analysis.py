@@ -42,7 +42,15 @@ from ..model.design import DesignSpec
 from ..model.errors import Problem, ProjectError
 from ..model.member import BeamSpec, Load
 from ..section.transformed import Section, with_moduli
-from .beam import BeamModel, CaseSolution, Extremes, combine, extremes_many, moment_at
+from .beam import (
+    BeamModel,
+    CaseSolution,
+    Extremes,
+    combine,
+    extremes_many,
+    extremes_within,
+    moment_at,
+)
 from .combinations import asd_combinations, en1990_combinations
 from .patterns import PATTERNED, Plan, RegionParts, plan, reaction_envelope, region_parts
 
@@ -581,13 +589,12 @@ def analyse_stepped(prepared: PreparedBeam, section: Section, design: DesignSpec
                                    "that the beam carries"))
     batch = _Batch()
     job = _ask_section(prepared, section, design, batch)
-    whole = _finish_section(prepared, section, job,
-                            extremes_many(prepared.model, batch.solutions, batch.stiffness),
-                            batch.solutions)
+    model = prepared.model
+    spans = [(model.node_index(a), model.node_index(b)) for a, b in bounds]
+    every, *within = extremes_within(model, batch.solutions, batch.stiffness, spans)
+    whole = _finish_section(prepared, section, job, every, batch.solutions)
     parts = []
-    for a, b in bounds:
-        span = (prepared.model.node_index(a), prepared.model.node_index(b))
-        ext = extremes_many(prepared.model, batch.solutions, batch.stiffness, span)
+    for (a, b), ext in zip(bounds, within, strict=True):
         parts.append(replace(_finish_section(prepared, section, job, ext, batch.solutions),
                              bounds=(a, b)))
     return replace(whole, segments=tuple(parts))

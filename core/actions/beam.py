@@ -507,6 +507,45 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
     ``elements`` (first, last + 1) limits the search to those elements (a segment).
     """
     e0, e1 = (0, model.lengths.size) if elements is None else elements
+    return _reduce(model, _element_values(model, sols, EIs, e0, e1), e0, e1)
+
+
+def extremes_within(model: BeamModel, sols: Sequence[CaseSolution],
+                    EIs: Sequence[float] | np.ndarray,
+                    ranges: Sequence[tuple[int, int]]) -> list[list[Extremes]]:
+    """:func:`extremes_many` of the whole member and of each range of elements (first,
+    last + 1), from one pass over the elements (each element's candidates are its own).
+    """
+    n = model.lengths.size
+    values = _element_values(model, sols, EIs, 0, n)
+    return [_reduce(model, values, 0, n)] + [_reduce(model, values.part(a, b), a, b)
+                                             for a, b in ranges]
+
+
+@dataclass(frozen=True, eq=False)
+class _ElementValues:
+    """Every solution's candidate extremes in each element (shape (solutions, elements,
+    stations)): moments at ``xm`` (valid where ``ok``), |V| at ``xv`` (-1: not a
+    candidate), deflections ``w`` at ``xw`` (local positions; ``x0`` the elements' starts).
+    """
+
+    x0: np.ndarray
+    xm: np.ndarray
+    ok: np.ndarray
+    m: np.ndarray
+    xv: np.ndarray
+    v: np.ndarray
+    w: np.ndarray
+    xw: np.ndarray
+
+    def part(self, a: int, b: int) -> _ElementValues:
+        """The values of elements a to b - 1 (of those held)."""
+        return _ElementValues(self.x0[a:b], *(arr[:, a:b] for arr in (
+            self.xm, self.ok, self.m, self.xv, self.v, self.w, self.xw)))
+
+
+def _element_values(model: BeamModel, sols: Sequence[CaseSolution],
+                    EIs: Sequence[float] | np.ndarray, e0: int, e1: int) -> _ElementValues:
     le = model.lengths[e0:e1]
     x0 = model.nodes[e0:e1]
     k, n = len(sols), le.size
@@ -521,8 +560,6 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
     ok = np.concatenate([np.ones((k, n, 2), dtype=bool), ~np.isnan(v_roots)], axis=-1)
     m = (M0[..., None] + V0[..., None] * xm + q[..., None] * xm**2 / 2
          + dq[..., None] * xm**3 / 6)
-    i_max = np.argmax(np.where(ok, m, -np.inf).reshape(k, -1), axis=1)
-    i_min = np.argmin(np.where(ok, m, np.inf).reshape(k, -1), axis=1)
     # |V|: element ends and where dV/dx = q + dq x = 0
     with np.errstate(divide="ignore", invalid="ignore"):
         xv_in = np.where(dq != 0, -q / dq, np.nan)
@@ -531,8 +568,7 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
                        np.where(inside, xv_in, 0.0)], axis=-1)
     v_all = V0[..., None] + q[..., None] * xv_loc + dq[..., None] * xv_loc**2 / 2
     v = np.where(np.concatenate([np.ones((k, n, 2), dtype=bool), inside[..., None]],
-                                axis=-1), np.abs(v_all), -1.0).reshape(k, -1)
-    i_v = np.argmax(v, axis=1)
+                                axis=-1), np.abs(v_all), -1.0)
     v1, t1, v2, t2 = U[:, 0:-2:2], U[:, 1:-2:2], U[:, 2::2], U[:, 3::2]
     w_c = -w_up_coefficients(v1, t1, v2, t2, wq, wdq, le) / EI[..., None]
     dw = w_c[..., :5] * np.array([5.0, 4.0, 3.0, 2.0, 1.0])
@@ -544,9 +580,21 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
     for j in range(6):
         w = w * xw_safe + w_c[..., j : j + 1]
     w = np.where(np.isnan(xw), 0.0, w)
+    return _ElementValues(x0, xm, ok, m, xv_loc, v, w, xw_safe)
+
+
+def _reduce(model: BeamModel, values: _ElementValues, e0: int, e1: int) -> list[Extremes]:
+    """The extremes of every solution over the elements ``values`` holds (e0 to e1)."""
+    x0, xm, m, xv_loc = values.x0, values.xm, values.m, values.xv
+    k = m.shape[0]
+    i_max = np.argmax(np.where(values.ok, m, -np.inf).reshape(k, -1), axis=1)
+    i_min = np.argmin(np.where(values.ok, m, np.inf).reshape(k, -1), axis=1)
+    v = values.v.reshape(k, -1)
+    i_v = np.argmax(v, axis=1)
+    w = values.w
     aw = np.abs(w)
     i_w = np.argmax(aw.reshape(k, -1), axis=1)
-    pos_w = x0[None, :, None] + xw_safe
+    pos_w = x0[None, :, None] + values.xw
     by_region = _by_region(model, e0, e1, aw, w, pos_w)
     out = []
     xm_flat = (x0[None, :, None] + xm).reshape(k, -1)
