@@ -15,7 +15,7 @@ from reportlab.lib import colors
 from reportlab.lib.enums import TA_LEFT, TA_RIGHT
 from reportlab.lib.styles import ParagraphStyle
 from reportlab.lib.units import mm
-from reportlab.pdfbase.pdfmetrics import stringWidth
+from reportlab.pdfbase.pdfmetrics import stringWidth as _string_width
 from reportlab.platypus import Flowable, Paragraph, Table, TableStyle
 from reportlab.platypus.paragraph import split as _paragraph_words
 
@@ -37,6 +37,15 @@ CAUTION_STYLE = ParagraphStyle("caution", parent=BODY, backColor=colors.Color(1,
                                borderColor=colors.Color(0.6, 0.45, 0.0), borderWidth=0.5,
                                borderPadding=4, spaceBefore=6, spaceAfter=6)
 PAD = 2.0
+
+
+@lru_cache(maxsize=8192)
+def stringWidth(text: str, font: str, size: float, encoding: str = "utf8") -> float:
+    """The width of ``text`` in a registered font (reportlab's), remembered: the sheet measures
+    the same words and numbers many times, and a font's metrics do not change once it
+    is registered.
+    """
+    return float(_string_width(text, font, size, encoding))
 
 
 def esc(text: str) -> str:
