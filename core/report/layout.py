@@ -97,6 +97,7 @@ class TextLine(Flowable):  # type: ignore[misc]
         self._line_width: float | None = None
         self._extra = 0.0
         self._delegate: Any = None
+        self._wrapped_at = -1.0
         words = _paragraph_words(text)
         self._words = words
         # an escaped & < > makes the Paragraph's parser split the text into fragments,
@@ -128,10 +129,13 @@ class TextLine(Flowable):  # type: ignore[misc]
         st = self.style
         first = availWidth - (st.leftIndent + st.firstLineIndent) - st.rightIndent
         if not self._plain or availWidth < rl_config._FUZZ or self._width() > first:
-            self._delegate = self.paragraph()
-            size: tuple[float, float] = self._delegate.wrap(availWidth, availHeight)
-            self.width, self.height = size
-            return size
+            paragraph = self.paragraph()
+            if self._delegate is not paragraph or self._wrapped_at != availWidth:
+                # a Paragraph's lines depend on the width alone: set again only when
+                # the width changes
+                self.width, self.height = paragraph.wrap(availWidth, availHeight)
+                self._delegate, self._wrapped_at = paragraph, availWidth
+            return self.width, self.height
         self._delegate = None
         self._extra = first - self._width()
         self.width, self.height = availWidth, st.leading
