@@ -9,6 +9,7 @@ from __future__ import annotations
 
 from functools import lru_cache
 from typing import Any
+from weakref import WeakKeyDictionary
 
 from reportlab import rl_config
 from reportlab.lib import colors
@@ -60,11 +61,22 @@ def para(text: str, style: ParagraphStyle = BODY) -> Any:
     return TextLine(text, style)
 
 
+#: :func:`_plain_style` of each style met (styles are made once and not changed).
+_PLAIN_STYLES: WeakKeyDictionary[ParagraphStyle, bool] = WeakKeyDictionary()
+
+
 def _plain_style(style: ParagraphStyle) -> bool:
     """Whether a Paragraph of ``style`` sets one line of plain text as :class:`TextLine`
     does: left or right aligned, no background, border, word-wrap mode, shaping, text
     transform, end dots, hyphenation, underline, strike-through or automatic leading.
     """
+    known = _PLAIN_STYLES.get(style)
+    if known is None:
+        known = _PLAIN_STYLES[style] = _plain_style_of(style)
+    return known
+
+
+def _plain_style_of(style: ParagraphStyle) -> bool:
     def value(name: str) -> Any:
         return getattr(style, name, None)
 
