@@ -8,7 +8,10 @@ drawings and plots. Every page carries the title block with "page X of Y".
 from __future__ import annotations
 
 import datetime as _dt
+import gc
 import io
+from collections.abc import Iterator
+from contextlib import contextmanager
 from dataclasses import replace
 from functools import lru_cache
 from pathlib import Path
@@ -172,6 +175,21 @@ def _title_block_maker(project: Project, paper: tuple[float, float],
     return TitledCanvas
 
 
+@contextmanager
+def _cycles_collected_after() -> Iterator[None]:
+    """Python's cycle collector paused while the sheet is set: reportlab makes many
+    short-lived objects and the collector's passes over them take about a tenth of the
+    time; reference counting still frees them, and the collector runs as usual after.
+    """
+    was_enabled = gc.isenabled()
+    gc.disable()
+    try:
+        yield
+    finally:
+        if was_enabled:
+            gc.enable()
+
+
 def analysis_for(project: Project, alternative: str | None) -> Analysis:
     """The analysis of the project (or of one of its alternatives)."""
     if alternative is not None:
@@ -209,8 +227,9 @@ def build_sheet(project: Project, out: str | Path | io.BytesIO, paper: str = "le
                             author=a.project.info.get("prepared_by", ""),
                             creator=f"Plystack {__version__}")
     counter: list[int] = []
-    doc.build(story(a, project, size[0] - 30 * mm),
-              canvasmaker=_title_block_maker(a.project, size, counter))
+    with _cycles_collected_after():
+        doc.build(story(a, project, size[0] - 30 * mm),
+                  canvasmaker=_title_block_maker(a.project, size, counter))
     data = buffer.getvalue()
     if isinstance(out, io.BytesIO):
         out.write(data)
