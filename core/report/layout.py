@@ -154,8 +154,11 @@ class TextLine(Flowable):  # type: ignore[misc]
         return availWidth, st.leading
 
     def split(self, availWidth: float, availHeight: float) -> list[Any]:
-        """As the Paragraph splits (a line that does not fit moves on whole)."""
+        """As the Paragraph splits (a line that does not fit moves on whole). Splitting
+        may drop the Paragraph's lines, so the next wrap sets them again.
+        """
         parts: list[Any] = self.paragraph().split(availWidth, availHeight)
+        self._delegate, self._wrapped_at = None, -1.0
         return parts
 
     def minWidth(self) -> float:

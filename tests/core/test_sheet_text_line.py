@@ -113,3 +113,36 @@ def test_documents_are_the_same():
         return Paragraph(esc(text), style)
 
     assert _document(TextLine) == _document(paragraph)
+
+
+def _long_paragraphs(make) -> bytes:
+    """Paragraphs of 1 to 12 lines one after another, so that page ends fall at every
+    line of them: split, moved on whole (orphan control) and set again on the next page.
+    """
+    _register_fonts()
+    base = TEXTS[-1] + " "
+    story = [make((base * (1 + k % 7)).strip() + f" ({k})", (BODY, SMALL, EQ, WHERE)[k % 4])
+             for k in range(80)]
+    buf = io.BytesIO()
+    SimpleDocTemplate(buf, invariant=1, pageCompression=0).build(story)
+    return buf.getvalue()
+
+
+def test_split_paragraphs_are_the_same():
+    _register_fonts()
+
+    def paragraph(text, style):
+        return Paragraph(esc(text), style)
+
+    assert _long_paragraphs(TextLine) == _long_paragraphs(paragraph)
+
+
+def test_a_paragraph_moved_on_whole_is_set_again():
+    """A split that finds no room (reportlab drops the lines it had set) is followed
+    by a wrap that sets them again."""
+    _register_fonts()
+    line = TextLine(TEXTS[-1], BODY)
+    width, height = line.wrap(100, 500)
+    assert line.split(100, BODY.leading * 1.5) == []
+    assert line.wrap(100, 500) == (width, height)
+    assert _drawn(line, 100) == _drawn(Paragraph(esc(TEXTS[-1]), BODY), 100)
