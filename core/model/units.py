@@ -173,14 +173,64 @@ _PLAIN = re.compile(r"^(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s+"
                     r"([A-Za-z_]+(?:\*\*\d)?(?:/[A-Za-z_]+(?:\*\*\d)?)?)$")
 
 
-@lru_cache(maxsize=256)
+_PRESSURE = ("stress", "modulus", "area_load")
+
+#: The factors pint converts the units most files use to SI base units with, as pint
+#: 0.25 computes them (``ft`` is 0.30479999999999996, not 0.3048), and the dimensions of
+#: :data:`DIMENSIONS` each unit is of. Reading such a unit needs no pint registry, which
+#: takes a good part of a command's start-up to build; tests/core/test_units_plain.py
+#: compares every entry with pint's own reading, bit for bit and type for type.
+KNOWN_UNITS: dict[str, tuple[int | float, tuple[str, ...]]] = {
+    "in": (0.0254, ("length",)),
+    "inch": (0.0254, ("length",)),
+    "inches": (0.0254, ("length",)),
+    "ft": (0.30479999999999996, ("length",)),
+    "feet": (0.30479999999999996, ("length",)),
+    "foot": (0.30479999999999996, ("length",)),
+    "mm": (0.001, ("length",)),
+    "cm": (0.01, ("length",)),
+    "m": (1, ("length",)),
+    "lbf": (4.4482216152605005, ("force",)),
+    "kip": (4448.221615260501, ("force",)),
+    "N": (1.0, ("force",)),
+    "kN": (1000.0, ("force",)),
+    "psi": (6894.7572931683635, _PRESSURE),
+    "ksi": (6894757.293168363, _PRESSURE),
+    "psf": (47.88025898033586, _PRESSURE),
+    "ksf": (47880.25898033586, _PRESSURE),
+    "Pa": (1.0, _PRESSURE),
+    "kPa": (1000.0, _PRESSURE),
+    "MPa": (1000000.0, _PRESSURE),
+    "GPa": (1000000000.0, _PRESSURE),
+    "N/mm**2": (1000000.0, _PRESSURE),
+    "plf": (14.59390293720637, ("line_load",)),
+    "klf": (14593.902937206369, ("line_load",)),
+    "lbf/ft": (14.59390293720637, ("line_load",)),
+    "N/m": (1.0, ("line_load",)),
+    "kN/m": (1000.0, ("line_load",)),
+    "pcf": (16.01846337396015, ("density",)),
+    "kg/m**3": (1.0, ("density",)),
+    "kg/m": (1.0, ("mass_per_length",)),
+}
+
+
 def _unit_factor(unit: str, dimension: str) -> int | float | None:
     """The factor pint converts ``unit`` to SI base units with, where the unit is of ``dimension``
     and plainly proportional (no offset); None otherwise (the full reading decides).
 
     pint reads "x unit" as the number x times one unit and converts it by multiplying
-    the magnitude by this factor, so ``x * factor`` is the number pint gives.
+    the magnitude by this factor, so ``x * factor`` is the number pint gives. The units
+    of :data:`KNOWN_UNITS` are answered from that table, the others by pint.
     """
+    known = KNOWN_UNITS.get(unit)
+    if known is not None and dimension in known[1]:
+        return known[0]
+    return _pint_factor(unit, dimension)
+
+
+@lru_cache(maxsize=256)
+def _pint_factor(unit: str, dimension: str) -> int | float | None:
+    """:func:`_unit_factor` as pint's registry gives it."""
     ureg = registry()
     try:
         one = ureg.parse_expression(f"1 {unit}")
@@ -214,6 +264,33 @@ def _plain_value(expr: str, dimension: str) -> float | None:
     return float(number * factor)
 
 
+#: A fraction of whole numbers and one unit, as :func:`_normalise` writes the trade's
+#: "1/2 in" and "9 1/4 in": ``(1/2) in`` and ``(9+(1/4)) in``.
+_PLAIN_FRACTION = re.compile(r"^\((?:(\d+)\+\()?(\d+)/(\d+)\)(?(1)\))\s+"
+                             r"([A-Za-z_]+(?:\*\*\d)?(?:/[A-Za-z_]+(?:\*\*\d)?)?)$")
+
+
+def _fraction_value(expr: str, dimension: str) -> float | None:
+    """The value of a fraction and one unit (see :data:`_PLAIN_FRACTION`) without pint's
+    parser, or None where the text is not of that form.
+
+    pint evaluates such text with Python's operators on the numbers as its tokenizer
+    reads them (whole numbers as int): ``whole + numerator / denominator``, then times
+    one unit, so the magnitude is that number and the value ``magnitude * factor``, as
+    for :func:`_plain_value`.
+    """
+    m = _PLAIN_FRACTION.match(expr)
+    if m is None or _POUND.search(expr) or int(m.group(3)) == 0:
+        return None
+    factor = _unit_factor(m.group(4), dimension)
+    if factor is None:
+        return None
+    number = int(m.group(2)) / int(m.group(3))
+    if m.group(1) is not None:
+        number = int(m.group(1)) + number
+    return float(number * factor)
+
+
 @lru_cache(maxsize=4096)
 def _parse_cached(text: str, dimension: str) -> float:
     _bounded(text)
@@ -224,6 +301,8 @@ def _parse_cached(text: str, dimension: str) -> float:
     expr = _normalise(text)
     _bounded_expression(expr)
     plain = _plain_value(expr, dimension)
+    if plain is None:
+        plain = _fraction_value(expr, dimension)
     if plain is not None:
         return _checked(plain, dimension)
     ureg = registry()
