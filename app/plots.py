@@ -354,6 +354,7 @@ class ProfilePlot(BlitCanvas):
             ax.tick_params(labelsize=7)
             ax.set_autoscale_on(False)
         self.stress_lines: list[Any] = []
+        self._line_specs: list[tuple[str, str]] = []  # (kind, line style) of each
         self.extreme_labels = {k: [ax.annotate("", (0, 0), fontsize=7, xytext=(3, 0),
                                                textcoords="offset points", va="center")
                                    for _ in range(2)] for k, ax in self.ax_stress.items()}
@@ -409,16 +410,18 @@ class ProfilePlot(BlitCanvas):
         strain = s.strain(moment, np.array([y0 / k, y1 / k])) * 1e6
         self.strain_line.set_data(strain, [y0, y1])
         top, bot = s.ply_extreme_stresses(moment)
-        for line in self.stress_lines:
-            line.remove()
-        self.stress_lines = []
-        for i in plies:
-            ax = self.ax_stress[kind_of[i]]
-            line = Line2D([bot[i] * ks, top[i] * ks], [s.y_bottom[i] * k, s.y_top[i] * k],
-                          lw=1.8, color=KIND_COLOURS[kind_of[i]],
-                          ls=style[(kind_of[i], mats[i])])
-            ax.add_line(line)  # no autoscaling: the limits are ours (see _set_limits)
-            self.stress_lines.append(line)
+        specs = [(kind_of[i], style[(kind_of[i], mats[i])]) for i in plies]
+        if specs != self._line_specs:  # other lines: made again (else moved in place)
+            for line in self.stress_lines:
+                line.remove()
+            self.stress_lines = []
+            for kind, ls in specs:
+                line = Line2D([], [], lw=1.8, color=KIND_COLOURS[kind], ls=ls)
+                self.ax_stress[kind].add_line(line)  # no autoscaling: see _set_limits
+                self.stress_lines.append(line)
+            self._line_specs = specs
+        for line, i in zip(self.stress_lines, plies, strict=True):
+            line.set_data([bot[i] * ks, top[i] * ks], [s.y_bottom[i] * k, s.y_top[i] * k])
         used = self._label_extremes(plies, kind_of, top, bot, s, k, ks)
         na = s.neutral_axis_y * k
         for line in self.na_lines:

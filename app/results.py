@@ -150,6 +150,7 @@ class ResultsPanel(QWidget):
         self.settings = settings
         self._held = False
         self._tips: dict[int, tuple[tuple[object, ...], str]] = {}
+        self._pending: Analysis | None = None  # tables not filled yet (during a drag)
         self.verdict = plain_label("")
         self.verdict.setStyleSheet("font-weight: bold; font-size: 13px; padding: 4px;")
         self.caution = plain_label(CAUTION)
@@ -178,6 +179,7 @@ class ResultsPanel(QWidget):
         self.tabs.addTab(self.plies, "Plies")
         self.tabs.addTab(self.section, "Section")
         self.tabs.addTab(self.beam, "Beam")
+        self.tabs.currentChanged.connect(lambda _i: self._fill_rest())
         layout = QVBoxLayout(self)
         layout.addWidget(self.error)
         layout.addWidget(self.verdict)
@@ -205,6 +207,7 @@ class ResultsPanel(QWidget):
         for t in tables:
             t.setProperty("hold_widths", on)
         if not on:
+            self._fill_rest()
             self._fit_checks()
             for t in tables[1:]:
                 _fit_columns(t)
@@ -227,11 +230,25 @@ class ResultsPanel(QWidget):
         set_style(self.error, "color: #8a5a00;")
         for t in (self.checks, self.plies, self.section, self.beam):
             t.setEnabled(True)
+        self._fill_checks(a, a.project.display_units)
+        self._pending = a
+        self._fill_rest(self.tabs.currentWidget() if self._held else None)
+
+    def _fill_rest(self, only: QWidget | None = None) -> None:
+        """Fill the plies, section and beam tables from the pending analysis; ``only``:
+        that table alone (during a drag, the one on top), the others when shown or when
+        the drag is over.
+        """
+        a = self._pending
+        if a is None:
+            return
         u = a.project.display_units
-        self._fill_checks(a, u)
-        self._fill_plies(a, u)
-        self._fill_section(a, u)
-        self._fill_beam(a, u)
+        for table, fill in ((self.plies, self._fill_plies), (self.section, self._fill_section),
+                            (self.beam, self._fill_beam)):
+            if only is None or table is only:
+                fill(a, u)
+        if only is None:
+            self._pending = None
 
     def _fill_checks(self, a: Analysis, u: str) -> None:
         amber = self.amber_from()
