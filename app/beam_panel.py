@@ -281,14 +281,28 @@ class BeamPanel(QWidget):
         add.clicked.connect(self.add_load)
         remove.clicked.connect(self.remove_load)
         document.changed.connect(self.refresh)
+        document.drag_finished.connect(self._drag_finished)
+        self._shown: tuple[object, ...] | None = None
         self.refresh()
 
     # --- model -> widgets -----------------------------------------------------------------
 
+    def _drag_finished(self) -> None:
+        """The drag is over: the fields and the reactions' columns catch up."""
+        self.refresh()
+        self.reactions.resizeColumnsToContents()
+
     def refresh(self) -> None:
-        """Show the model's values."""
-        self._updating = True
+        """Show the model's values (during a drag only when the beam, the design or the
+        units changed: a drag on the section moves plies only).
+        """
         p = self.document.project
+        shown = (p.beam, p.design, p.display_units)
+        if self.document.dragging and self._shown is not None and all(
+                a is b for a, b in zip(shown, self._shown, strict=True)):
+            return
+        self._shown = shown
+        self._updating = True
         u = p.display_units
         beam = p.beam
         self.has_beam.setChecked(beam is not None)
@@ -376,11 +390,26 @@ class BeamPanel(QWidget):
                 values += [("moment", float(v)) for v in sol.reaction_moments]
             cells = [(name, name)] + [(units.fmt(v, kind, u), v) for kind, v in values]
             for col, (text, value) in enumerate(cells):
-                item = QTableWidgetItem(text)
-                item.setData(Qt.ItemDataRole.UserRole, value)
-                item.setToolTip(plain_tip(text))
-                self.reactions.setItem(r, col, item)
-        self.reactions.resizeColumnsToContents()
+                self._put_reaction(r, col, text, value)
+        if not self.document.dragging:  # widths hold still during a drag
+            self.reactions.resizeColumnsToContents()
+
+    def _put_reaction(self, row: int, col: int, text: str, value: object) -> None:
+        """One cell of the reactions in place (only what changed is set)."""
+        item = self.reactions.item(row, col)
+        role = Qt.ItemDataRole.UserRole
+        if item is None:
+            item = QTableWidgetItem(text)
+            item.setData(role, value)
+            item.setToolTip(plain_tip(text))
+            self.reactions.setItem(row, col, item)
+            return
+        if item.text() != text:
+            item.setText(text)
+            item.setToolTip(plain_tip(text))
+        old = item.data(role)
+        if type(old) is not type(value) or old != value:
+            item.setData(role, value)
 
     def _fill_loads(self, loads: tuple[Load, ...], u: str) -> None:
         self.loads.blockSignals(True)

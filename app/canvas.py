@@ -26,6 +26,7 @@ from PySide6.QtGui import (
 from PySide6.QtWidgets import (
     QApplication,
     QGraphicsItem,
+    QGraphicsLineItem,
     QGraphicsPathItem,
     QGraphicsRectItem,
     QGraphicsScene,
@@ -33,7 +34,7 @@ from PySide6.QtWidgets import (
 )
 
 from plystack.app.analysis_model import AnalysisModel
-from plystack.app.canvas_items import FILLS, draw_grid, geometry_path, tag
+from plystack.app.canvas_items import FILLS, Slots, Tag, draw_grid, geometry_path
 from plystack.app.document import Document, new_gesture_key
 from plystack.app.interactions import DrawGesture, MoveGesture, Press, ResizeGesture
 from plystack.app.safe import guarded, reporter
@@ -61,6 +62,8 @@ class SectionCanvas(QGraphicsView):
         self.document = document
         self.analysis = analysis
         self.setScene(QGraphicsScene(self))
+        # items move on every step of a drag: no spatial index to keep up to date
+        self.scene().setItemIndexMethod(QGraphicsScene.ItemIndexMethod.NoIndex)
         self.scene().setSceneRect(QRectF(-SCENE_HALF, -SCENE_HALF, 2 * SCENE_HALF,
                                          2 * SCENE_HALF))
         self.setRenderHint(QPainter.RenderHint.Antialiasing)
@@ -81,6 +84,11 @@ class SectionCanvas(QGraphicsView):
         self._fitted = False
         self._nudge_key: str | None = None
         self._dimensions: dict[int, QGraphicsRectItem] = {}
+        self._slots = Slots(self.scene())
+        self._grid_key: tuple[str, float] | None = None
+        # the grid is drawn once per view (zoom, units, size; a pan shifts it), not on
+        # every redraw
+        self.setCacheMode(QGraphicsView.CacheModeFlag.CacheBackground)
         analysis.section_changed.connect(self.rebuild)
         analysis.station_changed.connect(self.rebuild)
         analysis.analysis_changed.connect(self._analysis_changed)
@@ -160,9 +168,23 @@ class SectionCanvas(QGraphicsView):
 
     @guarded("Drawing the section")
     def rebuild(self) -> None:
-        """Redraw every item from the model (the view itself stays where it is)."""
-        scene = self.scene()
-        scene.clear()
+        """Redraw every item from the model (the view itself stays where it is). Items
+        are kept between redraws (``Slots``) and only what changed is set on them, so a
+        drag moves the items instead of building the scene again.
+        """
+        grid = (self.system, self._scale())  # the grid's steps follow units and zoom
+        if grid != self._grid_key:
+            self._grid_key = grid
+            self.resetCachedContent()
+        self._slots.begin()
+        try:
+            self._draw_items()
+        finally:
+            self._slots.end()
+        if not self._fitted and self.press is None and self.document.project.plies:
+            self.fit()
+
+    def _draw_items(self) -> None:
         self._dimensions = {}
         project = self.document.project
         if self.selected is not None and self.selected >= len(project.plies):
@@ -180,18 +202,16 @@ class SectionCanvas(QGraphicsView):
                            ply)
         if section is not None and self.show_transformed:
             for i in range(len(plies)):
-                t = QGraphicsPathItem(geometry_path(section.transformed_geometry(i)))
+                t = self._slots.get(("transformed", i), QGraphicsPathItem)
+                t.setPath(geometry_path(section.transformed_geometry(i)))
                 tp = QPen(QColor(200, 40, 40), 0, Qt.PenStyle.DashLine)
                 tp.setCosmetic(True)
                 t.setPen(tp)
                 t.setZValue(1500)
-                scene.addItem(t)
         self._draw_annotations(plies, section)
         self._draw_names(shown)
         if self.selected is not None and self.selected in shown:
             self._draw_handles(project.plies[self.selected])
-        if not self._fitted and self.press is None:
-            self.fit()
 
     def _shown_section(self) -> tuple[list[int], Section | None]:
         """The plies drawn (indices into the project's plies) and their section: every
@@ -213,12 +233,14 @@ class SectionCanvas(QGraphicsView):
 
     def _draw_ply(self, i: int, geom, kind: str, clipped: bool, ply) -> None:  # type: ignore[no-untyped-def]
         color, style, line = FILLS.get(kind, FILLS["other"])
-        back = QGraphicsPathItem(geometry_path(geom))
+        path = geometry_path(geom)
+        back = self._slots.get(("back", i), QGraphicsPathItem)
+        back.setPath(path)
         back.setBrush(QBrush(color))
         back.setPen(QPen(Qt.PenStyle.NoPen))
         back.setZValue(2 * i)
-        self.scene().addItem(back)
-        item = QGraphicsPathItem(geometry_path(geom))
+        item = self._slots.get(("ply", i), QGraphicsPathItem)
+        item.setPath(path)
         item.setBrush(QBrush(line if style != Qt.BrushStyle.SolidPattern else color, style))
         pen = QPen(QColor(0, 90, 200) if i == self.selected else QColor(20, 20, 20), 0)
         pen.setCosmetic(True)
@@ -226,14 +248,13 @@ class SectionCanvas(QGraphicsView):
         item.setPen(pen)
         item.setZValue(2 * i + 1)
         item.setData(0, i)
-        self.scene().addItem(item)
         if clipped:  # dashed outline of the uncut rectangle where the ply is clipped
-            ghost = QGraphicsRectItem(self._rect(ply))
+            ghost = self._slots.get(("ghost", i), QGraphicsRectItem)
+            ghost.setRect(self._rect(ply))
             gp = QPen(QColor(120, 120, 120), 0, Qt.PenStyle.DotLine)
             gp.setCosmetic(True)
             ghost.setPen(gp)
             ghost.setZValue(1000)
-            self.scene().addItem(ghost)
 
     def _rect(self, ply) -> QRectF:  # type: ignore[no-untyped-def]
         return QRectF(ply.x * 1000, -(ply.y + ply.height) * 1000, ply.width * 1000,
@@ -246,8 +267,19 @@ class SectionCanvas(QGraphicsView):
         item.setPos(x, y)
         item.setTransform(QTransform.fromTranslate(dx * r.width() - r.left(),
                                                          dy * r.height() - r.top()))
-        self.scene().addItem(item)
         return item
+
+    def _tag(self, key: object, text: str, color: QColor | None = None, size: float = 9.0,
+             z: float = 3000) -> Tag:
+        """The tag kept under ``key``, showing ``text``."""
+        return self._slots.get(("tag", key), Tag).show(text, color, size, z=z)
+
+    def _line(self, key: object, x0: float, y0: float, x1: float, y1: float, pen: QPen,
+              z: float) -> None:
+        line = self._slots.get(("line", key), QGraphicsLineItem)
+        line.setLine(x0, y0, x1, y1)
+        line.setPen(pen)
+        line.setZValue(z)
 
     def _draw_names(self, shown: list[int]) -> None:
         """Each drawn ply's name at its centre; its dimensions below it (shown on hover
@@ -259,7 +291,7 @@ class SectionCanvas(QGraphicsView):
         for i in shown:
             ply = plies[i]
             c = self._rect(ply).center()
-            name = tag(ply.name, size=8.5)
+            name = self._tag(("name", i), ply.name, size=8.5, z=3100)
             r = name.rect()
             w_px, h_px = ply.width * 1000 * s, ply.height * 1000 * s
             if r.width() > w_px - 4 and h_px > w_px:  # a tall narrow ply: read upwards
@@ -268,14 +300,13 @@ class SectionCanvas(QGraphicsView):
                 t.translate(-r.width() / 2 - r.left(), -r.height() / 2 - r.top())
                 name.setPos(c.x(), c.y())
                 name.setTransform(t)
-                self.scene().addItem(name)
             else:
                 self._place(name, c.x(), c.y(), -0.5, -1.0 if i in (self.selected,
                                                                     self.hovered) else -0.5)
-            name.setZValue(3100)
-            dims = tag(f"{fmt(ply.width, 'length', u)} \u00d7 {fmt(ply.height, 'length', u)}",
-                       QColor(0, 70, 160), size=8)
-            self._place(dims, c.x(), c.y(), -0.5, 0.0).setZValue(3200)
+            dims = self._tag(("dims", i), f"{fmt(ply.width, 'length', u)} \u00d7 "
+                             f"{fmt(ply.height, 'length', u)}", QColor(0, 70, 160), size=8,
+                             z=3200)
+            self._place(dims, c.x(), c.y(), -0.5, 0.0)
             dims.setVisible(i in (self.selected, self.hovered))
             self._dimensions[i] = dims
 
@@ -298,24 +329,24 @@ class SectionCanvas(QGraphicsView):
         pen = QPen(QColor(60, 60, 60), 0)
         pen.setCosmetic(True)
         gap = 14 / self._scale()  # 14 px beyond the plies, whatever the zoom
-        scene = self.scene()
-        scene.addLine(x0, -y0 + gap, x1, -y0 + gap, pen).setZValue(2000)
-        scene.addLine(x1 + gap, -y0, x1 + gap, -y1, pen).setZValue(2000)
+        self._line("width", x0, -y0 + gap, x1, -y0 + gap, pen, 2000)
+        self._line("depth", x1 + gap, -y0, x1 + gap, -y1, pen, 2000)
         u = self.system
-        self._place(tag(f"width {fmt((x1 - x0) / 1000, 'length', u)}"), (x0 + x1) / 2,
-                    -y0 + gap, -0.5, 0.1)
-        self._place(tag(f"depth {fmt((y1 - y0) / 1000, 'length', u)}"), x1 + gap,
-                    -(y0 + y1) / 2, 0.05, -0.5)
+        self._place(self._tag("width", f"width {fmt((x1 - x0) / 1000, 'length', u)}"),
+                    (x0 + x1) / 2, -y0 + gap, -0.5, 0.1)
+        self._place(self._tag("depth", f"depth {fmt((y1 - y0) / 1000, 'length', u)}"),
+                    x1 + gap, -(y0 + y1) / 2, 0.05, -0.5)
         if section is not None and math.isfinite(section.neutral_axis_y):
             yna = section.neutral_axis_y * 1000
             na_pen = QPen(QColor(200, 30, 30), 0, Qt.PenStyle.DashDotLine)
             na_pen.setCosmetic(True)
             na_pen.setWidthF(1.5)
-            scene.addLine(x0 - gap, -yna, x1 + gap * 0.6, -yna, na_pen).setZValue(2500)
+            self._line("na", x0 - gap, -yna, x1 + gap * 0.6, -yna, na_pen, 2500)
             red = QColor(170, 20, 20)
-            self._place(tag("NA", red), x0 - gap, -yna, -1.05, -0.5)
-            self._place(tag(f"neutral axis y = {fmt(yna / 1000, 'length', u)} "
-                            "(red dash-dot line)", red), (x0 + x1) / 2, -y0 + gap, -0.5, 1.1)
+            self._place(self._tag("NA", "NA", red), x0 - gap, -yna, -1.05, -0.5)
+            self._place(self._tag("na", f"neutral axis y = {fmt(yna / 1000, 'length', u)} "
+                                  "(red dash-dot line)", red), (x0 + x1) / 2, -y0 + gap,
+                        -0.5, 1.1)
 
     def _handle_positions(self, ply) -> dict[str, QPointF]:  # type: ignore[no-untyped-def]
         r = self._rect(ply)
@@ -326,14 +357,14 @@ class SectionCanvas(QGraphicsView):
 
     def _draw_handles(self, ply) -> None:  # type: ignore[no-untyped-def]
         for edges, pos in self._handle_positions(ply).items():
-            h = QGraphicsRectItem(-HANDLE_PX / 2, -HANDLE_PX / 2, HANDLE_PX, HANDLE_PX)
+            h = self._slots.get(("handle", edges), QGraphicsRectItem)
+            h.setRect(-HANDLE_PX / 2, -HANDLE_PX / 2, HANDLE_PX, HANDLE_PX)
             h.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
             h.setPos(pos)
             h.setBrush(QBrush(QColor(255, 255, 255)))
             h.setPen(QPen(QColor(0, 90, 200), 1.5))
             h.setZValue(4000)
             h.setData(1, edges)
-            self.scene().addItem(h)
 
     def _scale(self) -> float:
         s = self.transform().m11()
@@ -344,6 +375,7 @@ class SectionCanvas(QGraphicsView):
                  if self.system == "US" else [1, 2, 5, 10, 20, 50, 100, 200])
         painter.save()
         try:
+            painter.setRenderHint(QPainter.RenderHint.Antialiasing)  # the cache's painter
             draw_grid(painter, rect, self._scale(), steps)
         except Exception as exc:
             reporter().report("Drawing the grid", exc)
@@ -463,6 +495,7 @@ class SectionCanvas(QGraphicsView):
         pos = event.position()
         self.press = Press((pos.x(), pos.y()), self._model(pos),
                            QApplication.startDragDistance(), start)
+        self.document.set_dragging(True)
         event.accept()
 
     @guarded("Mouse move")
@@ -501,8 +534,11 @@ class SectionCanvas(QGraphicsView):
         if self.press is not None:
             press, self.press = self.press, None
             pos = event.position()
-            press.release((pos.x(), pos.y()), self._model(pos), self._snapping(event))
-            self.rebuild()
+            try:
+                press.release((pos.x(), pos.y()), self._model(pos), self._snapping(event))
+                self.rebuild()
+            finally:
+                self.document.set_dragging(False)
             event.accept()
             return
         super().mouseReleaseEvent(event)

@@ -7,10 +7,17 @@ point (x, y) in metres sits at scene (1000 x, -1000 y).
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
+from typing import TypeVar
 
 from PySide6.QtCore import QLineF, QPointF, QRectF, Qt
 from PySide6.QtGui import QBrush, QColor, QFont, QPainter, QPainterPath, QPen
-from PySide6.QtWidgets import QGraphicsItem, QGraphicsRectItem, QGraphicsSimpleTextItem
+from PySide6.QtWidgets import (
+    QGraphicsItem,
+    QGraphicsRectItem,
+    QGraphicsScene,
+    QGraphicsSimpleTextItem,
+)
 from shapely.geometry import MultiPolygon, Polygon
 from shapely.geometry.base import BaseGeometry
 
@@ -21,6 +28,8 @@ FILLS = {
     "steel": (QColor(70, 78, 90), Qt.BrushStyle.SolidPattern, QColor(70, 78, 90)),
     "other": (QColor(190, 190, 200), Qt.BrushStyle.DiagCrossPattern, QColor(110, 110, 120)),
 }
+
+T = TypeVar("T", bound=QGraphicsItem)
 
 #: Most grid lines drawn in one direction per repaint (a bound, whatever the zoom).
 MAX_GRID_LINES = 400
@@ -45,22 +54,77 @@ def geometry_path(geom: BaseGeometry) -> QPainterPath:
     return path
 
 
+class Tag(QGraphicsRectItem):
+    """A label that keeps its size on screen (plain text on a pale box), origin top left;
+    ``show`` changes it in place (only what differs), so a redraw reuses it.
+    """
+
+    def __init__(self) -> None:
+        super().__init__()
+        self.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
+        self.label = QGraphicsSimpleTextItem(self)
+        self.setPen(QPen(Qt.PenStyle.NoPen))
+        self._shown: tuple[object, ...] | None = None
+
+    def show(self, text: str, color: QColor | None = None, size: float = 9.0,
+             background: bool = True, z: float = 3000) -> Tag:
+        """Show ``text`` in ``color`` at ``size`` points, at height ``z``; returns itself."""
+        colour = color or QColor(30, 30, 30)
+        key = (text, colour.rgba(), size, background)
+        if key != self._shown:
+            self._shown = key
+            self.label.setText(text)
+            self.label.setBrush(QBrush(colour))
+            f = QFont()
+            f.setPointSizeF(size)
+            self.label.setFont(f)
+            self.setRect(self.label.boundingRect().adjusted(-2, 0, 2, 0))
+            self.setBrush(QBrush(QColor(255, 255, 255, 200)) if background else QBrush())
+        self.setZValue(z)
+        return self
+
+
 def tag(text: str, color: QColor | None = None, size: float = 9.0,
         background: bool = True) -> QGraphicsRectItem:
     """A label that keeps its size on screen (plain text on a pale box), origin top left."""
-    box = QGraphicsRectItem()
-    box.setFlag(QGraphicsItem.GraphicsItemFlag.ItemIgnoresTransformations)
-    label = QGraphicsSimpleTextItem(text, box)
-    label.setBrush(QBrush(color or QColor(30, 30, 30)))
-    f = QFont()
-    f.setPointSizeF(size)
-    label.setFont(f)
-    r = label.boundingRect().adjusted(-2, 0, 2, 0)
-    box.setRect(r)
-    box.setPen(QPen(Qt.PenStyle.NoPen))
-    box.setBrush(QBrush(QColor(255, 255, 255, 200)) if background else QBrush())
-    box.setZValue(3000)
-    return box
+    return Tag().show(text, color, size, background)
+
+
+class Slots:
+    """Scene items kept between redraws, one per key (its role in the drawing): a redraw
+    asks for each item it draws (``get``) and sets what changed; ``end`` takes out of the
+    scene the items the redraw did not ask for. An item is added to the scene when it is
+    first asked for, so items of equal z stack in the order a fresh drawing makes them.
+    """
+
+    def __init__(self, scene: QGraphicsScene):
+        self.scene = scene
+        self.items: dict[object, QGraphicsItem] = {}
+        self._used: set[object] = set()
+
+    def begin(self) -> None:
+        """A redraw starts: no item asked for yet."""
+        self._used = set()
+
+    def get(self, key: object, factory: Callable[[], T]) -> T:
+        """The item kept under ``key``, made by ``factory`` (and added) the first time."""
+        item = self.items.get(key)
+        if item is None:
+            item = factory()
+            self.scene.addItem(item)
+            self.items[key] = item
+        self._used.add(key)
+        return item  # type: ignore[return-value]
+
+    def end(self) -> None:
+        """The redraw is done: items it did not ask for leave the scene."""
+        for key in [k for k in self.items if k not in self._used]:
+            self.scene.removeItem(self.items.pop(key))
+
+    def clear(self) -> None:
+        """Every item leaves the scene."""
+        self.begin()
+        self.end()
 
 
 def grid_step(steps: list[float], px_per_mm: float, at_least_px: float) -> float:

@@ -2,6 +2,11 @@
 
 Undo commands only swap one Project for another; views listen to ``changed`` and redraw.
 A drag pushes commands with one merge key, so the whole drag is one undo step.
+
+While a mouse button is held on a view that edits by dragging, the document says so
+(``dragging``): views then keep their layout still (column widths, plot layout) and
+catch up when ``drag_finished`` is emitted, so what shows after the drag is what a fresh
+window shows for the same project.
 """
 
 from __future__ import annotations
@@ -53,16 +58,31 @@ class Document(QObject):
 
     changed = Signal()
     file_changed = Signal()
+    drag_finished = Signal()
 
     def __init__(self, project: Project, path: Path | None = None):
         super().__init__()
         self._project = project
         self.path = path
+        self._dragging = False
         self.undo_stack = QUndoStack(self)
         self.undo_stack.cleanChanged.connect(self._clean_changed)
 
     def _clean_changed(self, _clean: bool) -> None:
         self.file_changed.emit()
+
+    @property
+    def dragging(self) -> bool:
+        """True while a mouse button is held on a view that edits by dragging."""
+        return self._dragging
+
+    def set_dragging(self, on: bool) -> None:
+        """A button went down (True) or came up (False) on a dragging view; coming up
+        emits ``drag_finished``.
+        """
+        was, self._dragging = self._dragging, on
+        if was and not on:
+            self.drag_finished.emit()
 
     @property
     def project(self) -> Project:

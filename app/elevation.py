@@ -84,6 +84,8 @@ class ElevationView(QGraphicsView):
         super().__init__()
         self.document, self.analysis, self.snapper = document, analysis, snapper
         self.setScene(QGraphicsScene(self))
+        # items move on every step of a drag: no spatial index to keep up to date
+        self.scene().setItemIndexMethod(QGraphicsScene.ItemIndexMethod.NoIndex)
         self.setRenderHint(QPainter.RenderHint.Antialiasing)
         self.setMouseTracking(True)
         self.setFocusPolicy(Qt.FocusPolicy.StrongFocus)
@@ -99,7 +101,7 @@ class ElevationView(QGraphicsView):
         self.marker.setPen(pen(STATION, 1.2, Qt.PenStyle.DashLine))
         self.marker.setZValue(80)
         self.scene().addItem(self.marker)
-        document.changed.connect(self.refresh)
+        document.changed.connect(self._document_changed)
         analysis.analysis_changed.connect(self._analysis_changed)
         analysis.station_changed.connect(self._draw_station)
         self._analysis_changed()
@@ -132,6 +134,14 @@ class ElevationView(QGraphicsView):
 
     def _analysis_changed(self) -> None:
         self.bolts = plate_bolts(self.analysis.analysis)
+        self.refresh()
+
+    def _document_changed(self) -> None:
+        """An edit: redrawn now, except during a drag on another view (the section), where
+        the analysis that every edit brings redraws it once, bolts included.
+        """
+        if self.document.dragging and self.press is None:
+            return
         self.refresh()
 
     @guarded("Drawing the elevation")
@@ -212,6 +222,7 @@ class ElevationView(QGraphicsView):
         view = event.position()
         self.press = Press((view.x(), view.y()), (self.frame.x_m(pos.x()), 0.0),
                            QApplication.startDragDistance(), start)
+        self.document.set_dragging(True)
         event.accept()
 
     @guarded("Mouse move on the elevation")
@@ -254,11 +265,14 @@ class ElevationView(QGraphicsView):
         press, self.press = self.press, None
         pos = self._scene_pos(event)
         view = event.position()
-        edited = press.release((view.x(), view.y()), (self.frame.x_m(pos.x()), 0.0),
-                               self._snapping(event))
-        if not edited:
-            self._click(press.view_pos[0], press.model_pos[0])
-        self.refresh()
+        try:
+            edited = press.release((view.x(), view.y()), (self.frame.x_m(pos.x()), 0.0),
+                                   self._snapping(event))
+            if not edited:
+                self._click(press.view_pos[0], press.model_pos[0])
+            self.refresh()
+        finally:
+            self.document.set_dragging(False)
         event.accept()
 
     def _click(self, view_x: float, x: float) -> None:

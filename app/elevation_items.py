@@ -58,7 +58,8 @@ class Label(QGraphicsRectItem):
 
     def size_of(self, text: str) -> tuple[float, float]:
         """Width and height (px) the label takes with ``text``."""
-        self.text_item.setText(text)
+        if self.text_item.text() != text:  # setting even the same text repaints it
+            self.text_item.setText(text)
         r = self.text_item.boundingRect()
         return r.width() + 4, r.height()
 

@@ -107,6 +107,7 @@ class MainWindow(FileActions, ToolActions, QMainWindow):
         self.ply_panel.materials_button.clicked.connect(self.open_materials)
         self.combo_pick.activated.connect(lambda _i: self._redraw_plots())
         self.analysis_model.analysis_changed.connect(self.show_analysis)
+        self.document.drag_finished.connect(self._drag_finished)
         self.document.file_changed.connect(self._update_title)
         self._autosave = QTimer(self)
         self._autosave.setInterval(AUTOSAVE_MS)
@@ -304,22 +305,33 @@ class MainWindow(FileActions, ToolActions, QMainWindow):
     @guarded("Showing the results")
     def show_analysis(self) -> None:
         """Show what the analysis model published: results, plots, alternatives."""
+        self.results.hold_widths(self.document.dragging)
         if self.analysis is None:
             self.results.show_error(self.analysis_model.error or "Nothing to analyse yet.")
         else:
             self.results.show_analysis(self.analysis)
         names = [c.name for c in self.analysis.beam.combinations] if (
             self.analysis and self.analysis.beam) else []
-        current = self.combo_pick.currentText()
-        self.combo_pick.blockSignals(True)
-        self.combo_pick.clear()
-        self.combo_pick.addItem("governing combination")
-        self.combo_pick.addItems(names)
-        if current in names:
-            self.combo_pick.setCurrentText(current)
-        self.combo_pick.blockSignals(False)
+        items = ["governing combination", *names]
+        pick = self.combo_pick
+        if [pick.itemText(i) for i in range(pick.count())] != items:
+            # refilled only when the combinations change: a new list resizes the box and
+            # lays the whole window out again (an edit of a ply keeps the same list)
+            current = pick.currentText()
+            pick.blockSignals(True)
+            pick.clear()
+            pick.addItems(items)
+            if current in names:
+                pick.setCurrentText(current)
+            pick.blockSignals(False)
         self._redraw_plots()
         self._refresh_alternatives()
+
+    @guarded("Finishing the drag")
+    def _drag_finished(self) -> None:
+        """The button came up: what was held still during the drag catches up."""
+        self.results.hold_widths(False)
+        self._redraw_plots()  # limits from the data and the layout, as a fresh window
 
     @guarded("Comparing the alternatives")
     def _refresh_alternatives(self) -> None:
@@ -337,8 +349,9 @@ class MainWindow(FileActions, ToolActions, QMainWindow):
         name = self.combo_pick.currentText()
         pick = None if name == "governing combination" else name
         self.section_caption.setText(segment_caption(self.analysis_model))
-        self.profiles.update_from(self.analysis_model.shown_analysis(), pick)
-        self.diagrams.update_from(self.analysis, pick)
+        dragging = self.document.dragging
+        self.profiles.update_from(self.analysis_model.shown_analysis(), pick, dragging)
+        self.diagrams.update_from(self.analysis, pick, dragging)
 
     # --- edits ------------------------------------------------------------------------
 

@@ -7,14 +7,15 @@ extreme tension and compression are labelled (no labels on top of one another).
 
 Speed: the axes, ticks and labels are drawn once and cached as a background; an edit
 only changes the data artists (updated in place with ``set_data``) and blits them over
-the cached background. The axes are redrawn in full only when the data leave the
-current limits or shrink well inside them, the widget is resized, or the panels change.
-The limits keep headroom (a fifth of the range beyond the data on each side, new limits
-only when the data leave them or fill less than half of them), so a drag rarely moves
-them; and a redraw for new limits alone skips the layout pass (constrained layout costs
-more than the rest of the draw): the layout follows once the edits pause.
-Nothing is drawn while the plot is hidden (before the window is shown, or in a tab not
-on top): it is drawn once when it appears.
+the cached background. The limits are a fifth of the data's range beyond the data on
+each side. During a drag (``dragging=True``) they hold still while the data stay inside
+them and fill at least half of them, so a drag rarely moves them, and a redraw for new
+limits alone skips the layout pass (constrained layout costs more than the rest of the
+draw). Any other update (an edit that is not a drag, the first update after the drag)
+sets the limits from the data and lays the figure out where anything moved, so what
+shows after a drag is what a fresh window shows for the same project.
+Nothing is computed or drawn while the plot is hidden (before the window is shown, or in
+a tab not on top): the latest update is kept and made once when the plot appears.
 
 Values that are not finite are never given to matplotlib's limits (they would raise
 "Axis limits cannot be NaN or Inf"): such a plot shows what is finite and says so.
@@ -28,11 +29,16 @@ from typing import Any
 
 import numpy as np
 from matplotlib.backends.backend_qtagg import FigureCanvasQTAgg
+from matplotlib.colors import to_rgba
 from matplotlib.figure import Figure
+from matplotlib.font_manager import findfont
 from matplotlib.lines import Line2D
 from matplotlib.patches import Polygon
-from PySide6.QtCore import QTimer
+from matplotlib.text import Annotation, Text
+from PySide6.QtCore import QPointF, QRectF
+from PySide6.QtGui import QColor, QFont, QFontDatabase, QFontMetricsF, QImage, QPainter
 
+from plystack.app.safe import reporter
 from plystack.core.actions.beam import diagram
 from plystack.core.model.units import sig, to_display, unit_label
 from plystack.core.pipeline import Analysis
@@ -57,28 +63,109 @@ def _finite_range(values: np.ndarray) -> tuple[float, float] | None:
 
 #: Headroom of new limits beyond the data on each side, a fraction of the data's range.
 HEADROOM = 0.2
-#: New limits when the data fill less than this fraction of the current ones.
-SHRINK_BELOW = 0.5
-#: Pause after the last limits-only redraw before the layout pass, ms.
-LAYOUT_DELAY_MS = 300
+#: Headroom of limits that a drag moves: half the data's range on each side, so the
+#: next steps of the drag stay inside them.
+DRAG_HEADROOM = 0.5
+#: During a drag, new limits when the data fill less than this fraction of the current ones.
+SHRINK_BELOW = 0.25
 
 
-def _needs_new_limits(current: tuple[float, float], lo: float, hi: float) -> bool:
-    """True when [lo, hi] leaves the current limits or fills less than half of them."""
+def _needs_new_limits(current: tuple[float, float], lo: float, hi: float,
+                      dragging: bool = True) -> bool:
+    """True when [lo, hi] needs other limits than ``current``: during a drag when it
+    leaves them or fills less than a quarter of them; otherwise whenever they are not
+    the padded range of the data (``_padded``), as a fresh plot of the same data has them.
+    """
     a, b = current
+    if not dragging:
+        return (a, b) != _padded(lo, hi)
     span = b - a
     if lo < a or hi > b or span <= 0:
         return True
     return (hi - lo) < SHRINK_BELOW * span
 
 
-def _padded(lo: float, hi: float) -> tuple[float, float]:
+def _limits(lo: float, hi: float, dragging: bool) -> tuple[float, float]:
+    """New limits for the data [lo, hi]: wider during a drag."""
+    return _padded(lo, hi, DRAG_HEADROOM if dragging else HEADROOM)
+
+
+def _padded(lo: float, hi: float, headroom: float = HEADROOM) -> tuple[float, float]:
     if hi - lo <= 0:
         pad = max(abs(hi), 1.0) * 0.1
         return lo - pad, hi + pad
-    pad = (hi - lo) * HEADROOM
+    pad = (hi - lo) * headroom
     out = (lo - pad, hi + pad)
     return out if all(math.isfinite(x) for x in out) else (-1.0, 1.0)
+
+
+_QT_FAMILIES: dict[str, str] = {}
+
+
+def _qt_family(path: str) -> str:
+    """The Qt family of the font file matplotlib draws with (added to Qt once)."""
+    if path not in _QT_FAMILIES:
+        families = QFontDatabase.applicationFontFamilies(QFontDatabase.addApplicationFont(path))
+        _QT_FAMILIES[path] = families[0] if families else ""
+    return _QT_FAMILIES[path]
+
+
+def painted_by_qt(a: Any) -> bool:
+    """True for the texts Qt paints over the figure: plain texts and annotations of a
+    data point offset in points, unrotated, without a box or an arrow (the labels of the
+    data); any other artist is drawn by matplotlib.
+    """
+    if not isinstance(a, Text) or a.get_rotation() != 0 or a.get_bbox_patch() is not None:
+        return False
+    if isinstance(a, Annotation):
+        return (a.xycoords == "data" and a.anncoords == "offset points"
+                and a.arrow_patch is None and a.axes is not None)
+    return True
+
+
+def text_anchor(a: Text, figure: Figure) -> tuple[float, float] | None:
+    """Where matplotlib puts the text's alignment point, in display pixels (y up); None
+    where matplotlib would not draw it (an annotation of a point outside its axes).
+    """
+    if isinstance(a, Annotation):
+        base = a.axes.transData.transform(a.xy)
+        clip = a.get_annotation_clip()
+        if (clip or clip is None) and not a.axes.contains_point(base):
+            return None
+        dx, dy = a.get_position()
+        k = figure.dpi / 72.0
+        return float(base[0] + dx * k), float(base[1] + dy * k)
+    x, y = a.get_transform().transform(a.get_position())
+    return float(x), float(y)
+
+
+def paint_text(painter: QPainter, a: Text, figure: Figure, ratio: float) -> None:
+    """Paint a text artist as matplotlib places it (font file, size, colour, alignment),
+    with Qt: a label that changes on every step of a drag costs Qt's cached glyphs
+    instead of a new FreeType layout and rendering.
+    """
+    text = a.get_text()
+    if not text or not a.get_visible():
+        return
+    at = text_anchor(a, figure)
+    if at is None or not all(math.isfinite(v) for v in at):
+        return
+    font = QFont(_qt_family(findfont(a.get_fontproperties())))
+    px = a.get_fontsize() * figure.dpi / 72.0 / ratio  # logical pixels
+    font.setPointSizeF(px * 72.0 / max(painter.device().logicalDpiY(), 1))
+    painter.setFont(font)
+    metrics = QFontMetricsF(font)
+    w = metrics.horizontalAdvance(text)
+    x = at[0] / ratio
+    y = (figure.bbox.height - at[1]) / ratio  # Qt's y runs down
+    ha, va = a.get_horizontalalignment(), a.get_verticalalignment()
+    x -= {"right": w, "center": w / 2}.get(ha, 0.0)
+    ascent, descent = metrics.ascent(), metrics.descent()
+    baseline = {"top": y + ascent, "bottom": y - descent,
+                "center": y + (ascent - descent) / 2}.get(va, y)
+    r, g, b, alpha = to_rgba(a.get_color(), a.get_alpha())
+    painter.setPen(QColor.fromRgbF(r, g, b, alpha))
+    painter.drawText(QPointF(x, baseline), text)
 
 
 class BlitCanvas(FigureCanvasQTAgg):
@@ -87,21 +174,49 @@ class BlitCanvas(FigureCanvasQTAgg):
     The data artists are animated: every full draw (an edit that moves the limits, a
     resize, a screenshot) caches the background and then draws them on top, so they
     are never lost; other edits restore the background and blit. While hidden it only
-    remembers that it must draw when shown.
+    keeps the latest update (``_pending``) and makes it when shown.
     """
 
     def __init__(self, figure: Figure):
         super().__init__(figure)
         self._background: Any = None
         self._stale = False
+        self._layout_due = False  # a full draw kept the layout (during a drag)
+        self._pending: tuple[Any, ...] | None = None
+        self._last: dict[str, Any] = {}
         self.dynamic: list[Any] = []
         self.full_draws = 0
         self.layout_passes = 0
-        self._layout_timer = QTimer(self)
-        self._layout_timer.setSingleShot(True)
-        self._layout_timer.setInterval(LAYOUT_DELAY_MS)
-        self._layout_timer.timeout.connect(self._layout_pass)
         self.mpl_connect("draw_event", self._on_draw)
+
+    @property
+    def last(self) -> dict[str, Any]:
+        """The values of the latest update (made now if the plot is hidden)."""
+        self._make_pending()
+        return self._last
+
+    @last.setter
+    def last(self, value: dict[str, Any]) -> None:
+        self._last = value
+
+    def update_from(self, a: Analysis | None, combo_name: str | None = None,
+                    dragging: bool = False) -> None:
+        """Show the analysis at the governing (or named) combination; while hidden, only
+        keep it for when the plot is shown. ``dragging``: the update is a step of a drag.
+        """
+        self._pending = (a, combo_name, dragging)
+        if self.isVisible():
+            self._make_pending()
+        else:
+            self._stale = True
+
+    def _make_pending(self) -> None:
+        if self._pending is not None:
+            args, self._pending = self._pending, None
+            self._update(*args)
+
+    def _update(self, a: Analysis | None, combo_name: str | None, dragging: bool) -> None:
+        raise NotImplementedError
 
     def resizeEvent(self, event: Any) -> None:  # noqa: D102 - Qt API
         self.figure.set_layout_engine("constrained")
@@ -111,8 +226,10 @@ class BlitCanvas(FigureCanvasQTAgg):
     def showEvent(self, event: Any) -> None:  # noqa: D102 - Qt API
         super().showEvent(event)
         if self._stale:
+            self._make_pending()
             self._stale = False
             self._background = None
+            self._layout_due = False
             self.figure.set_layout_engine("constrained")
             self.draw_idle()
 
@@ -120,14 +237,8 @@ class BlitCanvas(FigureCanvasQTAgg):
         self.figure.set_layout_engine("constrained")
         self.draw()
         self.figure.set_layout_engine("none")
+        self._layout_due = False
         self.layout_passes += 1
-
-    def _layout_pass(self) -> None:
-        """The layout pass left out of limits-only redraws (ticks may have grown)."""
-        if self.isVisible():
-            self._draw_laid_out()
-        else:
-            self._stale = True
 
     def _on_draw(self, _event: Any) -> None:
         self._background = self.copy_from_bbox(self.figure.bbox)
@@ -135,29 +246,80 @@ class BlitCanvas(FigureCanvasQTAgg):
 
     def _draw_dynamic(self) -> None:
         for a in self.dynamic:
+            if painted_by_qt(a):
+                continue  # painted by Qt over the figure (paintEvent)
             if a.axes is not None:
                 a.axes.draw_artist(a)
             elif a.figure is not None:
                 self.figure.draw_artist(a)
 
+    def blit(self, bbox: Any = None) -> None:
+        """Show the region ``bbox`` (display pixels; None: the whole figure) of the
+        rendered figure at the next paint, together with the window's other repaints
+        (matplotlib's own blit repaints at once, a paint and a flush of its own).
+        """
+        if bbox is None:
+            bbox = self.figure.bbox
+        ratio = self.device_pixel_ratio
+        left, bottom, width, height = (v / ratio for v in bbox.bounds)
+        top = self.height() - (bottom + height)
+        self.update(math.floor(left), math.floor(top), math.ceil(width) + 1,
+                    math.ceil(height) + 1)
+
+    def paintEvent(self, event: Any) -> None:  # noqa: D102 - Qt API
+        self._draw_idle()  # a draw that is pending
+        if not hasattr(self, "renderer"):
+            return
+        painter = QPainter(self)
+        try:
+            self._paint_figure(painter, event.rect())
+            self._draw_rect_callback(painter)
+            for a in self.dynamic:
+                if painted_by_qt(a):
+                    paint_text(painter, a, self.figure, self.device_pixel_ratio)
+        except Exception as exc:
+            reporter().report("Drawing the plot", exc)
+        finally:
+            painter.end()
+
+    def _paint_figure(self, painter: QPainter, rect: Any) -> None:
+        """Copy the rendered figure's pixels under ``rect`` (logical pixels) to the widget,
+        straight from the renderer's buffer. A figure on an opaque background has only
+        opaque pixels, so they are copied as they are (no blending with the widget's
+        background); any other is blended over the erased widget, as matplotlib does.
+        """
+        buf = self.buffer_rgba()
+        h, w = buf.shape[0], buf.shape[1]
+        opaque = to_rgba(self.figure.get_facecolor())[3] == 1.0
+        image = QImage(buf, w, h, 4 * w, QImage.Format.Format_RGBX8888 if opaque
+                       else QImage.Format.Format_RGBA8888)
+        if not opaque:
+            painter.eraseRect(rect)
+        ratio = self.device_pixel_ratio
+        source = QRectF(rect.x() * ratio, rect.y() * ratio, rect.width() * ratio,
+                        rect.height() * ratio)
+        painter.drawImage(QRectF(rect), image, source)
+
     def refresh(self, full: bool, layout: bool = True) -> None:
         """Draw: in full (axes and background) or by blitting the data artists.
 
-        ``layout``: False where only the limits changed; the full draw then keeps the
-        current layout and the layout pass follows once the edits pause.
+        ``layout``: False during a drag; a full draw then keeps the current layout, and
+        the next full draw with ``layout`` (the first update after the drag) lays it out.
         """
         for a in self.dynamic:
             a.set_animated(True)
         if not self.isVisible():
             self._stale = True
             return
+        if layout and self._layout_due:
+            full = True
         if full or self._background is None:
             if layout or self._background is None:
-                self._layout_timer.stop()
                 self._draw_laid_out()
             else:
+                self.figure.set_layout_engine("none")  # the layout holds still
                 self.draw()
-                self._layout_timer.start()
+                self._layout_due = True
             self.full_draws += 1
             return
         self.restore_region(self._background)
@@ -192,6 +354,7 @@ class ProfilePlot(BlitCanvas):
             ax.tick_params(labelsize=7)
             ax.set_autoscale_on(False)
         self.stress_lines: list[Any] = []
+        self._line_specs: list[tuple[str, str]] = []  # (kind, line style) of each
         self.extreme_labels = {k: [ax.annotate("", (0, 0), fontsize=7, xytext=(3, 0),
                                                textcoords="offset points", va="center")
                                    for _ in range(2)] for k, ax in self.ax_stress.items()}
@@ -218,7 +381,7 @@ class ProfilePlot(BlitCanvas):
         self.dynamic = [self.strain_line, *self.stress_lines]
         self.refresh(False)
 
-    def update_from(self, a: Analysis | None, combo_name: str | None = None) -> None:
+    def _update(self, a: Analysis | None, combo_name: str | None, dragging: bool) -> None:
         """Update for the analysis at the governing (or named) combination's moment."""
         if a is None:
             self._clear()
@@ -247,16 +410,18 @@ class ProfilePlot(BlitCanvas):
         strain = s.strain(moment, np.array([y0 / k, y1 / k])) * 1e6
         self.strain_line.set_data(strain, [y0, y1])
         top, bot = s.ply_extreme_stresses(moment)
-        for line in self.stress_lines:
-            line.remove()
-        self.stress_lines = []
-        for i in plies:
-            ax = self.ax_stress[kind_of[i]]
-            line = Line2D([bot[i] * ks, top[i] * ks], [s.y_bottom[i] * k, s.y_top[i] * k],
-                          lw=1.8, color=KIND_COLOURS[kind_of[i]],
-                          ls=style[(kind_of[i], mats[i])])
-            ax.add_line(line)  # no autoscaling: the limits are ours (see _set_limits)
-            self.stress_lines.append(line)
+        specs = [(kind_of[i], style[(kind_of[i], mats[i])]) for i in plies]
+        if specs != self._line_specs:  # other lines: made again (else moved in place)
+            for line in self.stress_lines:
+                line.remove()
+            self.stress_lines = []
+            for kind, ls in specs:
+                line = Line2D([], [], lw=1.8, color=KIND_COLOURS[kind], ls=ls)
+                self.ax_stress[kind].add_line(line)  # no autoscaling: see _set_limits
+                self.stress_lines.append(line)
+            self._line_specs = specs
+        for line, i in zip(self.stress_lines, plies, strict=True):
+            line.set_data([bot[i] * ks, top[i] * ks], [s.y_bottom[i] * k, s.y_top[i] * k])
         used = self._label_extremes(plies, kind_of, top, bot, s, k, ks)
         na = s.neutral_axis_y * k
         for line in self.na_lines:
@@ -266,12 +431,12 @@ class ProfilePlot(BlitCanvas):
         self.moment_text.set_text(f"M = {sig(to_display(moment, 'moment', u), 4)} "
                                   f"{unit_label('moment', u)}")
         limits, labels = self._set_limits(strain, top, bot, plies, kind_of, (y0, y1), u, title,
-                                          ks)
+                                          ks, dragging)
         layout |= labels
         self.dynamic = [self.strain_line, *self.stress_lines, *self.na_lines, *used,
                         self.na_label, self.moment_text]
         self.last = {"moment": moment, "top": top, "bottom": bot}
-        self.refresh(layout or limits, layout)
+        self.refresh(layout or limits, layout or not dragging)
 
     def _label_extremes(self, plies, kind_of, top, bot, s, k, ks):  # type: ignore[no-untyped-def]
         """Label the largest tension and compression of each panel; returns the labels."""
@@ -297,7 +462,7 @@ class ProfilePlot(BlitCanvas):
                 used.append(label)
         return used
 
-    def _set_limits(self, strain, top, bot, plies, kind_of, ys, u, title, ks):  # type: ignore[no-untyped-def]
+    def _set_limits(self, strain, top, bot, plies, kind_of, ys, u, title, ks, dragging):  # type: ignore[no-untyped-def]
         """New limits where the data need them; returns (limits changed, labels changed)."""
         full = False
         ranges = [(self.ax_strain, _finite_range(strain))]
@@ -305,13 +470,13 @@ class ProfilePlot(BlitCanvas):
             idx = [i for i in plies if kind_of[i] == kind]
             ranges.append((ax, _finite_range(np.concatenate([top[idx], bot[idx]]) * ks)))
         for ax, rng in ranges:
-            if rng is not None and _needs_new_limits(ax.get_xlim(), *rng):
-                ax.set_xlim(*_padded(*rng))
+            if rng is not None and _needs_new_limits(ax.get_xlim(), *rng, dragging):
+                ax.set_xlim(*_limits(*rng, dragging))
                 full = True
         yr = _finite_range(np.array(ys))
         if yr is not None and all(math.isfinite(v) for v in ys) and _needs_new_limits(
-                self.ax_strain.get_ylim(), min(ys), max(ys)):
-            self.ax_strain.set_ylim(*_padded(min(ys), max(ys)))
+                self.ax_strain.get_ylim(), min(ys), max(ys), dragging):
+            self.ax_strain.set_ylim(*_limits(min(ys), max(ys), dragging))
             full = True
         key = (u, title)
         if key != self._key:
@@ -358,7 +523,7 @@ class DiagramPlot(BlitCanvas):
         self.last: dict[str, float] = {}
         self._key: tuple[Any, ...] = ()
 
-    def update_from(self, a: Analysis | None, combo_name: str | None = None) -> None:
+    def _update(self, a: Analysis | None, combo_name: str | None, dragging: bool) -> None:
         """Update for the governing (or named) combination."""
         if a is None or a.beam is None:
             for line, fill, label in zip(self.lines, self.fills, self.labels, strict=True):
@@ -386,13 +551,14 @@ class DiagramPlot(BlitCanvas):
         full = layout = False
         x = d.x * kx
         xr = _finite_range(x)
-        if xr is not None and float(np.nanmax(x)) > float(np.nanmin(x)) and (
-                _needs_new_limits(self.axes[0].get_xlim(), float(np.nanmin(x)),
-                                  float(np.nanmax(x)))
-                or abs(self.axes[0].get_xlim()[1] - np.nanmax(x))
-                > 1e-9 * max(abs(np.nanmax(x)), 1.0)):
-            self.axes[0].set_xlim(float(np.nanmin(x)), float(np.nanmax(x)))
-            full = True
+        if xr is not None and float(np.nanmax(x)) > float(np.nanmin(x)):
+            x_lo, x_hi = float(np.nanmin(x)), float(np.nanmax(x))
+            current = self.axes[0].get_xlim()
+            if (current != (x_lo, x_hi) if not dragging else (
+                    _needs_new_limits(current, x_lo, x_hi)
+                    or abs(current[1] - x_hi) > 1e-9 * max(abs(x_hi), 1.0))):
+                self.axes[0].set_xlim(x_lo, x_hi)
+                full = True
         for ax, line, fill, label, (_name, values, kind) in zip(
                 self.axes, self.lines, self.fills, self.labels, series, strict=True):
             kv = to_display(1.0, kind, u)
@@ -414,8 +580,8 @@ class DiagramPlot(BlitCanvas):
             label.set_ha("right" if right else "left")
             label.set_position((-4, 4) if right else (4, 4))
             rng = _finite_range(v)
-            if rng is not None and _needs_new_limits(ax.get_ylim(), *rng):
-                ax.set_ylim(*_padded(*rng))
+            if rng is not None and _needs_new_limits(ax.get_ylim(), *rng, dragging):
+                ax.set_ylim(*_limits(*rng, dragging))
                 full = True
             self.last[kind] = float(v[k]) / kv
         key = (u, chosen.name, tuple(a.beam.model.layout.support_positions()))
@@ -432,4 +598,4 @@ class DiagramPlot(BlitCanvas):
             self.axes[2].set_xlabel(f"x from the left end ({unit_label('span', u)})")
             layout = True
         self.dynamic = [*self.lines, *self.fills, *self.labels]
-        self.refresh(full or layout, layout)
+        self.refresh(full or layout, layout or not dragging)

@@ -46,11 +46,26 @@ class PlyTable(QTableWidget):
         self.cellChanged.connect(self._cell_changed)
         self.itemSelectionChanged.connect(self._selection_changed)
         document.changed.connect(self.refresh)
+        document.drag_finished.connect(self._drag_finished)
         self.refresh()
+
+    def _hold_widths(self, on: bool) -> None:
+        """During a drag the columns keep their widths (no measuring on every step); after
+        it they fit their contents again, as in a fresh window.
+        """
+        mode = (QHeaderView.ResizeMode.Interactive if on
+                else QHeaderView.ResizeMode.ResizeToContents)
+        header = self.horizontalHeader()
+        if header.sectionResizeMode(0) != mode:
+            header.setSectionResizeMode(mode)
+
+    def _drag_finished(self) -> None:
+        self._hold_widths(False)
 
     def refresh(self) -> None:
         """Show the model's plies."""
         p = self.document.project
+        self._hold_widths(self.document.dragging)
         u = p.display_units
         self._filling = True
         self.blockSignals(True)

@@ -25,6 +25,7 @@ from PySide6.QtWidgets import (
 )
 
 from plystack.app.safe import plain_label, plain_tip, reporter
+from plystack.core.design.check import Check
 from plystack.core.design.text import governing_per_group
 from plystack.core.model.caution import CAUTION, FIRE_NOTE
 from plystack.core.model.units import fmt, sig
@@ -112,11 +113,22 @@ def _put(table: QTableWidget, row: int, col: int, text: str,
     return item
 
 
+def set_style(widget: QWidget, css: str) -> None:
+    """Set a style sheet only when it differs (setting one restyles and repaints the
+    widget and lays its window out again, even when the sheet is the same).
+    """
+    if widget.styleSheet() != css:
+        widget.setStyleSheet(css)
+
+
 def _fit_columns(table: QTableWidget) -> bool:
     """Resize the columns to their contents only when the table's shape or the length of
     a column's longest text changed (measuring every cell is the costly part of a fill).
-    Returns True where it resized.
+    Returns True where it resized. While ``table`` holds its widths (property
+    ``hold_widths``, set during a drag) nothing is measured: the fit follows the drag.
     """
+    if table.property("hold_widths"):
+        return False
     longest = tuple(max((len(it.text()) for r in range(table.rowCount())
                          if (it := table.item(r, c)) is not None), default=0)
                     for c in range(table.columnCount()))
@@ -136,6 +148,9 @@ class ResultsPanel(QWidget):
     def __init__(self, settings: QSettings | None = None) -> None:
         super().__init__()
         self.settings = settings
+        self._held = False
+        self._tips: dict[int, tuple[tuple[object, ...], str]] = {}
+        self._pending: Analysis | None = None  # tables not filled yet (during a drag)
         self.verdict = plain_label("")
         self.verdict.setStyleSheet("font-weight: bold; font-size: 13px; padding: 4px;")
         self.caution = plain_label(CAUTION)
@@ -164,6 +179,7 @@ class ResultsPanel(QWidget):
         self.tabs.addTab(self.plies, "Plies")
         self.tabs.addTab(self.section, "Section")
         self.tabs.addTab(self.beam, "Beam")
+        self.tabs.currentChanged.connect(lambda _i: self._fill_rest())
         layout = QVBoxLayout(self)
         layout.addWidget(self.error)
         layout.addWidget(self.verdict)
@@ -180,14 +196,30 @@ class ResultsPanel(QWidget):
             return AMBER_FROM
         return number if 0.0 < number <= 1.0 else AMBER_FROM
 
+    def hold_widths(self, on: bool) -> None:
+        """Keep the column widths as they are (during a drag: True); False fits the
+        columns to their contents where the contents need it, as a fresh fill would.
+        """
+        if on == self._held:
+            return
+        self._held = on
+        tables = (self.checks, self.plies, self.section, self.beam)
+        for t in tables:
+            t.setProperty("hold_widths", on)
+        if not on:
+            self._fill_rest()
+            self._fit_checks()
+            for t in tables[1:]:
+                _fit_columns(t)
+
     def show_error(self, message: str) -> None:
         """A computation failed: say why; keep the last tables greyed out."""
-        self.error.setStyleSheet("color: #b00000;")
+        set_style(self.error, "color: #b00000;")
         self.error.setText(message)
         self.error.setVisible(True)
         self.verdict.setText("INCOMPLETE \u2014 no results: fix the problem above.")
-        self.verdict.setStyleSheet("font-weight: bold; font-size: 13px; padding: 4px; "
-                                   "color: #828282;")
+        set_style(self.verdict, "font-weight: bold; font-size: 13px; padding: 4px; "
+                  "color: #828282;")
         for t in (self.checks, self.plies, self.section, self.beam):
             t.setEnabled(False)
 
@@ -195,14 +227,28 @@ class ResultsPanel(QWidget):
         """Fill every table from an analysis."""
         self.error.setText("\n".join(f"Warning: {w}" for w in a.warnings))
         self.error.setVisible(bool(a.warnings))
-        self.error.setStyleSheet("color: #8a5a00;")
+        set_style(self.error, "color: #8a5a00;")
         for t in (self.checks, self.plies, self.section, self.beam):
             t.setEnabled(True)
+        self._fill_checks(a, a.project.display_units)
+        self._pending = a
+        self._fill_rest(self.tabs.currentWidget() if self._held else None)
+
+    def _fill_rest(self, only: QWidget | None = None) -> None:
+        """Fill the plies, section and beam tables from the pending analysis; ``only``:
+        that table alone (during a drag, the one on top), the others when shown or when
+        the drag is over.
+        """
+        a = self._pending
+        if a is None:
+            return
         u = a.project.display_units
-        self._fill_checks(a, u)
-        self._fill_plies(a, u)
-        self._fill_section(a, u)
-        self._fill_beam(a, u)
+        for table, fill in ((self.plies, self._fill_plies), (self.section, self._fill_section),
+                            (self.beam, self._fill_beam)):
+            if only is None or table is only:
+                fill(a, u)
+        if only is None:
+            self._pending = None
 
     def _fill_checks(self, a: Analysis, u: str) -> None:
         amber = self.amber_from()
@@ -226,23 +272,18 @@ class ResultsPanel(QWidget):
             colour = verdict_colour(text)
             if verdict.foreground().color() != colour:
                 verdict.setForeground(colour)
-            tip = "; ".join(f"{k} = {v:.4g} ({c.sources.get(k, '')})"
-                            for k, v in c.factors.items())
-            tip = plain_tip(f"{c.equation}\n{tip}\n{c.location}")
-            for col in range(7):
-                item = t.item(r, col)
-                if item.toolTip() != tip:
-                    item.setToolTip(tip)
-        header = self.checks.horizontalHeader()
-        if _fit_columns(self.checks):
-            for col in range(7):
-                header.setSectionResizeMode(col, QHeaderView.ResizeMode.Interactive)
-            self.checks.setColumnWidth(RATIO_COLUMN, 90)
+            tip = self._tip(r, c)
+            if t.item(r, 0).toolTip() != tip:  # the row's cells share their tooltip
+                for col in range(7):
+                    item = t.item(r, col)
+                    if item.toolTip() != tip:
+                        item.setToolTip(tip)
+        self._fit_checks()
         if not a.checks:
             self.verdict.setText("INCOMPLETE \u2014 no checks: give the beam (spans, supports, "
                                  "loads) to check the member.")
-            self.verdict.setStyleSheet("font-weight: bold; font-size: 13px; padding: 4px; "
-                                       "color: #828282;")
+            set_style(self.verdict, "font-weight: bold; font-size: 13px; padding: 4px; "
+                      "color: #828282;")
             return
         gov = rows[0]
         texts = [verdict_of(float(c.ratio), c.ok, amber) for c in a.checks]
@@ -260,8 +301,29 @@ class ResultsPanel(QWidget):
                              f"{gov.ply or gov.location}, {gov.combination or 'the layout'}, "
                              f"ratio {ratio}"
                              + missing)
-        self.verdict.setStyleSheet("font-weight: bold; font-size: 13px; padding: 4px; color: "
-                                   + verdict_colour(overall).name() + ";")
+        set_style(self.verdict, "font-weight: bold; font-size: 13px; padding: 4px; color: "
+                  + verdict_colour(overall).name() + ";")
+
+    def _tip(self, row: int, c: Check) -> str:
+        """The tooltip of a check's row: its equation, factors and place (made again only
+        when they changed since the row last showed them).
+        """
+        key = (c.equation, c.factors, c.sources, c.location)
+        kept = self._tips.get(row)
+        if kept is not None and kept[0] == key:
+            return kept[1]
+        tip = "; ".join(f"{k} = {v:.4g} ({c.sources.get(k, '')})"
+                        for k, v in c.factors.items())
+        tip = plain_tip(f"{c.equation}\n{tip}\n{c.location}")
+        self._tips[row] = (key, tip)
+        return tip
+
+    def _fit_checks(self) -> None:
+        header = self.checks.horizontalHeader()
+        if _fit_columns(self.checks):
+            for col in range(7):
+                header.setSectionResizeMode(col, QHeaderView.ResizeMode.Interactive)
+            self.checks.setColumnWidth(RATIO_COLUMN, 90)
 
     def _fill_plies(self, a: Analysis, u: str) -> None:
         cols = [f for f in fields(PlyResult) if f.name not in ("E",)]

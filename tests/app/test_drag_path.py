@@ -1,0 +1,240 @@
+"""The drag path: a drag on the section updates the views in place, holds their layout
+still, and leaves the window showing exactly what a fresh window shows for the project
+the drag produced. Real mouse events (press, moves, release on the canvas's viewport).
+
+References outside the project: a fresh ``MainWindow`` on the same project (the state
+every update must end in), matplotlib's own layout of a text (``Text.get_window_extent``)
+for the labels Qt paints over the plots, and core's ``run`` for the numbers.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pytest
+from PySide6.QtCore import QPoint, QPointF, Qt
+from PySide6.QtTest import QTest
+from PySide6.QtWidgets import QApplication, QTableWidget
+
+from plystack.app.canvas_items import Tag
+from plystack.app.main_window import MainWindow
+from plystack.app.plots import painted_by_qt, text_anchor
+from plystack.core.pipeline import run
+
+LEFT, NONE = Qt.MouseButton.LeftButton, Qt.KeyboardModifier.NoModifier
+
+
+def settle(qtbot, window) -> None:
+    """Let the debounced analysis run and every paint happen."""
+    qtbot.waitUntil(lambda: not window.analysis_model._timer.isActive(), timeout=5000)
+    for _ in range(3):
+        QApplication.processEvents()
+
+
+def top_edge(window) -> QPoint:
+    c = window.canvas
+    ply = window.document.project.plies[1]  # the flitch plate
+    return c.mapFromScene(QPointF((ply.x + ply.width / 2) * 1000, -ply.top * 1000))
+
+
+def select_plate(window) -> None:
+    c = window.canvas
+    ply = window.document.project.plies[1]
+    QTest.mouseClick(c.viewport(), LEFT, NONE, c.mapFromScene(QPointF(
+        (ply.x + ply.width / 2) * 1000, -(ply.y + ply.height / 2) * 1000)))
+
+
+def drag_top_edge(qtbot, window, steps: int = 24, release: bool = True) -> None:
+    """Press on the plate's top edge handle and move up and down (as the benchmark does),
+    each step's analysis run as the debounce timer would run it.
+    """
+    select_plate(window)
+    vp = window.canvas.viewport()
+    at = top_edge(window)
+    QTest.mousePress(vp, LEFT, NONE, at)
+    for k in range(1, steps + 1):
+        dy = round(40 * math.sin(k / 4))
+        QTest.mouseMove(vp, at + QPoint(0, -dy - 12))
+        if window.analysis_model._timer.isActive():
+            window.analysis_model.recompute()
+        QApplication.processEvents()
+    if release:
+        QTest.mouseRelease(vp, LEFT, NONE, at + QPoint(0, -30))
+        settle(qtbot, window)
+
+
+def fresh_window(qtbot, window) -> MainWindow:
+    """A new window on the dragged window's project, shown at the same size."""
+    w = MainWindow(window.document.project, None)
+    w.ask = lambda *a, **k: None
+    qtbot.addWidget(w)
+    w.resize(window.size())
+    w.show()
+    qtbot.waitExposed(w)
+    w.canvas.fit()
+    w.plot_tabs.setCurrentIndex(window.plot_tabs.currentIndex())
+    settle(qtbot, w)
+    return w
+
+
+def table_texts(table: QTableWidget) -> list[list[str]]:
+    return [[table.horizontalHeaderItem(c).text() if table.horizontalHeaderItem(c) else ""
+             for c in range(table.columnCount())]] + [
+        [table.item(r, c).text() if table.item(r, c) else "" for c in range(table.columnCount())]
+        for r in range(table.rowCount())]
+
+
+def tables(w: MainWindow) -> dict[str, QTableWidget]:
+    r = w.results
+    return {"checks": r.checks, "plies": r.plies, "section": r.section, "beam": r.beam,
+            "ply list": w.ply_panel.table, "reactions": w.beam_panel.reactions,
+            "loads": w.beam_panel.loads}
+
+
+def plot_state(plot) -> dict[str, object]:
+    """What a plot shows: every line's data, every text, every axes' limits."""
+    state: dict[str, object] = {}
+    for k, ax in enumerate(plot.figure.axes):
+        state[f"axes {k} limits"] = (ax.get_xlim(), ax.get_ylim())
+        state[f"axes {k} lines"] = [(np.asarray(line.get_xdata(), float).tolist(),
+                                     np.asarray(line.get_ydata(), float).tolist())
+                                    for line in ax.get_lines()]
+        state[f"axes {k} texts"] = [(t.get_text(), tuple(np.asarray(getattr(t, "xy", (0, 0)),
+                                                                    float)))
+                                    for t in ax.texts]
+    state["figure texts"] = [t.get_text() for t in plot.figure.texts]
+    return state
+
+
+def canvas_texts(w: MainWindow) -> list[tuple[str, bool]]:
+    """The canvas's labels (text, shown) in stacking order."""
+    return [(it.label.text(), it.isVisible()) for it in w.canvas.scene().items(
+        Qt.SortOrder.AscendingOrder) if isinstance(it, Tag)]
+
+
+@pytest.mark.parametrize("tab", [0, 1])
+def test_after_a_drag_the_window_shows_what_a_fresh_window_shows(window, qtbot, tab):
+    window.plot_tabs.setCurrentIndex(tab)
+    settle(qtbot, window)
+    start = window.document.project
+    drag_top_edge(qtbot, window)
+    assert window.document.project != start  # the plate's height changed
+    fresh = fresh_window(qtbot, window)
+    # the selection is the dragged window's own state: the fresh one selects the same ply
+    fresh.canvas.select(window.canvas.selected)
+    settle(qtbot, fresh)
+    for name, table in tables(window).items():
+        assert table_texts(table) == table_texts(tables(fresh)[name]), name
+        widths = [table.columnWidth(c) for c in range(table.columnCount())]
+        assert widths == [tables(fresh)[name].columnWidth(c)
+                          for c in range(table.columnCount())], name
+    assert window.results.verdict.text() == fresh.results.verdict.text()
+    for shown in (tab, 1 - tab):  # the plot on top, then the other one once shown
+        for w in (window, fresh):
+            w.plot_tabs.setCurrentIndex(shown)
+            settle(qtbot, w)
+        plot = ("profiles", "diagrams")[shown]
+        assert plot_state(getattr(window, plot)) == plot_state(getattr(fresh, plot)), plot
+    assert canvas_texts(window) == canvas_texts(fresh)
+    assert [(type(i).__name__, i.data(0)) for i in window.elevation.scene().items(
+        Qt.SortOrder.AscendingOrder)] == [(type(i).__name__, i.data(0)) for i in
+                                          fresh.elevation.scene().items(
+                                              Qt.SortOrder.AscendingOrder)]
+    # and the numbers shown are core's for the dragged project
+    expected = run(window.document.project)
+    table = window.results.section
+    values = {table.item(r, 0).text(): table.item(r, 1).data(Qt.ItemDataRole.UserRole)
+              for r in range(table.rowCount())}
+    assert values["EI"] == expected.section.EI
+
+
+def test_during_a_drag_the_columns_and_the_plot_layout_hold_still(window, qtbot):
+    settle(qtbot, window)
+    checks = window.results.checks
+    widths = [checks.columnWidth(c) for c in range(checks.columnCount())]
+    plies = window.ply_panel.table
+    ply_widths = [plies.columnWidth(c) for c in range(plies.columnCount())]
+    passes = window.profiles.layout_passes
+    drag_top_edge(qtbot, window, release=False)
+    assert window.document.dragging
+    assert [checks.columnWidth(c) for c in range(checks.columnCount())] == widths
+    assert [plies.columnWidth(c) for c in range(plies.columnCount())] == ply_widths
+    assert window.profiles.layout_passes == passes  # no layout pass while dragging
+    QTest.mouseRelease(window.canvas.viewport(), LEFT, NONE, top_edge(window))
+    settle(qtbot, window)
+    assert not window.document.dragging
+    assert window.profiles.layout_passes > passes  # laid out once the drag is over
+
+
+def test_a_drag_moves_the_canvas_items_instead_of_rebuilding_them(window, qtbot):
+    settle(qtbot, window)
+    select_plate(window)
+    settle(qtbot, window)
+    before = {id(it) for it in window.canvas.scene().items()}
+    items = list(window.canvas.scene().items())  # keep them alive: ids stay unique
+    drag_top_edge(qtbot, window, steps=6, release=False)
+    after = {id(it) for it in window.canvas.scene().items()}
+    assert after == before
+    plate = window.document.project.plies[1]
+    path = next(it for it in window.canvas.scene().items() if it.data(0) == 1)
+    rect = path.path().boundingRect()
+    assert rect.top() == pytest.approx(-plate.top * 1000, abs=1e-9)
+    QTest.mouseRelease(window.canvas.viewport(), LEFT, NONE, top_edge(window))
+    settle(qtbot, window)
+    del items
+
+
+def test_a_hidden_plot_computes_nothing_until_it_is_shown(window, qtbot):
+    window.plot_tabs.setCurrentIndex(0)  # the diagrams are hidden
+    settle(qtbot, window)
+    draws = window.diagrams.full_draws
+    drag_top_edge(qtbot, window, steps=8)
+    assert window.diagrams.full_draws == draws
+    assert window.diagrams._pending is not None
+    # asked for, the values are those of the latest analysis (computed on demand)
+    expected = run(window.document.project)
+    combo = max(expected.beam.combinations, key=lambda c: abs(c.M_governing))
+    assert window.diagrams.last["moment"] == pytest.approx(combo.extremes.M_max, rel=1e-6)
+    window.plot_tabs.setCurrentIndex(1)
+    settle(qtbot, window)
+    assert window.diagrams._pending is None
+
+
+def test_qt_paints_the_labels_where_matplotlib_lays_them_out(window, qtbot):
+    """Each label Qt paints has its anchor where matplotlib's own layout of that text puts
+    it: the left, right or middle of the text's box and its middle, top or baseline.
+    """
+    for tab, plot in enumerate((window.profiles, window.diagrams)):
+        window.plot_tabs.setCurrentIndex(tab)
+        settle(qtbot, window)
+        renderer = plot.figure.canvas.get_renderer()
+        labels = [a for a in plot.dynamic if painted_by_qt(a) and a.get_text()]
+        assert labels
+        for a in labels:
+            at = text_anchor(a, plot.figure)
+            if at is None:
+                continue
+            box = a.get_window_extent(renderer)
+            x = {"left": box.x0, "right": box.x1, "center": (box.x0 + box.x1) / 2}[
+                a.get_horizontalalignment()]
+            assert at[0] == pytest.approx(x, abs=1e-6), a.get_text()
+            va = a.get_verticalalignment()
+            if va == "center":
+                assert at[1] == pytest.approx((box.y0 + box.y1) / 2, abs=1e-6)
+            elif va == "top":
+                assert at[1] == pytest.approx(box.y1, abs=1e-6)
+            else:  # baseline: inside the box, above its bottom by the descent
+                assert box.y0 <= at[1] <= box.y1
+
+
+def test_a_label_of_a_point_outside_its_axes_is_not_painted(window, qtbot):
+    window.plot_tabs.setCurrentIndex(1)
+    settle(qtbot, window)
+    label = window.diagrams.labels[0]
+    ax = label.axes
+    x0, x1 = ax.get_xlim()
+    old = label.xy
+    label.xy = (x1 + 10 * (x1 - x0), old[1])  # as matplotlib's annotation clip leaves it
+    assert text_anchor(label, window.diagrams.figure) is None
+    label.xy = old
