@@ -30,7 +30,8 @@ within each segment.
 
 from __future__ import annotations
 
-from collections.abc import Mapping, Sequence
+import functools
+from collections.abc import Callable, Mapping, Sequence
 from dataclasses import dataclass, field, replace
 
 import numpy as np
@@ -424,10 +425,41 @@ def analyse_beams(prepared: PreparedBeam, sections: Sequence[Section],
         raise ProjectError(Problem("beam.combinations", "no combination has a load case "
                                    "that the beam carries"))
     batch = _Batch()
-    jobs = [_ask_section(prepared, section, design, batch) for section in sections]
+    jobs = [_ask_section(prepared, section, design, batch, defer=True)
+            for section in sections]
     ext = extremes_many(prepared.model, batch.solutions, batch.stiffness)
-    return [_finish_section(prepared, section, job, ext, batch.solutions)
+    extra = _Batch()
+    for job in jobs:
+        _ask_deferred(prepared, job, ext, extra, len(batch.solutions))
+    if extra.solutions:
+        ext = ext + extremes_many(prepared.model, extra.solutions, extra.stiffness)
+    built = batch.solutions + extra.solutions
+    return [_finish_section(prepared, section, job, ext, built)
             for section, job in zip(sections, jobs, strict=True)]
+
+
+#: An index of a solution not yet built (see :func:`_ask_deferred`).
+_DEFERRED = -1
+
+
+def _ask_deferred(prepared: PreparedBeam, job: _Job, ext: Sequence[Extremes], extra: _Batch,
+                  offset: int) -> None:
+    """Build and ask (in ``extra``, whose indices follow ``offset``) the sustained and
+    rest solutions that the result reads of a combination with several arrangements: the
+    arrangement governing the total deflection, and the sustained part of those governing
+    the moments. The others are never read, so they are not built.
+    """
+    for ci, idx in enumerate(job.combo_idx):
+        if _DEFERRED not in idx["sustained"] and _DEFERRED not in idx["rest"]:
+            continue
+        _, gov = envelope([ext[i] for i in idx["solution"] if i is not None])
+        _, tgov = envelope([ext[i] for i in idx["total"] if i is not None])
+        j = tgov["deflection_max_abs"]
+        for kind, m in (("sustained", j), ("rest", j), ("sustained", gov["M_max"]),
+                        ("sustained", gov["M_min"])):
+            if idx[kind][m] == _DEFERRED:
+                sol, EI = job.later[(ci, kind, m)]()
+                idx[kind][m] = offset + extra.ask(sol, EI)
 
 
 @dataclass(frozen=True, eq=False)
@@ -441,10 +473,15 @@ class _Job:
     creep_section: Section
     case_idx: dict[str, list[int]]
     combo_idx: list[dict[str, list[int | None]]]
+    later: dict[tuple[int, str, int], Callable[[], tuple[CaseSolution, float]]]
 
 
 def _ask_section(prepared: PreparedBeam, section: Section, design: DesignSpec,
-                 batch: _Batch) -> _Job:
+                 batch: _Batch, defer: bool = False) -> _Job:
+    """Ask the batch for every solution of the section. With ``defer``, the sustained
+    and rest parts of a combination with several arrangements are left to be built by
+    :func:`_ask_deferred` (marked ``_DEFERRED``), only where the result reads them.
+    """
     sw = section.mass_per_length * GRAVITY if prepared.spec.self_weight else 0.0
     cases = prepared.cases_with_self_weight(sw)
     factor = creep_factor(section, design)
@@ -457,15 +494,29 @@ def _ask_section(prepared: PreparedBeam, section: Section, design: DesignSpec,
     case_idx = {c: [batch.ask(_build(prepared, cases, pl, m, {c: 1.0}), EI) for m in pl.masks]
                 for c, pl in prepared.case_plans.items() if c in cases}
     combo_idx = []
-    for item in prepared.planned:
+    later: dict[tuple[int, str, int], Callable[[], tuple[CaseSolution, float]]] = {}
+    for ci, item in enumerate(prepared.planned):
         f, sus = dict(item.combination.factors), item.sustained
         rest = {c: v - sus.get(c, 0.0) for c, v in f.items()}
         idx: dict[str, list[int | None]] = {"solution": [], "total": [], "sustained": [],
                                             "rest": [], "variable": []}
-        for m in item.plan.masks:
+        lazy = (defer and len(item.plan.masks) > 1 and prepared.parts is not None
+                and crept.parts is not None)
+        for k, m in enumerate(item.plan.masks):
             idx["solution"].append(batch.ask(_build(prepared, cases, item.plan, m, f), EI))
             idx["total"].append(batch.ask(_total(prepared, cases, creep_cases, item.plan, m,
                                                  f, sus, section.EI / creep_section.EI), EI))
+            if lazy:
+                for kind, parts_of, cs, g, stiff in (
+                        ("sustained", crept, creep_cases, sus, EI_c),
+                        ("rest", prepared, cases, rest, EI)):
+                    if not any(g.values()):
+                        idx[kind].append(None)
+                        continue
+                    idx[kind].append(_DEFERRED)
+                    later[(ci, kind, k)] = functools.partial(
+                        _built_with, parts_of, cs, item.plan, m, g, stiff)
+                continue
             idx["sustained"].append(batch.ask(_build(crept, creep_cases, item.plan, m, sus),
                                               EI_c) if any(sus.values()) else None)
             idx["rest"].append(batch.ask(_build(prepared, cases, item.plan, m, rest), EI)
@@ -475,7 +526,13 @@ def _ask_section(prepared: PreparedBeam, section: Section, design: DesignSpec,
             idx["variable"] = [batch.ask(_build(prepared, cases, item.variable_plan, m, var), EI)
                                for m in item.variable_plan.masks]
         combo_idx.append(idx)
-    return _Job(sw, cases, creep_cases, factor, creep_section, case_idx, combo_idx)
+    return _Job(sw, cases, creep_cases, factor, creep_section, case_idx, combo_idx, later)
+
+
+def _built_with(prepared: PreparedBeam, cases: Mapping[str, CaseSolution], plan_: Plan,
+                mask: tuple[bool, ...], g: Mapping[str, float],
+                EI: float) -> tuple[CaseSolution, float]:
+    return _build(prepared, cases, plan_, mask, g), EI
 
 
 def _total(prepared: PreparedBeam, cases: Mapping[str, CaseSolution],
@@ -510,6 +567,7 @@ def _finish_section(prepared: PreparedBeam, section: Section, job: _Job,
         total, tgov = envelope(tot_ext)
         j = tgov["deflection_max_abs"]
         sus_i, rest_i = idx["sustained"][j], idx["rest"][j]
+        assert sus_i != _DEFERRED and rest_i != _DEFERRED
         f = dict(item.combination.factors)
         first = built[_index(idx["solution"][0])]
         if prepared.parts is not None:
@@ -574,7 +632,7 @@ def _carries(cases: Mapping[str, CaseSolution], g: Mapping[str, float]) -> bool:
 
 def _index(i: int | None) -> int:
     """A batch index that the job always asks for."""
-    assert i is not None
+    assert i is not None and i != _DEFERRED
     return i
 
 
