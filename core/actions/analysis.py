@@ -360,6 +360,48 @@ class PreparedBeam:
         return cases
 
 
+def _build_all(prepared: PreparedBeam, cases: Mapping[str, CaseSolution], plan_: Plan,
+               g: Mapping[str, float]) -> list[CaseSolution]:
+    """:func:`_build` of every arrangement of ``plan_``: the same sums, unit by unit in
+    the same order, made for all arrangements at once (one row each).
+    """
+    masks = plan_.masks
+    parts = prepared.parts
+    if len(masks) < 3 or parts is None:
+        return [_build(prepared, cases, plan_, m, g) for m in masks]
+    patterned = set(parts.parts)
+    base = combine(cases, {c: v for c, v in g.items() if c not in patterned})
+    terms = [(u, parts.part(unit).scaled(g[unit.case]))
+             for u, unit in enumerate(plan_.units) if g.get(unit.case)]
+    shapes = {(s._e, s._s, s._w) for _, s in terms} | (
+        set() if base is None else {(base._e, base._s, base._w)})
+    if len(shapes) != 1:  # not one layout of numbers: one arrangement at a time
+        return [_build(prepared, cases, plan_, m, g) for m in masks]
+    e, n_s, w = shapes.pop()
+    on_all = np.array(masks, dtype=bool).reshape(len(masks), -1)
+    started = np.zeros(len(masks), dtype=bool)
+    acc = np.zeros((len(masks), (base if base is not None else terms[0][1]).data.size))
+    if base is not None:
+        acc[:] = base.data
+        started[:] = True
+    for u, s in terms:
+        on = on_all[:, u]
+        if not on.any():
+            continue
+        # a started row adds the part (sol + s), a new one takes it (sol = s)
+        acc = np.where(on[:, None], np.where(started[:, None], acc + s.data, s.data), acc)
+        started |= on
+    zero = None
+    out = []
+    for r in range(len(masks)):
+        if started[r]:
+            out.append(CaseSolution._of(acc[r], e, n_s, w))
+        else:
+            zero = zero or next(iter(cases.values())).scaled(0.0)
+            out.append(zero)
+    return out
+
+
 def _build(prepared: PreparedBeam, cases: Mapping[str, CaseSolution], plan_: Plan,
            mask: tuple[bool, ...], g: Mapping[str, float]) -> CaseSolution:
     """The solution of factors ``g`` with the arrangement ``mask`` of ``plan_``."""
@@ -491,7 +533,7 @@ def _ask_section(prepared: PreparedBeam, section: Section, design: DesignSpec,
     creep_cases = crept.cases_with_self_weight(sw)
     if prepared.stepped:
         EI = EI_c = 1.0
-    case_idx = {c: [batch.ask(_build(prepared, cases, pl, m, {c: 1.0}), EI) for m in pl.masks]
+    case_idx = {c: [batch.ask(s, EI) for s in _build_all(prepared, cases, pl, {c: 1.0})]
                 for c, pl in prepared.case_plans.items() if c in cases}
     combo_idx = []
     later: dict[tuple[int, str, int], Callable[[], tuple[CaseSolution, float]]] = {}
@@ -502,10 +544,12 @@ def _ask_section(prepared: PreparedBeam, section: Section, design: DesignSpec,
                                             "rest": [], "variable": []}
         lazy = (defer and len(item.plan.masks) > 1 and prepared.parts is not None
                 and crept.parts is not None)
+        solutions = _build_all(prepared, cases, item.plan, f)
+        totals = _total_all(prepared, cases, creep_cases, item.plan, f, sus,
+                            section.EI / creep_section.EI)
         for k, m in enumerate(item.plan.masks):
-            idx["solution"].append(batch.ask(_build(prepared, cases, item.plan, m, f), EI))
-            idx["total"].append(batch.ask(_total(prepared, cases, creep_cases, item.plan, m,
-                                                 f, sus, section.EI / creep_section.EI), EI))
+            idx["solution"].append(batch.ask(solutions[k], EI))
+            idx["total"].append(batch.ask(totals[k], EI))
             if lazy:
                 for kind, parts_of, cs, g, stiff in (
                         ("sustained", crept, creep_cases, sus, EI_c),
@@ -523,8 +567,8 @@ def _ask_section(prepared: PreparedBeam, section: Section, design: DesignSpec,
                                if any(rest.values()) else None)
         if item.variable_plan is not None:
             var = {c: v for c, v in f.items() if c != "D"}
-            idx["variable"] = [batch.ask(_build(prepared, cases, item.variable_plan, m, var), EI)
-                               for m in item.variable_plan.masks]
+            idx["variable"] = [batch.ask(s, EI)
+                               for s in _build_all(prepared, cases, item.variable_plan, var)]
         combo_idx.append(idx)
     return _Job(sw, cases, creep_cases, factor, creep_section, case_idx, combo_idx, later)
 
@@ -533,6 +577,18 @@ def _built_with(prepared: PreparedBeam, cases: Mapping[str, CaseSolution], plan_
                 mask: tuple[bool, ...], g: Mapping[str, float],
                 EI: float) -> tuple[CaseSolution, float]:
     return _build(prepared, cases, plan_, mask, g), EI
+
+
+def _total_all(prepared: PreparedBeam, cases: Mapping[str, CaseSolution],
+               creep_cases: Mapping[str, CaseSolution], plan_: Plan, f: Mapping[str, float],
+               sus: Mapping[str, float], ratio: float) -> list[CaseSolution]:
+    """:func:`_total` of every arrangement of ``plan_`` (see :func:`_build_all`)."""
+    if not prepared.stepped or prepared.creep is None:
+        return _build_all(prepared, cases, plan_, {
+            c: sus.get(c, 0.0) * ratio + v - sus.get(c, 0.0) for c, v in f.items()})
+    rest = {c: v - sus.get(c, 0.0) for c, v in f.items()}
+    return [a + b for a, b in zip(_build_all(prepared.creep, creep_cases, plan_, sus),
+                                  _build_all(prepared, cases, plan_, rest), strict=True)]
 
 
 def _total(prepared: PreparedBeam, cases: Mapping[str, CaseSolution],

@@ -52,3 +52,28 @@ def test_deferred_parts_equal_the_eager_batch(demo: str, spans: int) -> None:
             if sa is not None:
                 assert sa.data.tobytes() == sb.data.tobytes(), name
     assert repr(deferred.case_extremes) == repr(eager.case_extremes)
+
+
+@pytest.mark.parametrize(("demo", "spans"), [("porch-header.plystack.json", 8),
+                                             ("stair-trimmer-eu.plystack.json", 5)])
+def test_all_arrangements_at_once_equal_one_at_a_time(demo: str, spans: int) -> None:
+    """``_build_all`` (every arrangement in one pass) against ``_build`` of each
+    arrangement, bit for bit, for every combination's factors and each case alone."""
+    project = load(DEMOS / demo)
+    beam = project.beam
+    assert beam is not None
+    layout = replace(beam.layout, spans=(beam.layout.spans[0],) * spans)
+    project = replace(project, beam=replace(beam, layout=layout, pattern_live_load=True))
+    ev = Evaluator(project)
+    prepared = ev.beam
+    assert prepared is not None
+    cases = prepared.cases_with_self_weight(123.4)
+    asked = [(p.plan, dict(p.combination.factors)) for p in prepared.planned]
+    asked += [(pl, {c: 1.0}) for c, pl in prepared.case_plans.items()]
+    many = 0
+    for plan, g in asked:
+        together = analysis._build_all(prepared, cases, plan, g)
+        alone = [analysis._build(prepared, cases, plan, m, g) for m in plan.masks]
+        many += len(plan.masks) >= 3
+        assert [s.data.tobytes() for s in together] == [s.data.tobytes() for s in alone]
+    assert many
