@@ -9,11 +9,16 @@ Speed: the axes, ticks and labels are drawn once and cached as a background; an 
 only changes the data artists (updated in place with ``set_data``) and blits them over
 the cached background. The limits are a fifth of the data's range beyond the data on
 each side. During a drag (``dragging=True``) they hold still while the data stay inside
-them and fill at least half of them, so a drag rarely moves them, and a redraw for new
-limits alone skips the layout pass (constrained layout costs more than the rest of the
-draw). Any other update (an edit that is not a drag, the first update after the drag)
-sets the limits from the data and lays the figure out where anything moved, so what
-shows after a drag is what a fresh window shows for the same project.
+them and fill at least a quarter of them, limits a drag moves get half the data's range
+on each side, so a drag rarely moves them, and a redraw for new limits alone skips the
+layout pass (constrained layout costs more than the rest of the draw). Any other update
+(an edit that is not a drag, the first update after the drag) sets the limits from the
+data and lays the figure out where anything moved, so what shows after a drag is what a
+fresh window shows for the same project.
+The labels of the data (values at the extremes, the neutral axis, the moment) are
+matplotlib artists placed and laid out by matplotlib but painted by Qt over the figure
+(``painted_by_qt``), at the point matplotlib would draw them, in the same font file:
+rendering a changed text with FreeType on every step was most of a blit.
 Nothing is computed or drawn while the plot is hidden (before the window is shown, or in
 a tab not on top): the latest update is kept and made once when the plot appears.
 
