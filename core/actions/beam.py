@@ -507,7 +507,8 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
     ``elements`` (first, last + 1) limits the search to those elements (a segment).
     """
     e0, e1 = (0, model.lengths.size) if elements is None else elements
-    return _reduce(model, _element_values(model, sols, EIs, e0, e1), e0, e1)
+    groups = _groups(model, e0, e1, [(e0, e1)])
+    return _reduce(model, _element_values(model, sols, EIs, e0, e1, groups), e0, e1)
 
 
 def extremes_within(model: BeamModel, sols: Sequence[CaseSolution],
@@ -517,7 +518,7 @@ def extremes_within(model: BeamModel, sols: Sequence[CaseSolution],
     last + 1), from one pass over the elements (each element's candidates are its own).
     """
     n = model.lengths.size
-    values = _element_values(model, sols, EIs, 0, n)
+    values = _element_values(model, sols, EIs, 0, n, _groups(model, 0, n, [(0, n), *ranges]))
     return [_reduce(model, values, 0, n)] + [_reduce(model, values.part(a, b), a, b)
                                              for a, b in ranges]
 
@@ -544,8 +545,48 @@ class _ElementValues:
             self.xm, self.ok, self.m, self.xv, self.v, self.w, self.xw)))
 
 
+def _groups(model: BeamModel, e0: int, e1: int,
+            ranges: Sequence[tuple[int, int]]) -> np.ndarray:
+    """A label for every element of e0 to e1: the same for the elements that share every
+    search made over them (each range of elements, and each region within it), so that
+    the smallest set of elements any search of an element covers is its label's.
+    """
+    names = {n_: r for r, (n_, _, _) in enumerate(model.layout.regions())}
+    keys = []
+    for e in range(e0, e1):
+        inside = tuple(k for k, (a, b) in enumerate(ranges) if a <= e < b)
+        keys.append((inside, names.get(model.element_regions[e], -1)))
+    labels: dict[tuple[tuple[int, ...], int], int] = {}
+    return np.array([labels.setdefault(k, len(labels)) for k in keys], dtype=int)
+
+
+def _needs_roots(w_c: np.ndarray, le: np.ndarray, groups: np.ndarray) -> np.ndarray:
+    """Where an element's deflection can be largest inside it: (solutions, elements).
+
+    |w(x)| on the element is at most the sum of |c_j| le^j (its coefficients); where that
+    bound (with a margin far above rounding) is below the largest |w| at the element ends
+    of its group (the elements every search of this one covers), no point inside it can
+    be the largest of any search, and its roots need not be found. Elsewhere (and where
+    the numbers are not finite) they are.
+    """
+    k, n = w_c.shape[0], w_c.shape[1]
+    powers = le[:, None] ** np.arange(5, -1, -1)
+    bound = (np.abs(w_c) * powers).sum(axis=-1) * (1 + 1e-6)
+    ends = np.zeros((k, n, 2))
+    x = np.stack([np.zeros(n), le], axis=-1)
+    for j in range(6):
+        ends = ends * x + w_c[..., j : j + 1]
+    end_max = np.abs(ends).max(axis=-1)
+    top = np.zeros((k, n))
+    for g in np.unique(groups):
+        members = groups == g
+        top[:, members] = end_max[:, members].max(axis=1, keepdims=True)
+    return np.asarray(~(bound < top))
+
+
 def _element_values(model: BeamModel, sols: Sequence[CaseSolution],
-                    EIs: Sequence[float] | np.ndarray, e0: int, e1: int) -> _ElementValues:
+                    EIs: Sequence[float] | np.ndarray, e0: int, e1: int,
+                    groups: np.ndarray | None = None) -> _ElementValues:
     le = model.lengths[e0:e1]
     x0 = model.nodes[e0:e1]
     k, n = len(sols), le.size
@@ -572,7 +613,14 @@ def _element_values(model: BeamModel, sols: Sequence[CaseSolution],
     v1, t1, v2, t2 = U[:, 0:-2:2], U[:, 1:-2:2], U[:, 2::2], U[:, 3::2]
     w_c = -w_up_coefficients(v1, t1, v2, t2, wq, wdq, le) / EI[..., None]
     dw = w_c[..., :5] * np.array([5.0, 4.0, 3.0, 2.0, 1.0])
-    roots = _real_roots_batched(dw.reshape(k * n, 5), le_k).reshape(k, n, 4)
+    if groups is None or k * n < 64:
+        roots = _real_roots_batched(dw.reshape(k * n, 5), le_k).reshape(k, n, 4)
+    else:  # the roots only where the largest deflection of a search can be inside
+        need = _needs_roots(w_c, le, groups).reshape(k * n)
+        flat = np.full((k * n, 4), np.nan)
+        if need.any():
+            flat[need] = _real_roots_batched(dw.reshape(k * n, 5)[need], le_k[need])
+        roots = flat.reshape(k, n, 4)
     xw = np.concatenate([np.zeros((k, n, 1)), np.broadcast_to(le[:, None], (k, n, 1)),
                          roots], axis=-1)
     xw_safe = np.nan_to_num(xw)
