@@ -210,7 +210,9 @@ class BeamModel:
             if kind == "fixed":
                 fixed.append(2 * node + 1)
         self.fixed = np.array(sorted(fixed))
-        self.free = np.setdiff1d(np.arange(n_dof), self.fixed)
+        is_free = np.ones(n_dof, dtype=bool)
+        is_free[self.fixed] = False
+        self.free = np.flatnonzero(is_free)  # ascending, as setdiff1d (without numpy.ma)
         # symmetric diagonal scaling: short elements next to long ones make K badly scaled
         free = self.free
         self._scale = 1.0 / np.sqrt(K[free, free])
@@ -578,7 +580,7 @@ def _needs_roots(w_c: np.ndarray, le: np.ndarray, groups: np.ndarray) -> np.ndar
         ends = ends * x + w_c[..., j : j + 1]
     end_max = np.abs(ends).max(axis=-1)
     top = np.zeros((k, n))
-    for g in np.unique(groups):
+    for g in range(int(groups.max()) + 1 if groups.size else 0):  # labels 0, 1, ...
         members = groups == g
         top[:, members] = end_max[:, members].max(axis=1, keepdims=True)
     return np.asarray(~(bound < top))

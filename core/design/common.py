@@ -52,8 +52,9 @@ def unit_shear_stress(section: Section) -> np.ndarray:
 def _unit_shear_stress(section: Section) -> np.ndarray:
     lo = float(section.y_bottom.min())
     hi = float(section.y_top.max())
-    ys = np.unique(np.concatenate([np.linspace(lo, hi, 41), section.y_bottom, section.y_top,
-                                   [section.neutral_axis_y]]))
+    ys = np.sort(np.concatenate([np.linspace(lo, hi, 41), section.y_bottom, section.y_top,
+                                 [section.neutral_axis_y]]))
+    ys = ys[np.concatenate(([True], ys[1:] != ys[:-1]))]  # np.unique's, without numpy.ma
     tau = np.abs(section.shear_stress(1.0, ys))
     out = np.asarray(np.where(np.isfinite(tau), tau, 0.0).max(axis=1))  # no NaN is left
     out.setflags(write=False)
