@@ -40,6 +40,7 @@ from matplotlib.font_manager import findfont
 from matplotlib.lines import Line2D
 from matplotlib.patches import Polygon
 from matplotlib.text import Annotation, Text
+from matplotlib.ticker import MaxNLocator
 from PySide6.QtCore import QPointF, QRectF
 from PySide6.QtGui import QColor, QFont, QFontDatabase, QFontMetricsF, QImage, QPainter
 
@@ -357,6 +358,9 @@ class ProfilePlot(BlitCanvas):
         for ax in axes:
             ax.axvline(0.0, color="#999999", lw=0.6)
             ax.tick_params(labelsize=7)
+            # narrow panels: few enough values along x that five-digit stresses do not run
+            # into each other
+            ax.xaxis.set_major_locator(MaxNLocator(nbins=4))
             ax.set_autoscale_on(False)
         self.stress_lines: list[Any] = []
         self._line_specs: list[tuple[str, str]] = []  # (kind, line style) of each
