@@ -263,57 +263,21 @@ def growth_figures(repeat: int) -> None:
 
 
 def gui_figures(steps: int, core_run: float) -> None:
-    from PySide6.QtCore import QPoint, QPointF, QStandardPaths, Qt
-    from PySide6.QtTest import QTest
-    from PySide6.QtWidgets import QApplication
-
-    from plystack.app.main_window import MainWindow
+    """The drag steps of ``bench_gui`` (real mouse events on the canvas, CPU time)."""
+    import bench_gui
+    from PySide6.QtCore import QStandardPaths
 
     QStandardPaths.setTestModeEnabled(True)
-    app = QApplication.instance() or QApplication([])
-    left, none = Qt.MouseButton.LeftButton, Qt.KeyboardModifier.NoModifier
     print(f"GUI drag step ({steps} steps of a resize drag on the flitch plate's top edge)")
     for label, tab in (("view + results table (plots hidden)", None),
                        ("... with the strain and stress plot", 0),
                        ("... with the shear, moment, deflection plot", 1)):
-        w = MainWindow(load(US_DEMO), None)
-        w.resize(1600, 950)
-        w.show()
-        w.plot_tabs.setVisible(tab is not None)
-        if tab is not None:
-            w.plot_tabs.setCurrentIndex(tab)
-        for _ in range(5):
-            app.processEvents()
-        c = w.canvas
-        c.fit()
-        app.processEvents()
-        ply = w.document.project.plies[1]
-        vp = c.viewport()
-        at = c.mapFromScene(QPointF((ply.x + ply.width / 2) * 1000, -ply.top * 1000))
-        QTest.mouseClick(vp, left, none, c.mapFromScene(QPointF(
-            (ply.x + ply.width / 2) * 1000, -(ply.y + ply.height / 2) * 1000)))
-        app.processEvents()
-        QTest.mousePress(vp, left, none, at)
-        times = []
-        for k in range(1, steps + 1):
-            dy = round(40 * math.sin(k / 8))  # up and down, a few pixels a step
-            t = time.perf_counter()
-            QTest.mouseMove(vp, at + QPoint(0, -dy - 12))
-            timer = w.analysis_model._timer
-            if timer.isActive():  # what the debounce timer would run, in the open
-                w.analysis_model.recompute()
-            app.processEvents()  # paints: the view, the table and a visible plot
-            times.append(time.perf_counter() - t)
-        QTest.mouseRelease(vp, left, none, at)
-        times.sort()
+        times = sorted(bench_gui.drag_steps(tab, steps)[0])
         med = statistics.median(times)
         p95 = times[min(len(times) - 1, int(0.95 * len(times)))]
         goal = "goal 12 ms" if tab is None else "goal 25 ms, p95 40"
         line(label, f"{med * 1e3:.1f} ms", f"p95 {p95 * 1e3:.1f} ms, "
              f"{med / core_run:.1f} x run", goal)
-        w.document.undo_stack.setClean()
-        w.close()
-        app.processEvents()
 
 
 def _wall(args: list[str], repeat: int) -> float:

@@ -202,6 +202,20 @@ def net_shear_at_holes(section: Section, beam: BeamResult, design: DesignSpec, j
     return net_shear_checks(section, joint, layout, design, beam, gross, system)
 
 
+def valued_plate_checks(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
+                        value: BoltValue, system: str, gross: list[Check],
+                        layouts: list[PlateLayout] | None, segment: bool) -> list[Check]:
+    """The bolt checks of a plate whose bolts could be valued, its layout appended to
+    ``layouts``; for a segment's run (``segment``) only the timbers' net-section shear.
+    """
+    if segment:
+        return net_shear_at_holes(section, beam, design, joint, value, system, gross)
+    made = bolted_plate(section, beam, design, joint, value, system, gross)
+    if layouts is not None:
+        layouts.append(made.layout)
+    return list(made.checks)
+
+
 def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
                  value: BoltValue, system: str, gross: list[Check]) -> BoltedPlate:
     """The checks of :func:`plate_bolt_checks` with the layout they use."""

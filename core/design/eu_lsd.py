@@ -29,7 +29,7 @@ from ..model.project import Project
 from ..model.units import fmt
 from ..section.transformed import Section
 from .bearing import eu_bearing
-from .bolt_checks import BoltValue, PlateLayout, bolted_plate, net_shear_at_holes, plate_layout
+from .bolt_checks import BoltValue, PlateLayout, plate_layout, valued_plate_checks
 from .check import Check, capacity_from
 from .common import (
     EDGE_END_REMINDERS,
@@ -219,13 +219,9 @@ def _bolts(section: Section, beam: BeamResult, design: DesignSpec, uls: list,  #
     out: list[Check] = []
     for jt in side_by_side_joints(section):
         value = bolt_value(section, design, jt, system, warnings)
-        if value is not None and segment:
-            out += net_shear_at_holes(section, beam, design, jt, value, system, gross)
-        elif value is not None:
-            made = bolted_plate(section, beam, design, jt, value, system, gross)
-            out += made.checks
-            if layouts is not None:
-                layouts.append(made.layout)
+        if value is not None:
+            out += valued_plate_checks(section, beam, design, jt, value, system, gross,
+                                       layouts, segment)
     return out
 
 

@@ -22,7 +22,7 @@ from ..model.project import Project
 from ..model.units import fmt
 from ..section.transformed import Section
 from .bearing import us_bearing
-from .bolt_checks import BoltValue, PlateLayout, bolted_plate, net_shear_at_holes
+from .bolt_checks import BoltValue, PlateLayout, valued_plate_checks
 from .check import Check, capacity_from
 from .common import (
     EDGE_END_REMINDERS,
@@ -223,13 +223,9 @@ def _bolts(section: Section, beam: BeamResult, design: DesignSpec, system: str,
     joints = side_by_side_joints(section)
     for jt in joints:
         value = bolt_value(section, design, jt, system, warnings, joints)
-        if value is not None and segment:
-            out += net_shear_at_holes(section, beam, design, jt, value, system, gross)
-        elif value is not None:
-            made = bolted_plate(section, beam, design, jt, value, system, gross)
-            out += made.checks
-            if layouts is not None:
-                layouts.append(made.layout)
+        if value is not None:
+            out += valued_plate_checks(section, beam, design, jt, value, system, gross,
+                                       layouts, segment)
     return out
 
 

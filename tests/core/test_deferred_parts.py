@@ -15,20 +15,26 @@ import pytest
 from plystack.core.actions import analysis
 from plystack.core.actions.beam import extremes_many
 from plystack.core.io.project_file import load
+from plystack.core.model.project import Project
 from plystack.core.pipeline import Evaluator
 
 DEMOS = Path(__file__).resolve().parents[2] / "assets" / "demo"
 
 
-@pytest.mark.parametrize(("demo", "spans"), [("porch-header.plystack.json", 4),
-                                             ("stair-trimmer-eu.plystack.json", 3)])
-def test_deferred_parts_equal_the_eager_batch(demo: str, spans: int) -> None:
+def _patterned(demo: str, spans: int) -> tuple[Project, Evaluator]:
+    """The demo continuous over ``spans`` equal spans, live load patterned."""
     project = load(DEMOS / demo)
     beam = project.beam
     assert beam is not None
     layout = replace(beam.layout, spans=(beam.layout.spans[0],) * spans)
     project = replace(project, beam=replace(beam, layout=layout, pattern_live_load=True))
-    ev = Evaluator(project)
+    return project, Evaluator(project)
+
+
+@pytest.mark.parametrize(("demo", "spans"), [("porch-header.plystack.json", 4),
+                                             ("stair-trimmer-eu.plystack.json", 3)])
+def test_deferred_parts_equal_the_eager_batch(demo: str, spans: int) -> None:
+    project, ev = _patterned(demo, spans)
     section = ev.section(project.plies)
     prepared = ev.beam
     assert prepared.parts is not None
@@ -59,12 +65,7 @@ def test_deferred_parts_equal_the_eager_batch(demo: str, spans: int) -> None:
 def test_all_arrangements_at_once_equal_one_at_a_time(demo: str, spans: int) -> None:
     """``_build_all`` (every arrangement in one pass) against ``_build`` of each
     arrangement, bit for bit, for every combination's factors and each case alone."""
-    project = load(DEMOS / demo)
-    beam = project.beam
-    assert beam is not None
-    layout = replace(beam.layout, spans=(beam.layout.spans[0],) * spans)
-    project = replace(project, beam=replace(beam, layout=layout, pattern_live_load=True))
-    ev = Evaluator(project)
+    project, ev = _patterned(demo, spans)
     prepared = ev.beam
     assert prepared is not None
     cases = prepared.cases_with_self_weight(123.4)
