@@ -29,7 +29,7 @@ from .design.bolt_checks import PlateLayout
 from .design.check import Check
 from .design.eu_lsd import eu_checks
 from .design.material_notes import material_warnings
-from .design.memo import once
+from .design.memo import with_partner
 from .design.openings import opening_checks
 from .design.segmented import SegmentResult, segment_results, segmented_checks
 from .design.staged import StagePart, StagesResult, stage_stiffness, staged_checks
@@ -290,9 +290,9 @@ class Evaluator:
         """Each segment's section, found once per member section (the stepped beam and
         the segment checks use the same ones).
         """
-        return once(section, ("segment_sections", plies, tuple(segs)),
-                    lambda: segment_sections(plies, segs, self.materials,
-                                             section.reference_material))
+        return with_partner(section, ("segment_sections", plies, tuple(segs)), self.materials,
+                            lambda: segment_sections(plies, segs, self.materials,
+                                                     section.reference_material))
 
     def _segments(self, plies: tuple[Ply, ...], section: Section,
                   beam: BeamResult) -> tuple[SegmentResult, ...]:

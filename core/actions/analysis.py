@@ -623,7 +623,8 @@ def _finish_section(prepared: PreparedBeam, section: Section, job: _Job,
         total, tgov = envelope(tot_ext)
         j = tgov["deflection_max_abs"]
         sus_i, rest_i = idx["sustained"][j], idx["rest"][j]
-        assert sus_i != _DEFERRED and rest_i != _DEFERRED
+        if _DEFERRED in (sus_i, rest_i):  # -1 would read the batch's last extremes
+            raise RuntimeError("internal: a beam solution was read before it was built")
         f = dict(item.combination.factors)
         first = built[_index(idx["solution"][0])]
         if prepared.parts is not None:
@@ -688,7 +689,8 @@ def _carries(cases: Mapping[str, CaseSolution], g: Mapping[str, float]) -> bool:
 
 def _index(i: int | None) -> int:
     """A batch index that the job always asks for."""
-    assert i is not None and i != _DEFERRED
+    if i is None or i == _DEFERRED:  # -1 would read the batch's last solution
+        raise RuntimeError("internal: a beam solution was read before it was built")
     return i
 
 

@@ -447,17 +447,22 @@ def element_polynomials(model: BeamModel, sol: CaseSolution,
 
 
 def w_up_coefficients(v1: Any, t1: Any, v2: Any, t2: Any, q: Any, dq: Any,
-                       le: Any) -> np.ndarray:
+                       le: Any, scalar_powers: bool = False) -> np.ndarray:
     """Upward deflection times EI in local x, coefficients highest power (x^5) first,
     on the last axis: Hermite cubic plus the clamped particular solutions
     q x^2 (L - x)^2 / 24 and dq (x^5 / 120 - L^2 x^3 / 40 + L^3 x^2 / 60).
+    ``scalar_powers``: le^2 and le^3 of arrays taken as a scalar's ``**`` takes them
+    (``float_power``; numpy squares arrays by multiplying, which can differ in the last
+    bit), for the same numbers as element-by-element evaluation.
     """
+    l2, l3 = ((np.float_power(le, 2), np.float_power(le, 3)) if scalar_powers
+              else (le**2, le**3))
     a2 = (3 * (v2 - v1) / le - 2 * t1 - t2) / le
-    a3 = (2 * (v1 - v2) / le + t1 + t2) / le**2
+    a3 = (2 * (v1 - v2) / le + t1 + t2) / l2
     p = q / 24
     return np.stack(np.broadcast_arrays(
-        dq / 120, p + 0 * dq, a3 - 2 * le * p - dq * le**2 / 40,
-        a2 + le * le * p + dq * le**3 / 60, t1 + 0 * q, v1 + 0 * q), axis=-1)
+        dq / 120, p + 0 * dq, a3 - 2 * le * p - dq * l2 / 40,
+        a2 + le * le * p + dq * l3 / 60, t1 + 0 * q, v1 + 0 * q), axis=-1)
 
 
 def _real_roots_batched(coeffs: np.ndarray, le: np.ndarray) -> np.ndarray:

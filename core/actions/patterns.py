@@ -127,7 +127,8 @@ def _samples(model: BeamModel, sol: CaseSolution) -> np.ndarray:
     wq, wdq = sol.deflection_loads()
     coeffs = (np.stack([sol.dq / 6, sol.q / 2, sol.V0, sol.M0], axis=-1),
               np.stack([sol.dq / 2, sol.q, sol.V0], axis=-1),
-              -w_up_coefficients(u[0:-2:2], u[1:-2:2], u[2::2], u[3::2], wq, wdq, le) / 1.0)
+              -w_up_coefficients(u[0:-2:2], u[1:-2:2], u[2::2], u[3::2], wq, wdq, le,
+                                 scalar_powers=True) / 1.0)
     out = []
     for c in coeffs:
         y = np.zeros_like(x)

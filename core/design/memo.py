@@ -18,6 +18,20 @@ T = TypeVar("T")
 _MEMO: weakref.WeakKeyDictionary[object, dict[Hashable, object]] = weakref.WeakKeyDictionary()
 
 
+def with_partner(owner: object, key: Hashable, partner: object, make: Callable[[], T]) -> T:
+    """``make()``, found once per ``owner`` and ``key`` while ``partner`` (what the value
+    also depends on) is the same object; it is held beside the value, so an object of
+    the same identity is the same object.
+    """
+    memo = _MEMO.get(owner)
+    if memo is None:
+        memo = _MEMO[owner] = {}
+    held = memo.get(key)
+    if not (isinstance(held, tuple) and held[0] is partner):
+        held = memo[key] = (partner, make())
+    return held[1]  # type: ignore[no-any-return]
+
+
 def of_list(owner: object, key: Hashable, items: list[object], make: Callable[[], T]) -> T:
     """``make()`` for a list as it stands (``items``, the same list object with the same
     length), found once per ``owner``: the list is held beside the value, so a list of

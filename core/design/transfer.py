@@ -33,7 +33,7 @@ from ..section.transformed import Section, with_moduli
 from .bolt_layout import BoltLayout
 from .check import Check
 from .common import joints_of_timber, side_by_side_joints, unit_shear_stress
-from .memo import once
+from .memo import once, with_partner
 
 
 def plate_extent(section: Section, i: int, length: float) -> tuple[float, float]:
@@ -409,7 +409,7 @@ def support_shear(beam: BeamResult, combo: CombinationResult, k: int) -> float:
         if xs <= 1e-9 * L or xs >= L * (1 - 1e-9):
             V = max(V, abs(float(combo.reactions_max[k])))
         return V
-    return once(combo, ("support_shear", k), make)
+    return with_partner(combo, ("support_shear", k), beam.model, make)
 
 
 def support_shear_checks(section: Section, beam: BeamResult, combo: CombinationResult,
