@@ -13,6 +13,7 @@ from __future__ import annotations
 
 from bisect import bisect_right
 from dataclasses import dataclass
+from typing import Any
 
 import numpy as np
 import shapely
@@ -210,17 +211,8 @@ class WidthProfile:
         area = np.zeros_like(cut)
         first = np.zeros_like(cut)
         for k in range(self.y.size - 1):
-            lo, hi = self.y[k], self.y[k + 1]
-            b0, b1 = self.b_start[k], self.b_end[k]
-            slope = (b1 - b0) / (hi - lo)
-            a = np.clip(cut, lo, hi)
-            # width b(y) = b0 + slope (y - lo); integrate from a to hi
-            ba = b0 + slope * (a - lo)
-            seg_area = (ba + b1) / 2 * (hi - a)
-            # integral of y b(y) dy from a to hi, exact for linear b (Simpson on a cubic)
-            mid = (a + hi) / 2
-            bm = b0 + slope * (mid - lo)
-            seg_first = (hi - a) / 6 * (a * ba + 4 * mid * bm + hi * b1)
+            seg_area, seg_first = _segment_above(cut, self.y[k], self.y[k + 1],
+                                                 self.b_start[k], self.b_end[k])
             area += seg_area
             first += seg_first
         return area, first
@@ -288,17 +280,26 @@ class ProfileStack:
         each of shape (plies, len(cut)).
         """
         cut = np.asarray(cut, dtype=float)[None, :]
-        lo, hi = self.lo[:, None], self.hi[:, None]
-        b0, b1 = self.b_start[:, None], self.b_end[:, None]
-        slope = (b1 - b0) / (hi - lo)
-        a = np.clip(cut, lo, hi)
-        ba = b0 + slope * (a - lo)
-        seg_area = (ba + b1) / 2 * (hi - a)
-        mid = (a + hi) / 2
-        bm = b0 + slope * (mid - lo)
-        seg_first = (hi - a) / 6 * (a * ba + 4 * mid * bm + hi * b1)
+        seg_area, seg_first = _segment_above(cut, self.lo[:, None], self.hi[:, None],
+                                             self.b_start[:, None], self.b_end[:, None])
         return (self._gather(seg_area, cut.size, False),
                 self._gather(seg_first, cut.size, False))
+
+
+def _segment_above(cut: Any, lo: Any, hi: Any, b0: Any, b1: Any) -> tuple[Any, Any]:
+    """Area and first moment (about y = 0) of the part above ``cut`` of a segment from
+    ``lo`` to ``hi`` whose width runs linearly from ``b0`` to ``b1`` (element by element:
+    scalars, arrays or broadcast rows alike).
+    """
+    slope = (b1 - b0) / (hi - lo)
+    a = np.clip(cut, lo, hi)
+    # width b(y) = b0 + slope (y - lo); integrate from a to hi
+    ba = b0 + slope * (a - lo)
+    area = (ba + b1) / 2 * (hi - a)
+    # integral of y b(y) dy from a to hi, exact for linear b (Simpson on a cubic)
+    mid = (a + hi) / 2
+    bm = b0 + slope * (mid - lo)
+    return area, (hi - a) / 6 * (a * ba + 4 * mid * bm + hi * b1)
 
 
 def width_profile(geom: BaseGeometry) -> WidthProfile:
