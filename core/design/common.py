@@ -20,7 +20,7 @@ from ..section.geometry import TOUCH_TOLERANCE, near_pairs
 from ..section.transformed import Section
 from .check import Check, CheckId, Fasteners
 from .memo import of_list, once
-from .slip import slip_connector_checks
+from .slip import connector_check, slip_connector_checks
 
 #: Stock spacings tried for fasteners, largest first, at most 24 in / 600 mm (common
 #: practice: the 16 in and 24 in framing modules and their fractions; metric equivalents).
@@ -287,16 +287,8 @@ def connector_checks(section: Section, beam: BeamResult, design: DesignSpec, sys
         demand = float(q) * s / conn.rows
         names = "; ".join(f"{section.plies[a].name} / {section.plies[b].name}"
                           for a, b in itf.pairs)
-        out.append(Check(
-            id="connectors",
-            ply=names,
-            combination=worst.name,
-            demand=demand,
-            capacity=conn.allowable,
-            quantity="force",
-            reference=("allowable per connector", conn.allowable),
-            factors={},
-            partial_factors={},
+        out.append(connector_check(
+            names, worst.name, demand, conn.allowable,
             sources={"allowable per connector": "the user's connector value (already adjusted)"},
             equation="load per connector = q s / rows = (V Q / I_t) s / rows <= allowable",
             location=f"one {conn.type} every {fmt(s, 'length', system, 3)} ({conn.rows} per row) "

@@ -7,6 +7,8 @@ method for the slip; the capacity is the user's NDS lateral value.
 
 from __future__ import annotations
 
+from typing import Any
+
 from ..actions.analysis import BeamResult
 from ..model.design import DesignSpec
 from ..model.errors import MissingCheck, Problem
@@ -27,6 +29,18 @@ def carries_axial(section: Section, i: int) -> bool:
     offset = float(section.gamma_uls[i]) * abs(float(section.centroid[i])
                                                - section.neutral_axis_y)
     return offset > 1e-9 * section.depth
+
+
+def connector_check(plies: str, combination: str, demand: float, allowable: float,
+                    **rest: Any) -> Check:
+    """A ``connectors`` check: the force on one fastener against the user's allowable
+    value per fastener (already adjusted), with no further factors; ``rest``: sources,
+    equation, location, fasteners, x and notes.
+    """
+    return Check(id="connectors", ply=plies, combination=combination, demand=demand,
+                 capacity=allowable, quantity="force",
+                 reference=("allowable per connector", allowable), factors={},
+                 partial_factors={}, **rest)
 
 
 def slip_connector_checks(section: PartialSection, beam: BeamResult, design: DesignSpec,
@@ -52,16 +66,8 @@ def slip_connector_checks(section: PartialSection, beam: BeamResult, design: Des
                                          "allowable load to check it"))
             continue
         basis = ("design value" if not design.us else "allowable")
-        out.append(Check(
-            id="connectors",
-            ply=names,
-            combination=worst.name,
-            demand=F,
-            capacity=conn.allowable,
-            quantity="force",
-            reference=("allowable per connector", conn.allowable),
-            factors={},
-            partial_factors={},
+        out.append(connector_check(
+            names, worst.name, F, conn.allowable,
             sources={"allowable per connector": f"the user's connector {basis} (already "
                      "adjusted)",
                      "F_i": "EN 1995-1-1 Annex B (B.10), K_u of 7.1(4), K_ser of Table 7.1 "
