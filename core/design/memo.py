@@ -33,24 +33,12 @@ def with_partner(owner: object, key: Hashable, partner: object, make: Callable[[
 
 
 def of_list(owner: object, key: Hashable, items: list[object], make: Callable[[], T]) -> T:
-    """``make()`` for a list as it stands (``items``, the same list object with the same
-    length), found once per ``owner``: the list is held beside the value, so a list of
-    the same identity is the same list.
+    """``make()`` for a list as it stands (``items``: the same list object with the same
+    length; check lists are only ever appended to), found once per ``owner``.
     """
-    memo = _MEMO.get(owner)
-    if memo is None:
-        memo = _MEMO[owner] = {}
-    held = memo.get(key)
-    if not (isinstance(held, tuple) and held[0] is items and held[1] == len(items)):
-        held = memo[key] = (items, len(items), make())
-    return held[2]  # type: ignore[no-any-return]
+    return with_partner(owner, (key, len(items)), items, make)
 
 
 def once(owner: object, key: Hashable, make: Callable[[], T]) -> T:
     """``make()``, computed once per ``owner`` and ``key``."""
-    memo = _MEMO.get(owner)
-    if memo is None:
-        memo = _MEMO[owner] = {}
-    if key not in memo:
-        memo[key] = make()
-    return memo[key]  # type: ignore[return-value]
+    return with_partner(owner, key, None, make)
