@@ -514,8 +514,7 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
     ``elements`` (first, last + 1) limits the search to those elements (a segment).
     """
     e0, e1 = (0, model.lengths.size) if elements is None else elements
-    groups = _groups(model, e0, e1, [(e0, e1)])
-    return _reduce(model, _element_values(model, sols, EIs, e0, e1, groups), e0, e1)
+    return _reduce(model, _element_values(model, sols, EIs, e0, e1, [(e0, e1)]), e0, e1)
 
 
 def extremes_within(model: BeamModel, sols: Sequence[CaseSolution],
@@ -525,7 +524,7 @@ def extremes_within(model: BeamModel, sols: Sequence[CaseSolution],
     last + 1), from one pass over the elements (each element's candidates are its own).
     """
     n = model.lengths.size
-    values = _element_values(model, sols, EIs, 0, n, _groups(model, 0, n, [(0, n), *ranges]))
+    values = _element_values(model, sols, EIs, 0, n, [(0, n), *ranges])
     return [_reduce(model, values, 0, n)] + [_reduce(model, values.part(a, b), a, b)
                                              for a, b in ranges]
 
@@ -593,7 +592,11 @@ def _needs_roots(w_c: np.ndarray, le: np.ndarray, groups: np.ndarray) -> np.ndar
 
 def _element_values(model: BeamModel, sols: Sequence[CaseSolution],
                     EIs: Sequence[float] | np.ndarray, e0: int, e1: int,
-                    groups: np.ndarray | None = None) -> _ElementValues:
+                    searches: Sequence[tuple[int, int]] | None = None) -> _ElementValues:
+    """Every element's candidates; ``searches``: the ranges of elements whose extremes
+    will be sought (each with its regions), which lets the deflection roots be left out
+    where no search can find its largest deflection (None: every root is sought).
+    """
     le = model.lengths[e0:e1]
     x0 = model.nodes[e0:e1]
     k, n = len(sols), le.size
@@ -620,10 +623,10 @@ def _element_values(model: BeamModel, sols: Sequence[CaseSolution],
     v1, t1, v2, t2 = U[:, 0:-2:2], U[:, 1:-2:2], U[:, 2::2], U[:, 3::2]
     w_c = -w_up_coefficients(v1, t1, v2, t2, wq, wdq, le) / EI[..., None]
     dw = w_c[..., :5] * np.array([5.0, 4.0, 3.0, 2.0, 1.0])
-    if groups is None or k * n < 64:
+    if searches is None or k * n < 64:
         roots = _real_roots_batched(dw.reshape(k * n, 5), le_k).reshape(k, n, 4)
     else:  # the roots only where the largest deflection of a search can be inside
-        need = _needs_roots(w_c, le, groups).reshape(k * n)
+        need = _needs_roots(w_c, le, _groups(model, e0, e1, searches)).reshape(k * n)
         flat = np.full((k * n, 4), np.nan)
         if need.any():
             flat[need] = _real_roots_batched(dw.reshape(k * n, 5)[need], le_k[need])
