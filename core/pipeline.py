@@ -405,10 +405,10 @@ def _plainly_finite(a: Analysis) -> bool:
         scalars += [k.demand, k.capacity, *k.factors.values(), *k.partial_factors.values()]
     try:
         values = np.array(scalars, dtype=float)
+        every = np.concatenate([np.asarray(v, dtype=float).reshape(-1) for v in arrays])
     except (TypeError, ValueError):
         return False
-    return bool(np.isfinite(values).all()) and all(
-        bool(np.isfinite(np.asarray(v, dtype=float)).all()) for v in arrays)
+    return bool(np.isfinite(values).all()) and bool(np.isfinite(every).all())
 
 
 def _require_finite(a: Analysis) -> None:

@@ -161,11 +161,14 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
                                          "timber nor steel: its stresses are reported but not "
                                          "checked"))
     checks += eu_bearing(section, beam, design, uls, warnings)
-    checks += _deflections(section, beam, design, warnings)
+    if not segment:  # the member's: a segment keeps only stresses, and the one warning
+        # of the deflections (of the combinations' list alone) is the member run's too
+        checks += _deflections(section, beam, design, warnings)
     checks += _bolts(section, beam, design, uls, project.display_units, warnings, checks,
                      layouts, segment)
     checks += connector_checks(section, beam, design, project.display_units, warnings)
-    checks += uplift_checks(beam, project.display_units)
+    if not segment:
+        checks += uplift_checks(beam, project.display_units)
     warnings += pattern_notes(beam)
     return tuple(checks), warnings
 

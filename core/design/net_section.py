@@ -28,7 +28,7 @@ own shear check (F'v, or f_v,d with k_cr).
 
 from __future__ import annotations
 
-from dataclasses import dataclass, replace
+from dataclasses import dataclass
 
 import numpy as np
 
@@ -38,7 +38,7 @@ from ..model.design import DesignSpec
 from ..model.units import fmt
 from ..section.transformed import Section
 from .bolt_layout import BoltLayout
-from .check import Check
+from .check import Check, evolve
 from .common import Joint, own_checks
 from .memo import once
 
@@ -76,7 +76,7 @@ def net_section(section: Section, joint: Joint, layout: BoltLayout, k: int,
     plies = (joint.steel, *joint.timbers)
     found = once(section, ("holes_removed", plies, heights, d_hole),
                  lambda: holes_removed(section, plies, heights, d_hole, k))
-    return found if found.station == k else replace(found, station=k)
+    return found if found.station == k else evolve(found, station=k)
 
 
 def holes_removed(section: Section, plies: tuple[int, ...], heights: tuple[float, ...],
@@ -161,7 +161,7 @@ def net_checks(section: Section, joint: Joint, layout: BoltLayout, design: Desig
         for c in own_checks(section, gross).bending.get(name, ()):
             factors = {**c.factors, **extra}
             capacity = c.capacity * extra.get("F13.1", 1.0)
-            out.append(replace(
+            out.append(evolve(
                 c, id="bending-net", demand=c.demand * loss, capacity=capacity,
                 factors=factors, sources={**c.sources, **(
                     {"F13.1": "AISC 360-16 F13.1 (from memory)" if design.us else
@@ -272,7 +272,7 @@ def net_shear_checks(section: Section, joint: Joint, layout: BoltLayout, design:
     def shear_of(i: int, net: NetSection) -> NetShear:
         found = once(section, ("net_shear", i, net.holes, net.y_na, net.I_t, d_hole),
                      lambda: net_shear(section, i, net, d_hole))
-        return found if found.station == net.station else replace(found, station=net.station)
+        return found if found.station == net.station else evolve(found, station=net.station)
 
     own_shear = own_checks(section, gross).shear
     out = []
@@ -292,7 +292,7 @@ def net_shear_checks(section: Section, joint: Joint, layout: BoltLayout, design:
             if own is None:
                 continue
             V = combo.extremes.V_max_abs
-            out.append(replace(
+            out.append(evolve(
                 own, demand=gov.unit * V, x=x,
                 location=f"net section at the bolt holes, station {gov.station + 1} of "
                          f"{plate} at x = {where}",

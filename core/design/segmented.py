@@ -17,7 +17,7 @@ from __future__ import annotations
 
 import re
 from collections.abc import Sequence
-from dataclasses import dataclass, replace
+from dataclasses import dataclass
 from typing import Protocol
 
 from ..actions.analysis import BeamResult, creep_moduli
@@ -27,7 +27,7 @@ from ..model.project import Project
 from ..section.segments import Segment
 from ..section.transformed import Section, with_moduli
 from .bolt_checks import PlateLayout
-from .check import Check
+from .check import Check, evolve
 from .ply_ends import ply_end_checks
 
 #: Checks made in every segment (the plies' stresses); the others are the member's.
@@ -74,8 +74,8 @@ def segment_results(segments: Sequence[Segment], sections: Sequence[Section],
     out = []
     for k, (s, sec, b) in enumerate(zip(segments, sections, beam.segments, strict=True)):
         creep = with_moduli(sec, creep_moduli(sec, b.creep_factor))
-        combos = tuple(replace(c, EI=sec.EI, EI_creep=creep.EI) for c in b.combinations)
-        own = replace(b, EI=sec.EI, creep_section=creep, combinations=combos)
+        combos = tuple(evolve(c, EI=sec.EI, EI_creep=creep.EI) for c in b.combinations)
+        own = evolve(b, EI=sec.EI, creep_section=creep, combinations=combos)
         out.append(SegmentResult(k, s.start, s.end, s.plies, sec, own))
     return tuple(out)
 
@@ -86,7 +86,7 @@ def _remap(problem: Problem, plies: tuple[int, ...]) -> Problem:
     if m is None or int(m.group(1)) >= len(plies):
         return problem
     path = f"plies[{plies[int(m.group(1))]}]" + problem.path[m.end():]
-    return replace(problem, path=path)
+    return evolve(problem, path=path)
 
 
 def segmented_checks(project: Project, section: Section, beam: BeamResult,
@@ -113,7 +113,7 @@ def segmented_checks(project: Project, section: Section, beam: BeamResult,
         tol = 1e-9 * max(seg.end, 1.0)
         # a check placed outside the segment (the shear beside a support that this
         # segment does not reach) belongs to the segment that holds it
-        checks += [replace(c, segment=seg.index, location=c.location or
+        checks += [evolve(c, segment=seg.index, location=c.location or
                            f"segment {seg.index + 1}") for c in own if c.id in SEGMENT_IDS
                    and (c.x is None or seg.start - tol <= c.x <= seg.end + tol)]
         for w in (_remap(w, seg.plies) for w in notes):

@@ -21,7 +21,7 @@ from __future__ import annotations
 
 import math
 from bisect import bisect_left, bisect_right
-from dataclasses import dataclass, replace
+from dataclasses import dataclass
 
 import numpy as np
 
@@ -31,7 +31,7 @@ from ..model.design import DesignSpec
 from ..model.units import fmt
 from ..section.transformed import Section, with_moduli
 from .bolt_layout import BoltLayout
-from .check import Check
+from .check import Check, evolve
 from .common import joints_of_timber, side_by_side_joints, unit_shear_stress
 from .memo import once, with_partner
 
@@ -432,7 +432,7 @@ def support_shear_checks(section: Section, beam: BeamResult, combo: CombinationR
         if alone is None:
             alone = unit_shear_stress(without_plates(section))
         V = support_shear(beam, combo, k)
-        out.append(replace(
+        out.append(evolve(
             shear, demand=float(alone[i]) * V, location=f"support {k + 1}", x=xs,
             equation=shear.equation + " (timbers alone, full shear beside the support)",
             notes=(f"A plate does not bear on support {k + 1}: the timbers carry the full "

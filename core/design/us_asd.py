@@ -108,11 +108,13 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
                                          "timber nor steel: its stresses are reported but not "
                                          "checked"))
     checks.extend(us_bearing(section, beam, design, warnings))
-    checks.extend(_deflections(beam, section, design))
+    if not segment:  # the member's (a segment keeps only stresses; these warn of nothing)
+        checks.extend(_deflections(beam, section, design))
     checks.extend(_bolts(section, beam, design, project.display_units, warnings, checks,
                          layouts, segment))
     checks.extend(connector_checks(section, beam, design, project.display_units, warnings))
-    checks += uplift_checks(beam, project.display_units)
+    if not segment:
+        checks += uplift_checks(beam, project.display_units)
     warnings += pattern_notes(beam)
     return tuple(checks), warnings
 

@@ -482,9 +482,23 @@ def unit_label(kind: str, system: str) -> str:
     return DISPLAY[system][kind][0]
 
 
+#: Texts :func:`fmt` has made, by its arguments (a run formats the same heights, widths
+#: and forces many times over; cleared when it grows past ``_FMT_HELD``).
+_FMT_MADE: dict[tuple[float, str, str, int], str] = {}
+_FMT_HELD = 4096
+
+
 def fmt(value: float, kind: str, system: str, digits: int = 4) -> str:
     """Format an SI float in display units with ``digits`` significant figures and unit."""
-    return f"{sig(to_display(value, kind, system), digits)} {unit_label(kind, system)}".rstrip()
+    key = (value, kind, system, digits)
+    text = _FMT_MADE.get(key)
+    if text is None:
+        unit, factor = DISPLAY[system][kind]
+        text = f"{sig(value * factor, digits)} {unit}".rstrip()
+        if len(_FMT_MADE) >= _FMT_HELD:
+            _FMT_MADE.clear()
+        _FMT_MADE[key] = text
+    return text
 
 
 def sig(value: float, digits: int = 4) -> str:

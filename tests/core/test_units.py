@@ -59,3 +59,30 @@ def test_not_a_string():
 def test_exact_text_round_trips(value, system):
     text = units.exact_text(value, "length", system)
     assert units.parse(text, "length", "x") == value
+
+
+def _plain_fmt(value, kind, system, digits=4):
+    """The formula of units.fmt, written out (the reference for its remembered texts)."""
+    text = units.sig(units.to_display(value, kind, system), digits)
+    return f"{text} {units.unit_label(kind, system)}".rstrip()
+
+
+@pytest.mark.parametrize("system", ["US", "SI"])
+def test_remembered_texts_are_the_formulas(system):
+    import numpy as np
+    values = [0.0, -0.0, 1.0, -2.5e-7, 0.0381, 1234.5678, 9.99995e11, float("inf"),
+              float("-inf"), float("nan"), np.float64(0.23495), 3]
+    for _ in range(2):  # made, then remembered
+        for kind in units.DISPLAY[system]:
+            for v in values:
+                for digits in (3, 4, 6):
+                    assert units.fmt(v, kind, system, digits) == _plain_fmt(v, kind, system,
+                                                                             digits)
+
+
+def test_remembered_texts_are_bounded(monkeypatch):
+    monkeypatch.setattr(units, "_FMT_HELD", 8)
+    units._FMT_MADE.clear()
+    for k in range(50):
+        assert units.fmt(k * 0.001, "length", "SI") == _plain_fmt(k * 0.001, "length", "SI")
+        assert len(units._FMT_MADE) <= 8
