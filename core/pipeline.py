@@ -51,6 +51,8 @@ from .section.transformed import Section, analyse, with_moduli
 #: about 0.44 s for one analysis; ``span`` (a search over many analyses) about 25 s at
 #: 100. So the bound is 100 until that growth is removed.
 MAX_PLIES = 100
+#: Plain sections an Evaluator remembers (those of its latest candidates).
+PLAIN_SECTIONS_HELD = 64
 
 
 @dataclass(frozen=True, eq=False)
@@ -134,14 +136,32 @@ class Evaluator:
         with _guarded():
             self.beam = (PreparedBeam.of(project.beam, self.design) if project.beam is not None
                          else None)
+        #: Plain transformed sections made lately, by the identities of their plies and
+        #: the resolved reference material (the plies held, so that no identity is reused).
+        self._plain: dict[tuple[tuple[int, ...], str], tuple[tuple[Ply, ...], Section]] = {}
 
     def section(self, plies: Sequence[Ply], reference: str | None = None) -> Section:
         """The transformed section of ``plies``; stacked plies joined by mechanical
         fasteners with their slip (EN 1995-1-1 Annex B, ``section.gamma``).
         """
-        return with_slip(analyse(tuple(plies), self.materials,
-                                 reference or self.project.reference_material),
-                         self.design.connector, self.project.beam)
+        plies = tuple(plies)
+        plain = analyse(plies, self.materials, reference or self.project.reference_material)
+        if len(self._plain) >= PLAIN_SECTIONS_HELD:
+            self._plain.clear()
+        self._plain[tuple(map(id, plies)), plain.reference_material] = (plies, plain)
+        return with_slip(plain, self.design.connector, self.project.beam)
+
+    def _plain_section(self, plies: Sequence[Ply], materials: Mapping[str, Material],
+                       reference: str) -> Section:
+        """``analyse(plies, materials, reference)``: the very section made for these ply
+        objects where one was made lately (a segment holding every ply of the member has
+        the member's own, so what is found once per section is found once for both).
+        """
+        plies = tuple(plies)
+        held = self._plain.get((tuple(map(id, plies)), reference))
+        if held is not None and materials is self.materials:
+            return held[1]
+        return analyse(plies, materials, reference)
 
     def analyse(self, plies: Sequence[Ply], reference: str | None = None) -> Analysis:
         """The full analysis of the project with these plies."""
@@ -292,7 +312,8 @@ class Evaluator:
         """
         return with_partner(section, ("segment_sections", plies, tuple(segs)), self.materials,
                             lambda: segment_sections(plies, segs, self.materials,
-                                                     section.reference_material))
+                                                     section.reference_material,
+                                                     self._plain_section))
 
     def _segments(self, plies: tuple[Ply, ...], section: Section,
                   beam: BeamResult) -> tuple[SegmentResult, ...]:

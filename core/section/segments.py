@@ -9,7 +9,7 @@ is taken as closed, so its checks include both of its ends.
 
 from __future__ import annotations
 
-from collections.abc import Mapping, Sequence
+from collections.abc import Callable, Mapping, Sequence
 from dataclasses import dataclass
 
 from ..model.errors import Problem, ProjectError
@@ -65,7 +65,11 @@ def segments_of(plies: Sequence[Ply], length: float) -> tuple[Segment, ...]:
 
 
 def segment_sections(plies: Sequence[Ply], segments: Sequence[Segment],
-                     materials: Mapping[str, Material], reference: str) -> tuple[Section, ...]:
-    """The transformed section of each segment, all to the same reference material."""
-    return tuple(analyse(tuple(plies[i] for i in s.plies), materials, reference)
+                     materials: Mapping[str, Material], reference: str,
+                     make: Callable[[Sequence[Ply], Mapping[str, Material], str], Section]
+                     = analyse) -> tuple[Section, ...]:
+    """The transformed section of each segment, all to the same reference material
+    (``make``: :func:`~.transformed.analyse`, or what gives the same section).
+    """
+    return tuple(make(tuple(plies[i] for i in s.plies), materials, reference)
                  for s in segments)

@@ -88,3 +88,22 @@ def test_the_own_list_case_warns_of_the_quasi_permanent_combination() -> None:
     a = run(from_dict(_eu_short_own_list()))
     assert any("SLS-quasi-permanent" in w.message for w in a.warnings)
     assert any(c.id.startswith("deflection") for c in a.checks)
+
+
+def test_a_segment_holding_every_ply_has_the_members_own_section() -> None:
+    """Shared, not remade (what is found once per section is then found once for both),
+    and the same numbers as the section analysed afresh from its plies."""
+    from plystack.core.section.transformed import analyse
+
+    project = from_dict(_us_short())
+    a = run(project)
+    full = [s for s in a.segments if len(s.plies) == len(a.section.plies)]
+    assert len(full) == 1 and full[0].section is a.section
+    for s in a.segments:
+        fresh = analyse(tuple(project.plies[i] for i in s.plies), project.all_materials(),
+                        a.section.reference_material)
+        assert repr(fresh) == repr(s.section)
+        assert (fresh.EI, fresh.EA, fresh.neutral_axis_y, fresh.I_transformed) == (
+            s.section.EI, s.section.EA, s.section.neutral_axis_y, s.section.I_transformed)
+        for name in ("E", "n", "area", "first_y", "second_y", "I_na", "y_bottom", "y_top"):
+            assert getattr(fresh, name).tobytes() == getattr(s.section, name).tobytes()
