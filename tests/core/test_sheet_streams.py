@@ -1,6 +1,7 @@
 """The sheet's quick paths write the same PDF content as the plain ones: streams not
-ASCII85-encoded (reportlab's default encodes them) and the alternatives' comparison
-analysed on one Evaluator (the plain path runs each alternative on its own).
+ASCII85-encoded (reportlab's default encodes them), the alternatives' comparison
+analysed on one Evaluator (the plain path runs each alternative on its own), and a text
+line drawn again written from the operators remembered (the plain path sets every line).
 
 Regression reference: the sheet built the plain way in the same test. Both builds use
 ``rl_config.invariant`` (no dates or random ids); every object of the two files is
@@ -23,7 +24,7 @@ from reportlab import rl_config
 
 from plystack.core.io.project_file import load
 from plystack.core.pipeline import run
-from plystack.core.report import content, sheet
+from plystack.core.report import content, layout, sheet
 
 DEMOS = Path(__file__).resolve().parents[2] / "assets" / "demo"
 
@@ -31,6 +32,13 @@ DEMOS = Path(__file__).resolve().parents[2] / "assets" / "demo"
 def _each_run_alone(a: Any, original: Any, alts: Any) -> list[Any]:
     """Each alternative run on its own, as the sheet did before."""
     return [run(original.with_plies(alt.plies)) for alt in alts]
+
+
+class _NothingRemembered(dict):  # type: ignore[type-arg]
+    """A memo that never holds anything: every line is set again."""
+
+    def __setitem__(self, key: Any, value: Any) -> None:
+        pass
 
 
 def _plain(value: Any) -> Any:
@@ -88,6 +96,7 @@ def test_quick_sheet_has_the_plain_sheets_content(monkeypatch, demo, paper, alte
     with monkeypatch.context() as plain_path:
         plain_path.setattr(sheet, "_streams_without_base85", contextlib.nullcontext)
         plain_path.setattr(content, "_alternatives_analysed", _each_run_alone)
+        plain_path.setattr(layout, "_TEXT_CODES", _NothingRemembered())
         plain, plain_filters = _objects(_build(project, paper, alternative))
     assert "/ASCII85Decode" in plain_filters
     assert "/ASCII85Decode" not in quick_filters
