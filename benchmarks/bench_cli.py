@@ -1,6 +1,8 @@
 """Start-up cost of `plystack check` on the demo against importing numpy, shapely and
 pint alone (goal: at most 1.4 x), and of the whole `plystack sheet` process (goal: at
-most 1.0 s). Not a test; prints numbers.
+most 1.0 s). Not a test; prints numbers. ``--paired PYTHON``: the sheet process of this
+checkout and of another environment's python (an earlier commit installed there) run
+alternately in the same sitting, with their ratio.
 
 Each figure is the median of fresh processes, as wall time and as CPU time (user +
 system of the child: on a shared machine the wall time also holds the waits for the
@@ -55,6 +57,32 @@ def _time(args: list[str], recompiled: bool, repeat: int) -> tuple[float, float]
     return statistics.median(walls), statistics.median(cpus)
 
 
+def paired(other: str, repeat: int = 21) -> None:
+    """The sheet process of this checkout and of ``other`` (another environment's python,
+    e.g. one installed from an earlier commit) run alternately, bytecode present: the
+    medians of both and their ratio, measured in the same sitting.
+    """
+    with tempfile.TemporaryDirectory() as tmp:
+        def command(py: str) -> list[str]:
+            return [py, "-m", "plystack.app.launch", "sheet", str(DEMO), "-o",
+                    str(Path(tmp) / "s.pdf")]
+
+        runs: dict[str, list[tuple[float, float]]] = {"this": [], "other": []}
+        for py in (sys.executable, other):
+            _time(command(py), False, 1)  # bytecode written, caches settled
+        for _ in range(repeat):
+            runs["this"].append(_time(command(sys.executable), False, 1))
+            runs["other"].append(_time(command(other), False, 1))
+    medians = {name: (statistics.median(w for w, _ in r), statistics.median(c for _, c in r))
+               for name, r in runs.items()}
+    for name, py in (("this", sys.executable), ("other", other)):
+        wall, cpu = medians[name]
+        print(f"  sheet, {name:5s} ({py}): wall {wall * 1000:6.0f} ms   CPU {cpu * 1000:6.0f} ms")
+    print(f"  this / other: wall {medians['this'][0] / medians['other'][0]:4.2f} x, "
+          f"CPU {medians['this'][1] / medians['other'][1]:4.2f} x (median of {repeat} "
+          f"alternate runs; load average {os.getloadavg()[0]:.1f})")
+
+
 def main(repeat: int = 7) -> None:
     py = sys.executable
     with tempfile.TemporaryDirectory() as tmp:
@@ -80,4 +108,7 @@ def main(repeat: int = 7) -> None:
 
 
 if __name__ == "__main__":
-    main()
+    if len(sys.argv) == 3 and sys.argv[1] == "--paired":
+        paired(sys.argv[2])
+    else:
+        main()

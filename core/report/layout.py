@@ -88,6 +88,13 @@ def _plain_style_of(style: ParagraphStyle) -> bool:
             and value("autoLeading") in ("", "off", None))
 
 
+#: The text operators :meth:`TextLine.draw` wrote, per PDF document and per line drawn
+#: (text, font, size, leading, origin, offset, direction of y): the same line drawn again
+#: in the same document gives the same operators (the font's subset already holds its
+#: characters), so they are written again without setting the text again.
+_TEXT_CODES: WeakKeyDictionary[Any, dict[tuple[Any, ...], str]] = WeakKeyDictionary()
+
+
 class TextLine(Flowable):  # type: ignore[misc]
     """Plain text that a reportlab Paragraph of the same style would set on one line,
     drawn with the same text operators at the same place, without parsing markup or
@@ -177,15 +184,23 @@ class TextLine(Flowable):  # type: ignore[misc]
         canvas, st = self.canv, self.style
         canvas.saveState()
         canvas.setFillColor(st.textColor)
-        tx = canvas.beginText(st.leftIndent, self.height - st.fontSize)
-        tx.preformatted = False
-        tx.direction = None
-        tx.setFont(st.fontName, st.fontSize, st.leading)
         offset = st.firstLineIndent + (self._extra if st.alignment == TA_RIGHT else 0)
-        _x_move(tx, offset)
-        tx._textOut(self.text, 1)
-        _x_move(tx, -offset)
-        canvas.drawText(tx)
+        key = (self.text, st.fontName, st.fontSize, st.leading, st.leftIndent,
+               self.height - st.fontSize, offset, canvas.bottomup)
+        drawn = _TEXT_CODES.get(canvas._doc)
+        if drawn is None:
+            drawn = _TEXT_CODES[canvas._doc] = {}
+        code = drawn.get(key)
+        if code is None:
+            tx = canvas.beginText(st.leftIndent, self.height - st.fontSize)
+            tx.preformatted = False
+            tx.direction = None
+            tx.setFont(st.fontName, st.fontSize, st.leading)
+            _x_move(tx, offset)
+            tx._textOut(self.text, 1)
+            _x_move(tx, -offset)
+            code = drawn[key] = str(tx.getCode())
+        canvas._code.append(code)  # as canvas.drawText(tx) appends it
         canvas.restoreState()
 
     def getPlainText(self) -> str:
