@@ -349,3 +349,41 @@ def test_after_a_drag_the_results_are_laid_out_as_in_a_fresh_window(window, qtbo
             b.geometry(), b.mapTo(fresh, QPoint(0, 0))), name
     assert window.results.verdict.text() == fresh.results.verdict.text()
     assert window.results.verdict_box.passed_on >= passed
+
+
+def test_the_labels_paint_the_same_with_the_paint_memo(window, qtbot):
+    """One paint keeps the axes' outlines and the fonts in a memo: the anchors (in and
+    outside the axes) and the pixels are those of each label made on its own.
+    """
+    from PySide6.QtGui import QImage, QPainter
+
+    from plystack.app.plots import paint_text
+
+    for tab, plot in enumerate((window.profiles, window.diagrams)):
+        window.plot_tabs.setCurrentIndex(tab)
+        settle(qtbot, window)
+        labels = [a for a in plot.dynamic if painted_by_qt(a) and a.get_text()]
+        assert len(labels) > 1
+        memo: dict[object, object] = {}
+        for a in labels:
+            assert text_anchor(a, plot.figure, memo) == text_anchor(a, plot.figure)
+        outside = next(a for a in labels if hasattr(a, "xy"))
+        old = outside.xy
+        x0, x1 = outside.axes.get_xlim()
+        outside.xy = (x1 + 10 * (x1 - x0), old[1])
+        assert text_anchor(outside, plot.figure, memo) is None
+        assert text_anchor(outside, plot.figure) is None
+        outside.xy = old
+        images = []
+        for memo_or_none in ({}, None):
+            image = QImage(plot.size(), QImage.Format.Format_ARGB32_Premultiplied)
+            image.fill(0)
+            painter = QPainter(image)
+            for a in labels:
+                paint_text(painter, a, plot.figure, plot.device_pixel_ratio, memo_or_none)
+            painter.end()
+            images.append(image)
+        assert images[0] == images[1]
+        blank = QImage(plot.size(), QImage.Format.Format_ARGB32_Premultiplied)
+        blank.fill(0)
+        assert images[0] != blank
