@@ -477,6 +477,7 @@ class SectionCanvas(QGraphicsView):
     @guarded("Mouse press")
     def mousePressEvent(self, event: QMouseEvent) -> None:  # noqa: D102
         if event.button() == Qt.MouseButton.MiddleButton:
+            self._paint_changes_only(False)  # a pan scrolls the scale bar: paint it all
             self._pan = event.position()
             event.accept()
             return
@@ -495,6 +496,7 @@ class SectionCanvas(QGraphicsView):
         pos = event.position()
         self.press = Press((pos.x(), pos.y()), self._model(pos),
                            QApplication.startDragDistance(), start)
+        self._paint_changes_only(True)
         self.document.set_dragging(True)
         event.accept()
 
@@ -538,10 +540,24 @@ class SectionCanvas(QGraphicsView):
                 press.release((pos.x(), pos.y()), self._model(pos), self._snapping(event))
                 self.rebuild()
             finally:
+                self._paint_changes_only(False)
                 self.document.set_dragging(False)
             event.accept()
             return
         super().mouseReleaseEvent(event)
+
+    def _paint_changes_only(self, on: bool) -> None:
+        """During a gesture (on) the view repaints only the regions of the items that
+        changed (the items' own rectangles, widened for antialiasing by the view); else,
+        and once when the gesture ends, it repaints the whole viewport, which a pan, a
+        zoom or the scale bar in the corner need.
+        """
+        mode = (QGraphicsView.ViewportUpdateMode.MinimalViewportUpdate if on
+                else QGraphicsView.ViewportUpdateMode.FullViewportUpdate)
+        if self.viewportUpdateMode() != mode:
+            self.setViewportUpdateMode(mode)
+            if not on:
+                self.viewport().update()
 
     def leaveEvent(self, event) -> None:  # type: ignore[no-untyped-def]  # noqa: D102
         self._set_hovered(None)

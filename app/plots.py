@@ -129,14 +129,17 @@ def painted_by_qt(a: Any) -> bool:
     return True
 
 
-def text_anchor(a: Text, figure: Figure) -> tuple[float, float] | None:
+def text_anchor(a: Text, figure: Figure,
+                memo: dict[Any, Any] | None = None) -> tuple[float, float] | None:
     """Where matplotlib puts the text's alignment point, in display pixels (y up); None
     where matplotlib would not draw it (an annotation of a point outside its axes).
+    ``memo``: kept by the caller over one paint, holds each axes' outline (its patch's
+    path and frozen transform: the test ``Axes.contains_point`` makes, made once).
     """
     if isinstance(a, Annotation):
         base = a.axes.transData.transform(a.xy)
         clip = a.get_annotation_clip()
-        if (clip or clip is None) and not a.axes.contains_point(base):
+        if (clip or clip is None) and not _inside(a.axes, base, memo):
             return None
         dx, dy = a.get_position()
         k = figure.dpi / 72.0
@@ -145,22 +148,34 @@ def text_anchor(a: Text, figure: Figure) -> tuple[float, float] | None:
     return float(x), float(y)
 
 
-def paint_text(painter: QPainter, a: Text, figure: Figure, ratio: float) -> None:
+def _inside(ax: Any, point: Any, memo: dict[Any, Any] | None) -> bool:
+    """``ax.contains_point(point)``: the axes patch's path holds the point, 1 pixel of
+    radius (``Patch.contains_point``), with the path and transform from ``memo``.
+    """
+    if memo is None:
+        return bool(ax.contains_point(point))
+    key = ("outline", ax)
+    if key not in memo:
+        memo[key] = (ax.patch.get_path(), ax.patch.get_transform().frozen())
+    path, transform = memo[key]
+    return bool(path.contains_point(point, transform, 1.0))
+
+
+def paint_text(painter: QPainter, a: Text, figure: Figure, ratio: float,
+               memo: dict[Any, Any] | None = None) -> None:
     """Paint a text artist as matplotlib places it (font file, size, colour, alignment),
     with Qt: a label that changes on every step of a drag costs Qt's cached glyphs
-    instead of a new FreeType layout and rendering.
+    instead of a new FreeType layout and rendering. ``memo``: kept by the caller over one
+    paint (the axes' outlines, the fonts and their metrics, each made once).
     """
     text = a.get_text()
     if not text or not a.get_visible():
         return
-    at = text_anchor(a, figure)
+    at = text_anchor(a, figure, memo)
     if at is None or not all(math.isfinite(v) for v in at):
         return
-    font = QFont(_qt_family(findfont(a.get_fontproperties())))
-    px = a.get_fontsize() * figure.dpi / 72.0 / ratio  # logical pixels
-    font.setPointSizeF(px * 72.0 / max(painter.device().logicalDpiY(), 1))
+    font, metrics = _font(painter, a, figure, ratio, memo)
     painter.setFont(font)
-    metrics = QFontMetricsF(font)
     w = metrics.horizontalAdvance(text)
     x = at[0] / ratio
     y = (figure.bbox.height - at[1]) / ratio  # Qt's y runs down
@@ -172,6 +187,25 @@ def paint_text(painter: QPainter, a: Text, figure: Figure, ratio: float) -> None
     r, g, b, alpha = to_rgba(a.get_color(), a.get_alpha())
     painter.setPen(QColor.fromRgbF(r, g, b, alpha))
     painter.drawText(QPointF(x, baseline), text)
+
+
+def _font(painter: QPainter, a: Text, figure: Figure, ratio: float,
+          memo: dict[Any, Any] | None) -> tuple[QFont, QFontMetricsF]:
+    """The Qt font of the text's font file at its size in logical pixels, and its metrics
+    (from ``memo`` where the same file and size were asked for in this paint).
+    """
+    path = findfont(a.get_fontproperties())
+    px = a.get_fontsize() * figure.dpi / 72.0 / ratio  # logical pixels
+    size = px * 72.0 / max(painter.device().logicalDpiY(), 1)
+    key = ("font", path, size)
+    if memo is not None and key in memo:
+        return memo[key]  # type: ignore[no-any-return]
+    font = QFont(_qt_family(path))
+    font.setPointSizeF(size)
+    made = (font, QFontMetricsF(font))
+    if memo is not None:
+        memo[key] = made
+    return made
 
 
 class BlitCanvas(FigureCanvasQTAgg):
@@ -280,9 +314,10 @@ class BlitCanvas(FigureCanvasQTAgg):
         try:
             self._paint_figure(painter, event.rect())
             self._draw_rect_callback(painter)
+            memo: dict[Any, Any] = {}  # outlines and fonts, for this paint only
             for a in self.dynamic:
                 if painted_by_qt(a):
-                    paint_text(painter, a, self.figure, self.device_pixel_ratio)
+                    paint_text(painter, a, self.figure, self.device_pixel_ratio, memo)
         except Exception as exc:
             reporter().report("Drawing the plot", exc)
         finally:

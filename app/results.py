@@ -11,10 +11,11 @@ from __future__ import annotations
 import math
 from dataclasses import fields
 
-from PySide6.QtCore import QModelIndex, QRect, QSettings, Qt
-from PySide6.QtGui import QColor, QPainter
+from PySide6.QtCore import QEvent, QModelIndex, QRect, QSettings, QSize, Qt
+from PySide6.QtGui import QColor, QPainter, QResizeEvent
 from PySide6.QtWidgets import (
     QHeaderView,
+    QLabel,
     QStyledItemDelegate,
     QStyleOptionViewItem,
     QTableWidget,
@@ -142,6 +143,81 @@ def _fit_columns(table: QTableWidget) -> bool:
     return True
 
 
+class LabelBox(QWidget):
+    """A box that holds one label and gives the layout the label's own size hints, so it
+    lays out exactly as the label alone would.
+
+    A label whose text changes asks the whole window to lay out again (Qt passes the
+    request up through every parent, and each tab widget on the way repaints all of
+    itself), even when the new text needs the same room. While ``hold`` is on (during a
+    drag) the box passes a request on only when one of the hints it gave the layout since
+    the last request it passed on is no longer the label's (the layout keeps what it was
+    given until told); a request held back is passed on when ``hold`` goes off, so the
+    window then lays out as a fresh one does.
+    """
+
+    def __init__(self, label: QLabel) -> None:
+        super().__init__()
+        self.label = label
+        label.setParent(self)
+        self.setSizePolicy(label.sizePolicy())
+        self._hold = False
+        self._held_back = False
+        self._given: dict[object, object] = {}  # what the layout was told, by question
+        self.passed_on = 0  # requests passed on to the layout (for tests)
+
+    def hold(self, on: bool) -> None:
+        """Hold back the label's requests that would change nothing (on), or stop."""
+        self._hold = on
+        if not on and self._held_back:
+            self._held_back = False
+            self._pass_on()
+
+    def _answer(self, key: object) -> object:
+        label = self.label
+        if key == "size":
+            return label.sizeHint()
+        if key == "minimum":
+            return label.minimumSizeHint()
+        return label.heightForWidth(key)  # type: ignore[arg-type]
+
+    def _unchanged(self) -> bool:
+        return all(self._answer(key) == given for key, given in self._given.items())
+
+    def _pass_on(self) -> None:
+        self._given.clear()
+        self.passed_on += 1
+        self.updateGeometry()
+
+    def event(self, event: QEvent) -> bool:  # noqa: D102 - Qt API
+        if event.type() == QEvent.Type.LayoutRequest:
+            if self._hold and self._unchanged():
+                self._held_back = True
+            else:
+                self._pass_on()
+        return super().event(event)
+
+    def resizeEvent(self, event: QResizeEvent) -> None:  # noqa: D102 - Qt API
+        self.label.setGeometry(self.rect())
+        super().resizeEvent(event)
+
+    def _give(self, key: object) -> object:
+        self._given[key] = answer = self._answer(key)
+        return answer
+
+    def sizeHint(self) -> QSize:  # noqa: D102 - Qt API
+        return self._give("size")  # type: ignore[return-value]
+
+    def minimumSizeHint(self) -> QSize:  # noqa: D102 - Qt API
+        return self._give("minimum")  # type: ignore[return-value]
+
+    def hasHeightForWidth(self) -> bool:  # noqa: D102 - Qt API
+        return self.label.hasHeightForWidth()
+
+    def heightForWidth(self, width: int) -> int:  # noqa: D102 - Qt API
+        return self._give(width)  # type: ignore[return-value]
+
+
 class ResultsPanel(QWidget):
     """Shows an analysis, or the problem that stopped it."""
 
@@ -182,7 +258,8 @@ class ResultsPanel(QWidget):
         self.tabs.currentChanged.connect(lambda _i: self._fill_rest())
         layout = QVBoxLayout(self)
         layout.addWidget(self.error)
-        layout.addWidget(self.verdict)
+        self.verdict_box = LabelBox(self.verdict)
+        layout.addWidget(self.verdict_box)
         layout.addWidget(self.tabs, 1)
         layout.addWidget(self.caution)
         layout.addWidget(self.fire)
@@ -203,6 +280,7 @@ class ResultsPanel(QWidget):
         if on == self._held:
             return
         self._held = on
+        self.verdict_box.hold(on)
         tables = (self.checks, self.plies, self.section, self.beam)
         for t in tables:
             t.setProperty("hold_widths", on)

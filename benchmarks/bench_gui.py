@@ -3,9 +3,10 @@ edge of the demo, 100 steps of real mouse events (press, moves, release on the c
 viewport), each step timed from the mouse move to the view, the results table and the
 shown plot painted; beside every step, core's ``run`` of the same project, so the part
 the GUI adds (step minus run) and the ratio step / run come from the same moments of a
-busy machine. Three windows: plots hidden, the strain and stress plot, the shear, moment
-and deflection plot. Goals (issue 18): view + table <= 12 ms median; with a plot <= 25 ms
-median, p95 <= 40 ms.
+busy machine. Beside the times, what Qt painted in a step: the paint events and the
+pixels of their regions (a count, unmoved by the machine's load). Three windows: plots
+hidden, the strain and stress plot, the shear, moment and deflection plot. Goals (issue
+18): view + table <= 12 ms median; with a plot <= 25 ms median, p95 <= 40 ms.
 
 Times are CPU seconds of this process (``time.process_time``: the others' load on a
 shared machine moves them less than wall time) unless ``--wall`` is given. Not a test;
@@ -24,7 +25,7 @@ from pathlib import Path
 
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 
-from PySide6.QtCore import QPoint, QPointF, QStandardPaths, Qt
+from PySide6.QtCore import QEvent, QObject, QPoint, QPointF, QStandardPaths, Qt
 from PySide6.QtTest import QTest
 from PySide6.QtWidgets import QApplication
 
@@ -38,8 +39,27 @@ def _percentile(values: list[float], q: float) -> float:
     return ordered[min(len(ordered) - 1, int(q * len(ordered)))]
 
 
-def drag_steps(tab: int | None, steps: int) -> tuple[list[float], list[float], int]:
-    """Step times and run times (s) of one drag, and the plots' full redraws in it."""
+class PaintCounter(QObject):
+    """Counts the paint events of every widget and the pixels of their regions."""
+
+    def __init__(self) -> None:
+        super().__init__()
+        self.events = 0
+        self.pixels = 0
+
+    def eventFilter(self, watched: QObject, event: QEvent) -> bool:
+        if event.type() == QEvent.Type.Paint:
+            self.events += 1
+            self.pixels += sum(r.width() * r.height()
+                               for r in event.region())
+        return False
+
+
+def drag_steps(tab: int | None, steps: int) -> tuple[list[float], list[float], int,
+                                                     PaintCounter]:
+    """Step times and run times (s) of one drag, the plots' full redraws in it and what
+    was painted in its steps.
+    """
     from plystack.app.main_window import MainWindow
     from plystack.core.io.project_file import load
     from plystack.core.pipeline import run
@@ -65,6 +85,8 @@ def drag_steps(tab: int | None, steps: int) -> tuple[list[float], list[float], i
     app.processEvents()
     draws0 = w.profiles.full_draws + w.diagrams.full_draws
     QTest.mousePress(vp, left, none, at)
+    painted = PaintCounter()
+    app.installEventFilter(painted)
     step_t, run_t = [], []
     for k in range(1, steps + 1):
         dy = round(40 * math.sin(k / 8))  # up and down, a few pixels a step
@@ -74,17 +96,20 @@ def drag_steps(tab: int | None, steps: int) -> tuple[list[float], list[float], i
             w.analysis_model.recompute()
         app.processEvents()  # paints: the view, the table and a visible plot
         step_t.append(CLOCK() - t)
+        app.removeEventFilter(painted)  # not while core runs beside the step
         project = w.document.project
         t = CLOCK()
         run(project)
         run_t.append(CLOCK() - t)
+        app.installEventFilter(painted)
+    app.removeEventFilter(painted)
     draws = w.profiles.full_draws + w.diagrams.full_draws - draws0
     QTest.mouseRelease(vp, left, none, at)
     app.processEvents()
     w.document.undo_stack.setClean()
     w.close()
     app.processEvents()
-    return step_t, run_t, draws
+    return step_t, run_t, draws, painted
 
 
 def main() -> None:
@@ -93,17 +118,19 @@ def main() -> None:
     clock = "wall" if "--wall" in sys.argv else "CPU"
     print(f"GUI drag step ({steps} steps of a resize drag on the flitch plate's top edge, "
           f"{clock} time)")
-    print(f"{'':44}{'median':>8}{'p95':>8}{'run':>8}{'- run':>8}{'/ run':>7}  full draws")
+    print(f"{'':44}{'median':>8}{'p95':>8}{'run':>8}{'- run':>8}{'/ run':>7}  full draws"
+          "  paints/step  kpx/step")
     for label, tab, goal in (("view + results table (plots hidden)", None, "goal 12 ms"),
                              ("... with the strain and stress plot", 0, "goal 25, p95 40"),
                              ("... with the shear, moment, deflection plot", 1,
                               "goal 25, p95 40")):
-        step_t, run_t, draws = drag_steps(tab, steps)
+        step_t, run_t, draws, painted = drag_steps(tab, steps)
         med, p95 = statistics.median(step_t), _percentile(step_t, 0.95)
         core = statistics.median(run_t)
         extra = statistics.median(s - r for s, r in zip(step_t, run_t, strict=True))
         print(f"{label:<44}{med * 1e3:8.1f}{p95 * 1e3:8.1f}{core * 1e3:8.1f}"
-              f"{extra * 1e3:8.1f}{med / core:7.2f}  {draws:4d}   {goal}")
+              f"{extra * 1e3:8.1f}{med / core:7.2f}  {draws:4d}  "
+              f"{painted.events / steps:11.1f}{painted.pixels / steps / 1e3:10.1f}   {goal}")
 
 
 if __name__ == "__main__":

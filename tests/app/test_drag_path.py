@@ -238,3 +238,152 @@ def test_a_label_of_a_point_outside_its_axes_is_not_painted(window, qtbot):
     label.xy = (x1 + 10 * (x1 - x0), old[1])  # as matplotlib's annotation clip leaves it
     assert text_anchor(label, window.diagrams.figure) is None
     label.xy = old
+
+
+def shown_pixels(widget):
+    """What the window shows of ``widget`` now (the window's painted surface, not a new
+    rendering of the widget).
+    """
+    at = widget.mapToGlobal(QPoint(0, 0))
+    return widget.screen().grabWindow(0, at.x(), at.y(), widget.width(),
+                                      widget.height()).toImage()
+
+
+def test_during_a_drag_the_canvas_shows_what_a_full_repaint_shows(window, qtbot):
+    """The canvas repaints only the changed items' regions during a gesture; after every
+    step its pixels are those of a repaint of the whole viewport, and the gesture ends
+    with the whole viewport repainted.
+    """
+    from PySide6.QtWidgets import QGraphicsView
+
+    full = QGraphicsView.ViewportUpdateMode.FullViewportUpdate
+    settle(qtbot, window)
+    select_plate(window)
+    settle(qtbot, window)
+    c = window.canvas
+    vp = c.viewport()
+    assert c.viewportUpdateMode() == full
+    at = top_edge(window)
+    QTest.mousePress(vp, LEFT, NONE, at)
+    assert c.viewportUpdateMode() != full
+    changed = 0
+    before = shown_pixels(vp)
+    for k in range(1, 17):
+        QTest.mouseMove(vp, at + QPoint(0, -round(40 * math.sin(k / 4)) - 12))
+        if window.analysis_model._timer.isActive():
+            window.analysis_model.recompute()
+        for _ in range(2):
+            QApplication.processEvents()
+        painted = shown_pixels(vp)
+        changed += painted != before
+        vp.repaint()
+        QApplication.processEvents()
+        assert painted == shown_pixels(vp), k
+        before = painted
+    assert changed > 4  # the plate moved on the screen
+    QTest.mouseRelease(vp, LEFT, NONE, at + QPoint(0, -30))
+    settle(qtbot, window)
+    assert c.viewportUpdateMode() == full
+
+
+def test_the_verdict_box_lays_out_as_the_label_alone(qtbot):
+    """The box around the verdict gives the layout the label's hints: with the same texts,
+    held or not, the label has the geometry it has straight in the same layout.
+    """
+    from PySide6.QtWidgets import QVBoxLayout, QWidget
+
+    from plystack.app.results import LabelBox
+    from plystack.app.safe import plain_label
+
+    def panel(boxed: bool):
+        w = QWidget()
+        qtbot.addWidget(w)
+        layout = QVBoxLayout(w)
+        label = plain_label("")
+        label.setStyleSheet("font-weight: bold; font-size: 13px; padding: 4px;")
+        box = LabelBox(label) if boxed else None
+        layout.addWidget(box if box is not None else label)
+        layout.addWidget(QTableWidget(3, 3), 1)
+        w.resize(420, 300)
+        w.show()
+        return w, label, box
+
+    plain, plain_text, _ = panel(False)
+    boxed, boxed_text, box = panel(True)
+    texts = ["OK \u2014 governing: bending in flitch plate, D + L, ratio 0.812",
+             "OK \u2014 governing: bending in flitch plate, D + L, ratio 0.813",
+             "OK (close) \u2014 governing: splitting in left 2x10, D + L, ratio 0.9",
+             "NOT OK \u2014 governing: splitting\n  not checked: one\n  not checked: two",
+             "OK \u2014 short", "OK \u2014 short too"]
+    held_back = 0
+    for hold in (False, True, False):
+        box.hold(hold)
+        for text in texts + texts[::-1]:
+            passed = box.passed_on
+            for label in (plain_text, boxed_text):
+                label.setText(text)
+            for _ in range(3):
+                QApplication.processEvents()
+            held_back += box.passed_on == passed
+            assert boxed_text.mapTo(boxed, QPoint(0, 0)) == plain_text.mapTo(plain, QPoint(0, 0))
+            assert boxed_text.size() == plain_text.size(), text
+            assert boxed_text.height() >= boxed_text.heightForWidth(boxed_text.width())
+    assert held_back > 0  # the box did hold requests back
+    box.hold(False)
+    for w in (plain, boxed):
+        w.resize(300, 340)
+        QApplication.processEvents()
+    assert boxed_text.size() == plain_text.size()
+
+
+def test_after_a_drag_the_results_are_laid_out_as_in_a_fresh_window(window, qtbot):
+    settle(qtbot, window)
+    passed = window.results.verdict_box.passed_on
+    drag_top_edge(qtbot, window, steps=32)
+    fresh = fresh_window(qtbot, window)
+    fresh.canvas.select(window.canvas.selected)
+    settle(qtbot, fresh)
+    for name in ("verdict", "error", "tabs", "caution", "fire", "checks"):
+        a, b = getattr(window.results, name), getattr(fresh.results, name)
+        assert (a.geometry(), a.mapTo(window, QPoint(0, 0))) == (
+            b.geometry(), b.mapTo(fresh, QPoint(0, 0))), name
+    assert window.results.verdict.text() == fresh.results.verdict.text()
+    assert window.results.verdict_box.passed_on >= passed
+
+
+def test_the_labels_paint_the_same_with_the_paint_memo(window, qtbot):
+    """One paint keeps the axes' outlines and the fonts in a memo: the anchors (in and
+    outside the axes) and the pixels are those of each label made on its own.
+    """
+    from PySide6.QtGui import QImage, QPainter
+
+    from plystack.app.plots import paint_text
+
+    for tab, plot in enumerate((window.profiles, window.diagrams)):
+        window.plot_tabs.setCurrentIndex(tab)
+        settle(qtbot, window)
+        labels = [a for a in plot.dynamic if painted_by_qt(a) and a.get_text()]
+        assert len(labels) > 1
+        memo: dict[object, object] = {}
+        for a in labels:
+            assert text_anchor(a, plot.figure, memo) == text_anchor(a, plot.figure)
+        outside = next(a for a in labels if hasattr(a, "xy"))
+        old = outside.xy
+        x0, x1 = outside.axes.get_xlim()
+        outside.xy = (x1 + 10 * (x1 - x0), old[1])
+        assert text_anchor(outside, plot.figure, memo) is None
+        assert text_anchor(outside, plot.figure) is None
+        outside.xy = old
+        images = []
+        for memo_or_none in ({}, None):
+            image = QImage(plot.size(), QImage.Format.Format_ARGB32_Premultiplied)
+            image.fill(0)
+            painter = QPainter(image)
+            for a in labels:
+                paint_text(painter, a, plot.figure, plot.device_pixel_ratio, memo_or_none)
+            painter.end()
+            images.append(image)
+        assert images[0] == images[1]
+        blank = QImage(plot.size(), QImage.Format.Format_ARGB32_Premultiplied)
+        blank.fill(0)
+        assert images[0] != blank
