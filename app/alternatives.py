@@ -27,6 +27,7 @@ from PySide6.QtWidgets import (
 from plystack.app.analysis_model import AnalysisModel
 from plystack.app.dialogs import StudyProgress
 from plystack.app.document import Document
+from plystack.app.results import GREY
 from plystack.app.safe import plain_label, reporter
 from plystack.core.model import units
 from plystack.core.model.caution import CAUTION
@@ -52,6 +53,7 @@ ROWS = (
     ("Deflection, total with creep", "d_total", "deflection", "min"),
     ("Bolt locations", "bolts", "", "min"),
     ("Passes", "ok", "", ""),
+    ("Verdict", "verdict", "", ""),
 )
 
 
@@ -70,7 +72,7 @@ def column_values(a: Analysis) -> dict[str, object]:
         "d_short": worst.extremes.deflection_max_abs if worst else 0.0,
         "d_long": (worst.long_term.deflection_max_abs if worst and worst.long_term else 0.0),
         "d_total": worst.total.deflection_max_abs if worst else 0.0,
-        "bolts": n_bolts, "ok": o.ok,
+        "bolts": n_bolts, "ok": o.ok, "verdict": o.verdict,
     }
     groups: dict[str, float] = {}
     for c in a.checks:
@@ -147,7 +149,9 @@ class AlternativesPanel(QWidget):
         self.table.setHorizontalHeaderLabels(self.names)
         self.table.setVerticalHeaderLabels(labels)
         u = p.display_units
-        passing = [v.get("ok") is True for v in self.values]
+        # an INCOMPLETE alternative (a required check not made) is never marked best
+        passing = [v.get("ok") is True and v.get("verdict") != "INCOMPLETE"
+                   for v in self.values]
         for r, (_label, key, kind, best) in enumerate(ROWS):
             nums = [v.get(key) for v in self.values]
             self._fill_row(r, nums, kind, best, u, passing, whole=key == "bolts")
@@ -322,6 +326,10 @@ class SweepDialog(QDialog):
             self.rows = list(stop.outcomes)
             note = (f"Stopped: {len(self.rows)} of {len(vals)} values evaluated.\n"
                     + CAUTION)
+        if any(o.verdict == "INCOMPLETE" for o in self.rows):
+            note = ("INCOMPLETE: a check the design basis requires could not be made for "
+                    "some values (shown in grey); open the member's results to see which.\n"
+                    + note)
         self.message.setText(note)
         self.table.setRowCount(len(self.rows))
         for r, o in enumerate(self.rows):
@@ -332,6 +340,8 @@ class SweepDialog(QDialog):
                 item = QTableWidgetItem(text)
                 if not o.ok:
                     item.setForeground(QColor(190, 30, 30))
+                elif o.verdict == "INCOMPLETE":
+                    item.setForeground(GREY)
                 self.table.setItem(r, c, item)
         self.figure.clear()
         ax1, ax2 = self.figure.subplots(1, 2)

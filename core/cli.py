@@ -205,7 +205,7 @@ def cmd_compare(args: argparse.Namespace) -> int:
         print(f"{alt.name[:23]:<24}{fmt(o.EI, 'EI', u):>18}"
               f"{fmt(o.mass_per_length, 'mass_per_length', u):>16}{o.governing_id:>22}"
               f"{o.governing_ratio:>8.3f}{fmt(o.deflection_max_abs, 'deflection', u, 3):>14}  "
-              f"{'OK' if o.ok else 'NOT OK'}")
+              f"{o.verdict}")
     print(CAUTION)
     return 0
 
@@ -233,7 +233,7 @@ def cmd_sweep(args: argparse.Namespace) -> int:
         print(f"{units.fmt(r.value, 'length', u):>12}{r.governing_id:>22}{r.governing_ratio:>8.3f}"
               f"{units.fmt(r.deflection_max_abs, 'deflection', u, 3):>14}"
               f"{units.fmt(r.mass_per_length, 'mass_per_length', u):>16}  "
-              f"{'OK' if r.ok else 'NOT OK'}{mark}")
+              f"{r.verdict}{mark}")
     print(CAUTION)
     return 0
 
@@ -242,7 +242,7 @@ def cmd_size(args: argparse.Namespace) -> int:
     """``plystack size``: exit 1 when no option passes."""
     from .model import units
     from .section.templates import PLATES_SI, PLATES_US
-    from .study.compare import auto_size, ply_index
+    from .study.compare import auto_size, incomplete_note, ply_index
 
     project = _load(args.file)
     if args.values is not None:
@@ -265,7 +265,7 @@ def cmd_size(args: argparse.Namespace) -> int:
         else:
             print(f"{args.ply}: {args.dimension} {units.fmt(result.chosen.value, 'length', u)} "
                   f"passes (governing {result.chosen.governing_id}, ratio "
-                  f"{result.chosen.governing_ratio:.3f})")
+                  f"{result.chosen.governing_ratio:.3f}){incomplete_note(result.chosen.verdict)}")
             if result.next_smaller is not None:
                 n = result.next_smaller
                 print(f"  next smaller, {units.fmt(n.value, 'length', u)}, fails: "
@@ -277,7 +277,7 @@ def cmd_size(args: argparse.Namespace) -> int:
 def cmd_span(args: argparse.Namespace) -> int:
     """``plystack span``."""
     from .model import units
-    from .study.compare import longest_span, span_table
+    from .study.compare import incomplete_note, longest_span, span_table
 
     project = _load(args.file)
     with _study_bar(args, None, "span") as report:
@@ -291,7 +291,8 @@ def cmd_span(args: argparse.Namespace) -> int:
     u = project.display_units
     print(f"Longest span that passes every check: {units.fmt(result.span, 'span', u)} "
           f"(to {units.fmt(result.tolerance, 'length', u, 3)}); governing "
-          f"{result.governing_id}, ratio {result.governing_ratio:.3f}")
+          f"{result.governing_id}, ratio {result.governing_ratio:.3f}"
+          + incomplete_note(result.verdict))
     for row in table:
         width = units.fmt(float(row["tributary_width"]), "length", u)  # type: ignore[arg-type]
         span = units.fmt(float(row["span"]), "span", u)  # type: ignore[arg-type]

@@ -35,7 +35,15 @@ SWEEP_BATCH = 16
 
 @dataclass(frozen=True)
 class Outcome:
-    """Summary of one candidate (SI)."""
+    """Summary of one candidate (SI).
+
+    Attributes:
+        ok: every check made passes (a study's pass / fail).
+        verdict: the analysis's verdict, "OK", "NOT OK" or "INCOMPLETE" (every check
+            made passes but one the basis requires could not be made): what a study
+            shows, never OK where a check is missing.
+
+    """
 
     value: float
     governing_ratio: float
@@ -44,13 +52,15 @@ class Outcome:
     mass_per_length: float
     ok: bool
     EI: float
+    verdict: str = "OK"
 
     def to_dict(self) -> dict[str, object]:
         """The row of ``sweep --json``."""
         return {"value": self.value, "governing_ratio": self.governing_ratio,
                 "governing_id": self.governing_id,
                 "deflection_max_abs": self.deflection_max_abs,
-                "mass_per_length": self.mass_per_length, "ok": self.ok}
+                "mass_per_length": self.mass_per_length, "ok": self.ok,
+                "verdict": self.verdict}
 
 
 def summarise(a: Analysis, value: float = math.nan) -> Outcome:
@@ -61,7 +71,7 @@ def summarise(a: Analysis, value: float = math.nan) -> Outcome:
     defl = max((c.total.deflection_max_abs for c in a.beam.serviceability()),
                default=0.0) if a.beam else 0.0
     return Outcome(value, gov.ratio, gov.id, defl, a.section.mass_per_length,
-                   all(c.ok for c in a.checks), a.section.EI)
+                   all(c.ok for c in a.checks), a.section.EI, a.verdict)
 
 
 class Stopped(Exception):
@@ -186,6 +196,7 @@ class SizeResult:
         return {"ply": self.ply, "dimension": self.dimension,
                 "value": self.chosen.value if self.chosen else None,
                 "ok": bool(self.chosen and self.chosen.ok),
+                "verdict": self.chosen.verdict if self.chosen else None,
                 "governing_id": self.chosen.governing_id if self.chosen else None,
                 "governing_ratio": self.chosen.governing_ratio if self.chosen else None,
                 "next_smaller": nxt, "message": self.message}
@@ -205,8 +216,9 @@ def auto_size(project: Project, name: str, dimension: str, options: Sequence[flo
         tried.append(out)
         if out.ok:
             return SizeResult(name, dimension, out, previous,
-                              "smallest passing option" if previous else
-                              "the smallest option in the list passes")
+                              ("smallest passing option" if previous else
+                               "the smallest option in the list passes")
+                              + incomplete_note(out.verdict))
         previous = out
         _report(progress, len(tried), len(ordered), tried, len(tried) < len(ordered))
     return SizeResult(name, dimension, None, previous,
@@ -244,11 +256,13 @@ class SpanResult:
     governing_ratio: float
     tolerance: float
     next_fails: Outcome
+    verdict: str = "OK"
 
     def to_dict(self) -> dict[str, object]:
         """``span --json``."""
         return {"span": self.span, "governing_id": self.governing_id,
                 "governing_ratio": self.governing_ratio, "tolerance": self.tolerance,
+                "verdict": self.verdict,
                 "next_span": self.span + self.tolerance,
                 "next_governing_id": self.next_fails.governing_id,
                 "next_governing_ratio": self.next_fails.governing_ratio}
@@ -285,7 +299,8 @@ def longest_span(project: Project, tolerance: float | None = None,
         else:
             hi = mid
     best = outcome(lo)
-    return SpanResult(lo * tol, best.governing_id, best.governing_ratio, tol, outcome(lo + 1))
+    return SpanResult(lo * tol, best.governing_id, best.governing_ratio, tol, outcome(lo + 1),
+                      best.verdict)
 
 
 def span_table(project: Project, widths: Sequence[float],
@@ -313,6 +328,16 @@ def span_table(project: Project, widths: Sequence[float],
             rows.append({"alternative": alt.name, "tributary_width": w, "span": r.span,
                          "governing_id": r.governing_id})
     return rows
+
+
+def incomplete_note(verdict: str) -> str:
+    """What a study says beside a passing candidate of this verdict: that it is
+    INCOMPLETE, where it is (nothing for the others).
+    """
+    if verdict != "INCOMPLETE":
+        return ""
+    return ("; its verdict is INCOMPLETE: every check made passes, but a check the design "
+            "basis requires could not be made (plystack check names it)")
 
 
 def alternatives_with_current(project: Project) -> list[Alternative]:

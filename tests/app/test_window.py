@@ -390,3 +390,21 @@ def test_plot_limits_always_match_the_drawn_axes(window, qtbot):
         top = max(q.y + q.height for q in plies) / IN
         lo, hi = pp.ax_strain.get_ylim()
         assert lo <= 0 and hi >= top
+
+
+def test_an_incomplete_alternative_says_so_and_is_never_marked_best(window, qtbot):
+    """EN 1990 combinations on the US basis skip the timber strength checks (a named
+    missing check): every alternative is INCOMPLETE, none says OK, none is "best"."""
+    p = window.document.project
+    window.document.apply(replace(p, beam=replace(p.beam, combinations="EN1990")),
+                          "combinations of the other basis")
+    window.right_tabs.setCurrentWidget(window.alternatives)
+    window.recompute()
+    panel = window.alternatives
+    keys = [r[1] for r in __import__("plystack.app.alternatives", fromlist=["ROWS"]).ROWS]
+    verdicts = [panel.table.item(keys.index("verdict"), c).text()
+                for c in range(panel.table.columnCount())]
+    assert verdicts and set(verdicts) == {"INCOMPLETE"}
+    assert not any(panel.table.item(r, c).font().bold()
+                   for r in range(panel.table.rowCount())
+                   for c in range(panel.table.columnCount()) if panel.table.item(r, c))

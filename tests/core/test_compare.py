@@ -111,3 +111,55 @@ def test_compare_lists_every_alternative(capsys):
     assert [o["name"] for o in out] == [a.name for a in project.alternatives]
     for o in out:
         assert {"section", "plies", "beam", "checks", "governing", "units"} <= set(o)
+
+
+def _incomplete_file(tmp_path):
+    """The demo with EN 1990 combinations on the US basis: the timber strength checks are
+    skipped (a named missing check), and every check that is made passes."""
+    import dataclasses
+
+    project = load(DEMO)
+    project = dataclasses.replace(project, beam=dataclasses.replace(project.beam,
+                                                                    combinations="EN1990"))
+    path = tmp_path / "incomplete.plystack.json"
+    save(project, path)
+    return project, path
+
+
+def test_studies_say_incomplete_never_ok_where_a_check_is_missing(tmp_path, capsys):
+    project, path = _incomplete_file(tmp_path)
+    out = check_file(project, tmp_path, capsys)
+    assert out["verdict"] == "INCOMPLETE"  # the check path's own verdict, the reference
+    rows = sweep(project, "flitch plate", "width", [0.25 * IN, 0.375 * IN])
+    assert all(r.ok and r.verdict == "INCOMPLETE" for r in rows)
+    assert all(r.to_dict()["verdict"] == "INCOMPLETE" for r in rows)
+
+    assert main(["sweep", str(path), "--ply", "flitch plate", "--dimension", "width",
+                 "--values", "1/4 in, 3/8 in"]) == 0
+    lines = [ln for ln in capsys.readouterr().out.splitlines() if " in " in ln
+             and ln.strip()[:1].isdigit()]
+    assert len(lines) == 2 and all(ln.rstrip().endswith("INCOMPLETE") for ln in lines)
+
+    assert main(["compare", str(path)]) == 0
+    table = capsys.readouterr().out
+    assert "INCOMPLETE" in table and not any(ln.rstrip().endswith(" OK")
+                                             for ln in table.splitlines())
+
+    size = auto_size(project, "flitch plate", "width", [0.25 * IN, 0.375 * IN])
+    assert size.chosen is not None and "INCOMPLETE" in size.message
+    assert size.to_dict()["verdict"] == "INCOMPLETE"
+    assert main(["size", str(path), "--ply", "flitch plate", "--dimension", "width"]) == 0
+    assert "INCOMPLETE" in capsys.readouterr().out
+
+
+def test_a_complete_study_says_ok_as_before():
+    rows = sweep(load(DEMO), "flitch plate", "width", [0.375 * IN])
+    assert rows[0].verdict == "OK" and rows[0].ok
+
+
+def test_longest_span_of_an_incomplete_member_says_so(tmp_path, capsys):
+    project, path = _incomplete_file(tmp_path)
+    r = longest_span(project)
+    assert r.verdict == "INCOMPLETE" and r.to_dict()["verdict"] == "INCOMPLETE"
+    assert main(["span", str(path)]) == 0
+    assert "INCOMPLETE" in capsys.readouterr().out
