@@ -179,16 +179,15 @@ def cmd_compare(args: argparse.Namespace) -> int:
     """``plystack compare``: one object per alternative, keys as ``check --json``."""
     from .io.output import check_json
     from .model.units import fmt
-    from .pipeline import run
-    from .study.compare import alternatives_with_current, summarise
+    from .study.compare import alternative_analyses, alternatives_with_current, summarise
 
     project = _load(args.file)
     alts = alternatives_with_current(project)
     bar = _bar(args, len(alts), "alternative")
     try:
         results = []
-        for alt in alts:
-            results.append((alt, run(project.with_plies(alt.plies))))
+        for alt, analysis in zip(alts, alternative_analyses(project, alts), strict=True):
+            results.append((alt, analysis))
             if bar is not None:
                 bar.update(1)
     finally:

@@ -14,10 +14,10 @@ from reportlab.platypus import CondPageBreak, KeepTogether, Spacer, Table
 
 from ..design.check import governing
 from ..model.caution import ASSUMPTIONS, CAUTION, FIRE_NOTE
-from ..model.project import Alternative, Project
-from ..pipeline import Analysis, Evaluator
+from ..model.project import Project
+from ..pipeline import Analysis
 from ..section.gamma import assumptions
-from ..study.compare import alternatives_with_current, summarise
+from ..study.compare import alternative_analyses, alternatives_with_current, summarise
 from .checks import checks_section, place
 from .derive import symbol_text
 from .description import member_description
@@ -197,17 +197,6 @@ def _profiles(a: Analysis, u: str, width: float) -> list[Any]:
             table(rows, width, align_right=(1, 2, 3, 4, 5, 6))]
 
 
-def _alternatives_analysed(a: Analysis, original: Project,
-                           alts: list[Alternative]) -> list[Analysis]:
-    """The analysis of each alternative: the sheet's own where an alternative is the
-    project it analysed, the others on one Evaluator (the beam prepared and its cases
-    solved once); the same numbers as ``run(original.with_plies(alt.plies))`` each.
-    """
-    evaluator = Evaluator(original)
-    return [a if a.project == original.with_plies(alt.plies) else evaluator.analyse(alt.plies)
-            for alt in alts]
-
-
 def _summary(a: Analysis, original: Project, u: str, width: float) -> list[Any]:
     gov = governing(a.checks)
     verdict = a.verdict
@@ -231,8 +220,7 @@ def _summary(a: Analysis, original: Project, u: str, width: float) -> list[Any]:
     if len(alts) > 1:
         rows = [["Alternative", "EI", "Mass per length", "Governs", "Ratio", "Deflection",
                  "Verdict"]]
-        for alt, run_alt in zip(alts, _alternatives_analysed(a, original, alts),
-                                strict=True):
+        for alt, run_alt in zip(alts, alternative_analyses(original, alts, a), strict=True):
             o = summarise(run_alt)
             rows.append([alt.name, q(o.EI, "EI", u), q(o.mass_per_length, "mass_per_length", u),
                          o.governing_id, f"{o.governing_ratio:.3f}",

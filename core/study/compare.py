@@ -14,7 +14,7 @@ a callback that returns False asks the study to stop, which it does after the ca
 from __future__ import annotations
 
 import math
-from collections.abc import Callable, Sequence
+from collections.abc import Callable, Iterator, Sequence
 from dataclasses import dataclass, replace
 
 from ..model.constants import INCH
@@ -338,6 +338,20 @@ def incomplete_note(verdict: str) -> str:
         return ""
     return ("; its verdict is INCOMPLETE: every check made passes, but a check the design "
             "basis requires could not be made (plystack check names it)")
+
+
+def alternative_analyses(project: Project, alternatives: Sequence[Alternative],
+                         done: Analysis | None = None) -> Iterator[Analysis]:
+    """The analysis of each alternative, in order, on one Evaluator (the beam prepared
+    and its cases solved once): the same numbers as ``run(project.with_plies(alt.plies))``
+    each. ``done``: an analysis already made of one of them, given back for it.
+    """
+    evaluator = Evaluator(project)
+    for alt in alternatives:
+        if done is not None and done.project == project.with_plies(alt.plies):
+            yield done
+        else:
+            yield evaluator.analyse(alt.plies)
 
 
 def alternatives_with_current(project: Project) -> list[Alternative]:

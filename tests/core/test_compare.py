@@ -163,3 +163,21 @@ def test_longest_span_of_an_incomplete_member_says_so(tmp_path, capsys):
     assert r.verdict == "INCOMPLETE" and r.to_dict()["verdict"] == "INCOMPLETE"
     assert main(["span", str(path)]) == 0
     assert "INCOMPLETE" in capsys.readouterr().out
+
+
+def test_alternatives_on_one_evaluator_equal_each_run_alone():
+    """``alternative_analyses`` against ``run`` of each alternative on its own (the plain
+    path): every check and warning the same, as text."""
+    from plystack.core.pipeline import run
+    from plystack.core.study.compare import alternative_analyses, alternatives_with_current
+
+    project = load(DEMO)
+    alts = alternatives_with_current(project)
+    assert len(alts) > 1
+    first = run(project.with_plies(alts[0].plies))
+    got = list(alternative_analyses(project, alts, first))
+    assert got[0] is first
+    for alt, a in zip(alts, got, strict=True):
+        alone = run(project.with_plies(alt.plies))
+        assert repr(a.checks) == repr(alone.checks) and repr(a.warnings) == repr(alone.warnings)
+        assert a.section.EI == alone.section.EI

@@ -29,8 +29,9 @@ from plystack.core.report import content, layout, sheet
 DEMOS = Path(__file__).resolve().parents[2] / "assets" / "demo"
 
 
-def _each_run_alone(a: Any, original: Any, alts: Any) -> list[Any]:
+def _each_run_alone(original: Any, alts: Any, done: Any = None) -> list[Any]:
     """Each alternative run on its own, as the sheet did before."""
+    del done
     return [run(original.with_plies(alt.plies)) for alt in alts]
 
 
@@ -95,7 +96,7 @@ def test_quick_sheet_has_the_plain_sheets_content(monkeypatch, demo, paper, alte
     quick, quick_filters = _objects(_build(project, paper, alternative))
     with monkeypatch.context() as plain_path:
         plain_path.setattr(sheet, "_streams_without_base85", contextlib.nullcontext)
-        plain_path.setattr(content, "_alternatives_analysed", _each_run_alone)
+        plain_path.setattr(content, "alternative_analyses", _each_run_alone)
         plain_path.setattr(layout, "_TEXT_CODES", _NothingRemembered())
         plain, plain_filters = _objects(_build(project, paper, alternative))
     assert "/ASCII85Decode" in plain_filters
