@@ -52,7 +52,7 @@ ROWS = (
     ("Deflection, long-term part", "d_long", "deflection", "min"),
     ("Deflection, total with creep", "d_total", "deflection", "min"),
     ("Bolt locations", "bolts", "", "min"),
-    ("Passes", "ok", "", ""),
+    ("Checks made pass", "ok", "", ""),
     ("Verdict", "verdict", "", ""),
 )
 
