@@ -34,6 +34,7 @@ from .transfer import (
     placed_transfers,
     plate_extent,
     plate_loads,
+    trial_within,
 )
 
 
@@ -154,6 +155,9 @@ def _choose(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint
     for s in allowed:
         layout = layout_of(section, joint, bolt, extent, s, design.us)
         factors = layout_factors(section, joint, layout, design, L)
+        if s != allowed[-1] and _fails(loads, layout, share, depth, value, combos,
+                                       factors[0]):
+            continue  # the trial below would stop at a combination over the capacity
         found: dict[int, _Found] = {}
         for k, c in enumerate(combos):
             items = placed_transfers(loads[k], layout, share, depth)
@@ -167,6 +171,22 @@ def _choose(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint
         else:
             break
     return _Choice(layout, factors, loads, found)  # the last one tried where none passes
+
+
+def _fails(loads: tuple[PlateLoads, ...], layout: BoltLayout, share: float, depth: float,
+           value: BoltValue, combos: tuple[CombinationResult, ...],
+           geometry: Mapping[str, float]) -> bool:
+    """True where a combination's most loaded bolts of ``layout`` carry more than the
+    capacity, as the trial in :func:`_choose` finds it (``trial_within``; False where it
+    cannot tell, so that the trial itself decides).
+    """
+    for k, c in enumerate(combos):
+        within = trial_within(loads[k], layout, share, depth, value.capacity(c, geometry))
+        if within is None:
+            return False
+        if not within:
+            return True
+    return False
 
 
 def layout_text(layout: BoltLayout, system: str) -> str:

@@ -33,6 +33,7 @@ from ..model.units import fmt
 from ..section.transformed import Section
 from .check import Check, capacity_from
 from .common import Joint
+from .memo import once
 
 #: EN 1995-1-1 Table 2.3, connections (from memory).
 GAMMA_M_CONNECTION = 1.3
@@ -75,6 +76,12 @@ def _share(section: Section, joint: Joint, j: int) -> float:
     return weight(j) / sum(weight(k) for k in joint.timbers)
 
 
+def _shares(section: Section, joint: Joint) -> dict[int, float]:
+    """:func:`_share` of every timber of the joint, found once per section and joint."""
+    return once(section, ("splitting shares", joint),
+                lambda: {j: _share(section, joint, j) for j in joint.timbers})
+
+
 def splitting_checks(section: Section, joint: Joint, site: SplitSite, design: DesignSpec,
                      combination: str, k_mod: float | None, shear_capacity: dict[str, float],
                      length: float, system: str) -> list[Check]:
@@ -83,18 +90,20 @@ def splitting_checks(section: Section, joint: Joint, site: SplitSite, design: De
     timber under the combination, by ply name; a timber without one is left out).
     """
     out = []
+    bolts_at = (f"{site.label}: bolts at y = "
+                + ", ".join(fmt(y, "length", system) for y in sorted(set(site.heights))))
+    shares = _shares(section, joint)
+    nearest_end: float | None = None  # from the bolts to the nearer end of the member
     for j in joint.timbers:
         name = section.plies[j].name
         edge, h_e, h = _edge(section, j, site)
         b = section.plies[j].width
-        where = (f"{site.label}: bolts at y = "
-                 + ", ".join(fmt(y, "length", system) for y in sorted(set(site.heights)))
-                 + f"; loaded edge {edge}")
+        where = f"{bolts_at}; loaded edge {edge}"
         if not design.us:
             if k_mod is None or not 0 < h_e < h:
                 continue
             F90 = en.F90_Rk(b, h_e, h)
-            demand = abs(site.force) * _share(section, joint, j)
+            demand = abs(site.force) * shares[j]
             f = {"k_mod": k_mod}
             g = {"gamma_M": GAMMA_M_CONNECTION}
             out.append(Check(
@@ -115,10 +124,12 @@ def splitting_checks(section: Section, joint: Joint, site: SplitSite, design: De
             continue
         D = design.bolt.diameter
         d_e = min(h_e + D / 2, h)
-        near_end = min(min(x, length - x) for x in site.stations) < 5 * h
+        if nearest_end is None:
+            nearest_end = min(min(x, length - x) for x in site.stations)
+        near_end = nearest_end < 5 * h
         V_r = 2 / 3 * Fv * b * d_e
         f = {"(d_e/d)^2": (d_e / h) ** 2} if near_end else {}
-        demand = abs(site.force) * _share(section, joint, j)
+        demand = abs(site.force) * shares[j]
         out.append(Check(
             id="splitting", ply=name, combination=combination, demand=demand,
             capacity=capacity_from(V_r, f), quantity="force",

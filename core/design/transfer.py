@@ -233,19 +233,118 @@ def _zone_ascending(xs: tuple[float, ...], x: float, depth: float) -> tuple[int,
     return _around(xs, x, i, best * (1 + 1e-9) + 1e-12)
 
 
+def _zone_bounds(xs: tuple[float, ...], at: list[float],
+                 depth: float) -> tuple[list[int], list[int]] | None:
+    """For ascending stations ``xs``, the zone of a transfer at each of ``at`` as the run
+    of station indices ``range(lo, hi)``: the stations :func:`_zone_ascending` finds, by
+    the same comparisons made on all of them at once (|xs[k] - x| grows away from x on
+    either side, so the stations within a reach are one run). None where it cannot tell
+    (no stations, or a position that is not a number).
+    """
+    n = len(xs)
+    if n == 0 or not at:
+        return None
+    gap = np.abs(np.asarray(xs, dtype=float)[None, :] - np.asarray(at, dtype=float)[:, None])
+    inside = gap <= depth * (1 + 1e-9)
+    bare = ~inside.any(axis=1)
+    if bare.any():  # no station within the depth: the nearest (and any as near)
+        i = np.searchsorted(np.asarray(xs, dtype=float), np.asarray(at, dtype=float)[bare],
+                            side="left")
+        rows = gap[bare]
+        pick = np.arange(rows.shape[0])
+        left = np.where(i >= 1, rows[pick, np.clip(i - 1, 0, n - 1)], np.inf)
+        right = np.where(i < n, rows[pick, np.clip(i, 0, n - 1)], np.inf)
+        reach = np.minimum(left, right) * (1 + 1e-9) + 1e-12
+        inside[bare] = rows <= reach[:, None]
+    if not inside.any(axis=1).all():
+        return None
+    lo = inside.argmax(axis=1)
+    hi = n - inside[:, ::-1].argmax(axis=1)
+    return lo.tolist(), hi.tolist()
+
+
+def _runs(xs: tuple[float, ...], at: list[float],
+          depth: float) -> tuple[list[int], list[int]] | None:
+    """``(lo, hi)`` of every zone of transfers at ``at`` among ascending stations ``xs``:
+    by bisection for a few transfers, all at once for many (:func:`_zone_bounds`; the
+    same runs).
+    """
+    if len(at) < 16:
+        zones = [_zone_ascending(xs, x, depth) for x in at]
+        if not all(zones):
+            return None
+        return [z[0] for z in zones], [z[-1] + 1 for z in zones]
+    return _zone_bounds(xs, at, depth)
+
+
+def _ascending(xs: tuple[float, ...]) -> bool:
+    return all(a <= b for a, b in zip(xs, xs[1:], strict=False))
+
+
 def placed_transfers(loads: PlateLoads, layout: BoltLayout, share: float,
                      depth: float) -> list[Transfer]:
     """The concentrated transfers of ``loads`` through the bolts of ``layout``, each with
     its zone (the stations within the member depth ``depth``, at least the nearest).
     """
     xs = layout.stations
-    ascending = all(a <= b for a, b in zip(xs, xs[1:], strict=False))
+    ascending = _ascending(xs)
+    bounds = _runs(xs, [f[2] for f in loads.forces], depth) if ascending else None
+    if bounds is not None:
+        ahead = [0]  # bolts at the stations before each index: a zone's bolts by difference
+        for rs in layout.station_rows:
+            ahead.append(ahead[-1] + len(rs))
+        return [Transfer(label, kind, x, force, share, tuple(range(lo, hi)),
+                         ahead[hi] - ahead[lo], depth)
+                for (kind, label, x, force), lo, hi in zip(loads.forces, *bounds,
+                                                           strict=True)]
     out = []
     for kind, label, x, force in loads.forces:
         zone = _zone_ascending(xs, x, depth) if ascending else _zone(layout, x, depth)
         out.append(Transfer(label, kind, x, force, share, zone,
                             sum(layout.at_station(k) for k in zone), depth))
     return out
+
+
+def trial_within(loads: PlateLoads, layout: BoltLayout, share: float, depth: float,
+                 limit: float) -> bool | None:
+    """Whether every station of ``layout`` carries at most ``limit`` per bolt under
+    ``loads``: what :func:`governing_within` of :func:`placed_transfers` decides (None
+    from it, or a governing station over the limit, is False), with the same arithmetic
+    on plain numbers and no transfer made. None where it cannot tell that way (stations
+    out of order, a value that is not a number): then ask :func:`governing_within`.
+    """
+    xs = layout.stations
+    forces = loads.forces
+    rows = layout.station_rows
+    if limit != limit or not xs or not _ascending(xs):
+        return None
+    held: list[list[int]] = [[] for _ in xs]
+    own: list[float] = []
+    signed: list[float] = []
+    if forces:
+        bounds = _runs(xs, [f[2] for f in forces], depth)
+        if bounds is None:
+            return None
+        ahead = [0]
+        for rs in rows:
+            ahead.append(ahead[-1] + len(rs))
+        for j, ((kind, _, _, force), lo, hi) in enumerate(zip(forces, *bounds, strict=True)):
+            bolts = ahead[hi] - ahead[lo]
+            p = abs(share * force) / bolts if bolts else math.inf  # Transfer.per_bolt
+            own.append(p)
+            signed.append(p * (1.0 if kind == "point" else -1.0))
+            for k in range(lo, hi):
+                held[k].append(j)
+    for k, (a, b) in enumerate(_tributaries(layout)):
+        js = held[k]
+        w = _load_between(loads, a, b)
+        net = abs(share * w / len(rows[k]) + sum(signed[j] for j in js))
+        per = max(net, sum(own[j] for j in js))
+        if per != per:
+            return None
+        if per > limit:
+            return False
+    return True
 
 
 def transfers(section: Section, beam: BeamResult, combo: CombinationResult,
