@@ -4,10 +4,6 @@ Layers, lowest first (each imports only those below it): model, codes, section, 
 design, pipeline, study, io, report, cli. See DEVELOPERS.md.
 """
 
-from importlib import metadata as _metadata
-
-try:
-    #: The version, from the installed distribution's metadata (pyproject.toml).
-    __version__ = _metadata.version("plystack")
-except _metadata.PackageNotFoundError:  # running from a source tree that is not installed
-    __version__ = "0+unknown"
+#: The version (the one place it is written: pyproject.toml reads it from here, and
+#: `plystack --version`, the sheets and the schedule print it).
+__version__ = "0.1.0"

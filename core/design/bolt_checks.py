@@ -114,6 +114,10 @@ def plate_layout(section: Section, beam: BeamResult, design: DesignSpec, joint: 
     return _choose(section, beam, design, joint, value, combos, system).layout
 
 
+#: Transfers (all combinations together) from which a spacing's trial is first decided on
+#: plain numbers (``_fails``), so that only the spacing chosen makes its transfers.
+QUICK_TRIALS = 32
+
 #: What a trial found under one combination: its transfers and its most loaded station.
 _Found = tuple[list[Transfer], StationDemand]
 
@@ -152,11 +156,12 @@ def _choose(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint
     stock = STOCK_SPACINGS_US if system == "US" else STOCK_SPACINGS_SI
     allowed = [s for s in stock if s >= 4 * bolt.diameter] or [stock[-1]]
     loads = tuple(plate_loads(section, beam, c, design, joint.steel, extent) for c in combos)
+    many = sum(len(ld.forces) for ld in loads) >= QUICK_TRIALS  # else the trial is as quick
     for s in allowed:
         layout = layout_of(section, joint, bolt, extent, s, design.us)
         factors = layout_factors(section, joint, layout, design, L)
-        if s != allowed[-1] and _fails(loads, layout, share, depth, value, combos,
-                                       factors[0]):
+        if s != allowed[-1] and many and _fails(loads, layout, share, depth, value, combos,
+                                                factors[0]):
             continue  # the trial below would stop at a combination over the capacity
         found: dict[int, _Found] = {}
         for k, c in enumerate(combos):

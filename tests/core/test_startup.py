@@ -56,3 +56,22 @@ def test_sheet_leaves_the_cycle_collector_as_it_was(enabled):
         assert gc.isenabled() is enabled
     finally:
         gc.enable() if was else gc.disable()
+
+
+def test_check_reads_no_distribution_metadata():
+    """The version is written in ``plystack.core`` itself, so no command parses the
+    installed distribution's metadata (importlib.metadata and the email parser it uses)."""
+    code = ("import sys; from plystack.app.launch import main; "
+            f"code = main(['check', {str(DEMO)!r}, '--json']); "
+            "print(sorted(m for m in ('importlib.metadata', 'email') if m in sys.modules)); "
+            "sys.exit(code)")
+    r = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True)
+    assert r.returncode == 0, r.stderr
+    assert r.stdout.strip().splitlines()[-1] == "[]"
+
+
+def test_the_installed_version_is_the_one_written_in_the_package():
+    from importlib.metadata import version
+
+    from plystack.core import __version__
+    assert version("plystack") == __version__
