@@ -59,9 +59,11 @@ def shear_left_of(model: BeamModel, sol: CaseSolution, x: float) -> float:
     nodes = model.nodes
     if x <= float(nodes[0]):
         return 0.0
-    e = int(np.clip(np.searchsorted(nodes, x, side="left") - 1, 0, model.lengths.size - 1))
+    # np.searchsorted(nodes, x, "left") - 1, clipped to the elements; plain floats (the
+    # same double arithmetic as numpy's scalars)
+    e = min(max(bisect_left(nodes, x) - 1, 0), model.lengths.size - 1)
     s = min(x, float(nodes[-1])) - float(nodes[e])
-    return float(sol.V0[e] + sol.q[e] * s + sol.dq[e] * s**2 / 2)
+    return float(sol.V0[e]) + float(sol.q[e]) * s + float(sol.dq[e]) * s**2 / 2
 
 
 @dataclass(frozen=True)
@@ -362,9 +364,9 @@ def shear_right_of(model: BeamModel, sol: CaseSolution, x: float) -> float:
     nodes = model.nodes
     if x >= float(nodes[-1]):
         return 0.0
-    e = int(np.clip(np.searchsorted(nodes, x, side="right") - 1, 0, model.lengths.size - 1))
+    e = min(max(bisect_right(nodes, x) - 1, 0), model.lengths.size - 1)
     s = max(x, float(nodes[0])) - float(nodes[e])
-    return float(sol.V0[e] + sol.q[e] * s + sol.dq[e] * s**2 / 2)
+    return float(sol.V0[e]) + float(sol.q[e]) * s + float(sol.dq[e]) * s**2 / 2
 
 
 def distributed_load(model: BeamModel, sol: CaseSolution, a: float, b: float) -> float:
