@@ -24,7 +24,7 @@ from .bolt_layout import BoltLayout, layout_of
 from .check import Check, Fasteners, capacity_from
 from .common import STOCK_SPACINGS_SI, STOCK_SPACINGS_US, Joint, own_checks, plate_share
 from .net_section import net_checks, net_shear_checks
-from .splitting import SplitSite, splitting_checks
+from .splitting import Shared, SplitSite, splitting_checks
 from .transfer import (
     PlateLoads,
     StationDemand,
@@ -290,12 +290,14 @@ def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: 
                    f"at x = {fmt(gov.x, 'span', system)}, {gov.bolts} bolts, governed by "
                    f"{source}.", CAUTION)))
         words = [_words_of(t, layout, system, said, named) for t in items]
-        out += [_transfer_check(t, w, combo, value, f, steel)
+        shared: dict[tuple[int, int], _Zoned] = {}
+        out += [_transfer_check(t, w, combo, value, f, steel, shared)
                 for t, w in zip(items, words, strict=True)]
         shear = own_checks(section, gross).shear_capacity.get(combo.name, {})
+        resisted: Shared = {}
         for t, w in zip(items, words, strict=True):
             out += splitting_checks(section, joint, _site(t, w), design,
-                                    combo.name, f.get("k_mod"), shear, L, system)
+                                    combo.name, f.get("k_mod"), shear, L, system, resisted)
     return BoltedPlate(tuple(out), PlateLayout(joint.steel, joint, layout))
 
 
@@ -360,19 +362,53 @@ def split_site(t: Transfer, layout: BoltLayout, system: str) -> SplitSite:
     return _site(t, _words(t, layout, system))
 
 
+@dataclass(frozen=True)
+class _Zoned:
+    """What the ``load-transfer`` checks of one combination share for a zone of a given
+    number of bolts and stations (the checks' factor, source and fastener values are read,
+    never changed, so they may be shared).
+    """
+
+    factors: dict[str, float]
+    capacity: float
+    partial: dict[str, float]
+    sources: dict[str, str]
+    equation: str
+    fasteners: Fasteners
+
+
+def _zoned(t: Transfer, value: BoltValue, f: dict[str, float],
+           shared: dict[tuple[int, int], _Zoned] | None) -> _Zoned:
+    key = (t.bolts, len(t.zone))
+    found = None if shared is None else shared.get(key)
+    if found is None:
+        factors = {"n": float(t.bolts), **f}
+        found = _Zoned(
+            factors, capacity_from(value.reference[1], factors, value.partial),
+            dict(value.partial),
+            {**value.sources, "n": "bolts in the transfer zone: the stations within the "
+             "member depth d of the support or load, at least the nearest (common "
+             "practice)"},
+            f"alpha F <= n {value.capacity_symbol}",
+            Fasteners(locations=len(t.zone), count=t.bolts))
+        if shared is not None:
+            shared[key] = found
+    return found
+
+
 def _transfer_check(t: Transfer, w: _Words, combo: CombinationResult, value: BoltValue,
-                    f: dict[str, float], steel: str) -> Check:
-    factors = {"n": float(t.bolts), **f}
+                    f: dict[str, float], steel: str,
+                    shared: dict[tuple[int, int], _Zoned] | None = None) -> Check:
+    """The ``load-transfer`` check of one transfer (``shared``: what the checks of one
+    combination share, by the zone's bolts and stations).
+    """
+    z = _zoned(t, value, f, shared)
     return Check(
         id="load-transfer", ply=steel, combination=combo.name, demand=t.demand,
-        capacity=capacity_from(value.reference[1], factors, value.partial), quantity="force",
-        reference=value.reference, factors=factors, partial_factors=dict(value.partial),
-        sources={**value.sources, "n": "bolts in the transfer zone: the stations within the "
-                 "member depth d of the support or load, at least the nearest (common "
-                 "practice)"},
-        equation=f"alpha F <= n {value.capacity_symbol}",
-        location=w.location,
-        x=t.x, fasteners=Fasteners(locations=len(t.zone), count=t.bolts),
+        capacity=z.capacity, quantity="force",
+        reference=value.reference, factors=z.factors, partial_factors=z.partial,
+        sources=z.sources, equation=z.equation, location=w.location,
+        x=t.x, fasteners=z.fasteners,
         notes=(w.zone,
                ("The plate does not bear on this support: its share of the reaction reaches "
                 "the timbers through these bolts." if t.kind == "support" else

@@ -82,70 +82,104 @@ def _shares(section: Section, joint: Joint) -> dict[int, float]:
                 lambda: {j: _share(section, joint, j) for j in joint.timbers})
 
 
+@dataclass(frozen=True)
+class _Resistance:
+    """What the ``splitting`` checks of one timber share wherever its bolts stand alike:
+    the capacity with its factors, sources, equation and note (read, never changed, so
+    they may be shared by the checks).
+    """
+
+    capacity: float
+    reference: tuple[str, float]
+    factors: dict[str, float]
+    partial: dict[str, float]
+    sources: dict[str, str]
+    equation: str
+    notes: tuple[str, ...]
+
+
+def _eu_resistance(b: float, h_e: float, h: float, k_mod: float) -> _Resistance:
+    """EN 1995-1-1 8.1.4 (from memory): k_mod F_90,Rk / gamma_M."""
+    F90 = en.F90_Rk(b, h_e, h)
+    f = {"k_mod": k_mod}
+    g = {"gamma_M": GAMMA_M_CONNECTION}
+    return _Resistance(
+        capacity_from(F90, f, g), ("F_90,Rk", F90), f, g,
+        {"F_90,Rk": "EN 1995-1-1 8.1.4 (8.4), w = 1 (from memory)",
+         "k_mod": "EN 1995-1-1 Table 3.1 (from memory)",
+         "gamma_M": "EN 1995-1-1 Table 2.3, connections (from memory)"},
+        "F_v,Ed <= k_mod 14 b w sqrt(h_e / (1 - h_e / h)) / gamma_M",
+        (f"b = {b * 1000:.4g} mm, h = {h * 1000:.4g} mm, h_e = "
+         f"{h_e * 1000:.4g} mm (loaded edge to the most distant bolt); F_v,Ed "
+         "= the whole force into this timber (conservative).",))
+
+
+def _us_resistance(Fv: float, b: float, h: float, d_e: float, near_end: bool,
+                   system: str) -> _Resistance:
+    """NDS 2018 3.4.3.3 (from memory): (2/3) F'v b d_e, times (d_e / d)^2 near an end."""
+    V_r = 2 / 3 * Fv * b * d_e
+    f = {"(d_e/d)^2": (d_e / h) ** 2} if near_end else {}
+    return _Resistance(
+        capacity_from(V_r, f), ("(2/3) F'v b d_e", V_r), f, {},
+        {"(2/3) F'v b d_e": "NDS 2018 3.4.3.3 (from memory): F'v the timber's "
+         "adjusted shear value under the combination (its shear check), d_e = d "
+         "less the distance from the unloaded edge to the nearest edge of the "
+         "nearest bolt",
+         **({"(d_e/d)^2": "NDS 2018 3.4.3.3(a): connection less than 5d from "
+             "the end of the member (from memory)"} if near_end else {})},
+        "V <= (2/3) F'v b d_e (d_e / d)^2" if near_end else "V <= (2/3) F'v b d_e",
+        (f"F'v = {fmt(Fv, 'stress', system)}, d = {fmt(h, 'length', system)}, "
+         f"d_e = {fmt(d_e, 'length', system)}, b = {fmt(b, 'length', system)}; "
+         "V = the whole force into this timber (conservative).",))
+
+
+#: The resistances one caller's sites share, by timber and what sets them.
+Shared = dict[tuple[object, ...], _Resistance]
+
+
 def splitting_checks(section: Section, joint: Joint, site: SplitSite, design: DesignSpec,
                      combination: str, k_mod: float | None, shear_capacity: dict[str, float],
-                     length: float, system: str) -> list[Check]:
+                     length: float, system: str, shared: Shared | None = None) -> list[Check]:
     """The ``splitting`` check of every timber of the joint at one site under one
     combination. EU: ``k_mod`` of the combination; US: ``shear_capacity`` (F'_v of each
     timber under the combination, by ply name; a timber without one is left out).
+    ``shared``: the resistances found at earlier sites of the same caller (filled here).
     """
     out = []
     bolts_at = (f"{site.label}: bolts at y = "
                 + ", ".join(fmt(y, "length", system) for y in sorted(set(site.heights))))
     shares = _shares(section, joint)
     nearest_end: float | None = None  # from the bolts to the nearer end of the member
+    memo: Shared = {} if shared is None else shared
     for j in joint.timbers:
         name = section.plies[j].name
         edge, h_e, h = _edge(section, j, site)
         b = section.plies[j].width
-        where = f"{bolts_at}; loaded edge {edge}"
         if not design.us:
             if k_mod is None or not 0 < h_e < h:
                 continue
-            F90 = en.F90_Rk(b, h_e, h)
-            demand = abs(site.force) * shares[j]
-            f = {"k_mod": k_mod}
-            g = {"gamma_M": GAMMA_M_CONNECTION}
-            out.append(Check(
-                id="splitting", ply=name, combination=combination, demand=demand,
-                capacity=capacity_from(F90, f, g), quantity="force",
-                reference=("F_90,Rk", F90), factors=f, partial_factors=g,
-                sources={"F_90,Rk": "EN 1995-1-1 8.1.4 (8.4), w = 1 (from memory)",
-                         "k_mod": "EN 1995-1-1 Table 3.1 (from memory)",
-                         "gamma_M": "EN 1995-1-1 Table 2.3, connections (from memory)"},
-                equation="F_v,Ed <= k_mod 14 b w sqrt(h_e / (1 - h_e / h)) / gamma_M",
-                location=where, x=site.x,
-                notes=(f"b = {b * 1000:.4g} mm, h = {h * 1000:.4g} mm, h_e = "
-                       f"{h_e * 1000:.4g} mm (loaded edge to the most distant bolt); F_v,Ed "
-                       "= the whole force into this timber (conservative).",)))
-            continue
-        Fv = shear_capacity.get(name)
-        if Fv is None or h_e <= 0:
-            continue
-        D = design.bolt.diameter
-        d_e = min(h_e + D / 2, h)
-        if nearest_end is None:
-            nearest_end = min(min(x, length - x) for x in site.stations)
-        near_end = nearest_end < 5 * h
-        V_r = 2 / 3 * Fv * b * d_e
-        f = {"(d_e/d)^2": (d_e / h) ** 2} if near_end else {}
-        demand = abs(site.force) * shares[j]
+            key: tuple[object, ...] = ("EU", b, h_e, h, k_mod)
+            r = memo.get(key)
+            if r is None:
+                r = memo[key] = _eu_resistance(b, h_e, h, k_mod)
+        else:
+            Fv = shear_capacity.get(name)
+            if Fv is None or h_e <= 0:
+                continue
+            d_e = min(h_e + design.bolt.diameter / 2, h)
+            if nearest_end is None:
+                nearest_end = min(min(x, length - x) for x in site.stations)
+            near_end = nearest_end < 5 * h
+            key = ("US", Fv, b, h, d_e, near_end, system)
+            r = memo.get(key)
+            if r is None:
+                r = memo[key] = _us_resistance(Fv, b, h, d_e, near_end, system)
         out.append(Check(
-            id="splitting", ply=name, combination=combination, demand=demand,
-            capacity=capacity_from(V_r, f), quantity="force",
-            reference=("(2/3) F'v b d_e", V_r), factors=f, partial_factors={},
-            sources={"(2/3) F'v b d_e": "NDS 2018 3.4.3.3 (from memory): F'v the timber's "
-                     "adjusted shear value under the combination (its shear check), d_e = d "
-                     "less the distance from the unloaded edge to the nearest edge of the "
-                     "nearest bolt",
-                     **({"(d_e/d)^2": "NDS 2018 3.4.3.3(a): connection less than 5d from "
-                         "the end of the member (from memory)"} if near_end else {})},
-            equation=("V <= (2/3) F'v b d_e (d_e / d)^2" if near_end
-                      else "V <= (2/3) F'v b d_e"),
-            location=where, x=site.x,
-            notes=(f"F'v = {fmt(Fv, 'stress', system)}, d = {fmt(h, 'length', system)}, "
-                   f"d_e = {fmt(d_e, 'length', system)}, b = {fmt(b, 'length', system)}; "
-                   "V = the whole force into this timber (conservative).",)))
+            id="splitting", ply=name, combination=combination,
+            demand=abs(site.force) * shares[j], capacity=r.capacity, quantity="force",
+            reference=r.reference, factors=r.factors, partial_factors=r.partial,
+            sources=r.sources, equation=r.equation, location=f"{bolts_at}; loaded edge {edge}",
+            x=site.x, notes=r.notes))
     return out
 
 

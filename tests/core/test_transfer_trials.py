@@ -148,3 +148,37 @@ def test_many_point_loads_check_alike_with_and_without_the_quick_paths(
     assert quick.checks == plain.checks
     assert quick.layouts == plain.layouts
     assert quick.warnings == plain.warnings
+
+
+@pytest.mark.parametrize("demo", ["porch-header.plystack.json", "stair-trimmer-eu.plystack.json"])
+def test_checks_sharing_their_resistances_are_the_checks_made_alone(
+        demo: str, monkeypatch: pytest.MonkeyPatch) -> None:
+    """The ``load-transfer`` and ``splitting`` checks of many sites share what their zone
+    and timber set alike; made one by one they are the same checks."""
+    project = load(DEMOS / demo)
+    beam = project.beam
+    assert beam is not None
+    L = beam.layout.length
+    extra = tuple(Load(case="L", type="point", value=90.0 * (k % 5 + 1),
+                       at=L * (k + 0.5) / 30) for k in range(30))
+    project = replace(project, beam=replace(beam, loads=beam.loads + extra))
+    # stations closer together near the left end: zones of several sizes
+    stations = tuple(sorted({round(L * (0.02 + 0.96 * (k / 24) ** 1.6), 6)
+                             for k in range(25)}))
+    bolt = replace(project.design.bolt, stations=stations, stagger=True, rows=3)
+    project = replace(project, design=replace(project.design, bolt=bolt))
+    shared = run(project)
+    alone_split = bolt_checks.splitting_checks
+    alone_zone = bolt_checks._zoned
+    monkeypatch.setattr(bolt_checks, "splitting_checks",
+                        lambda *args: alone_split(*args[:9], None))
+    monkeypatch.setattr(bolt_checks, "_zoned", lambda t, value, f, shared: alone_zone(
+        t, value, f, None))
+    alone = run(project)
+    ids = [c.id for c in shared.checks]
+    assert ids.count("splitting") >= 30 and ids.count("load-transfer") >= 30
+    zones = {(c.fasteners.count, c.fasteners.locations) for c in shared.checks
+             if c.id == "load-transfer" and c.fasteners is not None}
+    assert len(zones) >= 3
+    assert shared.checks == alone.checks
+    assert [c.to_dict() for c in shared.checks] == [c.to_dict() for c in alone.checks]
