@@ -535,7 +535,10 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
     ``elements`` (first, last + 1) limits the search to those elements (a segment).
     """
     e0, e1 = (0, model.lengths.size) if elements is None else elements
-    return _reduce(model, _element_values(model, sols, EIs, e0, e1, [(e0, e1)]), e0, e1)
+    distinct, stiffness, back = _distinct(sols, EIs)
+    ext = _reduce(model, _element_values(model, distinct, stiffness, e0, e1, [(e0, e1)]),
+                  e0, e1)
+    return ext if back is None else [ext[i] for i in back]
 
 
 def extremes_within(model: BeamModel, sols: Sequence[CaseSolution],
@@ -545,9 +548,29 @@ def extremes_within(model: BeamModel, sols: Sequence[CaseSolution],
     last + 1), from one pass over the elements (each element's candidates are its own).
     """
     n = model.lengths.size
-    values = _element_values(model, sols, EIs, 0, n, [(0, n), *ranges])
-    return [_reduce(model, values, 0, n)] + [_reduce(model, values.part(a, b), a, b)
-                                             for a, b in ranges]
+    distinct, stiffness, back = _distinct(sols, EIs)
+    values = _element_values(model, distinct, stiffness, 0, n, [(0, n), *ranges])
+    out = [_reduce(model, values, 0, n)] + [_reduce(model, values.part(a, b), a, b)
+                                            for a, b in ranges]
+    return out if back is None else [[ext[i] for i in back] for ext in out]
+
+
+def _distinct(sols: Sequence[CaseSolution], EIs: Sequence[float] | np.ndarray
+              ) -> tuple[Sequence[CaseSolution], Sequence[float] | np.ndarray, list[int] | None]:
+    """The distinct (solution, EI) pairs of a batch, by their numbers (a batch asks for
+    the same numbers several times: a combination of one case, a total without creep),
+    and the distinct pair each asked one is (None where all are distinct). Every
+    solution's extremes are found from its own numbers alone, so the same numbers have
+    the same extremes.
+    """
+    stiffness = np.asarray(EIs, dtype=float).reshape(-1).tolist()
+    seen: dict[tuple[bytes, int, int, bool, str], int] = {}
+    back = [seen.setdefault((s.data.tobytes(), s._e, s._s, s._w, ei.hex()), len(seen))
+            for s, ei in zip(sols, stiffness, strict=True)]
+    if len(seen) == len(back):
+        return sols, EIs, None
+    first = [back.index(j) for j in range(len(seen))]
+    return [sols[i] for i in first], [stiffness[i] for i in first], back
 
 
 @dataclass(frozen=True, eq=False)
