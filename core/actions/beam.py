@@ -504,10 +504,8 @@ def _real_roots_batched(coeffs: np.ndarray, le: np.ndarray) -> np.ndarray:
     nonzero = scaled != 0
     lead = np.where(nonzero.any(axis=1), np.argmax(nonzero, axis=1), d1)
     degree = d - lead
-    for deg in range(1, d + 1):
+    for deg in sorted({g for g in degree[ok].tolist() if g >= 1}):  # the degrees present
         k = np.flatnonzero(ok & (degree == deg))
-        if k.size == 0:
-            continue
         c = scaled[k, d - deg:]
         if deg == 1:
             roots = (-c[:, 1] / c[:, 0])[:, None].astype(complex)
@@ -647,9 +645,27 @@ def _element_values(model: BeamModel, sols: Sequence[CaseSolution],
     V0, M0, q, dq, wq, wdq, U = _stacked(sols, e0, e1)
     EI = np.asarray(EIs, dtype=float).reshape(k, 1)
     le_k = np.tile(le, k)
-    # moment: element ends and the roots of V = V0 + q x + dq x^2 / 2 inside the element
-    v_roots = _real_roots_batched(
-        np.stack([dq / 2, q, V0], axis=-1).reshape(k * n, 3), le_k).reshape(k, n, 2)
+    v1, t1, v2, t2 = U[:, 0:-2:2], U[:, 1:-2:2], U[:, 2::2], U[:, 3::2]
+    w_c = -w_up_coefficients(v1, t1, v2, t2, wq, wdq, le) / EI[..., None]
+    dw = w_c[..., :5] * np.array([5.0, 4.0, 3.0, 2.0, 1.0])
+    # the roots of V = V0 + q x + dq x^2 / 2 (moment) and of the deflection's derivative
+    # inside each element, in one search (V's rows led by zeros: the same degree)
+    need = (None if searches is None or k * n < 64  # else only where the largest
+            else _needs_roots(w_c, le, _groups(model, e0, e1, searches)).reshape(k * n))
+    v_rows = np.concatenate([np.zeros((k * n, 2)),
+                             np.stack([dq / 2, q, V0], axis=-1).reshape(k * n, 3)], axis=1)
+    w_rows = dw.reshape(k * n, 5)
+    found = _real_roots_batched(
+        np.concatenate([v_rows, w_rows if need is None else w_rows[need]]),
+        np.concatenate([le_k, le_k if need is None else le_k[need]]))
+    v_roots = found[: k * n, :2].reshape(k, n, 2)
+    if need is None:
+        roots = found[k * n :].reshape(k, n, 4)
+    else:  # deflection roots only where the largest deflection of a search can be inside
+        flat = np.full((k * n, 4), np.nan)
+        flat[need] = found[k * n :]
+        roots = flat.reshape(k, n, 4)
+    # moment: element ends and where V = 0 inside the element
     xm = np.concatenate([np.zeros((k, n, 1)), np.broadcast_to(le[:, None], (k, n, 1)),
                          np.nan_to_num(v_roots)], axis=-1)
     ok = np.concatenate([np.ones((k, n, 2), dtype=bool), ~np.isnan(v_roots)], axis=-1)
@@ -664,17 +680,6 @@ def _element_values(model: BeamModel, sols: Sequence[CaseSolution],
     v_all = V0[..., None] + q[..., None] * xv_loc + dq[..., None] * xv_loc**2 / 2
     v = np.where(np.concatenate([np.ones((k, n, 2), dtype=bool), inside[..., None]],
                                 axis=-1), np.abs(v_all), -1.0)
-    v1, t1, v2, t2 = U[:, 0:-2:2], U[:, 1:-2:2], U[:, 2::2], U[:, 3::2]
-    w_c = -w_up_coefficients(v1, t1, v2, t2, wq, wdq, le) / EI[..., None]
-    dw = w_c[..., :5] * np.array([5.0, 4.0, 3.0, 2.0, 1.0])
-    if searches is None or k * n < 64:
-        roots = _real_roots_batched(dw.reshape(k * n, 5), le_k).reshape(k, n, 4)
-    else:  # the roots only where the largest deflection of a search can be inside
-        need = _needs_roots(w_c, le, _groups(model, e0, e1, searches)).reshape(k * n)
-        flat = np.full((k * n, 4), np.nan)
-        if need.any():
-            flat[need] = _real_roots_batched(dw.reshape(k * n, 5)[need], le_k[need])
-        roots = flat.reshape(k, n, 4)
     xw = np.concatenate([np.zeros((k, n, 1)), np.broadcast_to(le[:, None], (k, n, 1)),
                          roots], axis=-1)
     xw_safe = np.nan_to_num(xw)
