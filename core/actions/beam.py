@@ -708,6 +708,11 @@ def _reduce(model: BeamModel, values: _ElementValues, e0: int, e1: int) -> list[
     xv_flat = (x0[None, :, None] + xv_loc).reshape(k, -1)
     m_hi = np.take_along_axis(m.reshape(k, -1), i_max[:, None], axis=1)[:, 0].tolist()
     m_lo = np.take_along_axis(m.reshape(k, -1), i_min[:, None], axis=1)[:, 0].tolist()
+    rows = np.arange(k)  # each solution's value at its own index, all at once
+    x_hi, x_lo = xm_flat[rows, i_max].tolist(), xm_flat[rows, i_min].tolist()
+    v_top, x_v = v[rows, i_v].tolist(), xv_flat[rows, i_v].tolist()
+    w_top = aw.reshape(k, -1)[rows, i_w].tolist()
+    x_w = pos_w.reshape(k, -1)[rows, i_w].tolist()
     for c in range(k):
         m_max, m_min = m_hi[c], m_lo[c]
         scale = max(abs(m_max), abs(m_min), 1e-300)
@@ -716,11 +721,9 @@ def _reduce(model: BeamModel, values: _ElementValues, e0: int, e1: int) -> list[
         if abs(m_min) < 1e-9 * scale:
             m_min = 0.0
         out.append(Extremes(
-            M_max=m_max, x_M_max=float(xm_flat[c, i_max[c]]),
-            M_min=m_min, x_M_min=float(xm_flat[c, i_min[c]]),
-            V_max_abs=float(v[c, i_v[c]]), x_V_max_abs=float(xv_flat[c, i_v[c]]),
-            deflection_max_abs=float(aw[c].reshape(-1)[i_w[c]]),
-            x_deflection_max=float(pos_w[c].reshape(-1)[i_w[c]]),
+            M_max=m_max, x_M_max=x_hi[c], M_min=m_min, x_M_min=x_lo[c],
+            V_max_abs=v_top[c], x_V_max_abs=x_v[c],
+            deflection_max_abs=w_top[c], x_deflection_max=x_w[c],
             deflection_by_region=by_region[c]))
     return out
 

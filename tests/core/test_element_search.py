@@ -1,10 +1,12 @@
 """The element search of the beam's extremes (``actions.beam._element_values``: the
 roots of V and of the deflection's derivative found in one batched search, over the
-degrees present) against that search as it was first written, kept here whole as the
-plain reference (two searches, every degree tried): every candidate array equal bit for
-bit, on the batches the pipeline asks for the demos and for several spans with pattern
-loading, point loads and a plate stopping short, with and without the pruning of the
-deflection roots, and on random polynomials of every degree. Regression guard.
+degrees present) and its reduction (``_reduce``: each solution's values at its indices
+taken at once) against both as they were first written, kept here whole as the plain
+reference (two searches, every degree tried; the values taken one by one): every
+candidate array and every extreme equal bit for bit, on the batches the pipeline asks
+for the demos and for several spans with pattern loading, point loads and a plate
+stopping short, with and without the pruning of the deflection roots, and on random
+polynomials of every degree. Regression guard.
 """
 
 from __future__ import annotations
@@ -22,6 +24,7 @@ from plystack.core.actions import beam as bm
 from plystack.core.actions.beam import (
     BeamModel,
     CaseSolution,
+    Extremes,
     _ElementValues,
     _groups,
     _needs_roots,
@@ -120,6 +123,41 @@ def _element_values_plain(model: BeamModel, sols: Sequence[CaseSolution],
     return _ElementValues(x0, xm, ok, m, xv_loc, v, w, xw_safe)
 
 
+def _reduce_plain(model: BeamModel, values: _ElementValues, e0: int, e1: int) -> list[Extremes]:
+    """The extremes of every solution over the elements ``values`` holds (e0 to e1)."""
+    x0, xm, m, xv_loc = values.x0, values.xm, values.m, values.xv
+    k = m.shape[0]
+    i_max = np.argmax(np.where(values.ok, m, -np.inf).reshape(k, -1), axis=1)
+    i_min = np.argmin(np.where(values.ok, m, np.inf).reshape(k, -1), axis=1)
+    v = values.v.reshape(k, -1)
+    i_v = np.argmax(v, axis=1)
+    w = values.w
+    aw = np.abs(w)
+    i_w = np.argmax(aw.reshape(k, -1), axis=1)
+    pos_w = x0[None, :, None] + values.xw
+    by_region = bm._by_region(model, e0, e1, aw, w, pos_w)
+    out = []
+    xm_flat = (x0[None, :, None] + xm).reshape(k, -1)
+    xv_flat = (x0[None, :, None] + xv_loc).reshape(k, -1)
+    m_hi = np.take_along_axis(m.reshape(k, -1), i_max[:, None], axis=1)[:, 0].tolist()
+    m_lo = np.take_along_axis(m.reshape(k, -1), i_min[:, None], axis=1)[:, 0].tolist()
+    for c in range(k):
+        m_max, m_min = m_hi[c], m_lo[c]
+        scale = max(abs(m_max), abs(m_min), 1e-300)
+        if abs(m_max) < 1e-9 * scale:
+            m_max = 0.0
+        if abs(m_min) < 1e-9 * scale:
+            m_min = 0.0
+        out.append(Extremes(
+            M_max=m_max, x_M_max=float(xm_flat[c, i_max[c]]),
+            M_min=m_min, x_M_min=float(xm_flat[c, i_min[c]]),
+            V_max_abs=float(v[c, i_v[c]]), x_V_max_abs=float(xv_flat[c, i_v[c]]),
+            deflection_max_abs=float(aw[c].reshape(-1)[i_w[c]]),
+            x_deflection_max=float(pos_w[c].reshape(-1)[i_w[c]]),
+            deflection_by_region=by_region[c]))
+    return out
+
+
 def _projects() -> Iterator[tuple[str, Project]]:
     for name, short, at in (("porch-header.plystack.json", ("1 ft", "11 ft"), "5 ft"),
                             ("stair-trimmer-eu.plystack.json", ("0.3 m", "3.3 m"), "2 m")):
@@ -165,6 +203,12 @@ def test_element_search_equals_the_plain_one(name_project: tuple[str, Project]) 
     if n > 1:
         _same(bm._element_values(model, sols, EIs, 1, n, [(1, n)]),
               _element_values_plain(model, sols, EIs, 1, n, [(1, n)]))
+    every = bm._element_values(model, sols, EIs, 0, n, [(0, n)])
+    assert repr(bm._reduce(model, every, 0, n)) == repr(_reduce_plain(model, every, 0, n))
+    for a, b in ((0, max(n // 2, 1)), (max(n // 2, 1), n), (n - 1, n)):
+        if a < b:
+            part = every.part(a, b)
+            assert repr(bm._reduce(model, part, a, b)) == repr(_reduce_plain(model, part, a, b))
 
 
 @pytest.mark.parametrize("seed", range(4))
