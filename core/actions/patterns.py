@@ -170,8 +170,10 @@ def plan(model: BeamModel, parts: RegionParts, factors: Mapping[str, float]) -> 
     significant = np.abs(values) > 1e-9 * np.where(scale > 0, scale, 1.0)
     for sign in (1.0, -1.0):
         chosen = (sign * values > 0) & significant
-        for col in np.unique(chosen.T, axis=0):
-            masks.setdefault(tuple(bool(b) for b in col), None)
+        # the distinct sample columns in the order of numpy's unique rows (lexicographic,
+        # False before True), as tuples of booleans
+        for col in sorted(set(map(tuple, chosen.T.tolist()))):
+            masks.setdefault(col, None)
     return Plan(units, tuple(masks))
 
 
