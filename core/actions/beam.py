@@ -481,9 +481,12 @@ def w_up_coefficients(v1: Any, t1: Any, v2: Any, t2: Any, q: Any, dq: Any,
     a2 = (3 * (v2 - v1) / le - 2 * t1 - t2) / le
     a3 = (2 * (v1 - v2) / le + t1 + t2) / l2
     p = q / 24
-    return np.stack(np.broadcast_arrays(
-        dq / 120, p + 0 * dq, a3 - 2 * le * p - dq * l2 / 40,
-        a2 + le * le * p + dq * l3 / 60, t1 + 0 * q, v1 + 0 * q), axis=-1)
+    columns = (dq / 120, p + 0 * dq, a3 - 2 * le * p - dq * l2 / 40,
+               a2 + le * le * p + dq * l3 / 60, t1 + 0 * q, v1 + 0 * q)
+    out = np.empty((*np.broadcast_shapes(*(np.shape(c) for c in columns)), 6))
+    for j, c in enumerate(columns):  # the columns side by side, as numpy's stack puts them
+        out[..., j] = c
+    return out
 
 
 def _real_roots_batched(coeffs: np.ndarray, le: np.ndarray) -> np.ndarray:
@@ -665,29 +668,41 @@ def _element_values(model: BeamModel, sols: Sequence[CaseSolution],
         flat = np.full((k * n, 4), np.nan)
         flat[need] = found[k * n :]
         roots = flat.reshape(k, n, 4)
-    # moment: element ends and where V = 0 inside the element
-    xm = np.concatenate([np.zeros((k, n, 1)), np.broadcast_to(le[:, None], (k, n, 1)),
-                         np.nan_to_num(v_roots)], axis=-1)
-    ok = np.concatenate([np.ones((k, n, 2), dtype=bool), ~np.isnan(v_roots)], axis=-1)
+    # moment: element ends and where V = 0 inside the element (roots are finite or NaN,
+    # so NaN -> 0 is numpy's nan_to_num of them)
+    no_root = np.isnan(v_roots)
+    xm = _ends_and(le, np.where(no_root, 0.0, v_roots))
+    ok = np.ones((k, n, 4), dtype=bool)
+    ok[..., 2:] = ~no_root
     m = (M0[..., None] + V0[..., None] * xm + q[..., None] * xm**2 / 2
          + dq[..., None] * xm**3 / 6)
     # |V|: element ends and where dV/dx = q + dq x = 0
     with np.errstate(divide="ignore", invalid="ignore"):
         xv_in = np.where(dq != 0, -q / dq, np.nan)
     inside = (xv_in > 0) & (xv_in < le)
-    xv_loc = np.stack([np.zeros((k, n)), np.broadcast_to(le, (k, n)),
-                       np.where(inside, xv_in, 0.0)], axis=-1)
+    xv_loc = _ends_and(le, np.where(inside, xv_in, 0.0)[..., None])
     v_all = V0[..., None] + q[..., None] * xv_loc + dq[..., None] * xv_loc**2 / 2
-    v = np.where(np.concatenate([np.ones((k, n, 2), dtype=bool), inside[..., None]],
-                                axis=-1), np.abs(v_all), -1.0)
-    xw = np.concatenate([np.zeros((k, n, 1)), np.broadcast_to(le[:, None], (k, n, 1)),
-                         roots], axis=-1)
-    xw_safe = np.nan_to_num(xw)
+    candidate = np.ones((k, n, 3), dtype=bool)
+    candidate[..., 2] = inside
+    v = np.where(candidate, np.abs(v_all), -1.0)
+    no_root = np.isnan(roots)
+    xw_safe = _ends_and(le, np.where(no_root, 0.0, roots))
     w = np.zeros_like(xw_safe)
     for j in range(6):
         w = w * xw_safe + w_c[..., j : j + 1]
-    w = np.where(np.isnan(xw), 0.0, w)
+    w[..., 2:] = np.where(no_root, 0.0, w[..., 2:])
     return _ElementValues(x0, xm, ok, m, xv_loc, v, w, xw_safe)
+
+
+def _ends_and(le: np.ndarray, inner: np.ndarray) -> np.ndarray:
+    """Local stations (solutions, elements, 2 + inner): 0, the element's length, then
+    ``inner``.
+    """
+    out = np.empty((*inner.shape[:-1], inner.shape[-1] + 2))
+    out[..., 0] = 0.0
+    out[..., 1] = le
+    out[..., 2:] = inner
+    return out
 
 
 def _reduce(model: BeamModel, values: _ElementValues, e0: int, e1: int) -> list[Extremes]:

@@ -14,6 +14,7 @@ from __future__ import annotations
 import json
 from collections.abc import Iterator, Sequence
 from pathlib import Path
+from typing import Any
 
 import numpy as np
 import pytest
@@ -29,12 +30,30 @@ from plystack.core.actions.beam import (
     _groups,
     _needs_roots,
     _stacked,
-    w_up_coefficients,
 )
 from plystack.core.io.project_file import from_dict
 from plystack.core.model.project import Project
 
 DEMOS = Path(__file__).resolve().parents[2] / "assets" / "demo"
+
+
+def _w_up_plain(v1: Any, t1: Any, v2: Any, t2: Any, q: Any, dq: Any,
+                       le: Any, scalar_powers: bool = False) -> np.ndarray:
+    """Upward deflection times EI in local x, coefficients highest power (x^5) first,
+    on the last axis: Hermite cubic plus the clamped particular solutions
+    q x^2 (L - x)^2 / 24 and dq (x^5 / 120 - L^2 x^3 / 40 + L^3 x^2 / 60).
+    ``scalar_powers``: le^2 and le^3 of arrays taken as a scalar's ``**`` takes them
+    (``float_power``; numpy squares arrays by multiplying, which can differ in the last
+    bit), for the same numbers as element-by-element evaluation.
+    """
+    l2, l3 = ((np.float_power(le, 2), np.float_power(le, 3)) if scalar_powers
+              else (le**2, le**3))
+    a2 = (3 * (v2 - v1) / le - 2 * t1 - t2) / le
+    a3 = (2 * (v1 - v2) / le + t1 + t2) / l2
+    p = q / 24
+    return np.stack(np.broadcast_arrays(
+        dq / 120, p + 0 * dq, a3 - 2 * le * p - dq * l2 / 40,
+        a2 + le * le * p + dq * l3 / 60, t1 + 0 * q, v1 + 0 * q), axis=-1)
 
 
 def _real_roots_plain(coeffs: np.ndarray, le: np.ndarray) -> np.ndarray:
@@ -103,7 +122,7 @@ def _element_values_plain(model: BeamModel, sols: Sequence[CaseSolution],
     v = np.where(np.concatenate([np.ones((k, n, 2), dtype=bool), inside[..., None]],
                                 axis=-1), np.abs(v_all), -1.0)
     v1, t1, v2, t2 = U[:, 0:-2:2], U[:, 1:-2:2], U[:, 2::2], U[:, 3::2]
-    w_c = -w_up_coefficients(v1, t1, v2, t2, wq, wdq, le) / EI[..., None]
+    w_c = -_w_up_plain(v1, t1, v2, t2, wq, wdq, le) / EI[..., None]
     dw = w_c[..., :5] * np.array([5.0, 4.0, 3.0, 2.0, 1.0])
     if searches is None or k * n < 64:
         roots = _real_roots_plain(dw.reshape(k * n, 5), le_k).reshape(k, n, 4)
@@ -223,3 +242,17 @@ def test_roots_of_every_degree_equal_the_plain_search(seed: int) -> None:
     padded = np.concatenate([np.zeros((400, 2)), three], axis=1)
     assert (bm._real_roots_batched(padded, le)[:, :2].tobytes()
             == _real_roots_plain(three, le).tobytes())
+
+
+def test_deflection_coefficients_equal_the_plain_stack() -> None:
+    rng = np.random.default_rng(7)
+    for shape in ((), (7,), (5, 3)):
+        args = [rng.normal(0, 1, shape) * 10.0 ** rng.integers(-6, 6, shape)
+                for _ in range(6)]
+        le = rng.uniform(0.01, 4.0, shape[-1:] if shape else ())
+        for powers in (False, True):
+            got = bm.w_up_coefficients(*args, le, scalar_powers=powers)
+            plain = _w_up_plain(*args, le, scalar_powers=powers)
+            assert got.shape == plain.shape and got.tobytes() == plain.tobytes()
+    floats = [float(v) for v in rng.normal(0, 1, 7)]
+    assert (bm.w_up_coefficients(*floats).tobytes() == _w_up_plain(*floats).tobytes())
