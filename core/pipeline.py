@@ -402,10 +402,18 @@ def _finite_fields(a: Analysis) -> Iterator[tuple[str, object]]:
             yield f"factor {sym} of the {label}", v
 
 
+#: The types of a capacity that :func:`_plainly_finite` reads as a plain number.
+_PLAIN_NUMBER = (float, int)
+
+
 def _plainly_finite(a: Analysis) -> bool:
     """True where every number :func:`_finite_fields` lists is finite and no capacity is
     negative (the same numbers, gathered without naming them; the names are made only
     where one fails).
+
+    The numbers are added up: a sum is finite only where every term is (an infinity or
+    NaN stays in it). A finite sum that overflows answers False, and the named path
+    (which finds every number finite) decides, so the answer is never wrongly True.
     """
     s = a.section
     scalars = [s.EA, s.EI, s.neutral_axis_y, s.I_transformed, s.mass_per_length]
@@ -420,16 +428,23 @@ def _plainly_finite(a: Analysis) -> bool:
                 if e is not None:
                     scalars += [e.M_max, e.M_min, e.V_max_abs, e.deflection_max_abs]
             arrays.append(c.solution.reactions)
-    for k in a.checks:
-        if not (isinstance(k.capacity, float | int) and k.capacity >= 0):
+    checks = a.checks
+    capacities = [k.capacity for k in checks]
+    for capacity in capacities:
+        if not (isinstance(capacity, _PLAIN_NUMBER) and capacity >= 0):
             return False  # negative, NaN or not a plain number: the named path decides
-        scalars += [k.demand, k.capacity, *k.factors.values(), *k.partial_factors.values()]
+    scalars += capacities
+    scalars += [k.demand for k in checks]
+    for k in checks:
+        scalars += k.factors.values()
+        scalars += k.partial_factors.values()
     try:
-        values = np.array(scalars, dtype=float)
+        if not math.isfinite(sum(scalars)):
+            return False
         every = np.concatenate([np.asarray(v, dtype=float).reshape(-1) for v in arrays])
-    except (TypeError, ValueError):
+    except (TypeError, ValueError, OverflowError):
         return False
-    return bool(np.isfinite(values).all()) and bool(np.isfinite(every).all())
+    return bool(np.isfinite(every).all())
 
 
 def _require_finite(a: Analysis) -> None:

@@ -86,8 +86,14 @@ def solve_with_factor(rows: list[list[float]], b: np.ndarray, w: int) -> np.ndar
     """Solve a x = b with the banded Cholesky factor of ``a`` (:func:`cholesky_band`),
     so one factor serves every right-hand side of a matrix.
     """
+    return np.array(solve_list(rows, np.asarray(b, dtype=float).tolist(), w), dtype=float)
+
+
+def solve_list(rows: list[list[float]], rhs: list[float], w: int) -> list[float]:
+    """:func:`solve_with_factor` of a right-hand side given as a list of floats, the
+    solution as a list.
+    """
     n = len(rows)
-    rhs = np.asarray(b, dtype=float).tolist()
     y = [0.0] * n
     for i in range(n):  # L y = b
         row = rows[i]
@@ -101,4 +107,4 @@ def solve_with_factor(rows: list[list[float]], b: np.ndarray, w: int) -> np.ndar
         for r in range(i + 1, min(n, i + w + 1)):
             s -= rows[r][w - r + i] * x[r]
         x[i] = s / rows[i][w]
-    return np.array(x, dtype=float)
+    return x

@@ -31,6 +31,7 @@ import numpy as np
 from ..model.errors import ProjectError
 from ..model.member import MERGE_TOLERANCE, BeamLayout, Load, validate_layout
 from .banded import BEAM_HALF_BANDWIDTH, cholesky_band, solve_with_factor
+from .float_solve import FLOAT_SOLVE_ELEMENTS, FloatMesh, plain_inputs, solve_floats
 
 
 class CaseSolution:
@@ -227,6 +228,12 @@ class BeamModel:
             self._factor = cholesky_band(diagonals, free.size, self._w)
         except np.linalg.LinAlgError:
             self._factor = None  # rounding defeats the banded factor: LU in solve
+        #: The mesh as lists for the solve in floats (a few elements, banded factor).
+        self._floats = (FloatMesh.of(self.nodes, self.lengths, free, self._scale,
+                                     self.support_nodes, layout.support_kinds(),
+                                     self.flexibility, L)
+                        if self._factor is not None
+                        and self.lengths.size <= FLOAT_SOLVE_ELEMENTS else None)
         regions = layout.regions()
         mids = (self.nodes[:-1] + self.nodes[1:]) / 2
         #: The named region (span, overhang) of every element.
@@ -297,12 +304,26 @@ class BeamModel:
     def solve(self, loads: list[Load] | tuple[Load, ...], extra_line: float = 0.0) -> CaseSolution:
         """Solve for the given loads (downward positive) with EI = 1.
 
+        On a mesh of a few elements the same arithmetic is done in plain floats
+        (``float_solve``: the same numbers, quicker than numpy on rows this short).
+
         Args:
             loads: loads of one case (or any set).
             extra_line: a uniform downward line load over the whole member, N/m
                 (self-weight).
 
         """
+        if self._floats is not None and self._factor is not None and plain_inputs(
+                loads, extra_line):
+            data = solve_floats(self._floats, self.K, self._factor, self._w, loads,
+                                extra_line)
+            return CaseSolution._of(data, self.lengths.size, len(self.support_nodes),
+                                    self.flexibility is not None)
+        return self.solve_arrays(loads, extra_line)
+
+    def solve_arrays(self, loads: list[Load] | tuple[Load, ...],
+                     extra_line: float = 0.0) -> CaseSolution:
+        """:meth:`solve` with numpy's arrays, on any mesh."""
         n_el = self.lengths.size
         q_el = np.full(n_el, -float(extra_line))  # upward positive, at each element's start
         dq_el = np.zeros(n_el)  # slope of the upward load along each element
@@ -460,9 +481,12 @@ def w_up_coefficients(v1: Any, t1: Any, v2: Any, t2: Any, q: Any, dq: Any,
     a2 = (3 * (v2 - v1) / le - 2 * t1 - t2) / le
     a3 = (2 * (v1 - v2) / le + t1 + t2) / l2
     p = q / 24
-    return np.stack(np.broadcast_arrays(
-        dq / 120, p + 0 * dq, a3 - 2 * le * p - dq * l2 / 40,
-        a2 + le * le * p + dq * l3 / 60, t1 + 0 * q, v1 + 0 * q), axis=-1)
+    columns = (dq / 120, p + 0 * dq, a3 - 2 * le * p - dq * l2 / 40,
+               a2 + le * le * p + dq * l3 / 60, t1 + 0 * q, v1 + 0 * q)
+    out = np.empty((*np.broadcast_shapes(*(np.shape(c) for c in columns)), 6))
+    for j, c in enumerate(columns):  # the columns side by side, as numpy's stack puts them
+        out[..., j] = c
+    return out
 
 
 def _real_roots_batched(coeffs: np.ndarray, le: np.ndarray) -> np.ndarray:
@@ -483,10 +507,8 @@ def _real_roots_batched(coeffs: np.ndarray, le: np.ndarray) -> np.ndarray:
     nonzero = scaled != 0
     lead = np.where(nonzero.any(axis=1), np.argmax(nonzero, axis=1), d1)
     degree = d - lead
-    for deg in range(1, d + 1):
+    for deg in sorted({g for g in degree[ok].tolist() if g >= 1}):  # the degrees present
         k = np.flatnonzero(ok & (degree == deg))
-        if k.size == 0:
-            continue
         c = scaled[k, d - deg:]
         if deg == 1:
             roots = (-c[:, 1] / c[:, 0])[:, None].astype(complex)
@@ -514,7 +536,10 @@ def extremes_many(model: BeamModel, sols: Sequence[CaseSolution],
     ``elements`` (first, last + 1) limits the search to those elements (a segment).
     """
     e0, e1 = (0, model.lengths.size) if elements is None else elements
-    return _reduce(model, _element_values(model, sols, EIs, e0, e1, [(e0, e1)]), e0, e1)
+    distinct, stiffness, back = _distinct(sols, EIs)
+    ext = _reduce(model, _element_values(model, distinct, stiffness, e0, e1, [(e0, e1)]),
+                  e0, e1)
+    return ext if back is None else [ext[i] for i in back]
 
 
 def extremes_within(model: BeamModel, sols: Sequence[CaseSolution],
@@ -524,9 +549,29 @@ def extremes_within(model: BeamModel, sols: Sequence[CaseSolution],
     last + 1), from one pass over the elements (each element's candidates are its own).
     """
     n = model.lengths.size
-    values = _element_values(model, sols, EIs, 0, n, [(0, n), *ranges])
-    return [_reduce(model, values, 0, n)] + [_reduce(model, values.part(a, b), a, b)
-                                             for a, b in ranges]
+    distinct, stiffness, back = _distinct(sols, EIs)
+    values = _element_values(model, distinct, stiffness, 0, n, [(0, n), *ranges])
+    out = [_reduce(model, values, 0, n)] + [_reduce(model, values.part(a, b), a, b)
+                                            for a, b in ranges]
+    return out if back is None else [[ext[i] for i in back] for ext in out]
+
+
+def _distinct(sols: Sequence[CaseSolution], EIs: Sequence[float] | np.ndarray
+              ) -> tuple[Sequence[CaseSolution], Sequence[float] | np.ndarray, list[int] | None]:
+    """The distinct (solution, EI) pairs of a batch, by their numbers (a batch asks for
+    the same numbers several times: a combination of one case, a total without creep),
+    and the distinct pair each asked one is (None where all are distinct). Every
+    solution's extremes are found from its own numbers alone, so the same numbers have
+    the same extremes.
+    """
+    stiffness = np.asarray(EIs, dtype=float).reshape(-1).tolist()
+    seen: dict[tuple[bytes, int, int, bool, str], int] = {}
+    back = [seen.setdefault((s.data.tobytes(), s._e, s._s, s._w, ei.hex()), len(seen))
+            for s, ei in zip(sols, stiffness, strict=True)]
+    if len(seen) == len(back):
+        return sols, EIs, None
+    first = [back.index(j) for j in range(len(seen))]
+    return [sols[i] for i in first], [stiffness[i] for i in first], back
 
 
 @dataclass(frozen=True, eq=False)
@@ -603,42 +648,61 @@ def _element_values(model: BeamModel, sols: Sequence[CaseSolution],
     V0, M0, q, dq, wq, wdq, U = _stacked(sols, e0, e1)
     EI = np.asarray(EIs, dtype=float).reshape(k, 1)
     le_k = np.tile(le, k)
-    # moment: element ends and the roots of V = V0 + q x + dq x^2 / 2 inside the element
-    v_roots = _real_roots_batched(
-        np.stack([dq / 2, q, V0], axis=-1).reshape(k * n, 3), le_k).reshape(k, n, 2)
-    xm = np.concatenate([np.zeros((k, n, 1)), np.broadcast_to(le[:, None], (k, n, 1)),
-                         np.nan_to_num(v_roots)], axis=-1)
-    ok = np.concatenate([np.ones((k, n, 2), dtype=bool), ~np.isnan(v_roots)], axis=-1)
+    v1, t1, v2, t2 = U[:, 0:-2:2], U[:, 1:-2:2], U[:, 2::2], U[:, 3::2]
+    w_c = -w_up_coefficients(v1, t1, v2, t2, wq, wdq, le) / EI[..., None]
+    dw = w_c[..., :5] * np.array([5.0, 4.0, 3.0, 2.0, 1.0])
+    # the roots of V = V0 + q x + dq x^2 / 2 (moment) and of the deflection's derivative
+    # inside each element, in one search (V's rows led by zeros: the same degree)
+    need = (None if searches is None or k * n < 64  # else only where the largest
+            else _needs_roots(w_c, le, _groups(model, e0, e1, searches)).reshape(k * n))
+    v_rows = np.concatenate([np.zeros((k * n, 2)),
+                             np.stack([dq / 2, q, V0], axis=-1).reshape(k * n, 3)], axis=1)
+    w_rows = dw.reshape(k * n, 5)
+    found = _real_roots_batched(
+        np.concatenate([v_rows, w_rows if need is None else w_rows[need]]),
+        np.concatenate([le_k, le_k if need is None else le_k[need]]))
+    v_roots = found[: k * n, :2].reshape(k, n, 2)
+    if need is None:
+        roots = found[k * n :].reshape(k, n, 4)
+    else:  # deflection roots only where the largest deflection of a search can be inside
+        flat = np.full((k * n, 4), np.nan)
+        flat[need] = found[k * n :]
+        roots = flat.reshape(k, n, 4)
+    # moment: element ends and where V = 0 inside the element (roots are finite or NaN,
+    # so NaN -> 0 is numpy's nan_to_num of them)
+    no_root = np.isnan(v_roots)
+    xm = _ends_and(le, np.where(no_root, 0.0, v_roots))
+    ok = np.ones((k, n, 4), dtype=bool)
+    ok[..., 2:] = ~no_root
     m = (M0[..., None] + V0[..., None] * xm + q[..., None] * xm**2 / 2
          + dq[..., None] * xm**3 / 6)
     # |V|: element ends and where dV/dx = q + dq x = 0
     with np.errstate(divide="ignore", invalid="ignore"):
         xv_in = np.where(dq != 0, -q / dq, np.nan)
     inside = (xv_in > 0) & (xv_in < le)
-    xv_loc = np.stack([np.zeros((k, n)), np.broadcast_to(le, (k, n)),
-                       np.where(inside, xv_in, 0.0)], axis=-1)
+    xv_loc = _ends_and(le, np.where(inside, xv_in, 0.0)[..., None])
     v_all = V0[..., None] + q[..., None] * xv_loc + dq[..., None] * xv_loc**2 / 2
-    v = np.where(np.concatenate([np.ones((k, n, 2), dtype=bool), inside[..., None]],
-                                axis=-1), np.abs(v_all), -1.0)
-    v1, t1, v2, t2 = U[:, 0:-2:2], U[:, 1:-2:2], U[:, 2::2], U[:, 3::2]
-    w_c = -w_up_coefficients(v1, t1, v2, t2, wq, wdq, le) / EI[..., None]
-    dw = w_c[..., :5] * np.array([5.0, 4.0, 3.0, 2.0, 1.0])
-    if searches is None or k * n < 64:
-        roots = _real_roots_batched(dw.reshape(k * n, 5), le_k).reshape(k, n, 4)
-    else:  # the roots only where the largest deflection of a search can be inside
-        need = _needs_roots(w_c, le, _groups(model, e0, e1, searches)).reshape(k * n)
-        flat = np.full((k * n, 4), np.nan)
-        if need.any():
-            flat[need] = _real_roots_batched(dw.reshape(k * n, 5)[need], le_k[need])
-        roots = flat.reshape(k, n, 4)
-    xw = np.concatenate([np.zeros((k, n, 1)), np.broadcast_to(le[:, None], (k, n, 1)),
-                         roots], axis=-1)
-    xw_safe = np.nan_to_num(xw)
+    candidate = np.ones((k, n, 3), dtype=bool)
+    candidate[..., 2] = inside
+    v = np.where(candidate, np.abs(v_all), -1.0)
+    no_root = np.isnan(roots)
+    xw_safe = _ends_and(le, np.where(no_root, 0.0, roots))
     w = np.zeros_like(xw_safe)
     for j in range(6):
         w = w * xw_safe + w_c[..., j : j + 1]
-    w = np.where(np.isnan(xw), 0.0, w)
+    w[..., 2:] = np.where(no_root, 0.0, w[..., 2:])
     return _ElementValues(x0, xm, ok, m, xv_loc, v, w, xw_safe)
+
+
+def _ends_and(le: np.ndarray, inner: np.ndarray) -> np.ndarray:
+    """Local stations (solutions, elements, 2 + inner): 0, the element's length, then
+    ``inner``.
+    """
+    out = np.empty((*inner.shape[:-1], inner.shape[-1] + 2))
+    out[..., 0] = 0.0
+    out[..., 1] = le
+    out[..., 2:] = inner
+    return out
 
 
 def _reduce(model: BeamModel, values: _ElementValues, e0: int, e1: int) -> list[Extremes]:
@@ -659,6 +723,11 @@ def _reduce(model: BeamModel, values: _ElementValues, e0: int, e1: int) -> list[
     xv_flat = (x0[None, :, None] + xv_loc).reshape(k, -1)
     m_hi = np.take_along_axis(m.reshape(k, -1), i_max[:, None], axis=1)[:, 0].tolist()
     m_lo = np.take_along_axis(m.reshape(k, -1), i_min[:, None], axis=1)[:, 0].tolist()
+    rows = np.arange(k)  # each solution's value at its own index, all at once
+    x_hi, x_lo = xm_flat[rows, i_max].tolist(), xm_flat[rows, i_min].tolist()
+    v_top, x_v = v[rows, i_v].tolist(), xv_flat[rows, i_v].tolist()
+    w_top = aw.reshape(k, -1)[rows, i_w].tolist()
+    x_w = pos_w.reshape(k, -1)[rows, i_w].tolist()
     for c in range(k):
         m_max, m_min = m_hi[c], m_lo[c]
         scale = max(abs(m_max), abs(m_min), 1e-300)
@@ -667,11 +736,9 @@ def _reduce(model: BeamModel, values: _ElementValues, e0: int, e1: int) -> list[
         if abs(m_min) < 1e-9 * scale:
             m_min = 0.0
         out.append(Extremes(
-            M_max=m_max, x_M_max=float(xm_flat[c, i_max[c]]),
-            M_min=m_min, x_M_min=float(xm_flat[c, i_min[c]]),
-            V_max_abs=float(v[c, i_v[c]]), x_V_max_abs=float(xv_flat[c, i_v[c]]),
-            deflection_max_abs=float(aw[c].reshape(-1)[i_w[c]]),
-            x_deflection_max=float(pos_w[c].reshape(-1)[i_w[c]]),
+            M_max=m_max, x_M_max=x_hi[c], M_min=m_min, x_M_min=x_lo[c],
+            V_max_abs=v_top[c], x_V_max_abs=x_v[c],
+            deflection_max_abs=w_top[c], x_deflection_max=x_w[c],
             deflection_by_region=by_region[c]))
     return out
 

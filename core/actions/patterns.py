@@ -17,7 +17,7 @@ Reactions are enveloped exactly, support by support.
 from __future__ import annotations
 
 from collections.abc import Mapping, Sequence
-from dataclasses import dataclass, replace
+from dataclasses import dataclass, field, replace
 
 import numpy as np
 
@@ -58,11 +58,16 @@ class RegionParts:
     Attributes:
         names: region labels ("span 1", "overhang left", ...).
         parts: per patterned case, its solution on each region (None: no load there).
+        model: the mesh the parts are solved on (None where not given).
+        samples: per patterned case, the samples of each region's part on ``model``
+            (:func:`_samples`, made once for every plan of the member).
 
     """
 
     names: tuple[str, ...]
     parts: Mapping[str, tuple[CaseSolution | None, ...]]
+    model: BeamModel | None = None
+    samples: Mapping[str, tuple[np.ndarray | None, ...]] = field(default_factory=dict)
 
     def part(self, unit: Unit) -> CaseSolution:
         """The solution of one unit's part (units only exist where there is a load)."""
@@ -70,6 +75,14 @@ class RegionParts:
         if sol is None:
             raise ValueError(f"no load of case {unit.case} on {self.names[unit.region]}")
         return sol
+
+    def sampled(self, model: BeamModel, unit: Unit) -> np.ndarray:
+        """:func:`_samples` of one unit's part on ``model`` (the samples made with the
+        parts where they are of this model).
+        """
+        held = self.samples.get(unit.case) if model is self.model else None
+        found = held[unit.region] if held is not None else None
+        return found if found is not None else _samples(model, self.part(unit))
 
 
 def region_parts(model: BeamModel, spec: BeamSpec, cases: Sequence[str]) -> RegionParts:
@@ -85,7 +98,9 @@ def region_parts(model: BeamModel, spec: BeamSpec, cases: Sequence[str]) -> Regi
                     if (c := clipped(ld, x0, x1, length, r == len(regions) - 1)) is not None]
             per.append(model.solve(mine) if mine else None)
         parts[case] = tuple(per)
-    return RegionParts(tuple(n for n, _, _ in regions), parts)
+    samples = {c: tuple(None if sol is None else _read_only(_samples(model, sol))
+                        for sol in per) for c, per in parts.items()}
+    return RegionParts(tuple(n for n, _, _ in regions), parts, model, samples)
 
 
 @dataclass(frozen=True)
@@ -117,6 +132,11 @@ class Plan:
         return [names[r] for r in sorted(loaded)]
 
 
+def _read_only(a: np.ndarray) -> np.ndarray:
+    a.setflags(write=False)
+    return a
+
+
 def _samples(model: BeamModel, sol: CaseSolution) -> np.ndarray:
     """Moment, shear and deflection (EI = 1) at the sample points of every element (the
     elements' polynomials by Horner's rule, all elements at once).
@@ -144,14 +164,16 @@ def plan(model: BeamModel, parts: RegionParts, factors: Mapping[str, float]) -> 
                   for r, sol in enumerate(parts.parts[c]) if sol is not None)
     if not units:
         return Plan((), ((),))
-    values = np.stack([u.factor * _samples(model, parts.part(u)) for u in units])
+    values = np.stack([u.factor * parts.sampled(model, u) for u in units])
     masks: dict[tuple[bool, ...], None] = {tuple([True] * len(units)): None}
     scale = np.abs(values).max(axis=0, initial=0.0)
     significant = np.abs(values) > 1e-9 * np.where(scale > 0, scale, 1.0)
     for sign in (1.0, -1.0):
         chosen = (sign * values > 0) & significant
-        for col in np.unique(chosen.T, axis=0):
-            masks.setdefault(tuple(bool(b) for b in col), None)
+        # the distinct sample columns in the order of numpy's unique rows (lexicographic,
+        # False before True), as tuples of booleans
+        for col in sorted(set(map(tuple, chosen.T.tolist()))):
+            masks.setdefault(col, None)
     return Plan(units, tuple(masks))
 
 

@@ -156,10 +156,26 @@ def polygon_moments(geom: BaseGeometry) -> PolygonMoments:
 
 def rectangle_moments(ply: Ply) -> PolygonMoments:
     """:func:`polygon_moments` of the ply's whole rectangle, without building it: the
-    counter-clockwise ring a box has (from its lower right corner), the same arithmetic.
+    counter-clockwise ring a box has (from its lower right corner), the same arithmetic
+    in plain floats (:func:`_shoelace` of that ring: each of its four edges' terms as the
+    arrays hold them, added from zero one by one as numpy sums four numbers).
     """
     x0, x1, y0, y1 = ply.x, ply.x + ply.width, ply.y, ply.top
-    return _shoelace([np.array([[x1, y0], [x1, y1], [x0, y1], [x0, y0], [x1, y0]])])
+    return _box_shoelace((x1, x1, x0, x0), (y0, y1, y1, y0), (x1, x0, x0, x1),
+                         (y1, y1, y0, y0))
+
+
+def _box_shoelace(xa: tuple[float, ...], ya: tuple[float, ...], xb: tuple[float, ...],
+                  yb: tuple[float, ...]) -> PolygonMoments:
+    """:func:`_shoelace` of one ring of four edges from (xa, ya) to (xb, yb)."""
+    area = sy = iy = sx = 0.0
+    for k in range(4):
+        cross = xa[k] * yb[k] - xb[k] * ya[k]
+        area += cross
+        sy += cross * (ya[k] + yb[k])
+        sx += cross * (xa[k] + xb[k])
+        iy += cross * (ya[k] * ya[k] + ya[k] * yb[k] + yb[k] * yb[k])
+    return PolygonMoments(0.0 + area / 2, 0.0 + sy / 6, 0.0 + iy / 12, 0.0 + sx / 6)
 
 
 def rectangle_profile(ply: Ply) -> WidthProfile:

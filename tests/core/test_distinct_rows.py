@@ -1,0 +1,76 @@
+"""The extremes of a batch are found once for each distinct (solution, EI) pair
+(``actions.beam._distinct``): equal, bit for bit, to those found for every solution
+asked (``_element_values`` and ``_reduce`` of the whole batch), on the batches the
+pipeline asks for the demos, on several spans with pattern loading, point loads and a
+plate stopping short, whole and segment by segment. Regression guard: the reference is
+the module's own search over every row.
+"""
+
+from __future__ import annotations
+
+import json
+from collections.abc import Iterator
+from pathlib import Path
+
+import numpy as np
+import pytest
+
+from plystack.core import pipeline
+from plystack.core.actions import analysis as an
+from plystack.core.actions import beam as bm
+from plystack.core.io.project_file import from_dict
+from plystack.core.model.project import Project
+
+DEMOS = Path(__file__).resolve().parents[2] / "assets" / "demo"
+
+
+def _projects() -> Iterator[tuple[str, Project]]:
+    for name, short, at in (("porch-header.plystack.json", ("1 ft", "11 ft"), "5 ft"),
+                            ("stair-trimmer-eu.plystack.json", ("0.3 m", "3.3 m"), "2 m")):
+        base = json.loads((DEMOS / name).read_text(encoding="utf-8"))
+        for spans in (1, 2, 3, 5):
+            for variant in ("plain", "short", "points"):
+                data = json.loads(json.dumps(base))
+                data["beam"]["spans"] = data["beam"]["spans"] * spans
+                if variant == "short":
+                    data["plies"][1].update({"from": short[0], "to": short[1]})
+                if variant == "points":
+                    data["beam"]["loads"].append({"case": "L", "type": "point",
+                                                  "value": "900 N", "at": at})
+                yield f"{name}-{spans}-{variant}", from_dict(data)
+
+
+def _batch(project: Project) -> tuple[bm.BeamModel, list[bm.CaseSolution], list[float]]:
+    ev = pipeline.Evaluator(project)
+    assert ev.beam is not None
+    section = ev.section(project.plies)
+    batch = an._Batch()
+    an._ask_section(ev.beam, section, ev.design, batch, defer=True)
+    return ev.beam.model, batch.solutions, batch.stiffness
+
+
+@pytest.mark.parametrize("name_project", list(_projects()), ids=lambda np_: np_[0])
+def test_distinct_rows_give_every_row_its_extremes(
+        name_project: tuple[str, Project]) -> None:
+    _, project = name_project
+    model, sols, EIs = _batch(project)
+    n = model.lengths.size
+    _, _, back = bm._distinct(sols, EIs)
+    assert back is not None  # the batch does ask for some numbers twice
+    every = bm._element_values(model, sols, EIs, 0, n, [(0, n)])
+    assert repr(bm.extremes_many(model, sols, EIs)) == repr(bm._reduce(model, every, 0, n))
+    ranges = [(0, max(n // 2, 1)), (max(n // 2, 1), n)]
+    every = bm._element_values(model, sols, EIs, 0, n, [(0, n), *ranges])
+    expected = [bm._reduce(model, every, 0, n)] + [
+        bm._reduce(model, every.part(a, b), a, b) for a, b in ranges]
+    assert repr(bm.extremes_within(model, sols, EIs, ranges)) == repr(expected)
+
+
+def test_distinct_tells_signed_zero_and_layouts_apart() -> None:
+    model, sols, _ = _batch(next(iter(_projects()))[1])
+    s = sols[0]
+    distinct, stiffness, back = bm._distinct([s, s, s.scaled(1.0), s], [2.0, 2.0, 2.0, 3.0])
+    assert back == [0, 0, 0, 1] and list(stiffness) == [2.0, 3.0]
+    _, _, back = bm._distinct([s, s], np.array([0.0, -0.0]))
+    assert back is None
+    assert bm._distinct([s, s._with_deflection_loads()], [1.0, 1.0])[2] is None
