@@ -570,3 +570,45 @@ def test_dragging_a_ply_end_keeps_the_elevation_what_a_full_redraw_makes(qtbot, 
     settle(qtbot, w)
     assert w.document.project.plies[1].end != before.plies[1].end  # the end moved
     assert view.drawing.parts_drawn["lanes"] > 1  # the bars followed the drag
+
+
+def test_clicking_another_ply_draws_both_outlines_as_a_full_redraw(window, qtbot):
+    """The outline of the ply that loses the selection is drawn again although the ply
+    did not change (real clicks on the canvas's viewport).
+    """
+    settle(qtbot, window)
+    c = window.canvas
+    for index in (1, 0, 2, 1):
+        ply = window.document.project.plies[index]
+        QTest.mouseClick(c.viewport(), LEFT, NONE, c.mapFromScene(QPointF(
+            (ply.x + ply.width / 2) * 1000, -(ply.y + ply.height * 0.3) * 1000)))
+        settle(qtbot, window)
+        assert c.selected == index
+        kept = scene_state(c)
+        redrawn_in_full(window)
+        assert kept == scene_state(c), index
+
+
+def test_a_cell_takes_a_value_of_another_type_or_the_next_float(qtbot):
+    """The cells remembered compare values by type and to the bit: 2.5 then the next
+    float, None, a text, None, another float, with the same text, each reach the item
+    (Qt's own comparison takes 3.0 and "3.0" for the same, so the test keeps clear of it).
+    """
+    from plystack.app.results import ShownCells
+
+    table = QTableWidget(0, 2)
+    qtbot.addWidget(table)
+    cells = ShownCells(table)
+    cells.shape(1)
+    role = Qt.ItemDataRole.UserRole
+    for value in (2.5, 2.5000000000000004, None, "a place", None, 3.0):
+        cells.put(0, 0, "same text", value)
+        got = table.item(0, 0).data(role)
+        assert (type(got), got) == (type(value), value)
+    put = cells.cells_put
+    cells.put(0, 0, "same text", 3.0)
+    assert cells.cells_put == put  # the same text and value: Qt is not asked
+    cells.shape(0)
+    cells.shape(1)  # the row went and came back: its cell is made again
+    cells.put(0, 0, "same text", 3.0)
+    assert (table.item(0, 0).text(), table.item(0, 0).data(role)) == ("same text", 3.0)
