@@ -139,6 +139,15 @@ def test_after_a_drag_the_window_shows_what_a_fresh_window_shows(window, qtbot, 
     assert canvas_texts(window) == canvas_texts(fresh)
     assert cell_state(window.results.checks) == cell_state(fresh.results.checks)
     assert scene_state(window.elevation) == scene_state(fresh.elevation)
+    for w in (window, fresh):  # the reactions, filled once their tab is shown
+        assert not w.beam_panel.isVisible()
+        w.beam_panel.parentWidget().parentWidget().setCurrentWidget(w.beam_panel)
+        settle(qtbot, w)
+    reactions = window.beam_panel.reactions
+    assert reactions.rowCount() > 0
+    assert cell_state(reactions) == cell_state(fresh.beam_panel.reactions)
+    assert [reactions.columnWidth(c) for c in range(reactions.columnCount())] == [
+        fresh.beam_panel.reactions.columnWidth(c) for c in range(reactions.columnCount())]
     assert [(type(i).__name__, i.data(0)) for i in window.elevation.scene().items(
         Qt.SortOrder.AscendingOrder)] == [(type(i).__name__, i.data(0)) for i in
                                           fresh.elevation.scene().items(
