@@ -167,7 +167,7 @@ class ShownCells:
 
 def _same(a: object, b: object) -> bool:
     """Values of the same type, equal to the bit (-0.0 is not 0.0; a NaN is never the
-    same, so its cell is set again).
+    same, so its cell is handed to Qt again, as ``_put`` alone would).
     """
     if type(a) is not type(b):
         return False
