@@ -421,8 +421,7 @@ class ResultsPanel(QWidget):
             return
         gov = rows[0]
         overall = a.verdict
-        if overall == "OK" and any(verdict_of(float(c.ratio), c.ok, amber) == "INCOMPLETE"
-                                   for c in a.checks):
+        if overall == "OK" and any(math.isnan(c.ratio) for c in a.checks):  # INCOMPLETE
             overall = "INCOMPLETE"
         elif overall == "OK":
             overall = verdict_of(float(gov.ratio), True, amber)

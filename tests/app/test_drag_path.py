@@ -621,3 +621,15 @@ def test_a_cell_takes_a_value_of_another_type_or_the_next_float(qtbot):
     cells.shape(1)  # the row went and came back: its cell is made again
     cells.put(0, 0, "same text", 3.0)
     assert (table.item(0, 0).text(), table.item(0, 0).data(role)) == ("same text", 3.0)
+
+
+@pytest.mark.parametrize("ratio", [0.0, -0.0, 0.5, 0.95, 1.0, 1.5, math.inf, math.nan,
+                                   np.float64(0.7), np.float64(math.nan)])
+def test_the_verdict_finds_incomplete_checks_as_the_verdict_text_does(ratio):
+    """The overall verdict looks for a ratio that is not a number directly: the same
+    answer as asking each check's verdict text for INCOMPLETE.
+    """
+    from plystack.app.results import verdict_of
+
+    for ok in (True, False):
+        assert math.isnan(ratio) == (verdict_of(float(ratio), ok, 0.9) == "INCOMPLETE")
