@@ -120,7 +120,7 @@ class ShownCells:
     again.
 
     Every fill of the table goes through here (``shape``, ``put``, ``row_look``); a row
-    or column the table drops is forgotten with it, so a cell made again is set in full.
+    the table drops is forgotten with it, so a cell made again is set in full.
     """
 
     def __init__(self, table: QTableWidget) -> None:
