@@ -10,7 +10,7 @@ from __future__ import annotations
 from dataclasses import replace
 
 from PySide6.QtCore import Qt, Signal
-from PySide6.QtGui import QColor
+from PySide6.QtGui import QColor, QShowEvent
 from PySide6.QtWidgets import (
     QCheckBox,
     QComboBox,
@@ -173,6 +173,7 @@ class BeamPanel(QWidget):
         self.error = plain_label("")
         self.error.setStyleSheet("color: #b00000")
         self.reactions = QTableWidget(0, 0)
+        self._reactions_pending = False  # an analysis came while the panel was hidden
         self.reactions.verticalHeader().setVisible(False)
         self.reactions.setMinimumHeight(140)
         self.reactions.setEditTriggers(QTableWidget.EditTrigger.NoEditTriggers)
@@ -367,7 +368,13 @@ class BeamPanel(QWidget):
 
     @guarded("Showing the reactions")
     def show_reactions(self) -> None:
-        """Reactions at every support for each load case and each combination."""
+        """Reactions at every support for each load case and each combination; while the
+        panel is hidden (its tab not on top) they are filled once it is shown.
+        """
+        if not self.isVisible():
+            self._reactions_pending = True
+            return
+        self._reactions_pending = False
         a = self.analysis.analysis if self.analysis is not None else None
         if a is None or a.beam is None:
             self.reactions.setRowCount(0)
@@ -393,6 +400,11 @@ class BeamPanel(QWidget):
                 self._put_reaction(r, col, text, value)
         if not self.document.dragging:  # widths hold still during a drag
             self.reactions.resizeColumnsToContents()
+
+    def showEvent(self, event: QShowEvent) -> None:  # noqa: D102 - Qt API
+        super().showEvent(event)
+        if self._reactions_pending:
+            self.show_reactions()
 
     def _put_reaction(self, row: int, col: int, text: str, value: object) -> None:
         """One cell of the reactions in place (only what changed is set)."""

@@ -85,6 +85,9 @@ class SectionCanvas(QGraphicsView):
         self._nudge_key: str | None = None
         self._dimensions: dict[int, QGraphicsRectItem] = {}
         self._slots = Slots(self.scene())
+        # what each ply's items were drawn from (items, ply, kind, selected, geometry)
+        self._ply_drawn: dict[int, tuple] = {}  # type: ignore[type-arg]
+        self.plies_drawn = 0  # plies whose items were set (for tests)
         self._grid_key: tuple[str, float] | None = None
         # the grid is drawn once per view (zoom, units, size; a pan shifts it), not on
         # every redraw
@@ -232,14 +235,29 @@ class SectionCanvas(QGraphicsView):
         return list(seg), section
 
     def _draw_ply(self, i: int, geom, kind: str, clipped: bool, ply) -> None:  # type: ignore[no-untyped-def]
+        back = self._slots.get(("back", i), QGraphicsPathItem)
+        item = self._slots.get(("ply", i), QGraphicsPathItem)
+        ghost = self._slots.get(("ghost", i), QGraphicsRectItem) if clipped else None
+        selected = i == self.selected
+        kept = self._ply_drawn.pop(i, None)
+        if kept is not None and kept[0] is back and kept[1] is item and kept[2] is ghost and (
+                kept[3] is ply and kept[4:6] == (kind, selected)
+                and kept[6].equals_exact(geom, 0.0)):
+            self._ply_drawn[i] = kept  # these items show this ply's outline already
+            return
+        self._draw_ply_items(back, item, ghost, i, geom, kind, ply)
+        self.plies_drawn += 1
+        self._ply_drawn[i] = (back, item, ghost, ply, kind, selected, geom)
+
+    def _draw_ply_items(self, back: QGraphicsPathItem, item: QGraphicsPathItem,  # type: ignore[no-untyped-def]
+                        ghost: QGraphicsRectItem | None, i: int, geom, kind: str,
+                        ply) -> None:
         color, style, line = FILLS.get(kind, FILLS["other"])
         path = geometry_path(geom)
-        back = self._slots.get(("back", i), QGraphicsPathItem)
         back.setPath(path)
         back.setBrush(QBrush(color))
         back.setPen(QPen(Qt.PenStyle.NoPen))
         back.setZValue(2 * i)
-        item = self._slots.get(("ply", i), QGraphicsPathItem)
         item.setPath(path)
         item.setBrush(QBrush(line if style != Qt.BrushStyle.SolidPattern else color, style))
         pen = QPen(QColor(0, 90, 200) if i == self.selected else QColor(20, 20, 20), 0)
@@ -248,8 +266,7 @@ class SectionCanvas(QGraphicsView):
         item.setPen(pen)
         item.setZValue(2 * i + 1)
         item.setData(0, i)
-        if clipped:  # dashed outline of the uncut rectangle where the ply is clipped
-            ghost = self._slots.get(("ghost", i), QGraphicsRectItem)
+        if ghost is not None:  # dashed outline of the uncut rectangle where the ply is clipped
             ghost.setRect(self._rect(ply))
             gp = QPen(QColor(120, 120, 120), 0, Qt.PenStyle.DotLine)
             gp.setCosmetic(True)

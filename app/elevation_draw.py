@@ -6,7 +6,8 @@ each item's geometry, text and tooltip, so a drag moves items instead of rebuild
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections import Counter
+from collections.abc import Callable, Sequence
 
 from PySide6.QtCore import QPointF, QRectF, Qt
 from PySide6.QtGui import QBrush, QColor, QPen, QPolygonF
@@ -94,6 +95,9 @@ class ElevationDrawing:
         self.bars = Pool(scene, _rect_item)
         self.grips = Pool(scene, _rect_item)
         self.bar_labels = Pool(scene, Label)
+        self._drawn: dict[str, tuple[tuple[object, ...], tuple[object, ...]]] = {}
+        self._member_drawn: dict[int, tuple[object, ...]] = {}
+        self.parts_drawn: Counter[str] = Counter()  # parts drawn again (for tests)
         self.station_label = Label()
         self.station_label.setZValue(90)
         self.station_label.setVisible(False)
@@ -107,13 +111,36 @@ class ElevationDrawing:
                          self.arrows, self.load_labels, self.bolt_items, self.rings, self.dims,
                          self.dim_labels, self.bars, self.grips, self.bar_labels):
                 pool.sized(0)
+            self._drawn.clear()
+            self._member_drawn.clear()
             return
+        beam, u = project.beam, project.display_units
         self._member(project, frame)
         self._openings(project, frame)
-        self._supports(project, frame)
-        self._loads(project, frame)
-        self._bolts(project, frame, bolts)
-        self._lanes(project, frame)
+        self._part("supports", (beam.layout,), (frame, u), lambda: self._supports(project, frame))
+        self._part("loads", (beam,), (frame, u), lambda: self._loads(project, frame))
+        self._part("bolts", (), (repr(tuple(bolts)), frame, u),
+                   lambda: self._bolts(project, frame, bolts))
+        mats = project.all_materials()
+        lanes = tuple((p.name, p.material, repr(p.start), repr(p.end),
+                       mats[p.material].kind if p.material in mats else "other")
+                      for p in project.plies)
+        self._part("lanes", (), (lanes, frame, u), lambda: self._lanes(project, frame))
+
+    def _part(self, part: str, objects: tuple[object, ...], values: tuple[object, ...],
+              draw: Callable[[], None]) -> None:
+        """Draw ``part`` unless it was drawn last from the same objects (compared by
+        identity: a frozen object kept is the same content) and equal values (a float
+        that reaches a text is compared through its repr, which tells -0.0 from 0.0).
+        """
+        kept = self._drawn.pop(part, None)  # forgotten while drawing: a failed draw redraws
+        if kept is not None and len(kept[0]) == len(objects) and all(
+                a is b for a, b in zip(kept[0], objects, strict=True)) and kept[1] == values:
+            self._drawn[part] = kept
+            return
+        draw()
+        self._drawn[part] = (objects, values)
+        self.parts_drawn[part] += 1
 
     # --- the member --------------------------------------------------------------------
 
@@ -123,10 +150,16 @@ class ElevationDrawing:
         order = sorted(range(len(project.plies)), key=lambda i: (
             mats[project.plies[i].material].kind == "steel"
             if project.plies[i].material in mats else False))
+        kept, self._member_drawn = self._member_drawn, {}
         for z, i in enumerate(order):
             ply, item = project.plies[i], items[i]
-            a, b = ply.extent(f.length)
             kind = mats[ply.material].kind if ply.material in mats else "other"
+            drawn = kept.get(i)  # this item drawn from this ply (the same object) alike
+            if drawn is not None and drawn[0] is item and drawn[1] is ply and (
+                    drawn[2:] == (kind, z, f)):
+                self._member_drawn[i] = drawn
+                continue
+            a, b = ply.extent(f.length)
             top, bottom = f.y_px(ply.top), f.y_px(ply.y)
             item.setRect(QRectF(f.x_px(a), top, f.x_px(b) - f.x_px(a), bottom - top))
             color = FILLS.get(kind, FILLS["other"])[0]
@@ -138,6 +171,7 @@ class ElevationDrawing:
                 item.setPen(pen(QColor(120, 90, 50), 1.0))
             item.setZValue(1 + z * 0.01)
             item.setToolTip(plain_tip(f"{ply.name} ({ply.material})"))
+            self._member_drawn[i] = (item, ply, kind, z, f)
 
     def _openings(self, project: Project, f: Frame) -> None:
         beam = project.beam

@@ -114,6 +114,69 @@ def _put(table: QTableWidget, row: int, col: int, text: str,
     return item
 
 
+class ShownCells:
+    """What a fill last put in each cell of a table (text and value) and in each row
+    (its text colour and tooltip), so the next fill asks Qt nothing for what is the same
+    again.
+
+    Every fill of the table goes through here (``shape``, ``put``, ``row_look``); a row
+    the table drops is forgotten with it, so a cell made again is set in full.
+    """
+
+    def __init__(self, table: QTableWidget) -> None:
+        self.table = table
+        self._cells: dict[tuple[int, int], tuple[str, object]] = {}
+        self._looks: dict[int, tuple[int, QColor, str]] = {}
+        self.cells_put = 0  # cells handed to Qt (for tests)
+
+    def shape(self, rows: int) -> None:
+        """Give the table ``rows`` rows, forgetting the cells that go."""
+        t = self.table
+        if t.rowCount() != rows:
+            t.setRowCount(rows)
+        if any(r >= rows for r, _c in self._cells):
+            self._cells = {k: v for k, v in self._cells.items() if k[0] < rows}
+        if any(r >= rows for r in self._looks):
+            self._looks = {r: v for r, v in self._looks.items() if r < rows}
+
+    def put(self, row: int, col: int, text: str, value: object = None) -> None:
+        """``_put`` for a cell, asking Qt nothing where the cell has this text and value."""
+        kept = self._cells.get((row, col))
+        if kept is not None and kept[0] == text and _same(kept[1], value):
+            return
+        self.cells_put += 1
+        _put(self.table, row, col, text, value)
+        self._cells[(row, col)] = (text, value)
+
+    def row_look(self, row: int, col: int, colour: QColor, tip: str) -> None:
+        """Cell ``col`` of ``row`` in ``colour``, every cell of the row with ``tip``."""
+        kept = self._looks.get(row)
+        if kept is not None and kept[0] == col and kept[1] == colour and kept[2] == tip:
+            return
+        t = self.table
+        item = t.item(row, col)
+        if item.foreground().color() != colour:
+            item.setForeground(colour)
+        if t.item(row, 0).toolTip() != tip:  # the row's cells share their tooltip
+            for c in range(t.columnCount()):
+                cell = t.item(row, c)
+                if cell is not None and cell.toolTip() != tip:
+                    cell.setToolTip(tip)
+        self._looks[row] = (col, QColor(colour), tip)
+
+
+def _same(a: object, b: object) -> bool:
+    """Values of the same type, equal to the bit (-0.0 is not 0.0; a NaN is never the
+    same, so its cell is handed to Qt again, as ``_put`` alone would).
+    """
+    if type(a) is not type(b):
+        return False
+    if isinstance(a, float):
+        return a == b and (a != 0.0 or math.copysign(1.0, a) == math.copysign(
+            1.0, b))  # type: ignore[arg-type]
+    return bool(a == b)
+
+
 def set_style(widget: QWidget, css: str) -> None:
     """Set a style sheet only when it differs (setting one restyles and repaints the
     widget and lays its window out again, even when the sheet is the same).
@@ -244,6 +307,7 @@ class ResultsPanel(QWidget):
         self.ratio_bar = RatioBar(self.checks)
         self.checks.setItemDelegateForColumn(RATIO_COLUMN, self.ratio_bar)
         self.checks.setWordWrap(False)
+        self._check_cells = ShownCells(self.checks)
         self.plies = QTableWidget(0, 0)
         self.section = QTableWidget(0, 2)
         self.beam = QTableWidget(0, 6)
@@ -332,30 +396,22 @@ class ResultsPanel(QWidget):
         amber = self.amber_from()
         self.ratio_bar.amber_from = amber
         rows = governing_per_group(a.checks)
-        self.checks.setRowCount(len(rows))
+        cells = self._check_cells
+        cells.shape(len(rows))
         for r, c in enumerate(rows):
             kind = c.quantity
             where = c.ply or c.location
             if c.id == "bearing":
                 where = c.location
-            t = self.checks
-            _put(t, r, 0, c.id, c.id)
-            _put(t, r, 1, where or "", where)
-            _put(t, r, 2, c.combination or "", c.combination)
-            _put(t, r, 3, fmt(c.demand, kind, u), float(c.demand))
-            _put(t, r, 4, fmt(c.capacity, kind, u), float(c.capacity))
-            _put(t, r, 5, "", float(c.ratio))
+            cells.put(r, 0, c.id, c.id)
+            cells.put(r, 1, where or "", where)
+            cells.put(r, 2, c.combination or "", c.combination)
+            cells.put(r, 3, fmt(c.demand, kind, u), float(c.demand))
+            cells.put(r, 4, fmt(c.capacity, kind, u), float(c.capacity))
+            cells.put(r, 5, "", float(c.ratio))
             text = verdict_of(float(c.ratio), c.ok, amber)
-            verdict = _put(t, r, 6, text, c.ok)
-            colour = verdict_colour(text)
-            if verdict.foreground().color() != colour:
-                verdict.setForeground(colour)
-            tip = self._tip(r, c)
-            if t.item(r, 0).toolTip() != tip:  # the row's cells share their tooltip
-                for col in range(7):
-                    item = t.item(r, col)
-                    if item.toolTip() != tip:
-                        item.setToolTip(tip)
+            cells.put(r, 6, text, c.ok)
+            cells.row_look(r, 6, verdict_colour(text), self._tip(r, c))
         self._fit_checks()
         if not a.checks:
             self.verdict.setText("INCOMPLETE \u2014 no checks: give the beam (spans, supports, "
@@ -364,9 +420,8 @@ class ResultsPanel(QWidget):
                       "color: #828282;")
             return
         gov = rows[0]
-        texts = [verdict_of(float(c.ratio), c.ok, amber) for c in a.checks]
         overall = a.verdict
-        if overall == "OK" and "INCOMPLETE" in texts:
+        if overall == "OK" and any(math.isnan(c.ratio) for c in a.checks):  # INCOMPLETE
             overall = "INCOMPLETE"
         elif overall == "OK":
             overall = verdict_of(float(gov.ratio), True, amber)

@@ -137,6 +137,17 @@ def test_after_a_drag_the_window_shows_what_a_fresh_window_shows(window, qtbot, 
         plot = ("profiles", "diagrams")[shown]
         assert plot_state(getattr(window, plot)) == plot_state(getattr(fresh, plot)), plot
     assert canvas_texts(window) == canvas_texts(fresh)
+    assert cell_state(window.results.checks) == cell_state(fresh.results.checks)
+    assert scene_state(window.elevation) == scene_state(fresh.elevation)
+    for w in (window, fresh):  # the reactions, filled once their tab is shown
+        assert not w.beam_panel.isVisible()
+        w.beam_panel.parentWidget().parentWidget().setCurrentWidget(w.beam_panel)
+        settle(qtbot, w)
+    reactions = window.beam_panel.reactions
+    assert reactions.rowCount() > 0
+    assert cell_state(reactions) == cell_state(fresh.beam_panel.reactions)
+    assert [reactions.columnWidth(c) for c in range(reactions.columnCount())] == [
+        fresh.beam_panel.reactions.columnWidth(c) for c in range(reactions.columnCount())]
     assert [(type(i).__name__, i.data(0)) for i in window.elevation.scene().items(
         Qt.SortOrder.AscendingOrder)] == [(type(i).__name__, i.data(0)) for i in
                                           fresh.elevation.scene().items(
@@ -387,3 +398,238 @@ def test_the_labels_paint_the_same_with_the_paint_memo(window, qtbot):
         blank = QImage(plot.size(), QImage.Format.Format_ARGB32_Premultiplied)
         blank.fill(0)
         assert images[0] != blank
+
+
+# --- what the views keep from one step to the next ------------------------------------------
+
+
+def _pen(p) -> tuple[object, ...]:
+    return (p.color().rgba(), p.widthF(), p.style(), p.isCosmetic(), p.capStyle(),
+            p.joinStyle())
+
+
+def _brush(b) -> tuple[object, ...]:
+    return (b.color().rgba(), b.style())
+
+
+def item_state(item) -> tuple[object, ...]:
+    """Everything a scene item shows (exact floats): kind, place, stacking, visibility,
+    tooltip, data, transform, and its own geometry, pen, brush, text and font.
+    """
+    from PySide6.QtWidgets import (
+        QAbstractGraphicsShapeItem,
+        QGraphicsEllipseItem,
+        QGraphicsLineItem,
+        QGraphicsPathItem,
+        QGraphicsPolygonItem,
+        QGraphicsRectItem,
+        QGraphicsSimpleTextItem,
+    )
+
+    t = item.transform()
+    state: list[object] = [type(item).__name__, item.pos().x(), item.pos().y(), item.zValue(),
+                           item.isVisible(), item.toolTip(), item.data(0), item.data(1),
+                           (t.m11(), t.m12(), t.m21(), t.m22(), t.dx(), t.dy()),
+                           int(item.flags().value)]
+    if isinstance(item, QAbstractGraphicsShapeItem):
+        state += [_pen(item.pen()), _brush(item.brush())]
+    if isinstance(item, QGraphicsRectItem | QGraphicsEllipseItem):
+        r = item.rect()
+        state.append((r.x(), r.y(), r.width(), r.height()))
+    if isinstance(item, QGraphicsPathItem):
+        path = item.path()
+        state.append((path.fillRule(), [(e.x, e.y, e.type) for e in
+                                        (path.elementAt(k) for k in range(path.elementCount()))]))
+    if isinstance(item, QGraphicsPolygonItem):
+        state.append([(p.x(), p.y()) for p in item.polygon()])
+    if isinstance(item, QGraphicsLineItem):
+        line = item.line()
+        state += [_pen(item.pen()), (line.x1(), line.y1(), line.x2(), line.y2())]
+    if isinstance(item, QGraphicsSimpleTextItem):
+        state += [item.text(), item.font().toString()]
+    return tuple(state)
+
+
+def scene_state(view) -> list[tuple[object, ...]]:
+    """Every item of a view's scene in stacking order."""
+    return [item_state(it) for it in view.scene().items(Qt.SortOrder.AscendingOrder)]
+
+
+def cell_state(table: QTableWidget) -> list[list[tuple[object, ...]]]:
+    """Every cell: text, value (a float by its bits), text colour and tooltip."""
+    def value(v: object) -> object:
+        return float.hex(v) if isinstance(v, float) else v
+
+    return [[(it.text(), value(it.data(Qt.ItemDataRole.UserRole)),
+              it.foreground().color().rgba(), it.foreground().style(), it.toolTip())
+             if (it := table.item(r, c)) is not None else None
+             for c in range(table.columnCount())] for r in range(table.rowCount())]
+
+
+def redrawn_in_full(window) -> None:
+    """Forget what the views kept from the last step and draw them again from the model
+    (every item set as on a first drawing).
+    """
+    window.canvas._ply_drawn.clear()
+    window.canvas.rebuild()
+    window.elevation.drawing._drawn.clear()
+    window.elevation.drawing._member_drawn.clear()
+    window.elevation.refresh()
+
+
+def fresh_checks(window) -> list[list[tuple[object, ...]]]:
+    """The checks table of a new results panel given the window's analysis."""
+    from plystack.app.results import ResultsPanel
+
+    panel = ResultsPanel(window.settings)
+    panel.show_analysis(window.analysis_model.analysis)
+    state = cell_state(panel.checks)
+    panel.deleteLater()
+    return state
+
+
+@pytest.mark.parametrize("gesture", ["resize", "move"])
+def test_during_a_drag_the_views_hold_what_a_full_redraw_makes(window, qtbot, gesture):
+    """The canvas, the elevation and the checks table keep what did not change from one
+    step to the next; after every step of a real drag (the plate's top edge up and down,
+    or the plate moved sideways into a timber, which clips the timber) each holds exactly
+    what drawing it from nothing makes (every item's geometry, pen, brush, text, tooltip;
+    every cell's text, value, colour and tooltip), and the steps did pass over unchanged
+    parts.
+    """
+    settle(qtbot, window)
+    select_plate(window)
+    settle(qtbot, window)
+    vp = window.canvas.viewport()
+    c = window.canvas
+    plate = window.document.project.plies[1]
+    at = top_edge(window) if gesture == "resize" else c.mapFromScene(QPointF(  # off the handles
+        (plate.x + plate.width / 2) * 1000, -(plate.y + plate.height * 0.3) * 1000))
+    px_per_mm = c.transform().m11()
+    drawing = window.elevation.drawing
+    cells = window.results._check_cells
+    put = plies = loads = 0  # what the steps set again, full redraws apart
+    clipped = 0  # steps where the left timber was cut by the plate
+    QTest.mousePress(vp, LEFT, NONE, at)
+    steps = 20
+    for k in range(1, steps + 1):
+        before = (cells.cells_put, window.canvas.plies_drawn, drawing.parts_drawn["loads"])
+        swing = math.sin(k / 3)
+        QTest.mouseMove(vp, at + (QPoint(0, -round(60 * swing) - 12) if gesture == "resize"
+                                  else QPoint(-round(abs(swing) * 30 * px_per_mm) - 8, 0)))
+        if window.analysis_model._timer.isActive():
+            window.analysis_model.recompute()
+        QApplication.processEvents()
+        put += cells.cells_put - before[0]
+        plies += window.canvas.plies_drawn - before[1]
+        loads += drawing.parts_drawn["loads"] - before[2]
+        kept = (scene_state(window.canvas), scene_state(window.elevation),
+                cell_state(window.results.checks))
+        assert kept[2] == fresh_checks(window), k
+        redrawn_in_full(window)
+        assert kept[:2] == (scene_state(window.canvas), scene_state(window.elevation)), k
+        section = window.canvas.section
+        clipped += section is not None and not section.is_unclipped(0)
+    assert clipped > 0 if gesture == "move" else clipped == 0  # the plate cut the timber
+    QTest.mouseRelease(vp, LEFT, NONE, at)
+    settle(qtbot, window)
+    assert 0 < put < steps * window.results.checks.rowCount() * 7  # some cells held
+    assert 0 < plies < steps * len(window.document.project.plies)  # the timbers held
+    assert loads < steps  # the loads held (drawn again only where the frame changed)
+
+
+def test_dragging_a_ply_end_keeps_the_elevation_what_a_full_redraw_makes(qtbot, tmp_path):
+    """A drag of a bar's end on the elevation (real mouse events on its viewport): after
+    every step the elevation holds what drawing it from nothing makes.
+    """
+    import json
+    from pathlib import Path
+
+    from plystack.app.main_window import MainWindow
+    from plystack.core.io.project_file import load
+
+    demo = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
+    data = json.loads(demo.read_text(encoding="utf-8"))
+    data["plies"][1].update({"from": "1 ft", "to": "11 ft"})
+    path = tmp_path / "short.plystack.json"
+    path.write_text(json.dumps(data), encoding="utf-8")
+    w = MainWindow(load(path), None)
+    w.ask = lambda *a, **k: None
+    qtbot.addWidget(w)
+    w.resize(1400, 950)
+    w.show()
+    qtbot.waitExposed(w)
+    settle(qtbot, w)
+    before = w.document.project
+    view = w.elevation
+    f = view.frame
+    top, bottom = f.lane(1)
+    at = view.mapFromScene(QPointF(f.x_px(w.document.project.plies[1].end), (top + bottom) / 2))
+    vp = view.viewport()
+    QTest.mousePress(vp, LEFT, NONE, at)
+    for k in range(1, 16):
+        QTest.mouseMove(vp, at + QPoint(round(-90 * math.sin(k / 3)), 0))
+        if w.analysis_model._timer.isActive():
+            w.analysis_model.recompute()
+        QApplication.processEvents()
+        kept = scene_state(view)
+        redrawn_in_full(w)
+        assert kept == scene_state(view), k
+    QTest.mouseRelease(vp, LEFT, NONE, at)
+    settle(qtbot, w)
+    assert w.document.project.plies[1].end != before.plies[1].end  # the end moved
+    assert view.drawing.parts_drawn["lanes"] > 1  # the bars followed the drag
+
+
+def test_clicking_another_ply_draws_both_outlines_as_a_full_redraw(window, qtbot):
+    """The outline of the ply that loses the selection is drawn again although the ply
+    did not change (real clicks on the canvas's viewport).
+    """
+    settle(qtbot, window)
+    c = window.canvas
+    for index in (1, 0, 2, 1):
+        ply = window.document.project.plies[index]
+        QTest.mouseClick(c.viewport(), LEFT, NONE, c.mapFromScene(QPointF(
+            (ply.x + ply.width / 2) * 1000, -(ply.y + ply.height * 0.3) * 1000)))
+        settle(qtbot, window)
+        assert c.selected == index
+        kept = scene_state(c)
+        redrawn_in_full(window)
+        assert kept == scene_state(c), index
+
+
+def test_a_cell_takes_a_value_of_another_type_or_the_next_float(qtbot):
+    """The cells remembered compare values by type and to the bit: 2.5 then the next
+    float, None, a text, None, another float, with the same text, each reach the item
+    (Qt's own comparison takes 3.0 and "3.0" for the same, so the test keeps clear of it).
+    """
+    from plystack.app.results import ShownCells
+
+    table = QTableWidget(0, 2)
+    qtbot.addWidget(table)
+    cells = ShownCells(table)
+    cells.shape(1)
+    role = Qt.ItemDataRole.UserRole
+    for value in (2.5, 2.5000000000000004, None, "a place", None, 3.0):
+        cells.put(0, 0, "same text", value)
+        got = table.item(0, 0).data(role)
+        assert (type(got), got) == (type(value), value)
+    put = cells.cells_put
+    cells.put(0, 0, "same text", 3.0)
+    assert cells.cells_put == put  # the same text and value: Qt is not asked
+    cells.shape(0)
+    cells.shape(1)  # the row went and came back: its cell is made again
+    cells.put(0, 0, "same text", 3.0)
+    assert (table.item(0, 0).text(), table.item(0, 0).data(role)) == ("same text", 3.0)
+
+
+@pytest.mark.parametrize("ratio", [0.0, -0.0, 0.5, 0.95, 1.0, 1.5, math.inf, math.nan,
+                                   np.float64(0.7), np.float64(math.nan)])
+def test_the_verdict_finds_incomplete_checks_as_the_verdict_text_does(ratio):
+    """The overall verdict looks for a ratio that is not a number directly: the same
+    answer as asking each check's verdict text for INCOMPLETE.
+    """
+    from plystack.app.results import verdict_of
+
+    for ok in (True, False):
+        assert math.isnan(ratio) == (verdict_of(float(ratio), ok, 0.9) == "INCOMPLETE")

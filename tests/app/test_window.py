@@ -186,6 +186,8 @@ def test_the_ratio_painter_survives_any_number(window, ratio):
 
 
 def test_reactions_per_case_and_combination(window, qtbot):
+    panels = window.beam_panel.parentWidget().parentWidget()  # the tabs on the left
+    panels.setCurrentWidget(window.beam_panel)  # the reactions are filled when shown
     window.recompute()
     table = window.beam_panel.reactions
     rows = {table.item(r, 0).text(): [table.item(r, c).data(Qt.ItemDataRole.UserRole)
