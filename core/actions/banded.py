@@ -38,6 +38,39 @@ def cholesky_band(diagonals: list[list[float]], n: int, w: int) -> list[list[flo
             greater than zero).
 
     """
+    if w == BEAM_HALF_BANDWIDTH and n > w:
+        return _cholesky_band_3(diagonals, n)
+    return _cholesky_band_any(diagonals, n, w)
+
+
+def _cholesky_band_3(diagonals: list[list[float]], n: int) -> list[list[float]]:
+    """:func:`_cholesky_band_any` for the beam's half bandwidth 3, the inner loops of the
+    rows wholly inside the band written out: the same operations in the same order.
+    """
+    rows = _cholesky_band_any(diagonals, 3, 3)  # the first rows start inside the band
+    d0, d1, d2, d3 = diagonals
+    for i in range(3, n):
+        a, b, c = rows[i - 3], rows[i - 2], rows[i - 1]
+        l0 = d3[i - 3] / a[3]
+        s = d2[i - 2]
+        s -= l0 * b[2]
+        l1 = s / b[3]
+        s = d1[i - 1]
+        s -= l0 * c[1]
+        s -= l1 * c[2]
+        l2 = s / c[3]
+        s = d0[i]
+        s -= l0 * l0
+        s -= l1 * l1
+        s -= l2 * l2
+        if not (s > 0.0 and math.isfinite(s)):
+            raise np.linalg.LinAlgError("matrix is not positive definite")
+        rows.append([l0, l1, l2, math.sqrt(s)])
+    return rows
+
+
+def _cholesky_band_any(diagonals: list[list[float]], n: int, w: int) -> list[list[float]]:
+    """The factor of any half bandwidth ``w`` (see :func:`cholesky_band`)."""
     rows: list[list[float]] = []
     for i in range(n):
         row = [0.0] * (w + 1)
@@ -93,6 +126,49 @@ def solve_list(rows: list[list[float]], rhs: list[float], w: int) -> list[float]
     """:func:`solve_with_factor` of a right-hand side given as a list of floats, the
     solution as a list.
     """
+    if w == BEAM_HALF_BANDWIDTH:
+        return _solve_list_3(rows, rhs)
+    return _solve_list_any(rows, rhs, w)
+
+
+def _solve_list_3(rows: list[list[float]], rhs: list[float]) -> list[float]:
+    """:func:`_solve_list_any` for the beam's half bandwidth 3, the inner loops written
+    out: the same subtractions in the same order.
+    """
+    n = len(rows)
+    if n <= 2 * 3:
+        return _solve_list_any(rows, rhs, 3)
+    y = [0.0] * n
+    for i in range(3):  # L y = b, the rows that start inside the band
+        row = rows[i]
+        s = rhs[i]
+        for m in range(3 - i, 3):
+            s -= row[m] * y[i - 3 + m]
+        y[i] = s / row[3]
+    for i in range(3, n):
+        r0, r1, r2, r3 = rows[i]
+        s = rhs[i]
+        s -= r0 * y[i - 3]
+        s -= r1 * y[i - 2]
+        s -= r2 * y[i - 1]
+        y[i] = s / r3
+    x = [0.0] * n
+    for i in range(n - 1, n - 4, -1):  # L^T x = y, the rows whose band ends past n
+        s = y[i]
+        for r in range(i + 1, n):
+            s -= rows[r][3 - r + i] * x[r]
+        x[i] = s / rows[i][3]
+    for i in range(n - 4, -1, -1):
+        s = y[i]
+        s -= rows[i + 1][2] * x[i + 1]
+        s -= rows[i + 2][1] * x[i + 2]
+        s -= rows[i + 3][0] * x[i + 3]
+        x[i] = s / rows[i][3]
+    return x
+
+
+def _solve_list_any(rows: list[list[float]], rhs: list[float], w: int) -> list[float]:
+    """The two triangular solves with the banded factor of any half bandwidth ``w``."""
     n = len(rows)
     y = [0.0] * n
     for i in range(n):  # L y = b
