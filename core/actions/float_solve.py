@@ -30,7 +30,8 @@ FLOAT_SOLVE_ELEMENTS = 48
 
 def numpy_sum(values: Sequence[float]) -> float:
     """``numpy.sum`` of a short row (fewer than 129 numbers): numpy's pairwise sum, which
-    adds from zero one by one below 8 numbers, and in eight running sums from 8 on.
+    adds from zero one by one below 8 numbers, and in eight running sums from 8 on,
+    their total then added to zero (so a row of signed zeros sums to +0.0 either way).
     """
     n = len(values)
     if n < 8:
@@ -47,7 +48,7 @@ def numpy_sum(values: Sequence[float]) -> float:
     total = ((r[0] + r[1]) + (r[2] + r[3])) + ((r[4] + r[5]) + (r[6] + r[7]))
     for i in range(whole, n):
         total += values[i]
-    return total
+    return 0.0 + total
 
 
 @dataclass(frozen=True)

@@ -11,8 +11,6 @@ from collections.abc import Mapping
 from dataclasses import dataclass, field, replace
 from typing import Any, Literal, TypeVar
 
-from .memo import MEMO
-
 T = TypeVar("T")
 
 #: Every kind of check (the ``id`` of a check in JSON output).
@@ -169,11 +167,8 @@ def evolve(obj: T, **changes: Any) -> T:
         if name not in fields:
             raise TypeError(f"{type(obj).__name__} has no field {name!r}")
     held = obj.__dict__
-    if len(held) != len(fields):  # something besides the fields
-        if MEMO in held and len(held) == len(fields) + 1:  # what was found for the original
-            held = {k: v for k, v in held.items() if k != MEMO}  # is not the copy's
-        else:
-            return replace(obj, **changes)  # type: ignore[type-var]
+    if len(held) != len(fields):  # something besides the fields (a cache): the plain way
+        return replace(obj, **changes)  # type: ignore[type-var]
     new = object.__new__(type(obj))
     state = new.__dict__
     state.update(held)

@@ -3,11 +3,8 @@ joints, its unit shear stresses, its plate-less or ULS-moduli section, a combina
 shear beside each support.
 
 Sections and combination results are immutable and compared by identity, so a value found
-for one is valid for as long as it lives; the entries go with it. They are kept in the
-owner's own ``__dict__`` under ``MEMO`` (as ``functools.cached_property`` keeps its value:
-no field, so the dataclass's repr, comparison and ``replace`` never see it; ``check.evolve``
-leaves it behind), or beside it with a weak key for an owner without a ``__dict__``. Values
-kept here are shared and must not be mutated.
+for one is valid for as long as it lives; the entries go with it (weak keys). Values kept
+here are shared and must not be mutated.
 """
 
 from __future__ import annotations
@@ -18,8 +15,6 @@ from typing import TypeVar
 
 T = TypeVar("T")
 
-#: The key of an owner's memo in its ``__dict__``.
-MEMO = "_plystack_memo"
 _MEMO: weakref.WeakKeyDictionary[object, dict[Hashable, object]] = weakref.WeakKeyDictionary()
 
 
@@ -28,18 +23,9 @@ def with_partner(owner: object, key: Hashable, partner: object, make: Callable[[
     also depends on) is the same object; it is held beside the value, so an object of
     the same identity is the same object.
     """
-    try:
-        state = owner.__dict__
-    except AttributeError:
-        state = None
-    if state is not None:
-        memo = state.get(MEMO)
-        if memo is None:
-            memo = state[MEMO] = {}
-    else:
-        memo = _MEMO.get(owner)
-        if memo is None:
-            memo = _MEMO[owner] = {}
+    memo = _MEMO.get(owner)
+    if memo is None:
+        memo = _MEMO[owner] = {}
     held = memo.get(key)
     if not (isinstance(held, tuple) and held[0] is partner):
         held = memo[key] = (partner, make())

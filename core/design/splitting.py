@@ -146,9 +146,8 @@ def splitting_checks(section: Section, joint: Joint, site: SplitSite, design: De
     ``shared``: the resistances found at earlier sites of the same caller (filled here).
     """
     out = []
-    bolts_at = (f"{site.label}: bolts at y = "
-                + ", ".join(fmt(y, "length", system) for y in sorted(set(site.heights))))
-    shares = _shares(section, joint)
+    bolts_at: str | None = None  # the site's words and the timbers' shares, at first use
+    shares: dict[int, float] = {}
     nearest_end: float | None = None  # from the bolts to the nearer end of the member
     memo: Shared = {} if shared is None else shared
     for j in joint.timbers:
@@ -174,6 +173,10 @@ def splitting_checks(section: Section, joint: Joint, site: SplitSite, design: De
             r = memo.get(key)
             if r is None:
                 r = memo[key] = _us_resistance(Fv, b, h, d_e, near_end, system)
+        if bolts_at is None:
+            bolts_at = (f"{site.label}: bolts at y = " + ", ".join(
+                fmt(y, "length", system) for y in sorted(set(site.heights))))
+            shares = _shares(section, joint)
         out.append(Check(
             id="splitting", ply=name, combination=combination,
             demand=abs(site.force) * shares[j], capacity=r.capacity, quantity="force",

@@ -34,6 +34,7 @@ from .bolt_layout import BoltLayout
 from .check import Check, evolve
 from .common import joints_of_timber, side_by_side_joints, unit_shear_stress
 from .memo import once, with_partner
+from .zones import ascending, zone, zone_ascending, zone_runs
 
 
 def plate_extent(section: Section, i: int, length: float) -> tuple[float, float]:
@@ -163,15 +164,6 @@ def point_loads(beam: BeamResult, combo: CombinationResult) -> list[tuple[float,
     return sorted(out.items())
 
 
-def _zone(layout: BoltLayout, x: float, depth: float) -> tuple[int, ...]:
-    xs = layout.stations
-    near = tuple(k for k, s in enumerate(xs) if abs(s - x) <= depth * (1 + 1e-9))
-    if near:
-        return near
-    best = min(abs(s - x) for s in xs)
-    return tuple(k for k, s in enumerate(xs) if abs(s - x) <= best * (1 + 1e-9) + 1e-12)
-
-
 @dataclass(frozen=True)
 class PlateLoads:
     """What one combination puts on one plate, whatever its layout: found once and used for
@@ -212,85 +204,14 @@ def plate_loads(section: Section, beam: BeamResult, combo: CombinationResult,
                       tuple(sol.dq.tolist()))
 
 
-def _around(xs: tuple[float, ...], x: float, i: int, reach: float) -> tuple[int, ...]:
-    """The stations k with |xs[k] - x| <= reach, found outwards from index i (the first
-    station at or right of x) in ascending ``xs``: |xs[k] - x| grows away from x on either
-    side (rounded subtraction keeps order), so they are one run of indices.
-    """
-    lo, hi = i, i
-    while lo > 0 and abs(xs[lo - 1] - x) <= reach:
-        lo -= 1
-    while hi < len(xs) and abs(xs[hi] - x) <= reach:
-        hi += 1
-    return tuple(range(lo, hi))
-
-
-def _zone_ascending(xs: tuple[float, ...], x: float, depth: float) -> tuple[int, ...]:
-    """:func:`_zone` for ascending stations, by bisection: the same stations."""
-    i = bisect_left(xs, x)
-    near = _around(xs, x, i, depth * (1 + 1e-9))
-    if near:
-        return near
-    best = min(abs(xs[k] - x) for k in (i - 1, i) if 0 <= k < len(xs))
-    return _around(xs, x, i, best * (1 + 1e-9) + 1e-12)
-
-
-def _zone_bounds(xs: tuple[float, ...], at: list[float],
-                 depth: float) -> tuple[list[int], list[int]] | None:
-    """For ascending stations ``xs``, the zone of a transfer at each of ``at`` as the run
-    of station indices ``range(lo, hi)``: the stations :func:`_zone_ascending` finds, by
-    the same comparisons made on all of them at once (|xs[k] - x| grows away from x on
-    either side, so the stations within a reach are one run). None where it cannot tell
-    (no stations, or a position that is not a number).
-    """
-    n = len(xs)
-    if n == 0 or not at:
-        return None
-    gap = np.abs(np.asarray(xs, dtype=float)[None, :] - np.asarray(at, dtype=float)[:, None])
-    inside = gap <= depth * (1 + 1e-9)
-    bare = ~inside.any(axis=1)
-    if bare.any():  # no station within the depth: the nearest (and any as near)
-        i = np.searchsorted(np.asarray(xs, dtype=float), np.asarray(at, dtype=float)[bare],
-                            side="left")
-        rows = gap[bare]
-        pick = np.arange(rows.shape[0])
-        left = np.where(i >= 1, rows[pick, np.clip(i - 1, 0, n - 1)], np.inf)
-        right = np.where(i < n, rows[pick, np.clip(i, 0, n - 1)], np.inf)
-        reach = np.minimum(left, right) * (1 + 1e-9) + 1e-12
-        inside[bare] = rows <= reach[:, None]
-    if not inside.any(axis=1).all():
-        return None
-    lo = inside.argmax(axis=1)
-    hi = n - inside[:, ::-1].argmax(axis=1)
-    return lo.tolist(), hi.tolist()
-
-
-def _runs(xs: tuple[float, ...], at: list[float],
-          depth: float) -> tuple[list[int], list[int]] | None:
-    """``(lo, hi)`` of every zone of transfers at ``at`` among ascending stations ``xs``:
-    by bisection for a few transfers, all at once for many (:func:`_zone_bounds`; the
-    same runs).
-    """
-    if len(at) < 16:
-        zones = [_zone_ascending(xs, x, depth) for x in at]
-        if not all(zones):
-            return None
-        return [z[0] for z in zones], [z[-1] + 1 for z in zones]
-    return _zone_bounds(xs, at, depth)
-
-
-def _ascending(xs: tuple[float, ...]) -> bool:
-    return all(a <= b for a, b in zip(xs, xs[1:], strict=False))
-
-
 def placed_transfers(loads: PlateLoads, layout: BoltLayout, share: float,
                      depth: float) -> list[Transfer]:
     """The concentrated transfers of ``loads`` through the bolts of ``layout``, each with
     its zone (the stations within the member depth ``depth``, at least the nearest).
     """
     xs = layout.stations
-    ascending = _ascending(xs)
-    bounds = _runs(xs, [f[2] for f in loads.forces], depth) if ascending else None
+    ordered = ascending(xs)
+    bounds = zone_runs(xs, [f[2] for f in loads.forces], depth) if ordered else None
     if bounds is not None:
         ahead = [0]  # bolts at the stations before each index: a zone's bolts by difference
         for rs in layout.station_rows:
@@ -301,9 +222,9 @@ def placed_transfers(loads: PlateLoads, layout: BoltLayout, share: float,
                                                            strict=True)]
     out = []
     for kind, label, x, force in loads.forces:
-        zone = _zone_ascending(xs, x, depth) if ascending else _zone(layout, x, depth)
-        out.append(Transfer(label, kind, x, force, share, zone,
-                            sum(layout.at_station(k) for k in zone), depth))
+        found = zone_ascending(xs, x, depth) if ordered else zone(layout, x, depth)
+        out.append(Transfer(label, kind, x, force, share, found,
+                            sum(layout.at_station(k) for k in found), depth))
     return out
 
 
@@ -318,13 +239,13 @@ def trial_within(loads: PlateLoads, layout: BoltLayout, share: float, depth: flo
     xs = layout.stations
     forces = loads.forces
     rows = layout.station_rows
-    if limit != limit or not xs or not _ascending(xs):
+    if limit != limit or not xs or not ascending(xs):
         return None
     held: list[list[int]] = [[] for _ in xs]
     own: list[float] = []
     signed: list[float] = []
     if forces:
-        bounds = _runs(xs, [f[2] for f in forces], depth)
+        bounds = zone_runs(xs, [f[2] for f in forces], depth)
         if bounds is None:
             return None
         ahead = [0]
@@ -630,4 +551,4 @@ def end_zone(layout: BoltLayout, x_end: float, depth: float) -> tuple[int, ...]:
     member depth d of the end (the transfer-zone rule of the module text), at least the
     nearest.
     """
-    return _zone(layout, x_end, depth)
+    return zone(layout, x_end, depth)

@@ -36,8 +36,6 @@ from plystack.core.design.common import (
 from plystack.core.design.transfer import (
     StationDemand,
     _load_between,
-    _zone,
-    _zone_ascending,
     distributed_load,
     governing_demand,
     governing_within,
@@ -48,6 +46,8 @@ from plystack.core.design.transfer import (
     station_demands,
     transfers,
 )
+from plystack.core.design.zones import zone as _zone
+from plystack.core.design.zones import zone_ascending as _zone_ascending
 from plystack.core.io.project_file import from_dict
 from plystack.core.pipeline import Analysis, run
 

@@ -91,6 +91,22 @@ def test_large_meshes_and_odd_numbers_take_the_array_path() -> None:
 @pytest.mark.parametrize("n", [*range(0, 20), 31, 64, 100, 127, 128])
 def test_numpy_sum_adds_as_numpy_does(n: int) -> None:
     rng = np.random.default_rng(n)
-    for _ in range(30):
-        x = rng.normal(0, 1, n) * 10.0 ** rng.integers(-9, 9, n)
-        assert float_solve.numpy_sum(x.tolist()) == float(x.sum())
+    rows = [rng.normal(0, 1, n) * 10.0 ** rng.integers(-9, 9, n) for _ in range(30)]
+    rows += [np.zeros(n), -np.zeros(n), rng.choice([0.0, -0.0], n),
+             rng.choice([0.0, -0.0, 1.5, -1.5], n)]
+    for x in rows:  # compared by bits: -0.0 and 0.0 are told apart
+        assert float_solve.numpy_sum(x.tolist()).hex() == float(x.sum()).hex()
+
+
+@pytest.mark.parametrize("spans", [1, 3, 7, 12])
+def test_a_case_that_carries_nothing_solves_alike(spans: int) -> None:
+    """A case of no loads, or of loads of zero (a placeholder live load), on meshes of 8
+    nodes and more: its reactions are zeros, and zeros of the same sign."""
+    layout = BeamLayout(spans=(1.8,) * spans)
+    points = [Load("D", "point", 900.0, at=1.8 * spans * (k + 0.5) / 7) for k in range(7)]
+    model = BeamModel(layout, points)
+    _same(model, [])
+    _same(model, [Load("L", "line", 0.0)])
+    _same(model, [Load("L", "point", 0.0, at=0.9)])
+    _same(model, [Load("L", "line", 0.0), Load("L", "point", 0.0, at=1.1)], 0.0)
+    assert model.solve([]).reactions.tobytes() == np.zeros(spans + 1).tobytes()

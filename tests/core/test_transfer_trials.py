@@ -1,11 +1,11 @@
 """The quick paths of the bolt-spacing trials against the plain ones, exactly.
 
-- ``transfer._zone_bounds`` (every transfer zone at once) finds the stations
-  ``_zone_ascending`` finds, one transfer at a time;
+- ``zones.zone_bounds`` (every transfer zone at once) finds the stations
+  ``zone_ascending`` finds, one transfer at a time;
 - ``transfer.trial_within`` decides as ``governing_within`` of the transfers placed the
   plain way decides (a layout passes where its governing station is within the limit);
 - a whole run with many point loads makes the same checks and layouts with the quick
-  paths as with them turned off (``_fails`` never skipping a spacing, ``_zone_bounds``
+  paths as with them turned off (``_fails`` never skipping a spacing, ``zones.zone_bounds``
   never answering).
 """
 
@@ -17,7 +17,7 @@ from pathlib import Path
 
 import pytest
 
-from plystack.core.design import bolt_checks, transfer
+from plystack.core.design import bolt_checks, zones
 from plystack.core.design.bolt_layout import BoltLayout
 from plystack.core.design.transfer import (
     PlateLoads,
@@ -65,7 +65,7 @@ def _plain_transfers(loads: PlateLoads, layout: BoltLayout, share: float,
     """The transfers one at a time, as before the quick path (bisection per transfer)."""
     out = []
     for kind, label, x, force in loads.forces:
-        zone = transfer._zone_ascending(layout.stations, x, depth)
+        zone = zones.zone_ascending(layout.stations, x, depth)
         out.append(Transfer(label, kind, x, force, share, zone,
                             sum(layout.at_station(k) for k in zone), depth))
     return out
@@ -77,16 +77,16 @@ def test_zone_bounds_are_the_zones_found_one_at_a_time() -> None:
         xs = _stations(rng, rng.randrange(1, 40))
         depth = rng.choice([0.1, 0.2, 0.235, 0.3])
         at = _positions(rng, xs, depth, rng.randrange(1, 60))
-        bounds = transfer._zone_bounds(xs, at, depth)
+        bounds = zones.zone_bounds(xs, at, depth)
         assert bounds is not None
         for x, lo, hi in zip(at, *bounds, strict=True):
-            assert tuple(range(lo, hi)) == transfer._zone_ascending(xs, x, depth)
+            assert tuple(range(lo, hi)) == zones.zone_ascending(xs, x, depth)
 
 
 def test_zone_bounds_refuse_what_they_cannot_tell() -> None:
-    assert transfer._zone_bounds((), [1.0], 0.2) is None
-    assert transfer._zone_bounds((0.0, 1.0), [], 0.2) is None
-    assert transfer._zone_bounds((0.0, 1.0), [float("nan")], 0.2) is None
+    assert zones.zone_bounds((), [1.0], 0.2) is None
+    assert zones.zone_bounds((0.0, 1.0), [], 0.2) is None
+    assert zones.zone_bounds((0.0, 1.0), [float("nan")], 0.2) is None
 
 
 def _loads(rng: random.Random, xs: tuple[float, ...], depth: float, n: int) -> PlateLoads:
@@ -142,7 +142,7 @@ def test_many_point_loads_check_alike_with_and_without_the_quick_paths(
     project = replace(project, beam=replace(beam, loads=beam.loads + extra))
     quick = run(project)
     monkeypatch.setattr(bolt_checks, "_fails", lambda *args: False)
-    monkeypatch.setattr(transfer, "_zone_bounds", lambda *args: None)
+    monkeypatch.setattr(zones, "zone_bounds", lambda *args: None)
     plain = run(project)
     assert len(quick.checks) > 3 * count
     assert quick.checks == plain.checks
