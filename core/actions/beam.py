@@ -28,7 +28,7 @@ from typing import Any
 
 import numpy as np
 
-from ..model.errors import ProjectError
+from ..model.errors import Problem, ProjectError
 from ..model.member import MERGE_TOLERANCE, BeamLayout, Load, validate_layout
 from .banded import BEAM_HALF_BANDWIDTH, cholesky_band, solve_with_factor
 from .float_solve import FLOAT_SOLVE_ELEMENTS, FloatMesh, plain_inputs, solve_floats
@@ -163,6 +163,12 @@ class CaseSolution:
         return CaseSolution._of(a.data + b.data, a._e, a._s, a._w)
 
 
+#: Most nodes a member's mesh may have: its stiffness matrix is held whole (n^2 numbers
+#: for n degrees of freedom, 200 MB at this many nodes), so the limit keeps a file with
+#: thousands of point loads from exhausting a normal computer's memory.
+MAX_NODES = 2_500
+
+
 class BeamModel:
     """Mesh and stiffness of a member for a given layout and set of load positions.
 
@@ -191,6 +197,12 @@ class BeamModel:
         keep = np.concatenate([[True], np.diff(nodes) > MERGE_TOLERANCE * max(L, 1.0)])
         self.nodes = nodes[keep]
         self.nodes[-1] = L
+        if self.nodes.size > MAX_NODES:  # the stiffness matrix is held whole (K @ u)
+            raise ProjectError(Problem(
+                "beam.loads", f"need the member cut at {self.nodes.size:,} points (every "
+                "point load, every end of a partial load, every support and ply end); "
+                f"Plystack analyses at most {MAX_NODES:,}: combine loads that stand close "
+                "together, for example into a line load"))
         self.lengths = np.diff(self.nodes)
         #: 1 / EI of every element on a stepped member (None: EI = 1 throughout).
         self.flexibility = _element_flexibility(self.nodes, steps) if steps else None

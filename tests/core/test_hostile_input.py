@@ -402,3 +402,36 @@ def test_negative_capacity_is_a_named_problem():
     # a negative unbraced length now fails inside the stability equations themselves
     with pytest.raises(ProjectError, match=r"is negative|outside its range"):
         run(p)
+
+
+def test_thousands_of_point_loads_are_refused_by_name(tmp_path, capsys):
+    """A member cut at more points than ``MAX_NODES`` (its stiffness matrix is held
+    whole: 30,000 point loads would ask for 27 GB) is a named problem, quickly, in the
+    pipeline and on the command line; 2,000 point loads are still analysed."""
+    from dataclasses import replace
+
+    from plystack.core.actions.beam import MAX_NODES
+    from plystack.core.model.member import Load
+
+    p = load(DEMO)
+    assert p.beam is not None
+    L = p.beam.layout.length
+
+    def with_points(n: int):
+        extra = tuple(Load(case="L", type="point", value=10.0, at=L * (k + 0.5) / n)
+                      for k in range(n))
+        assert p.beam is not None
+        return replace(p, beam=replace(p.beam, loads=p.beam.loads + extra))
+
+    start = time.monotonic()
+    with pytest.raises(ProjectError, match=f"beam.loads: need the member cut at 30,00[0-9] "
+                                           f"points.*at most {MAX_NODES:,}"):
+        run(with_points(30_000))
+    assert time.monotonic() - start < FAST
+    assert run(with_points(2_000)).checks
+    path = tmp_path / "many-loads.plystack.json"
+    save(with_points(MAX_NODES), path)
+    code, out, err, _ = _run_cli(["check", str(path)], capsys)
+    assert code == 2
+    assert f"at most {MAX_NODES:,}" in out + err
+    assert not any(name in out + err for name in PYTHON_CLASS_NAMES)
