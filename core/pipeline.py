@@ -133,12 +133,29 @@ class Evaluator:
         self.project = project
         self.design = project.design_or_default()
         self.materials: Mapping[str, Material] = project.all_materials()
-        with _guarded():
-            self.beam = (PreparedBeam.of(project.beam, self.design) if project.beam is not None
-                         else None)
+        self._prepared: PreparedBeam | None = None
+        if project.beam is not None and not is_stepped(project.plies,
+                                                       project.beam.layout.length):
+            self._prepare()  # the beam's faults are named now, as it is prepared
         #: Plain transformed sections made lately, by the identities of their plies and
         #: the resolved reference material (the plies held, so that no identity is reused).
         self._plain: dict[tuple[tuple[int, ...], str], tuple[tuple[Ply, ...], Section]] = {}
+
+    @property
+    def beam(self) -> PreparedBeam | None:
+        """The member of constant stiffness prepared once: its mesh, each load case solved
+        and the arrangements planned (None without a beam). Made with the Evaluator where
+        the project's plies run the whole length, else when first asked: a member whose
+        plies stop short of its ends is prepared on its stepped stiffness instead, so it
+        asks for this only for a candidate whose plies all run through.
+        """
+        return self._prepare()
+
+    def _prepare(self) -> PreparedBeam | None:
+        if self._prepared is None and self.project.beam is not None:
+            with _guarded():
+                self._prepared = PreparedBeam.of(self.project.beam, self.design)
+        return self._prepared
 
     def section(self, plies: Sequence[Ply], reference: str | None = None) -> Section:
         """The transformed section of ``plies``; stacked plies joined by mechanical
@@ -193,7 +210,7 @@ class Evaluator:
     def _finish_unguarded(self, candidates: list[tuple[Ply, ...]],
                           sections: list[Section]) -> list[Analysis]:
         beams: list[BeamResult | None]
-        if self.beam is None:
+        if self.project.beam is None:
             beams = [None] * len(sections)
         else:
             beams = list(self._beams(candidates, sections))
@@ -234,11 +251,15 @@ class Evaluator:
         """The beam of every candidate: prismatic ones in one batch, stepped ones (a ply
         stopping short of the ends) each on its own stepped stiffness.
         """
-        assert self.beam is not None and self.project.beam is not None
+        assert self.project.beam is not None
         length = self.project.beam.layout.length
         flat = [k for k, p in enumerate(candidates) if not is_stepped(p, length)]
-        out: dict[int, BeamResult] = dict(zip(flat, analyse_beams(
-            self.beam, [sections[k] for k in flat], self.design), strict=True)) if flat else {}
+        out: dict[int, BeamResult] = {}
+        if flat:
+            prepared = self.beam
+            assert prepared is not None
+            out = dict(zip(flat, analyse_beams(prepared, [sections[k] for k in flat],
+                                               self.design), strict=True))
         for k, plies in enumerate(candidates):
             if k not in out:
                 out[k] = self._stepped_beam(plies, sections[k])
