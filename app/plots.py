@@ -45,7 +45,7 @@ from PySide6.QtCore import QPointF, QRectF
 from PySide6.QtGui import QColor, QFont, QFontDatabase, QFontMetricsF, QImage, QPainter
 
 from plystack.app.safe import reporter
-from plystack.core.actions.beam import diagram
+from plystack.core.actions.extremes import diagram
 from plystack.core.model.units import sig, to_display, unit_label
 from plystack.core.pipeline import Analysis
 

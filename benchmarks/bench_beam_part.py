@@ -22,7 +22,7 @@ from pathlib import Path
 
 from plystack.core import pipeline
 from plystack.core.actions import analysis as an
-from plystack.core.actions import beam as bm
+from plystack.core.actions import extremes as ex
 from plystack.core.io.project_file import load
 from plystack.core.model.project import Project
 
@@ -87,8 +87,8 @@ def demo(name: str, path: Path) -> None:
     sols, EIs = batch.solutions, batch.stiffness
     n = model.lengths.size
     _line(f"extremes of {len(sols)} solutions (distinct / all)",
-          *paired(lambda: bm.extremes_many(model, sols, EIs),
-                  lambda: bm._reduce(model, bm._element_values(
+          *paired(lambda: ex.extremes_many(model, sols, EIs),
+                  lambda: ex._reduce(model, ex._element_values(
                       model, sols, EIs, 0, n, [(0, n)]), 0, n)))
     three = _spans(project, 3)
     print(f"  Evaluator, 3 spans patterned {cpu(lambda: pipeline.Evaluator(three)) * 1e3:.3f}"

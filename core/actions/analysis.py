@@ -43,16 +43,9 @@ from ..model.design import DesignSpec
 from ..model.errors import Problem, ProjectError
 from ..model.member import BeamSpec, Load
 from ..section.transformed import Section, with_moduli
-from .beam import (
-    BeamModel,
-    CaseSolution,
-    Extremes,
-    combine,
-    extremes_many,
-    extremes_within,
-    moment_at,
-)
+from .beam import BeamModel, CaseSolution, combine, moment_at
 from .combinations import asd_combinations, en1990_combinations
+from .extremes import Extremes, extremes_many, extremes_within
 from .patterns import PATTERNED, Plan, RegionParts, plan, reaction_envelope, region_parts
 
 

@@ -22,7 +22,8 @@ from dataclasses import dataclass, field, replace
 import numpy as np
 
 from ..model.member import MERGE_TOLERANCE, BeamSpec, Load
-from .beam import BeamModel, CaseSolution, w_up_coefficients
+from .beam import BeamModel, CaseSolution
+from .extremes import w_up_coefficients
 
 #: Cases loaded span by span, by basis.
 PATTERNED = {"US": ("L", "Lr", "S"), "EU": ("L", "Lr", "S", "W")}

@@ -10,7 +10,8 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..actions.analysis import BeamResult, CombinationResult
-from ..actions.beam import CaseSolution, Extremes, extremes
+from ..actions.beam import CaseSolution
+from ..actions.extremes import Extremes, extremes
 from ..model.constants import INCH
 from ..model.design import MECHANICAL_CONNECTORS, DesignSpec
 from ..model.errors import MissingCheck, Problem

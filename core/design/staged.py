@@ -27,7 +27,8 @@ from dataclasses import dataclass, replace
 import numpy as np
 
 from ..actions.analysis import BeamResult, CombinationResult, creep_moduli
-from ..actions.beam import CaseSolution, extremes
+from ..actions.beam import CaseSolution
+from ..actions.extremes import extremes
 from ..actions.stages import StageSolutions, StageStiffness
 from ..model.design import DesignSpec
 from ..model.errors import Problem

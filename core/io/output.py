@@ -10,7 +10,7 @@ import numpy as np
 
 from .. import __version__
 from ..actions.analysis import BeamResult
-from ..actions.beam import Extremes
+from ..actions.extremes import Extremes
 from ..design.segmented import SegmentResult
 from ..design.staged import StageActions, StagesResult
 from ..model.caution import ASSUMPTIONS, CAUTION, FIRE_NOTE

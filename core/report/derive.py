@@ -19,7 +19,8 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..actions.analysis import BeamResult, CombinationResult
-from ..actions.beam import CaseSolution, element_polynomials
+from ..actions.beam import CaseSolution
+from ..actions.extremes import element_polynomials
 from ..actions.patterns import region_parts
 from ..design.bearing import bearing_sites, bearing_surface, en_effective_length
 from ..design.check import Check

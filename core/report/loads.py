@@ -11,7 +11,7 @@ from reportlab.lib.units import mm
 from reportlab.platypus import CondPageBreak, KeepTogether
 
 from ..actions.analysis import BeamResult
-from ..actions.beam import diagram
+from ..actions.extremes import diagram
 from ..model.constants import GRAVITY
 from ..model.member import Load
 from ..pipeline import Analysis

@@ -10,7 +10,8 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from plystack.core.actions.beam import BeamModel, diagram
+from plystack.core.actions.beam import BeamModel
+from plystack.core.actions.extremes import diagram
 from plystack.core.model.member import BeamLayout, Load
 
 

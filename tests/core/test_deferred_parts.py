@@ -13,7 +13,7 @@ from pathlib import Path
 import pytest
 
 from plystack.core.actions import analysis
-from plystack.core.actions.beam import extremes_many
+from plystack.core.actions.extremes import extremes_many
 from plystack.core.io.project_file import load
 from plystack.core.model.project import Project
 from plystack.core.pipeline import Evaluator

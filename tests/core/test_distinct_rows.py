@@ -18,6 +18,7 @@ import pytest
 from plystack.core import pipeline
 from plystack.core.actions import analysis as an
 from plystack.core.actions import beam as bm
+from plystack.core.actions import extremes as ex
 from plystack.core.io.project_file import from_dict
 from plystack.core.model.project import Project
 
@@ -55,22 +56,22 @@ def test_distinct_rows_give_every_row_its_extremes(
     _, project = name_project
     model, sols, EIs = _batch(project)
     n = model.lengths.size
-    _, _, back = bm._distinct(sols, EIs)
+    _, _, back = ex._distinct(sols, EIs)
     assert back is not None  # the batch does ask for some numbers twice
-    every = bm._element_values(model, sols, EIs, 0, n, [(0, n)])
-    assert repr(bm.extremes_many(model, sols, EIs)) == repr(bm._reduce(model, every, 0, n))
+    every = ex._element_values(model, sols, EIs, 0, n, [(0, n)])
+    assert repr(ex.extremes_many(model, sols, EIs)) == repr(ex._reduce(model, every, 0, n))
     ranges = [(0, max(n // 2, 1)), (max(n // 2, 1), n)]
-    every = bm._element_values(model, sols, EIs, 0, n, [(0, n), *ranges])
-    expected = [bm._reduce(model, every, 0, n)] + [
-        bm._reduce(model, every.part(a, b), a, b) for a, b in ranges]
-    assert repr(bm.extremes_within(model, sols, EIs, ranges)) == repr(expected)
+    every = ex._element_values(model, sols, EIs, 0, n, [(0, n), *ranges])
+    expected = [ex._reduce(model, every, 0, n)] + [
+        ex._reduce(model, every.part(a, b), a, b) for a, b in ranges]
+    assert repr(ex.extremes_within(model, sols, EIs, ranges)) == repr(expected)
 
 
 def test_distinct_tells_signed_zero_and_layouts_apart() -> None:
     model, sols, _ = _batch(next(iter(_projects()))[1])
     s = sols[0]
-    distinct, stiffness, back = bm._distinct([s, s, s.scaled(1.0), s], [2.0, 2.0, 2.0, 3.0])
+    distinct, stiffness, back = ex._distinct([s, s, s.scaled(1.0), s], [2.0, 2.0, 2.0, 3.0])
     assert back == [0, 0, 0, 1] and list(stiffness) == [2.0, 3.0]
-    _, _, back = bm._distinct([s, s], np.array([0.0, -0.0]))
+    _, _, back = ex._distinct([s, s], np.array([0.0, -0.0]))
     assert back is None
-    assert bm._distinct([s, s._with_deflection_loads()], [1.0, 1.0])[2] is None
+    assert ex._distinct([s, s._with_deflection_loads()], [1.0, 1.0])[2] is None

@@ -21,16 +21,9 @@ import pytest
 
 from plystack.core import pipeline
 from plystack.core.actions import analysis as an
-from plystack.core.actions import beam as bm
-from plystack.core.actions.beam import (
-    BeamModel,
-    CaseSolution,
-    Extremes,
-    _ElementValues,
-    _groups,
-    _needs_roots,
-    _stacked,
-)
+from plystack.core.actions import extremes as ex
+from plystack.core.actions.beam import BeamModel, CaseSolution
+from plystack.core.actions.extremes import Extremes, _ElementValues, _groups, _needs_roots, _stacked
 from plystack.core.io.project_file import from_dict
 from plystack.core.model.project import Project
 
@@ -154,7 +147,7 @@ def _reduce_plain(model: BeamModel, values: _ElementValues, e0: int, e1: int) ->
     aw = np.abs(w)
     i_w = np.argmax(aw.reshape(k, -1), axis=1)
     pos_w = x0[None, :, None] + values.xw
-    by_region = bm._by_region(model, e0, e1, aw, w, pos_w)
+    by_region = ex._by_region(model, e0, e1, aw, w, pos_w)
     out = []
     xm_flat = (x0[None, :, None] + xm).reshape(k, -1)
     xv_flat = (x0[None, :, None] + xv_loc).reshape(k, -1)
@@ -217,17 +210,17 @@ def test_element_search_equals_the_plain_one(name_project: tuple[str, Project]) 
     for searches in (None, [(0, n)], [(0, n), (0, max(n // 2, 1)), (max(n // 2, 1), n)]):
         for rows in (sols, sols * 8):  # past 64 rows x elements the pruning is on
             stiff = list(EIs) * (len(rows) // len(sols))
-            _same(bm._element_values(model, rows, stiff, 0, n, searches),
+            _same(ex._element_values(model, rows, stiff, 0, n, searches),
                   _element_values_plain(model, rows, stiff, 0, n, searches))
     if n > 1:
-        _same(bm._element_values(model, sols, EIs, 1, n, [(1, n)]),
+        _same(ex._element_values(model, sols, EIs, 1, n, [(1, n)]),
               _element_values_plain(model, sols, EIs, 1, n, [(1, n)]))
-    every = bm._element_values(model, sols, EIs, 0, n, [(0, n)])
-    assert repr(bm._reduce(model, every, 0, n)) == repr(_reduce_plain(model, every, 0, n))
+    every = ex._element_values(model, sols, EIs, 0, n, [(0, n)])
+    assert repr(ex._reduce(model, every, 0, n)) == repr(_reduce_plain(model, every, 0, n))
     for a, b in ((0, max(n // 2, 1)), (max(n // 2, 1), n), (n - 1, n)):
         if a < b:
             part = every.part(a, b)
-            assert repr(bm._reduce(model, part, a, b)) == repr(_reduce_plain(model, part, a, b))
+            assert repr(ex._reduce(model, part, a, b)) == repr(_reduce_plain(model, part, a, b))
 
 
 @pytest.mark.parametrize("seed", range(4))
@@ -237,10 +230,10 @@ def test_roots_of_every_degree_equal_the_plain_search(seed: int) -> None:
     rows[rng.random((400, 5)) < 0.3] = 0.0  # every degree, zero rows too
     rows[:20, :3] = 1e-14 * rows[:20, :3]  # negligible leading terms
     le = rng.uniform(0.01, 5.0, 400)
-    assert bm._real_roots_batched(rows, le).tobytes() == _real_roots_plain(rows, le).tobytes()
+    assert ex._real_roots_batched(rows, le).tobytes() == _real_roots_plain(rows, le).tobytes()
     three = rows[:, 2:]
     padded = np.concatenate([np.zeros((400, 2)), three], axis=1)
-    assert (bm._real_roots_batched(padded, le)[:, :2].tobytes()
+    assert (ex._real_roots_batched(padded, le)[:, :2].tobytes()
             == _real_roots_plain(three, le).tobytes())
 
 
@@ -254,8 +247,8 @@ def test_deflection_coefficients_equal_the_plain_stack() -> None:
             args[4][..., ::2] = -0.0
             args[0][..., ::3] = -0.0
         for powers in (False, True):
-            got = bm.w_up_coefficients(*args, le, scalar_powers=powers)
+            got = ex.w_up_coefficients(*args, le, scalar_powers=powers)
             plain = _w_up_plain(*args, le, scalar_powers=powers)
             assert got.shape == plain.shape and got.tobytes() == plain.tobytes()
     floats = [float(v) for v in rng.normal(0, 1, 7)]
-    assert (bm.w_up_coefficients(*floats).tobytes() == _w_up_plain(*floats).tobytes())
+    assert (ex.w_up_coefficients(*floats).tobytes() == _w_up_plain(*floats).tobytes())

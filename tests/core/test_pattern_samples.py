@@ -1,6 +1,6 @@
 """The pattern plan's samples of every element (``patterns._samples``: all elements at
 once by Horner's rule) against numpy's ``polyval`` of each element's own polynomials
-(``beam.element_polynomials``, element by element, scalar lengths): the same numbers bit
+(``extremes.element_polynomials``, element by element, scalar lengths): the same numbers bit
 for bit, on spans whose squares numpy's array square rounds differently from a scalar's
 ``**`` (2.759, 4.536, 7.964 and 9.072 m) and on random spans.
 """
@@ -14,7 +14,8 @@ import numpy as np
 import pytest
 
 from plystack.core.actions import patterns
-from plystack.core.actions.beam import BeamModel, element_polynomials
+from plystack.core.actions.beam import BeamModel
+from plystack.core.actions.extremes import element_polynomials
 from plystack.core.io.project_file import load
 
 DEMOS = Path(__file__).resolve().parents[2] / "assets" / "demo"

@@ -1,5 +1,5 @@
 """The deflection roots of an element are sought only where its largest deflection can
-be the largest of a search (``actions.beam._needs_roots``: the bound sum |c_j| le^j of
+be the largest of a search (``actions.extremes._needs_roots``: the bound sum |c_j| le^j of
 its polynomial against the largest end deflection of the elements searched with it).
 The extremes equal those found with every root sought, bit for bit (regression guard;
 the reference is the same module with the pruning off), on a member with many point
@@ -11,6 +11,7 @@ from __future__ import annotations
 import numpy as np
 
 from plystack.core.actions import beam as bm
+from plystack.core.actions import extremes as ex
 from plystack.core.model.member import BeamLayout, Load
 
 
@@ -32,12 +33,12 @@ def test_pruned_extremes_equal_the_full_search() -> None:
     EIs = [2.0e6, 3.5e6, 1.0, 4.0e5]
     n = model.lengths.size
     assert n * len(sols) >= 64
-    full = bm._reduce(model, bm._element_values(model, sols, EIs, 0, n), 0, n)
-    assert repr(bm.extremes_many(model, sols, EIs)) == repr(full)
+    full = ex._reduce(model, ex._element_values(model, sols, EIs, 0, n), 0, n)
+    assert repr(ex.extremes_many(model, sols, EIs)) == repr(full)
     ranges = [(0, n // 3), (n // 3, n // 2), (n // 2, n)]
-    every = bm._element_values(model, sols, EIs, 0, n)
-    expected = [full] + [bm._reduce(model, every.part(a, b), a, b) for a, b in ranges]
-    assert repr(bm.extremes_within(model, sols, EIs, ranges)) == repr(expected)
+    every = ex._element_values(model, sols, EIs, 0, n)
+    expected = [full] + [ex._reduce(model, every.part(a, b), a, b) for a, b in ranges]
+    assert repr(ex.extremes_within(model, sols, EIs, ranges)) == repr(expected)
 
 
 def test_pruning_leaves_out_elements() -> None:
@@ -45,9 +46,9 @@ def test_pruning_leaves_out_elements() -> None:
     model, sols = _solutions()
     n = model.lengths.size
     le = model.lengths
-    stacked = bm._stacked(sols, 0, n)
+    stacked = ex._stacked(sols, 0, n)
     U = stacked[6]
-    w_c = -bm.w_up_coefficients(U[:, 0:-2:2], U[:, 1:-2:2], U[:, 2::2], U[:, 3::2],
+    w_c = -ex.w_up_coefficients(U[:, 0:-2:2], U[:, 1:-2:2], U[:, 2::2], U[:, 3::2],
                                 stacked[4], stacked[5], le) / 1.0
-    need = bm._needs_roots(w_c, le, bm._groups(model, 0, n, [(0, n)]))
+    need = ex._needs_roots(w_c, le, ex._groups(model, 0, n, [(0, n)]))
     assert 0 < need.sum() < need.size / 2

@@ -7,7 +7,8 @@ from __future__ import annotations
 
 import pytest
 
-from plystack.core.actions.beam import BeamModel, extremes
+from plystack.core.actions.beam import BeamModel
+from plystack.core.actions.extremes import extremes
 from plystack.core.model.member import BeamLayout, Load
 
 EI = 3.1e6

@@ -18,7 +18,8 @@ import numpy as np
 import pytest
 import sympy as sp
 
-from plystack.core.actions.beam import BeamModel, element_polynomials
+from plystack.core.actions.beam import BeamModel
+from plystack.core.actions.extremes import element_polynomials
 from plystack.core.io.output import check_json
 from plystack.core.io.project_file import from_dict
 from plystack.core.model.constants import INCH

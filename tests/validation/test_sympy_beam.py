@@ -11,7 +11,8 @@ import pytest
 import sympy
 from sympy.physics.continuum_mechanics.beam import Beam
 
-from plystack.core.actions.beam import BeamModel, diagram
+from plystack.core.actions.beam import BeamModel
+from plystack.core.actions.extremes import diagram
 from plystack.core.model.member import BeamLayout, Load
 
 EI = 2.0e6  # N m^2, any value

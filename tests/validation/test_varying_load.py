@@ -10,7 +10,8 @@ import pytest
 import sympy
 from sympy.physics.continuum_mechanics.beam import Beam
 
-from plystack.core.actions.beam import BeamModel, diagram, extremes
+from plystack.core.actions.beam import BeamModel
+from plystack.core.actions.extremes import diagram, extremes
 from plystack.core.model.member import BeamLayout, Load
 
 EI = 3.0e6
