@@ -21,6 +21,7 @@ from __future__ import annotations
 
 import math
 from bisect import bisect_left, bisect_right
+from collections.abc import Iterator
 from dataclasses import dataclass
 
 import numpy as np
@@ -238,7 +239,6 @@ def trial_within(loads: PlateLoads, layout: BoltLayout, share: float, depth: flo
     """
     xs = layout.stations
     forces = loads.forces
-    rows = layout.station_rows
     if limit != limit or not xs or not ascending(xs):
         return None
     held: list[list[int]] = [[] for _ in xs]
@@ -249,7 +249,7 @@ def trial_within(loads: PlateLoads, layout: BoltLayout, share: float, depth: flo
         if bounds is None:
             return None
         ahead = [0]
-        for rs in rows:
+        for rs in layout.station_rows:
             ahead.append(ahead[-1] + len(rs))
         for j, ((kind, _, _, force), lo, hi) in enumerate(zip(forces, *bounds, strict=True)):
             bolts = ahead[hi] - ahead[lo]
@@ -258,16 +258,28 @@ def trial_within(loads: PlateLoads, layout: BoltLayout, share: float, depth: flo
             signed.append(p * (1.0 if kind == "point" else -1.0))
             for k in range(lo, hi):
                 held[k].append(j)
-    for k, (a, b) in enumerate(_tributaries(layout)):
-        js = held[k]
-        w = _load_between(loads, a, b)
-        net = abs(share * w / len(rows[k]) + sum(signed[j] for j in js))
-        per = max(net, sum(own[j] for j in js))
+    for _k, _w, per in _per_bolt_along(loads, layout, share, own, signed, held):
         if per != per:
             return None
         if per > limit:
             return False
     return True
+
+
+def _per_bolt_along(loads: PlateLoads, layout: BoltLayout, share: float, own: list[float],
+                    signed: list[float],
+                    held: list[list[int]]) -> Iterator[tuple[int, float, float]]:
+    """``(k, w, per bolt)`` of every station in order: ``w`` the distributed load on its
+    tributary, per bolt the larger of |alpha w / n + the signed shares of the transfers
+    it holds| and the sum of their shares (``own``, ``signed``: each transfer's share per
+    bolt, and signed; ``held``: for each station, the transfers whose zone holds it).
+    """
+    rows = layout.station_rows
+    for k, (a, b) in enumerate(_tributaries(layout)):
+        js = held[k]
+        w = _load_between(loads, a, b)
+        net = abs(share * w / len(rows[k]) + sum(signed[j] for j in js))
+        yield k, w, max(net, sum(own[j] for j in js))
 
 
 def transfers(section: Section, beam: BeamResult, combo: CombinationResult,
@@ -377,19 +389,13 @@ def governing_within(loads: PlateLoads, layout: BoltLayout, share: float,
     own = [t.per_bolt for t in items]
     signed_own = [p * (1.0 if t.kind == "point" else -1.0) for p, t in zip(own, items,
                                                                              strict=True)]
-    trib = _tributaries(layout)
-    rows = layout.station_rows
     best_k, best, best_w = -1, 0.0, 0.0
-    for k, js in enumerate(held):
-        a, b = trib[k]
-        w = _load_between(loads, a, b)
-        net = abs(share * w / len(rows[k]) + sum(signed_own[j] for j in js))
-        per = max(net, sum(own[j] for j in js))
+    for k, w, per in _per_bolt_along(loads, layout, share, own, signed_own, held):
         if best_k < 0 or per > best:
             best_k, best, best_w = k, per, w
             if best > limit:
                 return None
-    a, b = trib[best_k]
+    a, b = layout.tributary(best_k)
     return StationDemand(best_k, layout.stations[best_k], a, b, best_w,
                          layout.at_station(best_k), tuple(items[j] for j in held[best_k]),
                          share)
