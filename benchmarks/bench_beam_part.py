@@ -15,10 +15,11 @@ from __future__ import annotations
 
 import statistics
 import sys
-import time
 from collections.abc import Callable
 from dataclasses import replace
 from pathlib import Path
+
+import bench_table
 
 from plystack.core import pipeline
 from plystack.core.actions import analysis as an
@@ -34,14 +35,7 @@ REPEAT = 60 if "--quick" in sys.argv else 300
 
 def cpu(fn: Callable[[], object], repeat: int = REPEAT) -> float:
     """Median CPU seconds of ``fn`` (after five warm-up calls)."""
-    for _ in range(5):
-        fn()
-    times = []
-    for _ in range(repeat):
-        t = time.process_time()
-        fn()
-        times.append(time.process_time() - t)
-    return statistics.median(times)
+    return bench_table.cpu(fn, repeat, warmup=5)
 
 
 def paired(quick: Callable[[], object], plain: Callable[[], object]) -> tuple[float, float]:

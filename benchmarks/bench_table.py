@@ -50,10 +50,10 @@ IN = 0.0254
 QUICK = "--quick" in sys.argv
 
 
-def cpu(fn: Callable[[], object], repeat: int) -> float:
-    """Median CPU seconds of ``fn`` (after two warm-up calls)."""
-    fn()
-    fn()
+def cpu(fn: Callable[[], object], repeat: int, warmup: int = 2) -> float:
+    """Median CPU seconds of ``fn`` (after ``warmup`` calls)."""
+    for _ in range(warmup):
+        fn()
     times = []
     for _ in range(repeat):
         t = time.process_time()
