@@ -30,6 +30,7 @@ from ..model.errors import Problem, ProjectError
 from ..model.member import MERGE_TOLERANCE, BeamLayout, Load, validate_layout
 from .banded import BEAM_HALF_BANDWIDTH, cholesky_band, solve_with_factor
 from .float_solve import FLOAT_SOLVE_ELEMENTS, FloatMesh, plain_inputs, solve_floats
+from .stiffness import stiffness_band, support_rows
 
 
 class CaseSolution:
@@ -161,9 +162,10 @@ class CaseSolution:
         return CaseSolution._of(a.data + b.data, a._e, a._s, a._w)
 
 
-#: Most nodes a member's mesh may have: its stiffness matrix is held whole (n^2 numbers
-#: for n degrees of freedom, 200 MB at this many nodes), so the limit keeps a file with
-#: thousands of point loads from exhausting a normal computer's memory.
+#: Most nodes a member's mesh may have: the stiffness is held as its band, but where
+#: rounding defeats the banded factor the solve falls back on the whole matrix (n^2
+#: numbers for n degrees of freedom, 200 MB at this many nodes), so the limit keeps a file
+#: with thousands of point loads from exhausting a normal computer's memory.
 MAX_NODES = 2_500
 
 
@@ -195,7 +197,7 @@ class BeamModel:
         keep = np.concatenate([[True], np.diff(nodes) > MERGE_TOLERANCE * max(L, 1.0)])
         self.nodes = nodes[keep]
         self.nodes[-1] = L
-        if self.nodes.size > MAX_NODES:  # the stiffness matrix is held whole (K @ u)
+        if self.nodes.size > MAX_NODES:  # see MAX_NODES
             raise ProjectError(Problem(
                 "beam.loads", f"need the member cut at {self.nodes.size:,} points (every "
                 "point load, every end of a partial load, every support and ply end); "
@@ -205,13 +207,10 @@ class BeamModel:
         #: 1 / EI of every element on a stepped member (None: EI = 1 throughout).
         self.flexibility = _element_flexibility(self.nodes, steps) if steps else None
         n_dof = 2 * self.nodes.size
-        K = np.zeros((n_dof, n_dof))
-        for e, le in enumerate(self.lengths):
-            k_e = _element_stiffness(le)
-            if self.flexibility is not None:
-                k_e = k_e / self.flexibility[e]
-            K[2 * e : 2 * e + 4, 2 * e : 2 * e + 4] += k_e
-        self.K = K
+        #: The stiffness's lower band: ``band[d, i]`` is the entry (i + d, i), d = 0..3.
+        self.band = stiffness_band(self.lengths, self.flexibility, n_dof)
+        self._dense: np.ndarray | None = None
+        band = self.band
         fixed = []
         self.support_nodes = []
         for xs, kind in zip(layout.support_positions(), layout.support_kinds(), strict=True):
@@ -224,15 +223,22 @@ class BeamModel:
         is_free = np.ones(n_dof, dtype=bool)
         is_free[self.fixed] = False
         self.free = np.flatnonzero(is_free)  # ascending, as setdiff1d (without numpy.ma)
+        #: The rows of the supports' residuals (see :func:`support_rows`).
+        self.rows = support_rows(band, self.support_nodes, layout.support_kinds())
         # symmetric diagonal scaling: short elements next to long ones make K badly scaled
         free = self.free
-        self._scale = 1.0 / np.sqrt(K[free, free])
+        self._scale = 1.0 / np.sqrt(band[0, free])
         # the band of the scaled free-dof matrix, diagonal by diagonal (entry (j + k, j)
         # is K[free[j + k], free[j]] * (scale[j + k] * scale[j])), factored once
         self._w = min(BEAM_HALF_BANDWIDTH, max(free.size - 1, 0))
-        diagonals = [(K[free[k:], free[: free.size - k]]
-                      * (self._scale[k:] * self._scale[: free.size - k])).tolist()
-                     for k in range(self._w + 1)]
+        diagonals = []
+        for k in range(self._w + 1):
+            lower, upper = free[: free.size - k], free[k:]
+            d = upper - lower
+            entries = np.where(d <= BEAM_HALF_BANDWIDTH,
+                               band[np.minimum(d, BEAM_HALF_BANDWIDTH), lower], 0.0)
+            diagonals.append((entries * (self._scale[k:] * self._scale[: free.size - k]))
+                             .tolist())
         self._factor: list[list[float]] | None
         try:
             self._factor = cholesky_band(diagonals, free.size, self._w)
@@ -278,6 +284,19 @@ class BeamModel:
         else:
             reactions[0] = down
             moments[0] = arm - reactions[0] * pos[0]
+
+    @property
+    def K(self) -> np.ndarray:
+        """The whole stiffness matrix, dense (made at first use from :attr:`band`)."""
+        if self._dense is None:
+            n = self.band.shape[1]
+            K = np.zeros((n, n))
+            for d in range(BEAM_HALF_BANDWIDTH + 1):
+                i = np.arange(n - d)
+                K[i + d, i] = self.band[d, : n - d]
+                K[i, i + d] = self.band[d, : n - d]
+            self._dense = K
+        return self._dense
 
     def scaled_free_stiffness(self) -> np.ndarray:
         """The stiffness of the free degrees of freedom, scaled symmetrically to a unit
@@ -325,7 +344,7 @@ class BeamModel:
         """
         if self._floats is not None and self._factor is not None and plain_inputs(
                 loads, extra_line):
-            data = solve_floats(self._floats, self.K, self._factor, self._w, loads,
+            data = solve_floats(self._floats, self.rows, self._factor, self._w, loads,
                                 extra_line)
             return CaseSolution._of(data, self.lengths.size, len(self.support_nodes),
                                     self.flexibility is not None)
@@ -370,13 +389,7 @@ class BeamModel:
         u = np.zeros_like(F)
         rhs = total[self.free]
         u[self.free] = self._scale * self._linear_solve(rhs * self._scale)
-        R = self.K @ u - total
-        reactions = np.array([R[2 * n] for n in self.support_nodes])
-        kinds = self.layout.support_kinds()
-        reaction_moments = np.array([
-            R[2 * n + 1] if k == "fixed" else 0.0
-            for n, k in zip(self.support_nodes, kinds, strict=True)
-        ])
+        reactions, reaction_moments = self.rows.residuals(u, total)
         point = -F[0::2]  # downward point loads at nodes
         self._restore_equilibrium(reactions, reaction_moments, point, q_el, dq_el)
         # shear and moment by statics, walking from the left end
@@ -431,17 +444,6 @@ def _element_flexibility(nodes: np.ndarray,
             k = int(np.argmin([min(abs(m - a), abs(m - b)) for a, b, _ in steps]))
         out[e] = 1.0 / steps[k][2]
     return out
-
-
-def _element_stiffness(le: float) -> np.ndarray:
-    """Euler-Bernoulli beam element stiffness for EI = 1, dofs (v1, t1, v2, t2)."""
-    l2 = le * le
-    return np.array([
-        [12, 6 * le, -12, 6 * le],
-        [6 * le, 4 * l2, -6 * le, 2 * l2],
-        [-12, -6 * le, 12, -6 * le],
-        [6 * le, 2 * l2, -6 * le, 4 * l2],
-    ]) / (l2 * le)
 
 
 def moment_at(model: BeamModel, sol: CaseSolution, x: float) -> float:

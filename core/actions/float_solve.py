@@ -7,8 +7,8 @@ the same order, on the same operands (the powers of the element lengths are the 
 path's own, taken once per mesh by numpy; sums add as numpy's pairwise sum adds), so the
 numbers are the same bit for bit (tests/core/test_float_solve.py compares the two).
 
-What numpy does best stays numpy: the residual ``K @ u`` and the 2 x 2 solve of the
-reactions' equilibrium.
+What numpy does best stays numpy: the 2 x 2 solve of the reactions' equilibrium. The
+reactions are the supports' residuals of ``stiffness.SupportRows``, as on the array path.
 """
 
 from __future__ import annotations
@@ -22,6 +22,7 @@ import numpy as np
 
 from ..model.member import Load
 from .banded import solve_list
+from .stiffness import SupportRows
 
 #: Most elements a mesh may have for the solve in floats (past this the arrays' own
 #: arithmetic is quick enough, and the sums' order below is only written for short rows).
@@ -155,7 +156,7 @@ def load_vectors(mesh: FloatMesh, loads: Sequence[Load], extra_line: float
     return q_el, dq_el, F, Fe
 
 
-def solve_floats(mesh: FloatMesh, K: np.ndarray, factor: list[list[float]], w: int,
+def solve_floats(mesh: FloatMesh, rows: SupportRows, factor: list[list[float]], w: int,
                  loads: Sequence[Load], extra_line: float) -> np.ndarray:
     """``BeamModel.solve`` in floats: the numbers of its ``CaseSolution.data``."""
     q_el, dq_el, F, Fe = load_vectors(mesh, loads, extra_line)
@@ -166,10 +167,7 @@ def solve_floats(mesh: FloatMesh, K: np.ndarray, factor: list[list[float]], w: i
     u = [0.0] * len(total)
     for i, s, x in zip(mesh.free, scale, solved, strict=True):
         u[i] = s * x
-    R = (K @ np.array(u) - np.array(total)).tolist()
-    reactions = [R[2 * n] for n in mesh.support_nodes]
-    moments = [R[2 * n + 1] if fixed else 0.0
-               for n, fixed in zip(mesh.support_nodes, mesh.fixed_support, strict=True)]
+    reactions, moments = rows.residuals_of(u, total)
     point = [-F[i] for i in range(0, len(F), 2)]
     _restore_equilibrium(mesh, reactions, moments, point, q_el, dq_el)
     node_force = [p * -1.0 for p in point]

@@ -1,0 +1,99 @@
+"""The beam's stiffness held as its band (``actions.stiffness``).
+
+- The band equals, bit for bit, the matrix assembled element by element from the
+  textbook Euler-Bernoulli element stiffness (common practice: 12, 6L, 4L^2, 2L^2 over
+  L^3), on uniform and stepped meshes; the dense matrix made from it (``BeamModel.K``)
+  is that matrix.
+- The reactions are the supports' residuals summed exactly once (``math.fsum``): the
+  test sums the same products in exact rational arithmetic.
+- Continuous beams against the classic coefficients of equal spans under a uniform load
+  (two spans: 3/8, 10/8, 3/8 wL; three spans: 0.4, 1.1, 1.1, 0.4 wL; common practice,
+  exact fractions of the three-moment equation) to 1e-12.
+"""
+
+from __future__ import annotations
+
+import math
+from fractions import Fraction
+
+import numpy as np
+import pytest
+
+from plystack.core.actions.beam import BeamModel
+from plystack.core.actions.stiffness import element_stiffness
+from plystack.core.model.member import BeamLayout, Load
+
+
+def _assembled(model: BeamModel) -> np.ndarray:
+    """The stiffness assembled element by element into a dense matrix."""
+    n = 2 * model.nodes.size
+    K = np.zeros((n, n))
+    for e, le in enumerate(model.lengths):
+        k_e = element_stiffness(le)
+        if model.flexibility is not None:
+            k_e = k_e / model.flexibility[e]
+        K[2 * e : 2 * e + 4, 2 * e : 2 * e + 4] += k_e
+    return K
+
+
+MESHES = [
+    (BeamLayout(spans=(3.0,), supports="simple"), ()),
+    (BeamLayout(spans=(2.0, 5.0, 0.01), supports="simple", overhang_left=0.8,
+                overhang_right=0.4), ()),
+    (BeamLayout(spans=(4.0,) * 6, supports="simple"), ()),
+    (BeamLayout(spans=(3.0,), supports="fixed-fixed"), ((0.0, 1.0, 2e6), (1.0, 2.2, 5e6),
+                                                         (2.2, 3.0, 2e6))),
+    (BeamLayout(spans=(3.0,), supports="propped"), ((0.0, 0.5, 1e6), (0.5, 3.0, 3e6))),
+    (BeamLayout(spans=(3.0, 4.0), supports="simple"), ((0.0, 0.5, 1e6), (0.5, 7.0, 3e6))),
+    (BeamLayout(spans=(3.0,), supports="cantilever"), ()),
+]
+
+
+@pytest.mark.parametrize(("layout", "steps"), MESHES)
+def test_band_is_the_assembled_matrix(layout: BeamLayout,
+                                      steps: tuple[tuple[float, float, float], ...]) -> None:
+    L = layout.length
+    loads = tuple(Load("L", "point", 1.0, at=L * (k + 0.37) / 40) for k in range(40))
+    model = BeamModel(layout, loads, steps)
+    K = _assembled(model)
+    assert model.K.tobytes() == K.tobytes()
+    for d in range(4):
+        i = np.arange(K.shape[0] - d)
+        assert model.band[d, : K.shape[0] - d].tobytes() == K[i + d, i].tobytes()
+
+
+@pytest.mark.parametrize(("layout", "steps"), MESHES)
+def test_reactions_are_exactly_summed_residuals(
+        layout: BeamLayout, steps: tuple[tuple[float, float, float], ...]) -> None:
+    L = layout.length
+    loads = [Load("D", "line", 1500.0), Load("L", "point", 2500.0, at=L * 0.61),
+             Load("L", "line", 700.0, value_end=100.0, start=L * 0.2, end=L * 0.9)]
+    model = BeamModel(layout, loads, steps)
+    rng = np.random.default_rng(7)
+    u = rng.normal(size=2 * model.nodes.size) * 1e-3
+    total = rng.normal(size=u.size) * 1e3
+    K = _assembled(model)
+    got, got_m = model.rows.residuals(u, total)
+    listed, listed_m = model.rows.residuals_of(u.tolist(), total.tolist())
+    assert got.tolist() == listed and got_m.tolist() == listed_m
+    for k, (node, kind) in enumerate(zip(model.support_nodes, layout.support_kinds(),
+                                         strict=True)):
+        for row, value in ((2 * node, got[k]), (2 * node + 1, got_m[k])):
+            if row % 2 and kind != "fixed":
+                assert value == 0.0
+                continue
+            exact = sum((Fraction(float(K[row, c] * u[c])) for c in range(u.size)),
+                        Fraction(-float(total[row])))
+            assert value == float(exact)
+
+
+@pytest.mark.parametrize(("spans", "coefficients"), [
+    (2, (Fraction(3, 8), Fraction(10, 8), Fraction(3, 8))),
+    (3, (Fraction(2, 5), Fraction(11, 10), Fraction(11, 10), Fraction(2, 5)))])
+def test_continuous_beam_reactions(spans: int, coefficients: tuple[Fraction, ...]) -> None:
+    span, w = 3.7, 2345.0
+    model = BeamModel(BeamLayout(spans=(span,) * spans, supports="simple"),
+                      [Load("D", "line", w)])
+    sol = model.solve([Load("D", "line", w)])
+    for got, c in zip(sol.reactions.tolist(), coefficients, strict=True):
+        assert math.isclose(got, float(c) * w * span, rel_tol=1e-12)
