@@ -30,7 +30,7 @@ from ..model.errors import Problem, ProjectError
 from ..model.member import MERGE_TOLERANCE, BeamLayout, Load, validate_layout
 from .banded import BEAM_HALF_BANDWIDTH, cholesky_band, solve_with_factor
 from .float_solve import FLOAT_SOLVE_ELEMENTS, FloatMesh, plain_inputs, solve_floats
-from .stiffness import stiffness_band, support_rows
+from .stiffness import scaled_diagonals, stiffness_band, support_rows
 
 
 class CaseSolution:
@@ -231,14 +231,7 @@ class BeamModel:
         # the band of the scaled free-dof matrix, diagonal by diagonal (entry (j + k, j)
         # is K[free[j + k], free[j]] * (scale[j + k] * scale[j])), factored once
         self._w = min(BEAM_HALF_BANDWIDTH, max(free.size - 1, 0))
-        diagonals = []
-        for k in range(self._w + 1):
-            lower, upper = free[: free.size - k], free[k:]
-            d = upper - lower
-            entries = np.where(d <= BEAM_HALF_BANDWIDTH,
-                               band[np.minimum(d, BEAM_HALF_BANDWIDTH), lower], 0.0)
-            diagonals.append((entries * (self._scale[k:] * self._scale[: free.size - k]))
-                             .tolist())
+        diagonals = scaled_diagonals(band, free, self._scale, self._w)
         self._factor: list[list[float]] | None
         try:
             self._factor = cholesky_band(diagonals, free.size, self._w)

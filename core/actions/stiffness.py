@@ -29,13 +29,23 @@ def element_stiffness(le: float) -> np.ndarray:
     ]) / (l2 * le)
 
 
-def stiffness_band(lengths: np.ndarray, flexibility: np.ndarray | None, n_dof: int) -> np.ndarray:
+#: Most elements whose band is assembled in plain floats (numpy's calls cost more than
+#: the arithmetic on rows this short; the same operations, so the same numbers).
+FLOAT_BAND_ELEMENTS = 48
+
+
+def stiffness_band(lengths: np.ndarray, flexibility: np.ndarray | None, n_dof: int
+                   ) -> np.ndarray:
     """The lower band of the assembled stiffness, ``band[d, i]`` = K[i + d, i]: the
     entries of :func:`element_stiffness` of every element (divided by its 1 / EI on a
     stepped member) added where the elements' dofs meet, each entry the same number as
     the element-by-element assembly makes (at most two elements meet at an entry, and
-    the sum of two does not depend on their order).
+    the sum of two does not depend on their order). A mesh of at most
+    ``FLOAT_BAND_ELEMENTS`` elements is assembled in floats (:func:`band_floats`).
     """
+    if lengths.size <= FLOAT_BAND_ELEMENTS:
+        return np.array(band_floats(lengths.tolist(), None if flexibility is None
+                                    else flexibility.tolist(), n_dof))
     le = lengths
     l2 = le * le
     l3 = l2 * le
@@ -50,6 +60,47 @@ def stiffness_band(lengths: np.ndarray, flexibility: np.ndarray | None, n_dof: i
             entry = entry / flexibility
         band[a - b, b : b + 2 * n_el : 2] += entry
     return band
+
+
+def band_floats(lengths: list[float], flexibility: list[float] | None, n_dof: int
+                ) -> list[list[float]]:
+    """:func:`stiffness_band` in floats: element by element, the same operations."""
+    band = [[0.0] * n_dof for _ in range(BEAM_HALF_BANDWIDTH + 1)]
+    for e, le in enumerate(lengths):
+        l2 = le * le
+        l3 = l2 * le
+        six, four, two = 6 * le, 4 * l2, 2 * l2
+        f = None if flexibility is None else flexibility[e]
+        for (a, b), top in (((0, 0), 12.0), ((1, 0), six), ((1, 1), four), ((2, 0), -12.0),
+                            ((2, 1), -six), ((2, 2), 12.0), ((3, 0), six), ((3, 1), two),
+                            ((3, 2), -six), ((3, 3), four)):
+            entry = top / l3
+            if f is not None:
+                entry = entry / f
+            band[a - b][2 * e + b] += entry
+    return band
+
+
+def scaled_diagonals(band: np.ndarray, free: np.ndarray, scale: np.ndarray, w: int
+                     ) -> list[list[float]]:
+    """The band of the free dofs' matrix scaled to a unit diagonal, diagonal by diagonal:
+    entry (j + k, j) is K[free[j + k], free[j]] * (scale[j + k] * scale[j]), k = 0..w
+    (in floats on a short mesh: the same products).
+    """
+    m = free.size
+    if band.shape[1] <= 2 * (FLOAT_BAND_ELEMENTS + 1):
+        rows, f, s = band.tolist(), free.tolist(), scale.tolist()
+        return [[(rows[f[j + k] - f[j]][f[j]] if f[j + k] - f[j] <= BEAM_HALF_BANDWIDTH
+                  else 0.0) * (s[j + k] * s[j]) for j in range(m - k)]
+                for k in range(w + 1)]
+    out = []
+    for k in range(w + 1):
+        lower, upper = free[: m - k], free[k:]
+        d = upper - lower
+        entries = np.where(d <= BEAM_HALF_BANDWIDTH,
+                           band[np.minimum(d, BEAM_HALF_BANDWIDTH), lower], 0.0)
+        out.append((entries * (scale[k:] * scale[: m - k])).tolist())
+    return out
 
 
 class SupportRows:
@@ -108,8 +159,9 @@ def support_rows(band: np.ndarray, support_nodes: Sequence[int],
         else:
             rotations.append(-1)
     cols, values = [], []
+    entries = band.tolist()
     for r in rows:
         cs = list(range(max(r - BEAM_HALF_BANDWIDTH, 0), min(r + BEAM_HALF_BANDWIDTH + 1, n)))
         cols.append(cs)
-        values.append([float(band[abs(r - c), min(r, c)]) for c in cs])
+        values.append([entries[abs(r - c)][min(r, c)] for c in cs])
     return SupportRows(rows, cols, values, verticals, rotations)

@@ -97,3 +97,33 @@ def test_continuous_beam_reactions(spans: int, coefficients: tuple[Fraction, ...
     sol = model.solve([Load("D", "line", w)])
     for got, c in zip(sol.reactions.tolist(), coefficients, strict=True):
         assert math.isclose(got, float(c) * w * span, rel_tol=1e-12)
+
+
+@pytest.mark.parametrize("stepped", [False, True])
+@pytest.mark.parametrize("n_el", [1, 2, 7, 48, 49, 120])
+def test_band_and_diagonals_in_floats_are_the_arrays(n_el: int, stepped: bool) -> None:
+    """The assembly and scaled diagonals of a short mesh in floats against the array
+    path's (forced on the same mesh), bit for bit."""
+    from plystack.core.actions import stiffness
+
+    rng = np.random.default_rng(n_el)
+    le = rng.uniform(1e-3, 2.0, n_el)
+    flex = rng.uniform(1e-7, 1e-5, n_el) if stepped else None
+    n_dof = 2 * (n_el + 1)
+    quick = np.array(stiffness.band_floats(le.tolist(), None if flex is None
+                                           else flex.tolist(), n_dof))
+    saved = stiffness.FLOAT_BAND_ELEMENTS
+    try:
+        stiffness.FLOAT_BAND_ELEMENTS = -1
+        plain = stiffness.stiffness_band(le, flex, n_dof)
+        free = np.array([i for i in range(n_dof) if i not in (0, n_dof - 2)])
+        scale = 1.0 / np.sqrt(plain[0, free])
+        w = min(3, free.size - 1)
+        plain_d = stiffness.scaled_diagonals(plain, free, scale, w)
+    finally:
+        stiffness.FLOAT_BAND_ELEMENTS = saved
+    assert quick.tobytes() == plain.tobytes()
+    assert stiffness.stiffness_band(le, flex, n_dof).tobytes() == plain.tobytes()
+    quick_d = stiffness.scaled_diagonals(quick, free, scale, w)
+    assert [np.array(r).tobytes() for r in quick_d] == [np.array(r).tobytes()
+                                                        for r in plain_d]
