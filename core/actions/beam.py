@@ -30,7 +30,8 @@ from ..model.errors import Problem, ProjectError
 from ..model.member import MERGE_TOLERANCE, BeamLayout, Load, validate_layout
 from .banded import BEAM_HALF_BANDWIDTH, cholesky_band, solve_with_factor
 from .float_solve import FLOAT_SOLVE_ELEMENTS, FloatMesh, plain_inputs, solve_floats
-from .stiffness import scaled_diagonals, stiffness_band, support_rows
+from .refine import Unsettled, refined, residuals, support_windows, window_reactions
+from .stiffness import scaled_diagonals, stiffness_band
 
 
 class CaseSolution:
@@ -220,11 +221,11 @@ class BeamModel:
             if kind == "fixed":
                 fixed.append(2 * node + 1)
         self.fixed = np.array(sorted(fixed))
+        #: The free body of each support's vertical reaction (``refine.support_windows``).
+        self.windows = support_windows(self.lengths.tolist(), self.support_nodes)
         is_free = np.ones(n_dof, dtype=bool)
         is_free[self.fixed] = False
         self.free = np.flatnonzero(is_free)  # ascending, as setdiff1d (without numpy.ma)
-        #: The rows of the supports' residuals (see :func:`support_rows`).
-        self.rows = support_rows(band, self.support_nodes, layout.support_kinds())
         # symmetric diagonal scaling: short elements next to long ones make K badly scaled
         free = self.free
         self._scale = 1.0 / np.sqrt(band[0, free])
@@ -308,6 +309,20 @@ class BeamModel:
             return solve_with_factor(self._factor, b, self._w)
         return np.asarray(np.linalg.solve(self.scaled_free_stiffness(), b))
 
+    def _unsettled(self, exc: Unsettled) -> Exception:
+        """The named refusal of a solve whose refinement did not settle: two points
+        standing very close (an element under 1e-3 of the longest), else the equations
+        themselves cannot be solved (``LinAlgError``, named by the pipeline).
+        """
+        e = int(np.argmin(self.lengths))
+        if not self.lengths[e] < 1e-3 * float(self.lengths.max()):
+            return np.linalg.LinAlgError("the stiffness solve did not settle")
+        return ProjectError(Problem(
+            "beam.loads", f"two points of the member (loads, supports, ply ends) stand "
+            f"{self.lengths[e] * 1000:.3g} mm apart at x = {self.nodes[e]:.6g} m, too close "
+            "for the stiffness solve to settle (its last correction was "
+            f"{exc.step:.1e} of the deflections); move them together or further apart"))
+
     def node_index(self, x: float) -> int:
         """Index of the node nearest to ``x``."""
         return int(np.argmin(np.abs(self.nodes - x)))
@@ -337,8 +352,11 @@ class BeamModel:
         """
         if self._floats is not None and self._factor is not None and plain_inputs(
                 loads, extra_line):
-            data = solve_floats(self._floats, self.rows, self._factor, self._w, loads,
-                                extra_line)
+            try:
+                data = solve_floats(self._floats, self.windows, self._factor, self._w, loads,
+                                    extra_line)
+            except Unsettled as exc:
+                raise self._unsettled(exc) from None
             return CaseSolution._of(data, self.lengths.size, len(self.support_nodes),
                                     self.flexibility is not None)
         return self.solve_arrays(loads, extra_line)
@@ -382,7 +400,18 @@ class BeamModel:
         u = np.zeros_like(F)
         rhs = total[self.free]
         u[self.free] = self._scale * self._linear_solve(rhs * self._scale)
-        reactions, reaction_moments = self.rows.residuals(u, total)
+        le, flex = self.lengths, self.flexibility
+        try:
+            refined(u, self.free, self._scale, lambda v: residuals(le, flex, v, total),
+                    self._linear_solve)
+        except Unsettled as exc:
+            raise self._unsettled(exc) from None
+        R = residuals(le, flex, u, total)  # f - K u: the reactions are K u - f
+        reactions = np.array(window_reactions(self.windows, le.tolist(), None if flex is None
+                                              else flex.tolist(), u.tolist(), total.tolist()))
+        reaction_moments = np.array([
+            0.0 - R[2 * n + 1] if k == "fixed" else 0.0
+            for n, k in zip(self.support_nodes, self.layout.support_kinds(), strict=True)])
         point = -F[0::2]  # downward point loads at nodes
         self._restore_equilibrium(reactions, reaction_moments, point, q_el, dq_el)
         # shear and moment by statics, walking from the left end

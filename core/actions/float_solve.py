@@ -8,7 +8,7 @@ path's own, taken once per mesh by numpy; sums add as numpy's pairwise sum adds)
 numbers are the same bit for bit (tests/core/test_float_solve.py compares the two).
 
 What numpy does best stays numpy: the 2 x 2 solve of the reactions' equilibrium. The
-reactions are the supports' residuals of ``stiffness.SupportRows``, as on the array path.
+refinement and the reactions are ``refine``'s in floats, as the array path's.
 """
 
 from __future__ import annotations
@@ -22,7 +22,7 @@ import numpy as np
 
 from ..model.member import Load
 from .banded import solve_list
-from .stiffness import SupportRows
+from .refine import refined_floats, residuals_floats, window_reactions
 
 #: Most elements a mesh may have for the solve in floats (past this the arrays' own
 #: arithmetic is quick enough, and the sums' order below is only written for short rows).
@@ -156,8 +156,9 @@ def load_vectors(mesh: FloatMesh, loads: Sequence[Load], extra_line: float
     return q_el, dq_el, F, Fe
 
 
-def solve_floats(mesh: FloatMesh, rows: SupportRows, factor: list[list[float]], w: int,
-                 loads: Sequence[Load], extra_line: float) -> np.ndarray:
+def solve_floats(mesh: FloatMesh, windows: list[tuple[int, int, int, int]],
+                 factor: list[list[float]], w: int, loads: Sequence[Load],
+                 extra_line: float) -> np.ndarray:
     """``BeamModel.solve`` in floats: the numbers of its ``CaseSolution.data``."""
     q_el, dq_el, F, Fe = load_vectors(mesh, loads, extra_line)
     total = [f + g for f, g in zip(F, Fe, strict=True)]
@@ -167,7 +168,13 @@ def solve_floats(mesh: FloatMesh, rows: SupportRows, factor: list[list[float]], 
     u = [0.0] * len(total)
     for i, s, x in zip(mesh.free, scale, solved, strict=True):
         u[i] = s * x
-    reactions, moments = rows.residuals_of(u, total)
+    le, flex = mesh.le, mesh.flexibility
+    refined_floats(u, mesh.free, scale, lambda v: residuals_floats(le, flex, v, total),
+                   lambda b: solve_list(factor, b, w))
+    R = residuals_floats(le, flex, u, total)  # f - K u: the reactions are K u - f
+    reactions = window_reactions(windows, le, flex, u, total)
+    moments = [0.0 - R[2 * n + 1] if fixed else 0.0
+               for n, fixed in zip(mesh.support_nodes, mesh.fixed_support, strict=True)]
     point = [-F[i] for i in range(0, len(F), 2)]
     _restore_equilibrium(mesh, reactions, moments, point, q_el, dq_el)
     node_force = [p * -1.0 for p in point]

@@ -1,17 +1,13 @@
-"""The stiffness of the beam's mesh: the element stiffness, the assembled matrix's band,
-and the supports' rows, whose residuals R = K u - f are the reactions.
+"""The stiffness of the beam's mesh: the element stiffness and the assembled matrix's
+band, and the band of the free degrees of freedom scaled for the factor.
 
 Only the band is assembled (a degree of freedom couples only with those of its own and
 the neighbouring nodes: entries more than three places off the diagonal are zero), so
-the assembly, the factor and the reactions take work in proportion to the elements.
-The reactions are each row's products summed by ``math.fsum``: correctly rounded, in an
-order that does not depend on the machine's BLAS.
+the assembly and the factor take work in proportion to the elements. The residuals and
+reactions are found element by element (``refine``), not from this matrix.
 """
 
 from __future__ import annotations
-
-import math
-from collections.abc import Sequence
 
 import numpy as np
 
@@ -101,67 +97,3 @@ def scaled_diagonals(band: np.ndarray, free: np.ndarray, scale: np.ndarray, w: i
                            band[np.minimum(d, BEAM_HALF_BANDWIDTH), lower], 0.0)
         out.append((entries * (scale[k:] * scale[: m - k])).tolist())
     return out
-
-
-class SupportRows:
-    """The stiffness rows of the supports' degrees of freedom, to find the reactions
-    as residuals of the solution: R = K u - f on each supported row.
-
-    ``cols[i]``, ``values[i]``: the columns and entries of row ``rows[i]`` inside the
-    band; ``rows`` lists every support's vertical row, then, for a fixed support, its
-    rotation's row (``rotations[k]``: index into ``rows``, or -1).
-    """
-
-    def __init__(self, rows: list[int], cols: list[list[int]], values: list[list[float]],
-                 verticals: list[int], rotations: list[int]):
-        self.rows = rows
-        self.cols = cols
-        self.values = values
-        self.verticals = verticals
-        self.rotations = rotations
-        self._flat = np.array([c for cs in cols for c in cs], dtype=int)
-        self._values = np.array([v for vs in values for v in vs])
-
-    def residuals_of(self, u: Sequence[float], total: Sequence[float]
-                     ) -> tuple[list[float], list[float]]:
-        """The reactions and reaction moments (zero where a support is not fixed) of the
-        solution ``u`` under the nodal loads ``total`` (lists of floats): each residual
-        is the correctly rounded sum (``math.fsum``) of the row's products and -f.
-        """
-        r = [math.fsum([v * u[c] for c, v in zip(cs, vs, strict=True)] + [-total[row]])
-             for row, cs, vs in zip(self.rows, self.cols, self.values, strict=True)]
-        return ([r[i] for i in self.verticals],
-                [r[i] if i >= 0 else 0.0 for i in self.rotations])
-
-    def residuals(self, u: np.ndarray, total: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-        """:meth:`residuals_of` of arrays: the same products (one gather) and sums."""
-        products = (self._values * u[self._flat]).tolist()
-        out, at = [], 0
-        for row, cs in zip(self.rows, self.cols, strict=True):
-            out.append(math.fsum(products[at : at + len(cs)] + [-float(total[row])]))
-            at += len(cs)
-        return (np.array([out[i] for i in self.verticals]),
-                np.array([out[i] if i >= 0 else 0.0 for i in self.rotations]))
-
-
-def support_rows(band: np.ndarray, support_nodes: Sequence[int],
-                 kinds: Sequence[str]) -> SupportRows:
-    """The :class:`SupportRows` of a mesh's supports (``band`` as :func:`stiffness_band`)."""
-    n = band.shape[1]
-    rows: list[int] = []
-    verticals, rotations = [], []
-    for node, kind in zip(support_nodes, kinds, strict=True):
-        verticals.append(len(rows))
-        rows.append(2 * node)
-        if kind == "fixed":
-            rotations.append(len(rows))
-            rows.append(2 * node + 1)
-        else:
-            rotations.append(-1)
-    cols, values = [], []
-    entries = band.tolist()
-    for r in rows:
-        cs = list(range(max(r - BEAM_HALF_BANDWIDTH, 0), min(r + BEAM_HALF_BANDWIDTH + 1, n)))
-        cols.append(cs)
-        values.append([entries[abs(r - c)][min(r, c)] for c in cs])
-    return SupportRows(rows, cols, values, verticals, rotations)
