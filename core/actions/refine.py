@@ -212,7 +212,10 @@ def window_reactions(windows: list[tuple[int, int, int, int]], le: list[float],
             if e >= 0:
                 terms.append(sign * _shear(le[e], None if flexibility is None
                                            else flexibility[e], u, e))
-        out.append(0.0 + math.fsum(terms))
+        try:
+            out.append(0.0 + math.fsum(terms))
+        except (ValueError, OverflowError):  # infinities of both signs, or past the floats
+            out.append(0.0 + sum(terms))  # NaN or infinite: the results' check names it
     return out
 
 

@@ -405,9 +405,10 @@ def test_negative_capacity_is_a_named_problem():
 
 
 def test_thousands_of_point_loads_are_refused_by_name(tmp_path, capsys):
-    """A member cut at more points than ``MAX_NODES`` (its stiffness matrix is held
-    whole: 30,000 point loads would ask for 27 GB) is a named problem, quickly, in the
-    pipeline and on the command line; 2,000 point loads are still analysed."""
+    """A member cut at more points than ``MAX_NODES`` (a solve that rounding defeats
+    falls back on the whole stiffness matrix: 30,000 point loads would ask for 27 GB) is
+    a named problem, quickly, in the pipeline and on the command line; 2,000 point loads
+    are still analysed."""
     from dataclasses import replace
 
     from plystack.core.actions.beam import MAX_NODES
