@@ -153,3 +153,14 @@ def test_residuals_in_floats_are_the_arrays() -> None:
                                         u.tolist(), f.tolist())
         assert np.array(quick).tobytes() == plain.tobytes()
 
+
+
+def test_loads_near_the_largest_float_give_numbers_not_exceptions() -> None:
+    """Infinities of both signs in a support's free body: NaN reactions (the pipeline's
+    check of the results then names the problem), not an exception from ``math.fsum``."""
+    layout = BeamLayout(spans=(3.0, 4.0), supports="simple")
+    for v in (1e308, -1e308):
+        loads = [Load("D", "point", v, at=1.2), Load("D", "point", -v, at=5.0)]
+        for sol in (BeamModel(layout, loads).solve(loads),
+                    BeamModel(layout, loads).solve_arrays(loads)):
+            assert not np.isfinite(sol.reactions).all()
