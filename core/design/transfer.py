@@ -20,9 +20,11 @@ station's bolts, plus the share per bolt of every transfer whose zone holds the 
 from __future__ import annotations
 
 import math
+import operator
 from bisect import bisect_left, bisect_right
 from collections.abc import Iterator
-from dataclasses import dataclass
+from dataclasses import dataclass, field
+from functools import reduce
 
 import numpy as np
 
@@ -177,6 +179,9 @@ class PlateLoads:
         q: the solution's distributed load at the start of each element, N/m (upward
             positive).
         dq: its change along each element, N/m^2.
+        whole: the term of each element a tributary covers whole, as
+            :func:`_load_between` adds it (0.0 for an element of no length); empty
+            where the nodes do not ascend (then every term is found where it is used).
 
     """
 
@@ -184,6 +189,23 @@ class PlateLoads:
     nodes: tuple[float, ...]
     q: tuple[float, ...]
     dq: tuple[float, ...]
+    whole: tuple[float, ...] = field(default=(), compare=False, repr=False)
+
+
+def whole_terms(nodes: tuple[float, ...], q: tuple[float, ...],
+                dq: tuple[float, ...]) -> tuple[float, ...]:
+    """The terms ``q (s1 - s0) + dq (s1^2 - s0^2) / 2`` of every element covered whole
+    (s0 = 0, s1 its length; 0.0 where it has none, which ``_load_between`` leaves out),
+    or () where the nodes do not ascend.
+    """
+    if not ascending(nodes) or len(q) != len(nodes) - 1 or len(dq) != len(q):
+        return ()
+    out = []
+    for e in range(len(q)):
+        s0 = 0.0
+        s1 = nodes[e + 1] - nodes[e]
+        out.append(q[e] * (s1 - s0) + dq[e] * (s1**2 - s0**2) / 2 if s1 > s0 else 0.0)
+    return tuple(out)
 
 
 def plate_loads(section: Section, beam: BeamResult, combo: CombinationResult,
@@ -201,8 +223,9 @@ def plate_loads(section: Section, beam: BeamResult, combo: CombinationResult,
     items += [("point", f"point load at x = {x:.6g} m", x, P) for x, P in
               point_loads(beam, combo) if start - 1e-9 <= x <= end + 1e-9]
     sol = combo.solution
-    return PlateLoads(tuple(items), tuple(beam.model.nodes.tolist()), tuple(sol.q.tolist()),
-                      tuple(sol.dq.tolist()))
+    nodes, q, dq = (tuple(beam.model.nodes.tolist()), tuple(sol.q.tolist()),
+                    tuple(sol.dq.tolist()))
+    return PlateLoads(tuple(items), nodes, q, dq, whole_terms(nodes, q, dq))
 
 
 def placed_transfers(loads: PlateLoads, layout: BoltLayout, share: float,
@@ -241,9 +264,9 @@ def trial_within(loads: PlateLoads, layout: BoltLayout, share: float, depth: flo
     forces = loads.forces
     if limit != limit or not xs or not ascending(xs):
         return None
-    held: list[list[int]] = [[] for _ in xs]
-    own: list[float] = []
-    signed: list[float] = []
+    n = len(xs)
+    own = [0.0] * n  # for each station, the shares per bolt of the transfers it holds
+    signed = [0.0] * n  # and signed, each added in the transfers' order
     if forces:
         bounds = zone_runs(xs, [f[2] for f in forces], depth)
         if bounds is None:
@@ -251,14 +274,14 @@ def trial_within(loads: PlateLoads, layout: BoltLayout, share: float, depth: flo
         ahead = [0]
         for rs in layout.station_rows:
             ahead.append(ahead[-1] + len(rs))
-        for j, ((kind, _, _, force), lo, hi) in enumerate(zip(forces, *bounds, strict=True)):
+        for (kind, _, _, force), lo, hi in zip(forces, *bounds, strict=True):
             bolts = ahead[hi] - ahead[lo]
             p = abs(share * force) / bolts if bolts else math.inf  # Transfer.per_bolt
-            own.append(p)
-            signed.append(p * (1.0 if kind == "point" else -1.0))
+            q = p * (1.0 if kind == "point" else -1.0)
             for k in range(lo, hi):
-                held[k].append(j)
-    for _k, _w, per in _per_bolt_along(loads, layout, share, own, signed, held):
+                own[k] += p
+                signed[k] += q
+    for _k, _w, per in _per_bolt_along(loads, layout, share, own, signed):
         if per != per:
             return None
         if per > limit:
@@ -267,19 +290,18 @@ def trial_within(loads: PlateLoads, layout: BoltLayout, share: float, depth: flo
 
 
 def _per_bolt_along(loads: PlateLoads, layout: BoltLayout, share: float, own: list[float],
-                    signed: list[float],
-                    held: list[list[int]]) -> Iterator[tuple[int, float, float]]:
+                    signed: list[float]) -> Iterator[tuple[int, float, float]]:
     """``(k, w, per bolt)`` of every station in order: ``w`` the distributed load on its
     tributary, per bolt the larger of |alpha w / n + the signed shares of the transfers
-    it holds| and the sum of their shares (``own``, ``signed``: each transfer's share per
-    bolt, and signed; ``held``: for each station, the transfers whose zone holds it).
+    it holds| and the sum of their shares (``own``, ``signed``: for each station, the
+    sums of the shares per bolt of the transfers whose zone holds it, and signed, added
+    in the transfers' order from zero: the floats ``sum`` makes of them).
     """
     rows = layout.station_rows
     for k, (a, b) in enumerate(_tributaries(layout)):
-        js = held[k]
         w = _load_between(loads, a, b)
-        net = abs(share * w / len(rows[k]) + sum(signed[j] for j in js))
-        yield k, w, max(net, sum(own[j] for j in js))
+        net = abs(share * w / len(rows[k]) + signed[k])
+        yield k, w, max(net, own[k])
 
 
 def transfers(section: Section, beam: BeamResult, combo: CombinationResult,
@@ -333,11 +355,27 @@ def _load_between(loads: PlateLoads, a: float, b: float) -> float:
     """:func:`distributed_load` on the loads' element values: the same terms in the same
     order, so the same float.
     """
-    nodes, q, dq = loads.nodes, loads.q, loads.dq
-    total = 0.0
+    nodes = loads.nodes
     first = bisect_right(nodes, a, 1) - 1  # searchsorted(nodes[1:], a, "right")
     last = bisect_left(nodes, b, 0, len(nodes) - 1)  # searchsorted(nodes[:-1], b, "left")
-    for e in range(first, max(first, last)):
+    end = max(first, last)
+    whole = loads.whole
+    if not (whole and a == a and b == b):
+        return _terms_between(loads, a, b, first, end, 0.0)
+    # the elements with a <= x0 and x1 <= b, one run of the ascending nodes: their terms
+    # are those of ``whole`` (s0 = max(a, x0) - x0 = 0, s1 = min(b, x1) - x0 = x1 - x0)
+    inner = min(max(first, bisect_left(nodes, a)), end)
+    stop = min(max(inner, bisect_right(nodes, b) - 1), end)
+    total = _terms_between(loads, a, b, first, inner, 0.0)
+    total = reduce(operator.sub, whole[inner:stop], total)  # total -= each, in order
+    return _terms_between(loads, a, b, stop, end, total)
+
+
+def _terms_between(loads: PlateLoads, a: float, b: float, first: int, end: int,
+                   total: float) -> float:
+    """``total`` less the terms of the elements ``first`` to ``end`` (excluded) on (a, b)."""
+    nodes, q, dq = loads.nodes, loads.q, loads.dq
+    for e in range(first, end):
         x0 = nodes[e]
         s0 = max(a, x0) - x0
         s1 = min(b, nodes[e + 1]) - x0
@@ -385,20 +423,25 @@ def governing_within(loads: PlateLoads, layout: BoltLayout, share: float,
     """:func:`governing_demand`, or None as soon as the most loaded station so far carries
     more than ``limit`` per bolt (then the governing one does too: the layout fails).
     """
-    held = _zones_of(layout, items)
-    own = [t.per_bolt for t in items]
-    signed_own = [p * (1.0 if t.kind == "point" else -1.0) for p, t in zip(own, items,
-                                                                             strict=True)]
+    n = len(layout.stations)
+    own = [0.0] * n  # as in trial_within: the sums each station holds, in order
+    signed = [0.0] * n
+    for t in items:
+        p = t.per_bolt
+        q = p * (1.0 if t.kind == "point" else -1.0)
+        for k in t.zone:
+            own[k] += p
+            signed[k] += q
     best_k, best, best_w = -1, 0.0, 0.0
-    for k, w, per in _per_bolt_along(loads, layout, share, own, signed_own, held):
+    for k, w, per in _per_bolt_along(loads, layout, share, own, signed):
         if best_k < 0 or per > best:
             best_k, best, best_w = k, per, w
             if best > limit:
                 return None
     a, b = layout.tributary(best_k)
     return StationDemand(best_k, layout.stations[best_k], a, b, best_w,
-                         layout.at_station(best_k), tuple(items[j] for j in held[best_k]),
-                         share)
+                         layout.at_station(best_k),
+                         tuple(t for t in items if best_k in t.zone), share)
 
 
 def station_demands(section: Section, beam: BeamResult, combo: CombinationResult,
