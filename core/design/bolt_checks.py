@@ -21,7 +21,7 @@ from ..model.units import fmt
 from ..section.transformed import Section
 from .bolt_geometry import geometry_checks, layout_factors
 from .bolt_layout import BoltLayout, layout_of
-from .check import Check, Fasteners, capacity_from
+from .check import Check, Fasteners, capacity_from, evolve
 from .common import STOCK_SPACINGS_SI, STOCK_SPACINGS_US, Joint, own_checks, plate_share
 from .net_section import net_checks, net_shear_checks
 from .splitting import Shared, SplitSite, splitting_checks
@@ -293,7 +293,8 @@ def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: 
                    f"{source}.", CAUTION)))
         words = [_words_of(t, layout, system, said, named, zoned) for t in items]
         shared: dict[tuple[int, int], _Zoned] = {}
-        out += [_transfer_check(t, w, combo, value, f, steel, shared)
+        first: dict[tuple[int, int], Check] = {}
+        out += [_transfer_check(t, w, combo, value, f, steel, shared, first)
                 for t, w in zip(items, words, strict=True)]
         shear = own_checks(section, gross).shear_capacity.get(combo.name, {})
         for t, w in zip(items, words, strict=True):
@@ -412,19 +413,28 @@ def _zoned(t: Transfer, value: BoltValue, f: dict[str, float],
 
 def _transfer_check(t: Transfer, w: _Words, combo: CombinationResult, value: BoltValue,
                     f: dict[str, float], steel: str,
-                    shared: dict[tuple[int, int], _Zoned] | None = None) -> Check:
+                    shared: dict[tuple[int, int], _Zoned] | None = None,
+                    first: dict[tuple[int, int], Check] | None = None) -> Check:
     """The ``load-transfer`` check of one transfer (``shared``: what the checks of one
-    combination share, by the zone's bolts and stations).
+    combination share, by the zone's bolts and stations; ``first``: the first check made
+    of each of those, from which the next are copied with their own values).
     """
     z = _zoned(t, value, f, shared)
-    return Check(
+    notes = (w.zone,
+             ("The plate does not bear on this support: its share of the reaction reaches "
+              "the timbers through these bolts." if t.kind == "support" else
+              "The load bears on the timbers: the plate's share enters through these "
+              "bolts."), CAUTION)
+    key = (t.bolts, len(t.zone))
+    like = None if first is None else first.get(key)
+    if like is not None and like.combination == combo.name and like.ply == steel:
+        return evolve(like, demand=t.demand, location=w.location, x=t.x, notes=notes)
+    made = Check(
         id="load-transfer", ply=steel, combination=combo.name, demand=t.demand,
         capacity=z.capacity, quantity="force",
         reference=value.reference, factors=z.factors, partial_factors=z.partial,
         sources=z.sources, equation=z.equation, location=w.location,
-        x=t.x, fasteners=z.fasteners,
-        notes=(w.zone,
-               ("The plate does not bear on this support: its share of the reaction reaches "
-                "the timbers through these bolts." if t.kind == "support" else
-                "The load bears on the timbers: the plate's share enters through these "
-                "bolts."), CAUTION))
+        x=t.x, fasteners=z.fasteners, notes=notes)
+    if first is not None:
+        first[key] = made
+    return made

@@ -31,7 +31,7 @@ from ..codes import en1995_fasteners as en
 from ..model.design import DesignSpec
 from ..model.units import fmt
 from ..section.transformed import Section
-from .check import Check, capacity_from
+from .check import Check, capacity_from, evolve
 from .common import Joint
 from .memo import once
 
@@ -156,13 +156,32 @@ class Shared:
     stations' distance to the nearer end of the member (read, never changed).
     """
 
-    __slots__ = ("ends", "heights", "resistances")
+    __slots__ = ("ends", "first", "heights", "joint", "resistances", "section", "shares",
+                 "timbers")
 
     def __init__(self) -> None:
         """Nothing found yet."""
         self.resistances: dict[tuple[object, ...], _Resistance] = {}
+        self.first: dict[tuple[object, ...], Check] = {}  # the first check of each
         self.heights: dict[tuple[tuple[float, ...], str], str] = {}
         self.ends: dict[tuple[tuple[float, ...], float], float] = {}
+        self.section: Section | None = None  # the timbers (and shares) are this
+        self.joint: Joint | None = None  # section's and joint's
+        self.timbers: tuple[_Timber, ...] = ()
+        self.shares: dict[int, float] | None = None
+
+    def timbers_of(self, section: Section, joint: Joint) -> tuple[_Timber, ...]:
+        """:func:`_timbers`, asked once while the section and joint stay the same."""
+        if self.section is not section or self.joint != joint:
+            self.section, self.joint = section, joint
+            self.timbers, self.shares = _timbers(section, joint), None
+        return self.timbers
+
+    def shares_of(self, section: Section, joint: Joint) -> dict[int, float]:
+        """:func:`_shares` of the section and joint of :meth:`timbers_of`."""
+        if self.shares is None:
+            self.shares = _shares(section, joint)
+        return self.shares
 
 
 def _heights_text(heights: tuple[float, ...], system: str, memo: Shared) -> str:
@@ -192,12 +211,13 @@ def splitting_checks(section: Section, joint: Joint, site: SplitSite, design: De
     timber under the combination, by ply name; a timber without one is left out).
     ``shared``: what earlier sites of the same caller found (filled here).
     """
-    timbers = _timbers(section, joint)
+    memo = Shared() if shared is None else shared
+    timbers = memo.timbers_of(section, joint)
     if not timbers:
         return []
     out = []
-    memo = Shared() if shared is None else shared
-    resistances = memo.resistances
+    resistances, first = memo.resistances, memo.first
+    us = design.us
     heights = site.heights
     # the loaded edge and the most distant bolt from it, as ``_edge`` finds them
     down = site.force < 0
@@ -210,7 +230,7 @@ def splitting_checks(section: Section, joint: Joint, site: SplitSite, design: De
         lo, hi = tb.bottom, tb.top
         h_e, h = (far - lo, hi - lo) if down else (hi - far, hi - lo)
         b = tb.width
-        if not design.us:
+        if not us:
             if k_mod is None or not 0 < h_e < h:
                 continue
             key: tuple[object, ...] = ("EU", b, h_e, h, k_mod)
@@ -232,13 +252,19 @@ def splitting_checks(section: Section, joint: Joint, site: SplitSite, design: De
         if location is None:
             location = (f"{site.label}: bolts at y = {_heights_text(heights, system, memo)}"
                         f"; loaded edge {edge}")
-            shares = _shares(section, joint)
-        out.append(Check(
-            id="splitting", ply=tb.name, combination=combination,
-            demand=abs(site.force) * shares[tb.index], capacity=r.capacity,
-            quantity="force", reference=r.reference, factors=r.factors,
-            partial_factors=r.partial, sources=r.sources, equation=r.equation,
-            location=location, x=site.x, notes=r.notes))
+            shares = memo.shares_of(section, joint)
+        demand = abs(site.force) * shares[tb.index]
+        like = first.get(key)
+        if like is None:
+            like = first[key] = Check(
+                id="splitting", ply=tb.name, combination=combination, demand=demand,
+                capacity=r.capacity, quantity="force", reference=r.reference,
+                factors=r.factors, partial_factors=r.partial, sources=r.sources,
+                equation=r.equation, location=location, x=site.x, notes=r.notes)
+            out.append(like)
+        else:  # the same resistance: the check made before with this site's own values
+            out.append(evolve(like, ply=tb.name, combination=combination, demand=demand,
+                              location=location, x=site.x))
     return out
 
 

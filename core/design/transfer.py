@@ -37,7 +37,7 @@ from .bolt_layout import BoltLayout
 from .check import Check, evolve
 from .common import joints_of_timber, side_by_side_joints, unit_shear_stress
 from .memo import once, with_partner
-from .zones import ascending, zone, zone_ascending, zone_runs
+from .zones import ascending, station_sums, zone, zone_ascending, zone_runs
 
 
 def plate_extent(section: Section, i: int, length: float) -> tuple[float, float]:
@@ -264,23 +264,13 @@ def trial_within(loads: PlateLoads, layout: BoltLayout, share: float, depth: flo
     forces = loads.forces
     if limit != limit or not xs or not ascending(xs):
         return None
-    n = len(xs)
-    own = [0.0] * n  # for each station, the shares per bolt of the transfers it holds
-    signed = [0.0] * n  # and signed, each added in the transfers' order
     if forces:
         bounds = zone_runs(xs, [f[2] for f in forces], depth)
         if bounds is None:
             return None
-        ahead = [0]
-        for rs in layout.station_rows:
-            ahead.append(ahead[-1] + len(rs))
-        for (kind, _, _, force), lo, hi in zip(forces, *bounds, strict=True):
-            bolts = ahead[hi] - ahead[lo]
-            p = abs(share * force) / bolts if bolts else math.inf  # Transfer.per_bolt
-            q = p * (1.0 if kind == "point" else -1.0)
-            for k in range(lo, hi):
-                own[k] += p
-                signed[k] += q
+        own, signed = station_sums(forces, *bounds, layout.station_rows, share)
+    else:
+        own, signed = [0.0] * len(xs), [0.0] * len(xs)
     for _k, _w, per in _per_bolt_along(loads, layout, share, own, signed):
         if per != per:
             return None

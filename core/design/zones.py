@@ -6,6 +6,7 @@ transfers, all at once (the same stations).
 
 from __future__ import annotations
 
+import math
 from bisect import bisect_left
 
 import numpy as np
@@ -90,6 +91,51 @@ def zone_runs(xs: tuple[float, ...], at: list[float],
             return None
         return [z[0] for z in zones], [z[-1] + 1 for z in zones]
     return zone_bounds(xs, at, depth)
+
+
+#: Transfers from which :func:`station_sums` adds with numpy (fewer: plain floats).
+MANY_SUMS = 16
+
+
+def station_sums(forces: tuple[tuple[str, str, float, float], ...], lo: list[int],
+                 hi: list[int], station_rows: tuple[tuple[int, ...], ...],
+                 share: float) -> tuple[list[float], list[float]]:
+    """For every station, the sum of the shares per bolt of the transfers whose zone
+    ``range(lo[j], hi[j])`` holds it, and of the same signed (point loads push the plate
+    down, reactions up): each transfer (kind, label, x, force) shares alpha |force| over
+    its zone's bolts (infinite with none), the sums made from 0.0 in the transfers' order,
+    the floats ``sum`` makes of them; with numpy for many (``bincount`` adds its weights
+    one by one in their order: the same additions).
+    """
+    n = len(station_rows)
+    if len(forces) < MANY_SUMS:
+        ahead = [0]  # bolts at the stations before each index: a zone's bolts by difference
+        for rs in station_rows:
+            ahead.append(ahead[-1] + len(rs))
+        own, signed = [0.0] * n, [0.0] * n
+        for (kind, _, _, force), a, b in zip(forces, lo, hi, strict=True):
+            bolts = ahead[b] - ahead[a]
+            p = abs(share * force) / bolts if bolts else math.inf  # Transfer.per_bolt
+            q = p * (1.0 if kind == "point" else -1.0)
+            for k in range(a, b):
+                own[k] += p
+                signed[k] += q
+        return own, signed
+    with np.errstate(all="ignore"):  # as plain floats: inf and nan, never a warning
+        ahead_a = np.zeros(n + 1, dtype=np.int64)
+        np.cumsum([len(rs) for rs in station_rows], out=ahead_a[1:])
+        lo_a, hi_a = np.asarray(lo, dtype=np.int64), np.asarray(hi, dtype=np.int64)
+        bolts_a = ahead_a[hi_a] - ahead_a[lo_a]
+        demand = np.abs(share * np.array([f[3] for f in forces], dtype=float))
+        per = np.full(len(forces), np.inf)
+        np.divide(demand, bolts_a, out=per, where=bolts_a != 0)
+        sign = np.array([1.0 if f[0] == "point" else -1.0 for f in forces])
+        sizes = hi_a - lo_a
+        each = np.repeat(np.arange(len(forces)), sizes)  # transfer by transfer, in order
+        at = lo_a[each] + np.arange(each.size) - np.repeat(np.cumsum(sizes) - sizes, sizes)
+        own_a = np.bincount(at, weights=per[each], minlength=n)
+        signed_a = np.bincount(at, weights=(per * sign)[each], minlength=n)
+    return own_a.tolist(), signed_a.tolist()
 
 
 def ascending(xs: tuple[float, ...]) -> bool:
