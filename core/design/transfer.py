@@ -20,11 +20,9 @@ station's bolts, plus the share per bolt of every transfer whose zone holds the 
 from __future__ import annotations
 
 import math
-import operator
 from bisect import bisect_left, bisect_right
 from collections.abc import Iterator
 from dataclasses import dataclass, field
-from functools import reduce
 
 import numpy as np
 
@@ -37,7 +35,16 @@ from .bolt_layout import BoltLayout
 from .check import Check, evolve
 from .common import joints_of_timber, side_by_side_joints, unit_shear_stress
 from .memo import once, with_partner
-from .zones import ascending, station_sums, zone, zone_ascending, zone_runs
+from .tributary import load_between, tributaries, whole_terms
+from .zones import (
+    ForceArrays,
+    ascending,
+    force_arrays,
+    station_sums,
+    zone,
+    zone_ascending,
+    zone_runs,
+)
 
 
 def plate_extent(section: Section, i: int, length: float) -> tuple[float, float]:
@@ -179,8 +186,9 @@ class PlateLoads:
         q: the solution's distributed load at the start of each element, N/m (upward
             positive).
         dq: its change along each element, N/m^2.
+        arrays: the forces as arrays for many (``zones.force_arrays``), or None.
         whole: the term of each element a tributary covers whole, as
-            :func:`_load_between` adds it (0.0 for an element of no length); empty
+            ``tributary.load_between`` adds it (0.0 for an element of no length); empty
             where the nodes do not ascend (then every term is found where it is used).
 
     """
@@ -190,22 +198,11 @@ class PlateLoads:
     q: tuple[float, ...]
     dq: tuple[float, ...]
     whole: tuple[float, ...] = field(default=(), compare=False, repr=False)
+    arrays: ForceArrays | None = field(default=None, compare=False, repr=False)
 
-
-def whole_terms(nodes: tuple[float, ...], q: tuple[float, ...],
-                dq: tuple[float, ...]) -> tuple[float, ...]:
-    """The terms ``q (s1 - s0) + dq (s1^2 - s0^2) / 2`` of every element covered whole
-    (s0 = 0, s1 its length; 0.0 where it has none, which ``_load_between`` leaves out),
-    or () where the nodes do not ascend.
-    """
-    if not ascending(nodes) or len(q) != len(nodes) - 1 or len(dq) != len(q):
-        return ()
-    out = []
-    for e in range(len(q)):
-        s0 = 0.0
-        s1 = nodes[e + 1] - nodes[e]
-        out.append(q[e] * (s1 - s0) + dq[e] * (s1**2 - s0**2) / 2 if s1 > s0 else 0.0)
-    return tuple(out)
+    def positions(self) -> list[float] | np.ndarray:
+        """The transfers' positions, m (as an array where :attr:`arrays` holds them)."""
+        return self.arrays.at if self.arrays is not None else [f[2] for f in self.forces]
 
 
 def plate_loads(section: Section, beam: BeamResult, combo: CombinationResult,
@@ -225,7 +222,8 @@ def plate_loads(section: Section, beam: BeamResult, combo: CombinationResult,
     sol = combo.solution
     nodes, q, dq = (tuple(beam.model.nodes.tolist()), tuple(sol.q.tolist()),
                     tuple(sol.dq.tolist()))
-    return PlateLoads(tuple(items), nodes, q, dq, whole_terms(nodes, q, dq))
+    forces = tuple(items)
+    return PlateLoads(forces, nodes, q, dq, whole_terms(nodes, q, dq), force_arrays(forces))
 
 
 def placed_transfers(loads: PlateLoads, layout: BoltLayout, share: float,
@@ -235,7 +233,7 @@ def placed_transfers(loads: PlateLoads, layout: BoltLayout, share: float,
     """
     xs = layout.stations
     ordered = ascending(xs)
-    bounds = zone_runs(xs, [f[2] for f in loads.forces], depth) if ordered else None
+    bounds = zone_runs(xs, loads.positions(), depth) if ordered else None
     if bounds is not None:
         ahead = [0]  # bolts at the stations before each index: a zone's bolts by difference
         for rs in layout.station_rows:
@@ -265,10 +263,10 @@ def trial_within(loads: PlateLoads, layout: BoltLayout, share: float, depth: flo
     if limit != limit or not xs or not ascending(xs):
         return None
     if forces:
-        bounds = zone_runs(xs, [f[2] for f in forces], depth)
+        bounds = zone_runs(xs, loads.positions(), depth)
         if bounds is None:
             return None
-        own, signed = station_sums(forces, *bounds, layout.station_rows, share)
+        own, signed = station_sums(forces, *bounds, layout.station_rows, share, loads.arrays)
     else:
         own, signed = [0.0] * len(xs), [0.0] * len(xs)
     for _k, _w, per in _per_bolt_along(loads, layout, share, own, signed):
@@ -288,7 +286,7 @@ def _per_bolt_along(loads: PlateLoads, layout: BoltLayout, share: float, own: li
     in the transfers' order from zero: the floats ``sum`` makes of them).
     """
     rows = layout.station_rows
-    for k, (a, b) in enumerate(_tributaries(layout)):
+    for k, (a, b) in enumerate(tributaries(layout)):
         w = _load_between(loads, a, b)
         net = abs(share * w / len(rows[k]) + signed[k])
         yield k, w, max(net, own[k])
@@ -332,46 +330,11 @@ def distributed_load(model: BeamModel, sol: CaseSolution, a: float, b: float) ->
     return total
 
 
-def _tributaries(layout: BoltLayout) -> list[tuple[float, float]]:
-    """(a, b) of every station's tributary (``BoltLayout.tributary``, all at once)."""
-    xs = layout.stations
-    last = len(xs) - 1
-    return [(layout.extent[0] if k == 0 else (xs[k - 1] + xs[k]) / 2,
-             layout.extent[1] if k == last else (xs[k] + xs[k + 1]) / 2)
-            for k in range(len(xs))]
-
-
 def _load_between(loads: PlateLoads, a: float, b: float) -> float:
     """:func:`distributed_load` on the loads' element values: the same terms in the same
-    order, so the same float.
+    order, so the same float (``tributary.load_between``).
     """
-    nodes = loads.nodes
-    first = bisect_right(nodes, a, 1) - 1  # searchsorted(nodes[1:], a, "right")
-    last = bisect_left(nodes, b, 0, len(nodes) - 1)  # searchsorted(nodes[:-1], b, "left")
-    end = max(first, last)
-    whole = loads.whole
-    if not (whole and a == a and b == b):
-        return _terms_between(loads, a, b, first, end, 0.0)
-    # the elements with a <= x0 and x1 <= b, one run of the ascending nodes: their terms
-    # are those of ``whole`` (s0 = max(a, x0) - x0 = 0, s1 = min(b, x1) - x0 = x1 - x0)
-    inner = min(max(first, bisect_left(nodes, a)), end)
-    stop = min(max(inner, bisect_right(nodes, b) - 1), end)
-    total = _terms_between(loads, a, b, first, inner, 0.0)
-    total = reduce(operator.sub, whole[inner:stop], total)  # total -= each, in order
-    return _terms_between(loads, a, b, stop, end, total)
-
-
-def _terms_between(loads: PlateLoads, a: float, b: float, first: int, end: int,
-                   total: float) -> float:
-    """``total`` less the terms of the elements ``first`` to ``end`` (excluded) on (a, b)."""
-    nodes, q, dq = loads.nodes, loads.q, loads.dq
-    for e in range(first, end):
-        x0 = nodes[e]
-        s0 = max(a, x0) - x0
-        s1 = min(b, nodes[e + 1]) - x0
-        if s1 > s0:
-            total -= q[e] * (s1 - s0) + dq[e] * (s1**2 - s0**2) / 2
-    return total
+    return load_between(loads.nodes, loads.q, loads.dq, loads.whole, a, b)
 
 
 def _zones_of(layout: BoltLayout, items: list[Transfer]) -> list[list[int]]:
@@ -393,7 +356,7 @@ def placed_demands(loads: PlateLoads, layout: BoltLayout, share: float,
     held = _zones_of(layout, items)
     return [StationDemand(k, x, a, b, _load_between(loads, a, b), layout.at_station(k),
                           tuple(items[j] for j in held[k]), share)
-            for k, (x, (a, b)) in enumerate(zip(layout.stations, _tributaries(layout),
+            for k, (x, (a, b)) in enumerate(zip(layout.stations, tributaries(layout),
                                                 strict=True))]
 
 

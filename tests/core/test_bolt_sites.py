@@ -8,10 +8,11 @@
 - ``bolt_checks._words`` with the words of each zone written once says what it says of
   each transfer alone, and ``_transfer_check`` copying the first check of a zone makes
   the check made in full;
-- ``zones.station_sums`` with numpy adds what plain floats add, and what ``sum`` makes
-  of each station's transfers in order;
-- ``transfer._load_between`` with the whole elements' terms found once adds what it
-  adds term by term;
+- ``zones.station_sums`` with numpy (the forces' arrays found there or once for all
+  the spacings) adds what plain floats add, and what ``sum`` makes of each station's
+  transfers in order;
+- ``transfer._load_between`` with the whole elements' terms found once
+  (``tributary.whole_terms``) adds what it adds term by term;
 - a whole run with many point loads makes the same checks, layouts and warnings with
   all of these turned off.
 """
@@ -192,6 +193,9 @@ def test_station_sums_with_numpy_are_the_sums_of_plain_floats(
                        for _ in range(m))
         share = rng.choice([0.31, 0.5, 2.0])
         quick = zones.station_sums(forces, lo, hi, station_rows, share)
+        found_once = zones.station_sums(forces, lo, hi, station_rows, share,
+                                        zones.force_arrays(forces))
+        assert repr(found_once) == repr(quick)
         monkeypatch.setattr(zones, "MANY_SUMS", 10**9)
         plain = zones.station_sums(forces, lo, hi, station_rows, share)
         monkeypatch.undo()
