@@ -21,7 +21,7 @@ from ..model.units import fmt
 from ..section.transformed import Section
 from .bolt_geometry import geometry_checks, layout_factors
 from .bolt_layout import BoltLayout, layout_of
-from .check import Check, Fasteners, capacity_from
+from .check import Check, Fasteners, capacity_from, evolve
 from .common import STOCK_SPACINGS_SI, STOCK_SPACINGS_US, Joint, own_checks, plate_share
 from .net_section import net_checks, net_shear_checks
 from .splitting import Shared, SplitSite, splitting_checks
@@ -264,6 +264,8 @@ def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: 
     where = layout_text(layout, system)
     said: dict[tuple[str, str, float, tuple[int, ...]], _Words] = {}
     named: dict[int, str] = {}
+    zoned: _ZoneWords = {}
+    resisted = Shared()
     for k, combo in enumerate(strength):
         f = value.adjusted(combo, geo)
         found = choice.found.get(k)
@@ -289,12 +291,12 @@ def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: 
                    f"Most loaded bolts: station {gov.station + 1} of {len(layout.stations)} "
                    f"at x = {fmt(gov.x, 'span', system)}, {gov.bolts} bolts, governed by "
                    f"{source}.", CAUTION)))
-        words = [_words_of(t, layout, system, said, named) for t in items]
+        words = [_words_of(t, layout, system, said, named, zoned) for t in items]
         shared: dict[tuple[int, int], _Zoned] = {}
-        out += [_transfer_check(t, w, combo, value, f, steel, shared)
+        first: dict[tuple[int, int], Check] = {}
+        out += [_transfer_check(t, w, combo, value, f, steel, shared, first)
                 for t, w in zip(items, words, strict=True)]
         shear = own_checks(section, gross).shear_capacity.get(combo.name, {})
-        resisted: Shared = {}
         for t, w in zip(items, words, strict=True):
             out += splitting_checks(section, joint, _site(t, w), design,
                                     combo.name, f.get("k_mod"), shear, L, system, resisted)
@@ -321,32 +323,45 @@ class _Words:
     heights: tuple[float, ...]
 
 
+#: The words of a zone (by its stations, bolts and half-width): the end of its note, the
+#: positions and the heights of its bolts.
+_ZoneWords = dict[tuple[tuple[int, ...], int, float],
+                  tuple[str, tuple[float, ...], tuple[float, ...]]]
+
+
 def _words(t: Transfer, layout: BoltLayout, system: str,
-           named: dict[int, str] | None = None) -> _Words:
+           named: dict[int, str] | None = None, zoned: _ZoneWords | None = None) -> _Words:
     """The words of a transfer's place (``named``: the stations' positions in words, by
-    index, filled as they are first written).
+    index, filled as they are first written; ``zoned``: what a zone's words are, by its
+    stations, bolts and half-width, filled as each is first written).
     """
-    named = {} if named is None else named
-    for k in t.zone:
-        if k not in named:
-            named[k] = fmt(layout.stations[k], "span", system)
-    xs = ", ".join(named[k] for k in t.zone)
+    key = (t.zone, t.bolts, t.zone_half_width)
+    made = None if zoned is None else zoned.get(key)
+    if made is None:
+        named = {} if named is None else named
+        for k in t.zone:
+            if k not in named:
+                named[k] = fmt(layout.stations[k], "span", system)
+        xs = ", ".join(named[k] for k in t.zone)
+        made = (f"{fmt(t.zone_half_width, 'length', system)} either side; stations at "
+                f"{xs}, {t.bolts} bolts.",
+                tuple(layout.stations[k] for k in t.zone),
+                tuple(layout.rows[r] for k in t.zone for r in layout.station_rows[k]))
+        if zoned is not None:
+            zoned[key] = made
     at = fmt(t.x, "span", system)
     where = f"support at x = {at}" if t.kind == "support" else f"point load at x = {at}"
     return _Words(where, t.label if t.kind == "support" else where,
-                  f"Transfer zone of the {where}: {fmt(t.zone_half_width, 'length', system)} "
-                  f"either side; stations at {xs}, {t.bolts} bolts.",
-                  tuple(layout.stations[k] for k in t.zone),
-                  tuple(layout.rows[r] for k in t.zone for r in layout.station_rows[k]))
+                  f"Transfer zone of the {where}: {made[0]}", made[1], made[2])
 
 
 def _words_of(t: Transfer, layout: BoltLayout, system: str,
               said: dict[tuple[str, str, float, tuple[int, ...]], _Words],
-              named: dict[int, str]) -> _Words:
+              named: dict[int, str], zoned: _ZoneWords | None = None) -> _Words:
     """:func:`_words`, made once for each transfer place of one layout (``said``)."""
     key = (t.kind, t.label, t.x, t.zone)
     if key not in said:
-        said[key] = _words(t, layout, system, named)
+        said[key] = _words(t, layout, system, named, zoned)
     return said[key]
 
 
@@ -398,19 +413,28 @@ def _zoned(t: Transfer, value: BoltValue, f: dict[str, float],
 
 def _transfer_check(t: Transfer, w: _Words, combo: CombinationResult, value: BoltValue,
                     f: dict[str, float], steel: str,
-                    shared: dict[tuple[int, int], _Zoned] | None = None) -> Check:
+                    shared: dict[tuple[int, int], _Zoned] | None = None,
+                    first: dict[tuple[int, int], Check] | None = None) -> Check:
     """The ``load-transfer`` check of one transfer (``shared``: what the checks of one
-    combination share, by the zone's bolts and stations).
+    combination share, by the zone's bolts and stations; ``first``: the first check made
+    of each of those, from which the next are copied with their own values).
     """
     z = _zoned(t, value, f, shared)
-    return Check(
+    notes = (w.zone,
+             ("The plate does not bear on this support: its share of the reaction reaches "
+              "the timbers through these bolts." if t.kind == "support" else
+              "The load bears on the timbers: the plate's share enters through these "
+              "bolts."), CAUTION)
+    key = (t.bolts, len(t.zone))
+    like = None if first is None else first.get(key)
+    if like is not None and like.combination == combo.name and like.ply == steel:
+        return evolve(like, demand=t.demand, location=w.location, x=t.x, notes=notes)
+    made = Check(
         id="load-transfer", ply=steel, combination=combo.name, demand=t.demand,
         capacity=z.capacity, quantity="force",
         reference=value.reference, factors=z.factors, partial_factors=z.partial,
         sources=z.sources, equation=z.equation, location=w.location,
-        x=t.x, fasteners=z.fasteners,
-        notes=(w.zone,
-               ("The plate does not bear on this support: its share of the reaction reaches "
-                "the timbers through these bolts." if t.kind == "support" else
-                "The load bears on the timbers: the plate's share enters through these "
-                "bolts."), CAUTION))
+        x=t.x, fasteners=z.fasteners, notes=notes)
+    if first is not None:
+        first[key] = made
+    return made

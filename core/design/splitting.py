@@ -31,7 +31,7 @@ from ..codes import en1995_fasteners as en
 from ..model.design import DesignSpec
 from ..model.units import fmt
 from ..section.transformed import Section
-from .check import Check, capacity_from
+from .check import Check, capacity_from, evolve
 from .common import Joint
 from .memo import once
 
@@ -57,16 +57,6 @@ class SplitSite:
     force: float
     stations: tuple[float, ...]
     heights: tuple[float, ...]
-
-
-def _edge(section: Section, j: int, site: SplitSite) -> tuple[str, float, float]:
-    """(loaded edge, h_e, h) of timber j: the edge the force pushes towards; h_e from it to
-    the centre of the most distant bolt.
-    """
-    lo, hi = float(section.y_bottom[j]), float(section.y_top[j])
-    if site.force < 0:
-        return "bottom", max(site.heights) - lo, hi - lo
-    return "top", hi - min(site.heights), hi - lo
 
 
 def _share(section: Section, joint: Joint, j: int) -> float:
@@ -133,8 +123,84 @@ def _us_resistance(Fv: float, b: float, h: float, d_e: float, near_end: bool,
          "V = the whole force into this timber (conservative).",))
 
 
-#: The resistances one caller's sites share, by timber and what sets them.
-Shared = dict[tuple[object, ...], _Resistance]
+@dataclass(frozen=True)
+class _Timber:
+    """What the ``splitting`` checks read of one timber of a joint, the same at every site.
+
+    Attributes:
+        index: the ply's index.
+        name: its name.
+        bottom: height of its bottom edge, m.
+        top: height of its top edge, m.
+        width: its width b, m.
+
+    """
+
+    index: int
+    name: str
+    bottom: float
+    top: float
+    width: float
+
+
+def _timbers(section: Section, joint: Joint) -> tuple[_Timber, ...]:
+    """The joint's timbers as the checks read them, found once per section and joint."""
+    return once(section, ("splitting timbers", joint), lambda: tuple(
+        _Timber(j, section.plies[j].name, float(section.y_bottom[j]),
+                float(section.y_top[j]), section.plies[j].width) for j in joint.timbers))
+
+
+class Shared:
+    """What the sites of one caller share, each found at its first use: the resistances
+    by timber and what sets them, the words of the bolts' heights and each set of
+    stations' distance to the nearer end of the member (read, never changed).
+    """
+
+    __slots__ = ("ends", "first", "heights", "joint", "resistances", "section", "shares",
+                 "timbers")
+
+    def __init__(self) -> None:
+        """Nothing found yet."""
+        self.resistances: dict[tuple[object, ...], _Resistance] = {}
+        self.first: dict[tuple[object, ...], Check] = {}  # the first check of each
+        self.heights: dict[tuple[tuple[float, ...], str], str] = {}
+        self.ends: dict[tuple[tuple[float, ...], float], float] = {}
+        self.section: Section | None = None  # the timbers (and shares) are this
+        self.joint: Joint | None = None  # section's and joint's
+        self.timbers: tuple[_Timber, ...] = ()
+        self.shares: dict[int, float] | None = None
+
+    def timbers_of(self, section: Section, joint: Joint) -> tuple[_Timber, ...]:
+        """:func:`_timbers`, asked once while the section and joint stay the same."""
+        if self.section is not section or self.joint != joint:
+            self.section, self.joint = section, joint
+            self.timbers, self.shares = _timbers(section, joint), None
+        return self.timbers
+
+    def shares_of(self, section: Section, joint: Joint) -> dict[int, float]:
+        """:func:`_shares` of the section and joint of :meth:`timbers_of`."""
+        if self.shares is None:
+            self.shares = _shares(section, joint)
+        return self.shares
+
+
+def _heights_text(heights: tuple[float, ...], system: str, memo: Shared) -> str:
+    """The bolts' heights in words, lowest first, each once."""
+    key = (heights, system)
+    text = memo.heights.get(key)
+    if text is None:
+        text = memo.heights[key] = ", ".join(fmt(y, "length", system)
+                                             for y in sorted(set(heights)))
+    return text
+
+
+def _nearest_end(stations: tuple[float, ...], length: float, memo: Shared) -> float:
+    """The distance from the stations to the nearer end of the member, m."""
+    key = (stations, length)
+    found = memo.ends.get(key)
+    if found is None:
+        found = memo.ends[key] = min(min(x, length - x) for x in stations)
+    return found
 
 
 def splitting_checks(section: Section, joint: Joint, site: SplitSite, design: DesignSpec,
@@ -143,46 +209,62 @@ def splitting_checks(section: Section, joint: Joint, site: SplitSite, design: De
     """The ``splitting`` check of every timber of the joint at one site under one
     combination. EU: ``k_mod`` of the combination; US: ``shear_capacity`` (F'_v of each
     timber under the combination, by ply name; a timber without one is left out).
-    ``shared``: the resistances found at earlier sites of the same caller (filled here).
+    ``shared``: what earlier sites of the same caller found (filled here).
     """
+    memo = Shared() if shared is None else shared
+    timbers = memo.timbers_of(section, joint)
+    if not timbers:
+        return []
     out = []
-    bolts_at: str | None = None  # the site's words and the timbers' shares, at first use
+    resistances, first = memo.resistances, memo.first
+    us = design.us
+    heights = site.heights
+    # the loaded edge and the most distant bolt from it, as ``_edge`` finds them
+    down = site.force < 0
+    edge = "bottom" if down else "top"
+    far = max(heights) if down else min(heights)
+    location: str | None = None  # the site's words and the timbers' shares, at first use
     shares: dict[int, float] = {}
     nearest_end: float | None = None  # from the bolts to the nearer end of the member
-    memo: Shared = {} if shared is None else shared
-    for j in joint.timbers:
-        name = section.plies[j].name
-        edge, h_e, h = _edge(section, j, site)
-        b = section.plies[j].width
-        if not design.us:
+    for tb in timbers:
+        lo, hi = tb.bottom, tb.top
+        h_e, h = (far - lo, hi - lo) if down else (hi - far, hi - lo)
+        b = tb.width
+        if not us:
             if k_mod is None or not 0 < h_e < h:
                 continue
             key: tuple[object, ...] = ("EU", b, h_e, h, k_mod)
-            r = memo.get(key)
+            r = resistances.get(key)
             if r is None:
-                r = memo[key] = _eu_resistance(b, h_e, h, k_mod)
+                r = resistances[key] = _eu_resistance(b, h_e, h, k_mod)
         else:
-            Fv = shear_capacity.get(name)
+            Fv = shear_capacity.get(tb.name)
             if Fv is None or h_e <= 0:
                 continue
             d_e = min(h_e + design.bolt.diameter / 2, h)
             if nearest_end is None:
-                nearest_end = min(min(x, length - x) for x in site.stations)
+                nearest_end = _nearest_end(site.stations, length, memo)
             near_end = nearest_end < 5 * h
             key = ("US", Fv, b, h, d_e, near_end, system)
-            r = memo.get(key)
+            r = resistances.get(key)
             if r is None:
-                r = memo[key] = _us_resistance(Fv, b, h, d_e, near_end, system)
-        if bolts_at is None:
-            bolts_at = (f"{site.label}: bolts at y = " + ", ".join(
-                fmt(y, "length", system) for y in sorted(set(site.heights))))
-            shares = _shares(section, joint)
-        out.append(Check(
-            id="splitting", ply=name, combination=combination,
-            demand=abs(site.force) * shares[j], capacity=r.capacity, quantity="force",
-            reference=r.reference, factors=r.factors, partial_factors=r.partial,
-            sources=r.sources, equation=r.equation, location=f"{bolts_at}; loaded edge {edge}",
-            x=site.x, notes=r.notes))
+                r = resistances[key] = _us_resistance(Fv, b, h, d_e, near_end, system)
+        if location is None:
+            location = (f"{site.label}: bolts at y = {_heights_text(heights, system, memo)}"
+                        f"; loaded edge {edge}")
+            shares = memo.shares_of(section, joint)
+        demand = abs(site.force) * shares[tb.index]
+        like = first.get(key)
+        if like is None:
+            like = first[key] = Check(
+                id="splitting", ply=tb.name, combination=combination, demand=demand,
+                capacity=r.capacity, quantity="force", reference=r.reference,
+                factors=r.factors, partial_factors=r.partial, sources=r.sources,
+                equation=r.equation, location=location, x=site.x, notes=r.notes)
+            out.append(like)
+        else:  # the same resistance: the check made before with this site's own values
+            out.append(evolve(like, ply=tb.name, combination=combination, demand=demand,
+                              location=location, x=site.x))
     return out
 
 

@@ -22,7 +22,7 @@ from __future__ import annotations
 import math
 from bisect import bisect_left, bisect_right
 from collections.abc import Iterator
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 import numpy as np
 
@@ -35,7 +35,16 @@ from .bolt_layout import BoltLayout
 from .check import Check, evolve
 from .common import joints_of_timber, side_by_side_joints, unit_shear_stress
 from .memo import once, with_partner
-from .zones import ascending, zone, zone_ascending, zone_runs
+from .tributary import load_between, tributaries, whole_terms
+from .zones import (
+    ForceArrays,
+    ascending,
+    force_arrays,
+    station_sums,
+    zone,
+    zone_ascending,
+    zone_runs,
+)
 
 
 def plate_extent(section: Section, i: int, length: float) -> tuple[float, float]:
@@ -177,6 +186,10 @@ class PlateLoads:
         q: the solution's distributed load at the start of each element, N/m (upward
             positive).
         dq: its change along each element, N/m^2.
+        arrays: the forces as arrays for many (``zones.force_arrays``), or None.
+        whole: the term of each element a tributary covers whole, as
+            ``tributary.load_between`` adds it (0.0 for an element of no length); empty
+            where the nodes do not ascend (then every term is found where it is used).
 
     """
 
@@ -184,6 +197,12 @@ class PlateLoads:
     nodes: tuple[float, ...]
     q: tuple[float, ...]
     dq: tuple[float, ...]
+    whole: tuple[float, ...] = field(default=(), compare=False, repr=False)
+    arrays: ForceArrays | None = field(default=None, compare=False, repr=False)
+
+    def positions(self) -> list[float] | np.ndarray:
+        """The transfers' positions, m (as an array where :attr:`arrays` holds them)."""
+        return self.arrays.at if self.arrays is not None else [f[2] for f in self.forces]
 
 
 def plate_loads(section: Section, beam: BeamResult, combo: CombinationResult,
@@ -201,8 +220,10 @@ def plate_loads(section: Section, beam: BeamResult, combo: CombinationResult,
     items += [("point", f"point load at x = {x:.6g} m", x, P) for x, P in
               point_loads(beam, combo) if start - 1e-9 <= x <= end + 1e-9]
     sol = combo.solution
-    return PlateLoads(tuple(items), tuple(beam.model.nodes.tolist()), tuple(sol.q.tolist()),
-                      tuple(sol.dq.tolist()))
+    nodes, q, dq = (tuple(beam.model.nodes.tolist()), tuple(sol.q.tolist()),
+                    tuple(sol.dq.tolist()))
+    forces = tuple(items)
+    return PlateLoads(forces, nodes, q, dq, whole_terms(nodes, q, dq), force_arrays(forces))
 
 
 def placed_transfers(loads: PlateLoads, layout: BoltLayout, share: float,
@@ -212,7 +233,7 @@ def placed_transfers(loads: PlateLoads, layout: BoltLayout, share: float,
     """
     xs = layout.stations
     ordered = ascending(xs)
-    bounds = zone_runs(xs, [f[2] for f in loads.forces], depth) if ordered else None
+    bounds = zone_runs(xs, loads.positions(), depth) if ordered else None
     if bounds is not None:
         ahead = [0]  # bolts at the stations before each index: a zone's bolts by difference
         for rs in layout.station_rows:
@@ -241,24 +262,14 @@ def trial_within(loads: PlateLoads, layout: BoltLayout, share: float, depth: flo
     forces = loads.forces
     if limit != limit or not xs or not ascending(xs):
         return None
-    held: list[list[int]] = [[] for _ in xs]
-    own: list[float] = []
-    signed: list[float] = []
     if forces:
-        bounds = zone_runs(xs, [f[2] for f in forces], depth)
+        bounds = zone_runs(xs, loads.positions(), depth)
         if bounds is None:
             return None
-        ahead = [0]
-        for rs in layout.station_rows:
-            ahead.append(ahead[-1] + len(rs))
-        for j, ((kind, _, _, force), lo, hi) in enumerate(zip(forces, *bounds, strict=True)):
-            bolts = ahead[hi] - ahead[lo]
-            p = abs(share * force) / bolts if bolts else math.inf  # Transfer.per_bolt
-            own.append(p)
-            signed.append(p * (1.0 if kind == "point" else -1.0))
-            for k in range(lo, hi):
-                held[k].append(j)
-    for _k, _w, per in _per_bolt_along(loads, layout, share, own, signed, held):
+        own, signed = station_sums(forces, *bounds, layout.station_rows, share, loads.arrays)
+    else:
+        own, signed = [0.0] * len(xs), [0.0] * len(xs)
+    for _k, _w, per in _per_bolt_along(loads, layout, share, own, signed):
         if per != per:
             return None
         if per > limit:
@@ -267,19 +278,18 @@ def trial_within(loads: PlateLoads, layout: BoltLayout, share: float, depth: flo
 
 
 def _per_bolt_along(loads: PlateLoads, layout: BoltLayout, share: float, own: list[float],
-                    signed: list[float],
-                    held: list[list[int]]) -> Iterator[tuple[int, float, float]]:
+                    signed: list[float]) -> Iterator[tuple[int, float, float]]:
     """``(k, w, per bolt)`` of every station in order: ``w`` the distributed load on its
     tributary, per bolt the larger of |alpha w / n + the signed shares of the transfers
-    it holds| and the sum of their shares (``own``, ``signed``: each transfer's share per
-    bolt, and signed; ``held``: for each station, the transfers whose zone holds it).
+    it holds| and the sum of their shares (``own``, ``signed``: for each station, the
+    sums of the shares per bolt of the transfers whose zone holds it, and signed, added
+    in the transfers' order from zero: the floats ``sum`` makes of them).
     """
     rows = layout.station_rows
-    for k, (a, b) in enumerate(_tributaries(layout)):
-        js = held[k]
+    for k, (a, b) in enumerate(tributaries(layout)):
         w = _load_between(loads, a, b)
-        net = abs(share * w / len(rows[k]) + sum(signed[j] for j in js))
-        yield k, w, max(net, sum(own[j] for j in js))
+        net = abs(share * w / len(rows[k]) + signed[k])
+        yield k, w, max(net, own[k])
 
 
 def transfers(section: Section, beam: BeamResult, combo: CombinationResult,
@@ -320,30 +330,11 @@ def distributed_load(model: BeamModel, sol: CaseSolution, a: float, b: float) ->
     return total
 
 
-def _tributaries(layout: BoltLayout) -> list[tuple[float, float]]:
-    """(a, b) of every station's tributary (``BoltLayout.tributary``, all at once)."""
-    xs = layout.stations
-    last = len(xs) - 1
-    return [(layout.extent[0] if k == 0 else (xs[k - 1] + xs[k]) / 2,
-             layout.extent[1] if k == last else (xs[k] + xs[k + 1]) / 2)
-            for k in range(len(xs))]
-
-
 def _load_between(loads: PlateLoads, a: float, b: float) -> float:
     """:func:`distributed_load` on the loads' element values: the same terms in the same
-    order, so the same float.
+    order, so the same float (``tributary.load_between``).
     """
-    nodes, q, dq = loads.nodes, loads.q, loads.dq
-    total = 0.0
-    first = bisect_right(nodes, a, 1) - 1  # searchsorted(nodes[1:], a, "right")
-    last = bisect_left(nodes, b, 0, len(nodes) - 1)  # searchsorted(nodes[:-1], b, "left")
-    for e in range(first, max(first, last)):
-        x0 = nodes[e]
-        s0 = max(a, x0) - x0
-        s1 = min(b, nodes[e + 1]) - x0
-        if s1 > s0:
-            total -= q[e] * (s1 - s0) + dq[e] * (s1**2 - s0**2) / 2
-    return total
+    return load_between(loads.nodes, loads.q, loads.dq, loads.whole, a, b)
 
 
 def _zones_of(layout: BoltLayout, items: list[Transfer]) -> list[list[int]]:
@@ -365,7 +356,7 @@ def placed_demands(loads: PlateLoads, layout: BoltLayout, share: float,
     held = _zones_of(layout, items)
     return [StationDemand(k, x, a, b, _load_between(loads, a, b), layout.at_station(k),
                           tuple(items[j] for j in held[k]), share)
-            for k, (x, (a, b)) in enumerate(zip(layout.stations, _tributaries(layout),
+            for k, (x, (a, b)) in enumerate(zip(layout.stations, tributaries(layout),
                                                 strict=True))]
 
 
@@ -385,20 +376,25 @@ def governing_within(loads: PlateLoads, layout: BoltLayout, share: float,
     """:func:`governing_demand`, or None as soon as the most loaded station so far carries
     more than ``limit`` per bolt (then the governing one does too: the layout fails).
     """
-    held = _zones_of(layout, items)
-    own = [t.per_bolt for t in items]
-    signed_own = [p * (1.0 if t.kind == "point" else -1.0) for p, t in zip(own, items,
-                                                                             strict=True)]
+    n = len(layout.stations)
+    own = [0.0] * n  # as in trial_within: the sums each station holds, in order
+    signed = [0.0] * n
+    for t in items:
+        p = t.per_bolt
+        q = p * (1.0 if t.kind == "point" else -1.0)
+        for k in t.zone:
+            own[k] += p
+            signed[k] += q
     best_k, best, best_w = -1, 0.0, 0.0
-    for k, w, per in _per_bolt_along(loads, layout, share, own, signed_own, held):
+    for k, w, per in _per_bolt_along(loads, layout, share, own, signed):
         if best_k < 0 or per > best:
             best_k, best, best_w = k, per, w
             if best > limit:
                 return None
     a, b = layout.tributary(best_k)
     return StationDemand(best_k, layout.stations[best_k], a, b, best_w,
-                         layout.at_station(best_k), tuple(items[j] for j in held[best_k]),
-                         share)
+                         layout.at_station(best_k),
+                         tuple(t for t in items if best_k in t.zone), share)
 
 
 def station_demands(section: Section, beam: BeamResult, combo: CombinationResult,

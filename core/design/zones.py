@@ -6,7 +6,9 @@ transfers, all at once (the same stations).
 
 from __future__ import annotations
 
+import math
 from bisect import bisect_left
+from dataclasses import dataclass
 
 import numpy as np
 
@@ -48,7 +50,7 @@ def zone_ascending(xs: tuple[float, ...], x: float, depth: float) -> tuple[int, 
     return _around(xs, x, i, best * (1 + 1e-9) + 1e-12)
 
 
-def zone_bounds(xs: tuple[float, ...], at: list[float],
+def zone_bounds(xs: tuple[float, ...], at: list[float] | np.ndarray,
                  depth: float) -> tuple[list[int], list[int]] | None:
     """For ascending stations ``xs``, the zone of a transfer at each of ``at`` as the run
     of station indices ``range(lo, hi)``: the stations :func:`zone_ascending` finds, by
@@ -57,7 +59,7 @@ def zone_bounds(xs: tuple[float, ...], at: list[float],
     (no stations, or a position that is not a number).
     """
     n = len(xs)
-    if n == 0 or not at:
+    if n == 0 or len(at) == 0:
         return None
     gap = np.abs(np.asarray(xs, dtype=float)[None, :] - np.asarray(at, dtype=float)[:, None])
     inside = gap <= depth * (1 + 1e-9)
@@ -78,7 +80,7 @@ def zone_bounds(xs: tuple[float, ...], at: list[float],
     return lo.tolist(), hi.tolist()
 
 
-def zone_runs(xs: tuple[float, ...], at: list[float],
+def zone_runs(xs: tuple[float, ...], at: list[float] | np.ndarray,
           depth: float) -> tuple[list[int], list[int]] | None:
     """``(lo, hi)`` of every zone of transfers at ``at`` among ascending stations ``xs``:
     by bisection for a few transfers, all at once for many (:func:`zone_bounds`; the
@@ -90,6 +92,74 @@ def zone_runs(xs: tuple[float, ...], at: list[float],
             return None
         return [z[0] for z in zones], [z[-1] + 1 for z in zones]
     return zone_bounds(xs, at, depth)
+
+
+#: Transfers from which :func:`station_sums` adds with numpy (fewer: plain floats).
+MANY_SUMS = 16
+
+
+@dataclass(frozen=True)
+class ForceArrays:
+    """The positions, forces and signs (+1 a point load, -1 a reaction) of many
+    transfers (kind, label, x, force) as arrays, found once for every spacing tried.
+    """
+
+    at: np.ndarray
+    force: np.ndarray
+    sign: np.ndarray
+
+
+def force_arrays(forces: tuple[tuple[str, str, float, float], ...]) -> ForceArrays | None:
+    """The arrays of ``forces``; None for fewer than :data:`MANY_SUMS`."""
+    if len(forces) < MANY_SUMS:
+        return None
+    return ForceArrays(np.array([f[2] for f in forces], dtype=float),
+                       np.array([f[3] for f in forces], dtype=float),
+                       np.array([1.0 if f[0] == "point" else -1.0 for f in forces]))
+
+
+def station_sums(forces: tuple[tuple[str, str, float, float], ...], lo: list[int],
+                 hi: list[int], station_rows: tuple[tuple[int, ...], ...],
+                 share: float,
+                 arrays: ForceArrays | None = None) -> tuple[list[float], list[float]]:
+    """For every station, the sum of the shares per bolt of the transfers whose zone
+    ``range(lo[j], hi[j])`` holds it, and of the same signed (point loads push the plate
+    down, reactions up): each transfer (kind, label, x, force) shares alpha |force| over
+    its zone's bolts (infinite with none), the sums made from 0.0 in the transfers' order,
+    the floats ``sum`` makes of them; with numpy for many (``bincount`` adds its weights
+    one by one in their order: the same additions; ``arrays``: those of ``forces``).
+    """
+    n = len(station_rows)
+    if len(forces) < MANY_SUMS:
+        ahead = [0]  # bolts at the stations before each index: a zone's bolts by difference
+        for rs in station_rows:
+            ahead.append(ahead[-1] + len(rs))
+        own, signed = [0.0] * n, [0.0] * n
+        for (kind, _, _, force), a, b in zip(forces, lo, hi, strict=True):
+            bolts = ahead[b] - ahead[a]
+            p = abs(share * force) / bolts if bolts else math.inf  # Transfer.per_bolt
+            q = p * (1.0 if kind == "point" else -1.0)
+            for k in range(a, b):
+                own[k] += p
+                signed[k] += q
+        return own, signed
+    if arrays is None:
+        arrays = ForceArrays(np.zeros(0), np.array([f[3] for f in forces], dtype=float),
+                             np.array([1.0 if f[0] == "point" else -1.0 for f in forces]))
+    with np.errstate(all="ignore"):  # as plain floats: inf and nan, never a warning
+        ahead_a = np.zeros(n + 1, dtype=np.int64)
+        np.cumsum([len(rs) for rs in station_rows], out=ahead_a[1:])
+        lo_a, hi_a = np.asarray(lo, dtype=np.int64), np.asarray(hi, dtype=np.int64)
+        bolts_a = ahead_a[hi_a] - ahead_a[lo_a]
+        demand = np.abs(share * arrays.force)
+        per = np.full(len(forces), np.inf)
+        np.divide(demand, bolts_a, out=per, where=bolts_a != 0)
+        sizes = hi_a - lo_a
+        each = np.repeat(np.arange(len(forces)), sizes)  # transfer by transfer, in order
+        at = lo_a[each] + np.arange(each.size) - np.repeat(np.cumsum(sizes) - sizes, sizes)
+        own_a = np.bincount(at, weights=per[each], minlength=n)
+        signed_a = np.bincount(at, weights=(per * arrays.sign)[each], minlength=n)
+    return own_a.tolist(), signed_a.tolist()
 
 
 def ascending(xs: tuple[float, ...]) -> bool:
