@@ -211,6 +211,7 @@ class BeamModel:
         #: The stiffness's lower band: ``band[d, i]`` is the entry (i + d, i), d = 0..3.
         self.band = stiffness_band(self.lengths, self.flexibility, n_dof)
         self._dense: np.ndarray | None = None
+        self._scaled_dense: np.ndarray | None = None
         band = self.band
         fixed = []
         self.support_nodes = []
@@ -220,6 +221,12 @@ class BeamModel:
             fixed.append(2 * node)
             if kind == "fixed":
                 fixed.append(2 * node + 1)
+        if len(set(self.support_nodes)) < len(self.support_nodes):
+            raise ProjectError(Problem(
+                "beam", "the analysis cannot be completed for these inputs: the beam's "
+                "equations cannot be solved (two supports stand at one point of the member, "
+                f"a span of at most {MERGE_TOLERANCE * max(L, 1.0) * 1000:.2g} mm: give every "
+                "span a length)"))
         self.fixed = np.array(sorted(fixed))
         #: The free body of each support's vertical reaction (``refine.support_windows``).
         self.windows = support_windows(self.lengths.tolist(), self.support_nodes)
@@ -294,10 +301,12 @@ class BeamModel:
 
     def scaled_free_stiffness(self) -> np.ndarray:
         """The stiffness of the free degrees of freedom, scaled symmetrically to a unit
-        diagonal (dense; the solve itself keeps only its band).
+        diagonal (dense, made once; the solve itself keeps only its band).
         """
-        kff = self.K[np.ix_(self.free, self.free)]
-        return np.asarray(kff * np.outer(self._scale, self._scale))
+        if self._scaled_dense is None:
+            kff = self.K[np.ix_(self.free, self.free)]
+            self._scaled_dense = np.asarray(kff * np.outer(self._scale, self._scale))
+        return self._scaled_dense
 
     def _linear_solve(self, b: np.ndarray) -> np.ndarray:
         """Solve the scaled free-dof system: banded Cholesky, or, where rounding makes a

@@ -33,8 +33,9 @@ from collections.abc import Callable
 
 import numpy as np
 
-#: Refinement steps before a solve that has not settled is refused.
-MAX_STEPS = 12
+#: Most refinement steps (a step costs one solve with the factor; the steps stop as soon
+#: as they no longer halve, so this many are taken only while they keep shrinking).
+MAX_STEPS = 100
 #: A correction this small against the largest displacement (2^-52) ends the refinement.
 SETTLED = 2.0**-52
 #: A solve whose last correction is still above this (relative) is refused.
