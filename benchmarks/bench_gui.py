@@ -12,7 +12,9 @@ hidden, the strain and stress plot, the shear, moment and deflection plot. Goals
 
 Times are CPU seconds of this process (``time.process_time``: the others' load on a
 shared machine moves them less than wall time) unless ``--wall`` is given. Not a test;
-prints one run's numbers. ``--steps N`` changes the number of steps.
+prints one run's numbers. ``--steps N`` changes the number of steps; ``--widgets`` also
+prints, for each window, the widgets painted in the steps (by class, parent and object
+name) with their paint events and pixels a step, the largest first.
 """
 
 from __future__ import annotations
@@ -22,6 +24,7 @@ import os
 import statistics
 import sys
 import time
+from collections import Counter
 from collections.abc import Callable
 from pathlib import Path
 
@@ -48,12 +51,19 @@ class PaintCounter(QObject):
         super().__init__()
         self.events = 0
         self.pixels = 0
+        self.by_widget: Counter[str] = Counter()  # pixels by widget
+        self.events_by_widget: Counter[str] = Counter()
 
     def eventFilter(self, watched: QObject, event: QEvent) -> bool:
         if event.type() == QEvent.Type.Paint:
+            pixels = sum(r.width() * r.height() for r in event.region())
             self.events += 1
-            self.pixels += sum(r.width() * r.height()
-                               for r in event.region())
+            self.pixels += pixels
+            parent = watched.parent()
+            name = (f"{type(watched).__name__} {watched.objectName()!r} in "
+                    f"{type(parent).__name__ if parent is not None else 'the screen'}")
+            self.by_widget[name] += pixels
+            self.events_by_widget[name] += 1
         return False
 
 
@@ -147,6 +157,10 @@ def main() -> None:
         print(f"{'':4}set again a step: {kept['cells']:.1f} of {kept['of cells']} cells of the "
               f"checks, {kept['plies']:.2f} of {kept['of plies']} canvas plies, "
               f"{kept['parts']:.2f} of {kept['of parts']} elevation parts")
+        if "--widgets" in sys.argv:
+            for name, pixels in painted.by_widget.most_common():
+                print(f"{'':8}{painted.events_by_widget[name] / steps:6.2f} paints "
+                      f"{pixels / steps / 1e3:8.1f} kpx  {name}")
 
 
 if __name__ == "__main__":
