@@ -30,8 +30,11 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable
+from typing import TypeVar
 
 import numpy as np
+
+_U = TypeVar("_U", np.ndarray, list[float])
 
 #: Most refinement steps (a step costs one solve with the factor; the steps stop as soon
 #: as they no longer halve, so this many are taken only while they keep shrinking).
@@ -119,6 +122,26 @@ class Unsettled(Exception):
         self.step = step
 
 
+def _settled(step: float, last: float, top: float) -> bool | None:
+    """True where a refinement has settled (its step at most ``SETTLED`` of the largest
+    |u|, or the next step, shrinking as this one did, would be), False where it no longer
+    settles (the step not half the last: the residual's rounding, or growing), None
+    while it goes on.
+    """
+    if step <= SETTLED * top or (last < math.inf and step * (step / last) <= SETTLED * top):
+        return True
+    return False if step > last / 2 else None
+
+
+def _checked(u: _U, settled: bool | None, step: float, top: float) -> _U:
+    """``u``, or :class:`Unsettled` where the refinement did not settle and its last step
+    is above ``REFUSED_ABOVE`` of the largest |u|.
+    """
+    if not settled and step > REFUSED_ABOVE * top:
+        raise Unsettled(step / top if top > 0 else step)
+    return u
+
+
 def refined(u: np.ndarray, free: np.ndarray, scale: np.ndarray,
             residual: Callable[[np.ndarray], np.ndarray],
             solve: Callable[[np.ndarray], np.ndarray]) -> np.ndarray:
@@ -132,7 +155,7 @@ def refined(u: np.ndarray, free: np.ndarray, scale: np.ndarray,
     """
     if not free.size:
         return u
-    step, top = math.inf, 0.0
+    step, top, settled = math.inf, 0.0, None
     for _ in range(MAX_STEPS):
         r = residual(u)[free]
         if not np.isfinite(r).all():
@@ -141,13 +164,10 @@ def refined(u: np.ndarray, free: np.ndarray, scale: np.ndarray,
         u[free] += du
         top, last = float(np.abs(u).max()), step
         step = float(np.abs(du).max())
-        if step <= SETTLED * top or (last < math.inf and step * (step / last) <= SETTLED * top):
-            return u  # settled, or the next step, shrinking as this one did, is rounding
-        if step > last / 2:
-            break  # no longer settling: the steps are the residual's rounding, or grow
-    if step > REFUSED_ABOVE * top:
-        raise Unsettled(step / top if top > 0 else step)
-    return u
+        settled = _settled(step, last, top)
+        if settled is not None:
+            break
+    return _checked(u, settled, step, top)
 
 
 def refined_floats(u: list[float], free: list[int], scale: list[float],
@@ -156,7 +176,7 @@ def refined_floats(u: list[float], free: list[int], scale: list[float],
     """:func:`refined` in floats (the same steps and the same tests)."""
     if not free:
         return u
-    step, top = math.inf, 0.0
+    step, top, settled = math.inf, 0.0, None
     for _ in range(MAX_STEPS):
         whole = residual(u)
         r = [whole[i] for i in free]
@@ -169,13 +189,10 @@ def refined_floats(u: list[float], free: list[int], scale: list[float],
             u[i] += x
         top, last = max(abs(x) for x in u), step
         step = max(abs(x) for x in du)
-        if step <= SETTLED * top or (last < math.inf and step * (step / last) <= SETTLED * top):
-            return u  # settled, or the next step, shrinking as this one did, is rounding
-        if step > last / 2:
-            break  # no longer settling: the steps are the residual's rounding, or grow
-    if step > REFUSED_ABOVE * top:
-        raise Unsettled(step / top if top > 0 else step)
-    return u
+        settled = _settled(step, last, top)
+        if settled is not None:
+            break
+    return _checked(u, settled, step, top)
 
 
 def support_windows(lengths: list[float], support_nodes: list[int]

@@ -21,7 +21,6 @@ from __future__ import annotations
 
 import math
 import random
-from dataclasses import replace
 from pathlib import Path
 
 import pytest
@@ -34,11 +33,12 @@ from plystack.core.design.splitting import SplitSite, splitting_checks
 from plystack.core.design.transfer import PlateLoads, Transfer, _load_between, whole_terms
 from plystack.core.io.project_file import load
 from plystack.core.model.design import DesignSpec
-from plystack.core.model.member import Load
 from plystack.core.model.plies import Ply
 from plystack.core.model.units import fmt
 from plystack.core.pipeline import run
 from plystack.core.section.transformed import Section
+
+from .many_loads import with_point_loads
 
 DEMOS = Path(__file__).resolve().parents[2] / "assets" / "demo"
 IN = 0.0254
@@ -237,13 +237,7 @@ def test_load_between_with_whole_elements_is_the_sum_term_by_term(seed: int) -> 
                                          ("stair-trimmer-eu.plystack.json", 120)])
 def test_many_point_loads_check_alike_without_the_site_quick_paths(
         demo: str, count: int, monkeypatch: pytest.MonkeyPatch) -> None:
-    project = load(DEMOS / demo)
-    beam = project.beam
-    assert beam is not None
-    L = beam.layout.length
-    extra = tuple(Load(case="L", type="point", value=120.0 * (k % 9 + 1),
-                       at=L * (k + 0.37) / count) for k in range(count))
-    project = replace(project, beam=replace(beam, loads=beam.loads + extra))
+    project = with_point_loads(demo, count, 120.0, 9, 0.37)
     quick = run(project)
     words_of, transfer_check = bolt_checks._words_of, bolt_checks._transfer_check
     split = bolt_checks.splitting_checks

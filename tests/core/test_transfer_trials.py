@@ -30,6 +30,8 @@ from plystack.core.io.project_file import load
 from plystack.core.model.member import Load
 from plystack.core.pipeline import run
 
+from .many_loads import with_point_loads
+
 DEMOS = Path(__file__).resolve().parents[2] / "assets" / "demo"
 
 
@@ -133,13 +135,7 @@ def test_trial_leaves_to_the_plain_path_what_it_cannot_tell() -> None:
                                          ("stair-trimmer-eu.plystack.json", 40)])
 def test_many_point_loads_check_alike_with_and_without_the_quick_paths(
         demo: str, count: int, monkeypatch: pytest.MonkeyPatch) -> None:
-    project = load(DEMOS / demo)
-    beam = project.beam
-    assert beam is not None
-    L = beam.layout.length
-    extra = tuple(Load(case="L", type="point", value=150.0 * (k % 7 + 1),
-                       at=L * (k + 0.41) / count) for k in range(count))
-    project = replace(project, beam=replace(beam, loads=beam.loads + extra))
+    project = with_point_loads(demo, count, 150.0, 7, 0.41)
     quick = run(project)
     monkeypatch.setattr(bolt_checks, "_fails", lambda *args: False)
     monkeypatch.setattr(zones, "zone_bounds", lambda *args: None)
