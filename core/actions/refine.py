@@ -20,8 +20,10 @@ every degree of freedom adds the load and the forces of the element either side 
 Knuth's error-free sum. The solve is then refined: the correction K~^-1 r (K~ the
 assembled matrix, factored once) is added until it no longer changes the solution
 (iterative refinement; Wilkinson 1963, Higham, Accuracy and Stability of Numerical
-Algorithms, 2002, ch. 12), and the reactions are the supports' residuals of the refined
-solution. Where the correction does not die away (points so close that even the
+Algorithms, 2002, ch. 12; from memory). The vertical reactions are then found by the
+statics of each support's free body between the longest elements beside it (the short
+elements inside are never read), the reaction moments as the residuals of the fixed
+supports' rotations. Where the correction does not die away (points so close that even the
 assembled matrix is no guide), the solve is refused by name rather than answered
 wrongly.
 """
