@@ -38,7 +38,7 @@ from plystack.core.model.units import fmt
 from plystack.core.pipeline import run
 from plystack.core.section.transformed import Section
 
-from .many_loads import with_point_loads
+from .demo_variants import with_point_loads
 
 DEMOS = Path(__file__).resolve().parents[2] / "assets" / "demo"
 IN = 0.0254

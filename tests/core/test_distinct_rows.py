@@ -8,7 +8,6 @@ the module's own search over every row.
 
 from __future__ import annotations
 
-import json
 from collections.abc import Iterator
 from pathlib import Path
 
@@ -19,26 +18,15 @@ from plystack.core import pipeline
 from plystack.core.actions import analysis as an
 from plystack.core.actions import beam as bm
 from plystack.core.actions import extremes as ex
-from plystack.core.io.project_file import from_dict
 from plystack.core.model.project import Project
+
+from .demo_variants import span_variants
 
 DEMOS = Path(__file__).resolve().parents[2] / "assets" / "demo"
 
 
 def _projects() -> Iterator[tuple[str, Project]]:
-    for name, short, at in (("porch-header.plystack.json", ("1 ft", "11 ft"), "5 ft"),
-                            ("stair-trimmer-eu.plystack.json", ("0.3 m", "3.3 m"), "2 m")):
-        base = json.loads((DEMOS / name).read_text(encoding="utf-8"))
-        for spans in (1, 2, 3, 5):
-            for variant in ("plain", "short", "points"):
-                data = json.loads(json.dumps(base))
-                data["beam"]["spans"] = data["beam"]["spans"] * spans
-                if variant == "short":
-                    data["plies"][1].update({"from": short[0], "to": short[1]})
-                if variant == "points":
-                    data["beam"]["loads"].append({"case": "L", "type": "point",
-                                                  "value": "900 N", "at": at})
-                yield f"{name}-{spans}-{variant}", from_dict(data)
+    return span_variants((1, 2, 3, 5), varying_line=False)
 
 
 def _batch(project: Project) -> tuple[bm.BeamModel, list[bm.CaseSolution], list[float]]:

@@ -11,7 +11,6 @@ polynomials of every degree. Regression guard.
 
 from __future__ import annotations
 
-import json
 from collections.abc import Iterator, Sequence
 from pathlib import Path
 from typing import Any
@@ -24,8 +23,9 @@ from plystack.core.actions import analysis as an
 from plystack.core.actions import extremes as ex
 from plystack.core.actions.beam import BeamModel, CaseSolution
 from plystack.core.actions.extremes import Extremes, _ElementValues, _groups, _needs_roots, _stacked
-from plystack.core.io.project_file import from_dict
 from plystack.core.model.project import Project
+
+from .demo_variants import span_variants
 
 DEMOS = Path(__file__).resolve().parents[2] / "assets" / "demo"
 
@@ -171,21 +171,7 @@ def _reduce_plain(model: BeamModel, values: _ElementValues, e0: int, e1: int) ->
 
 
 def _projects() -> Iterator[tuple[str, Project]]:
-    for name, short, at in (("porch-header.plystack.json", ("1 ft", "11 ft"), "5 ft"),
-                            ("stair-trimmer-eu.plystack.json", ("0.3 m", "3.3 m"), "2 m")):
-        base = json.loads((DEMOS / name).read_text(encoding="utf-8"))
-        for spans in (1, 2, 3, 4):
-            for variant in ("plain", "short", "points"):
-                data = json.loads(json.dumps(base))
-                data["beam"]["spans"] = data["beam"]["spans"] * spans
-                if variant == "short":
-                    data["plies"][1].update({"from": short[0], "to": short[1]})
-                if variant == "points":
-                    data["beam"]["loads"] += [
-                        {"case": "L", "type": "point", "value": "900 N", "at": at},
-                        {"case": "D", "type": "line", "value": "300 N/m",
-                         "value_end": "1200 N/m", "from": "0 m", "to": at}]
-                yield f"{name}-{spans}-{variant}", from_dict(data)
+    return span_variants((1, 2, 3, 4), varying_line=True)
 
 
 FIELDS = ("x0", "xm", "ok", "m", "xv", "v", "w", "xw")

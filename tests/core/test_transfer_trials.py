@@ -30,7 +30,7 @@ from plystack.core.io.project_file import load
 from plystack.core.model.member import Load
 from plystack.core.pipeline import run
 
-from .many_loads import with_point_loads
+from .demo_variants import with_point_loads
 
 DEMOS = Path(__file__).resolve().parents[2] / "assets" / "demo"
 
