@@ -228,8 +228,11 @@ class BeamModel:
                 f"a span of at most {MERGE_TOLERANCE * max(L, 1.0) * 1000:.2g} mm: give every "
                 "span a length)"))
         self.fixed = np.array(sorted(fixed))
+        #: The element lengths and 1 / EI as lists (the reactions' statics read a few).
+        self._lists = (self.lengths.tolist(), None if self.flexibility is None
+                       else self.flexibility.tolist())
         #: The free body of each support's vertical reaction (``refine.support_windows``).
-        self.windows = support_windows(self.lengths.tolist(), self.support_nodes)
+        self.windows = support_windows(self._lists[0], self.support_nodes)
         is_free = np.ones(n_dof, dtype=bool)
         is_free[self.fixed] = False
         self.free = np.flatnonzero(is_free)  # ascending, as setdiff1d (without numpy.ma)
@@ -415,12 +418,14 @@ class BeamModel:
                     self._linear_solve)
         except Unsettled as exc:
             raise self._unsettled(exc) from None
-        R = residuals(le, flex, u, total)  # f - K u: the reactions are K u - f
-        reactions = np.array(window_reactions(self.windows, le.tolist(), None if flex is None
-                                              else flex.tolist(), u.tolist(), total.tolist()))
-        reaction_moments = np.array([
-            0.0 - R[2 * n + 1] if k == "fixed" else 0.0
-            for n, k in zip(self.support_nodes, self.layout.support_kinds(), strict=True)])
+        le_list, flex_list = self._lists
+        reactions = np.array(window_reactions(self.windows, le_list, flex_list, u.tolist(),
+                                              total.tolist()))
+        kinds = self.layout.support_kinds()
+        R = residuals(le, flex, u, total) if "fixed" in kinds else None  # f - K u
+        reaction_moments = np.array([  # K u - f on the fixed supports' rotations
+            0.0 - R[2 * n + 1] if R is not None and k == "fixed" else 0.0
+            for n, k in zip(self.support_nodes, kinds, strict=True)])
         point = -F[0::2]  # downward point loads at nodes
         self._restore_equilibrium(reactions, reaction_moments, point, q_el, dq_el)
         # shear and moment by statics, walking from the left end

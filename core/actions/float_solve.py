@@ -171,9 +171,9 @@ def solve_floats(mesh: FloatMesh, windows: list[tuple[int, int, int, int]],
     le, flex = mesh.le, mesh.flexibility
     refined_floats(u, mesh.free, scale, lambda v: residuals_floats(le, flex, v, total),
                    lambda b: solve_list(factor, b, w))
-    R = residuals_floats(le, flex, u, total)  # f - K u: the reactions are K u - f
     reactions = window_reactions(windows, le, flex, u, total)
-    moments = [0.0 - R[2 * n + 1] if fixed else 0.0
+    R = residuals_floats(le, flex, u, total) if any(mesh.fixed_support) else None
+    moments = [0.0 - R[2 * n + 1] if R is not None and fixed else 0.0  # K u - f
                for n, fixed in zip(mesh.support_nodes, mesh.fixed_support, strict=True)]
     point = [-F[i] for i in range(0, len(F), 2)]
     _restore_equilibrium(mesh, reactions, moments, point, q_el, dq_el)

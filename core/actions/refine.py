@@ -92,14 +92,7 @@ def residuals_floats(le: list[float], flexibility: list[float] | None, u: list[f
     start = [0.0] * n
     end = [0.0] * n
     for e, h in enumerate(le):
-        v1, t1, v2, t2 = u[2 * e], u[2 * e + 1], u[2 * e + 2], u[2 * e + 3]
-        d = (v1 - v2) / h
-        m1 = 2 * (3 * d + 2 * t1 + t2) / h
-        m2 = 2 * (3 * d + t1 + 2 * t2) / h
-        V = (m1 + m2) / h
-        if flexibility is not None:
-            g = flexibility[e]
-            V, m1, m2 = V / g, m1 / g, m2 / g
+        V, m1, m2 = _element(h, None if flexibility is None else flexibility[e], u, e)
         start[2 * e], start[2 * e + 1] = V, m1
         end[2 * e + 2], end[2 * e + 3] = -V, m2
     out = []
@@ -230,8 +223,8 @@ def window_reactions(windows: list[tuple[int, int, int, int]], le: list[float],
         terms = [-f[2 * i] for i in range(first, last + 1)]
         for e, sign in ((right, 1.0), (left, -1.0)):
             if e >= 0:
-                terms.append(sign * _shear(le[e], None if flexibility is None
-                                           else flexibility[e], u, e))
+                terms.append(sign * _element(le[e], None if flexibility is None
+                                             else flexibility[e], u, e)[0])
         try:
             out.append(0.0 + math.fsum(terms))
         except (ValueError, OverflowError):  # infinities of both signs, or past the floats
@@ -239,11 +232,16 @@ def window_reactions(windows: list[tuple[int, int, int, int]], le: list[float],
     return out
 
 
-def _shear(h: float, g: float | None, u: list[float], e: int) -> float:
-    """V of element e from its deformation, as :func:`element_forces` finds it."""
+def _element(h: float, g: float | None, u: list[float], e: int
+             ) -> tuple[float, float, float]:
+    """(V, M1, M2) of element e, of length h and 1 / EI g (None: EI = 1), from its
+    deformation: :func:`element_forces` in floats, the same operations.
+    """
     v1, t1, v2, t2 = u[2 * e], u[2 * e + 1], u[2 * e + 2], u[2 * e + 3]
     d = (v1 - v2) / h
     m1 = 2 * (3 * d + 2 * t1 + t2) / h
     m2 = 2 * (3 * d + t1 + 2 * t2) / h
     V = (m1 + m2) / h
-    return V if g is None else V / g
+    if g is not None:
+        V, m1, m2 = V / g, m1 / g, m2 / g
+    return V, m1, m2
