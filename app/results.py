@@ -245,7 +245,25 @@ class LabelBox(QWidget):
         return label.heightForWidth(key)  # type: ignore[arg-type]
 
     def _unchanged(self) -> bool:
-        return all(self._answer(key) == given for key, given in self._given.items())
+        """True where no answer the layout was given moves the label: its heights for
+        the widths asked, its minimum height, a minimum width that still fits the box
+        and, for a label whose height follows its width, nothing of its size hint (a
+        vertical box layout gives every item its whole width and takes such an item's
+        height from ``heightForWidth`` at that width, so these change no geometry).
+        """
+        hfw = self.label.hasHeightForWidth()
+        for key, given in self._given.items():
+            answer = self._answer(key)
+            if key == "size":
+                if not hfw and answer.height() != given.height():  # type: ignore[attr-defined]
+                    return False
+            elif key == "minimum":
+                if (answer.height() != given.height()  # type: ignore[attr-defined]
+                        or answer.width() > self.width()):  # type: ignore[attr-defined]
+                    return False
+            elif answer != given:
+                return False
+        return True
 
     def _pass_on(self) -> None:
         self._given.clear()

@@ -347,6 +347,59 @@ def test_the_verdict_box_lays_out_as_the_label_alone(qtbot):
     assert boxed_text.size() == plain_text.size()
 
 
+def test_the_verdict_box_holds_back_a_new_width_that_fits(qtbot):
+    """While held, a text of another width on the same one line changes no geometry of a
+    vertical box layout: the box passes nothing on; a text that needs another line does
+    pass on. The label's geometry is the plain label's in the same layout throughout.
+    """
+    from PySide6.QtWidgets import QVBoxLayout, QWidget
+
+    from plystack.app.results import LabelBox
+    from plystack.app.safe import plain_label
+
+    def panel(boxed: bool):
+        w = QWidget()
+        qtbot.addWidget(w)
+        layout = QVBoxLayout(w)
+        label = plain_label("OK \u2014 short")
+        box = LabelBox(label) if boxed else None
+        layout.addWidget(box if box is not None else label)
+        layout.addWidget(QTableWidget(3, 3), 1)
+        w.resize(600, 300)
+        w.show()
+        for _ in range(3):
+            QApplication.processEvents()
+        return w, label, box
+
+    plain, plain_text, _ = panel(False)
+    boxed, boxed_text, box = panel(True)
+    box.hold(True)
+    passed = box.passed_on
+
+    def show(text: str) -> None:
+        for label in (plain_text, boxed_text):
+            label.setText(text)
+        for _ in range(3):
+            QApplication.processEvents()
+        assert boxed_text.size() == plain_text.size(), text
+        assert boxed_text.mapTo(boxed, QPoint(0, 0)) == plain_text.mapTo(plain, QPoint(0, 0))
+
+    one_line = ["OK \u2014 governing: bending in flitch plate, D + L, ratio 0.812",
+                "OK \u2014 short", "NOT OK \u2014 governing: splitting in left 2x10, D + L"]
+    widths = set()
+    for text in one_line:
+        show(text)
+        widths.add(boxed_text.sizeHint().width())
+    assert len(widths) == len(one_line)  # each text asks for another width ...
+    assert box.passed_on == passed  # ... and none of them is passed on
+    show("NOT OK \u2014 governing: splitting\n  not checked: one")  # a second line
+    assert box.passed_on == passed + 1
+    box.hold(False)
+    for _ in range(3):
+        QApplication.processEvents()
+    assert boxed_text.size() == plain_text.size()
+
+
 def test_after_a_drag_the_results_are_laid_out_as_in_a_fresh_window(window, qtbot):
     settle(qtbot, window)
     passed = window.results.verdict_box.passed_on
