@@ -12,7 +12,9 @@ hidden, the strain and stress plot, the shear, moment and deflection plot. Goals
 
 Times are CPU seconds of this process (``time.process_time``: the others' load on a
 shared machine moves them less than wall time) unless ``--wall`` is given. Not a test;
-prints one run's numbers. ``--steps N`` changes the number of steps; ``--widgets`` also
+prints one run's numbers. ``--steps N`` changes the number of steps; ``--project FILE``
+drags the second ply (the plate in both demos) of another project file, such as a demo
+whose plate stops short of the supports; ``--widgets`` also
 prints, for each window, the widgets painted in the steps (by class, parent and object
 name) with their paint events and pixels a step, the largest first.
 """
@@ -37,6 +39,13 @@ from PySide6.QtWidgets import QApplication
 ROOT = Path(__file__).resolve().parents[1]
 DEMO = ROOT / "assets" / "demo" / "porch-header.plystack.json"
 CLOCK: Callable[[], float] = time.perf_counter if "--wall" in sys.argv else time.process_time
+
+
+def _project_path() -> Path:
+    """The project dragged: ``--project FILE``, else the US demo."""
+    if "--project" in sys.argv:
+        return Path(sys.argv[sys.argv.index("--project") + 1])
+    return DEMO
 
 
 def _percentile(values: list[float], q: float) -> float:
@@ -84,7 +93,7 @@ def drag_steps(tab: int | None, steps: int) -> tuple[list[float], list[float], i
 
     app = QApplication.instance() or QApplication([])
     left, none = Qt.MouseButton.LeftButton, Qt.KeyboardModifier.NoModifier
-    w = MainWindow(load(DEMO), None)
+    w = MainWindow(load(_project_path()), None)
     w.resize(1600, 950)
     w.show()
     w.plot_tabs.setVisible(tab is not None)
@@ -139,8 +148,8 @@ def main() -> None:
     QStandardPaths.setTestModeEnabled(True)
     steps = int(sys.argv[sys.argv.index("--steps") + 1]) if "--steps" in sys.argv else 100
     clock = "wall" if "--wall" in sys.argv else "CPU"
-    print(f"GUI drag step ({steps} steps of a resize drag on the flitch plate's top edge, "
-          f"{clock} time)")
+    print(f"GUI drag step ({steps} steps of a resize drag on the top edge of the second ply "
+          f"of {_project_path().name}, {clock} time)")
     print(f"{'':44}{'median':>8}{'p95':>8}{'run':>8}{'- run':>8}{'/ run':>7}  full draws"
           "  paints/step  kpx/step")
     for label, tab, goal in (("view + results table (plots hidden)", None, "goal 12 ms"),
