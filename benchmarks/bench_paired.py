@@ -9,7 +9,8 @@ REV is any git revision (``HEAD~3``, a commit, a branch). Both sides are read fr
 copy of their files (``git archive`` for the commit), imported as ``plystack`` by path,
 so an editable install does not matter. The projects: both demos (``us``, ``eu``),
 their plates stopping short (``us_short``, ``eu_short``), three spans with pattern live
-load (``us_3sp``, ``eu_3sp``), 300 and 1,000 point loads (``us_pts300``,
+load (``us_3sp``, ``eu_3sp``), the same with their plates stopping short
+(``us_3sp_short``, ``eu_3sp_short``), 300 and 1,000 point loads (``us_pts300``,
 ``us_pts1000``) and 100 plies side by side (``sbs100``); all by default. Not a test;
 no assertions on time.
 """
@@ -26,8 +27,8 @@ import tempfile
 from pathlib import Path
 
 ROOT = Path(__file__).resolve().parents[1]
-NAMES = ("us", "eu", "us_short", "eu_short", "us_3sp", "eu_3sp", "us_pts300",
-         "us_pts1000", "sbs100")
+NAMES = ("us", "eu", "us_short", "eu_short", "us_3sp", "eu_3sp", "us_3sp_short",
+         "eu_3sp_short", "us_pts300", "us_pts1000", "sbs100")
 
 # The child: builds the projects with the API both sides share, times each.
 CHILD = r'''
@@ -80,7 +81,8 @@ def side_by_side(n):
 
 make = {"us": lambda: US, "eu": lambda: EU, "us_short": lambda: short(US),
         "eu_short": lambda: short(EU), "us_3sp": lambda: spans(US, 3),
-        "eu_3sp": lambda: spans(EU, 3), "us_pts300": lambda: points(US, 300),
+        "eu_3sp": lambda: spans(EU, 3), "us_3sp_short": lambda: short(spans(US, 3)),
+        "eu_3sp_short": lambda: short(spans(EU, 3)), "us_pts300": lambda: points(US, 300),
         "us_pts1000": lambda: points(US, 1000),
         "sbs100": lambda: US.with_plies(side_by_side(100))}
 pipeline.MAX_PLIES = max(pipeline.MAX_PLIES, 100)

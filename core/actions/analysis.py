@@ -309,7 +309,9 @@ class PreparedBeam:
     def of(spec: BeamSpec, design: DesignSpec, stepping: Stepping | None = None,
            creep: bool = False) -> PreparedBeam:
         """Mesh the beam, solve each load case and plan the arrangements (on the stepped
-        stiffness where ``stepping`` is given, its creep stiffness with ``creep``).
+        stiffness where ``stepping`` is given, its creep stiffness with ``creep``). The
+        creep stiffness's member (:attr:`creep`) is not planned: its solutions are built on
+        the plans of the short-term member, and its own would never be read.
         """
         basis = "US" if design.us else "EU"
         steps = () if stepping is None else stepping.steps(creep)
@@ -325,6 +327,9 @@ class PreparedBeam:
             patterned = [c for c in PATTERNED[basis] if c in cases]
             if patterned:
                 parts = region_parts(model, spec, patterned)
+        if creep:
+            return PreparedBeam(spec, model, cases, unit, basis, parts, (), {},
+                                stepping is not None, None)
         empty = RegionParts((), {})
         frac = spec.sustained_live_fraction or 0.0
         planned = []
@@ -340,7 +345,7 @@ class PreparedBeam:
                                     var))
         case_plans = {c: plan(model, parts or empty, {c: 1.0}) for c in present}
         crept = (PreparedBeam.of(spec, design, stepping, creep=True)
-                 if stepping is not None and not creep else None)
+                 if stepping is not None else None)
         return PreparedBeam(spec, model, cases, unit, basis, parts, tuple(planned),
                             case_plans, stepping is not None, crept)
 
@@ -697,14 +702,24 @@ def analyse_stepped(prepared: PreparedBeam, section: Section, design: DesignSpec
         raise ProjectError(Problem("beam.combinations", "no combination has a load case "
                                    "that the beam carries"))
     batch = _Batch()
-    job = _ask_section(prepared, section, design, batch)
+    job = _ask_section(prepared, section, design, batch, defer=True)
     model = prepared.model
     spans = [(model.node_index(a), model.node_index(b)) for a, b in bounds]
-    every, *within = extremes_within(model, batch.solutions, batch.stiffness, spans)
-    whole = _finish_section(prepared, section, job, every, batch.solutions)
+    found = extremes_within(model, batch.solutions, batch.stiffness, spans)
+    # the sustained and rest parts that the whole member and each segment read (each
+    # has its own governing arrangements), built once each
+    extra = _Batch()
+    for ext in found:
+        _ask_deferred(prepared, job, ext, extra, len(batch.solutions))
+    if extra.solutions:
+        more = extremes_within(model, extra.solutions, extra.stiffness, spans)
+        found = [a + b for a, b in zip(found, more, strict=True)]
+    built = batch.solutions + extra.solutions
+    every, *within = found
+    whole = _finish_section(prepared, section, job, every, built)
     parts = []
     for (a, b), ext in zip(bounds, within, strict=True):
-        parts.append(replace(_finish_section(prepared, section, job, ext, batch.solutions),
+        parts.append(replace(_finish_section(prepared, section, job, ext, built),
                              bounds=(a, b)))
     return replace(whole, segments=tuple(parts))
 

@@ -18,6 +18,8 @@ from plystack.core.io.project_file import load
 from plystack.core.model.project import Project
 from plystack.core.pipeline import Evaluator
 
+from .demo_variants import span_variants
+
 DEMOS = Path(__file__).resolve().parents[2] / "assets" / "demo"
 
 
@@ -45,6 +47,11 @@ def test_deferred_parts_equal_the_eager_batch(demo: str, spans: int) -> None:
     ext = extremes_many(prepared.model, batch.solutions, batch.stiffness)
     eager = analysis._finish_section(prepared, section, job, ext, batch.solutions)
     assert len(batch.solutions) > sum(1 for _ in deferred.combinations)
+    _same(deferred, eager)
+
+
+def _same(deferred: analysis.BeamResult, eager: analysis.BeamResult) -> None:
+    """Every field the result reads of each combination, floats and arrays exact."""
     for a, b in zip(deferred.combinations, eager.combinations, strict=True):
         for name in ("extremes", "total", "long_term", "short_term_rest", "variable_only",
                      "M_sustained_at_max", "M_sustained_at_min", "governing_patterns",
@@ -58,6 +65,38 @@ def test_deferred_parts_equal_the_eager_batch(demo: str, spans: int) -> None:
             if sa is not None:
                 assert sa.data.tobytes() == sb.data.tobytes(), name
     assert repr(deferred.case_extremes) == repr(eager.case_extremes)
+
+
+def test_a_stepped_member_builds_the_parts_each_segment_reads(
+        monkeypatch: pytest.MonkeyPatch) -> None:
+    """A plate stopping short on three spans, live load patterned: the whole member and
+    each segment have their own governing arrangements; with the parts built only where
+    one of them reads them, every segment's result equals the eager one's."""
+    stepped = 0
+    ask = analysis._ask_section
+
+    def eager_ask(*args: object, defer: bool = False) -> analysis._Job:
+        return ask(*args)  # type: ignore[arg-type]
+
+    for name, project in span_variants([3], False):
+        if not name.endswith("short"):
+            continue
+        beam = project.beam
+        assert beam is not None
+        project = replace(project, beam=replace(beam, pattern_live_load=True))
+        ev = Evaluator(project)
+        section = ev.section(project.plies)
+        deferred = ev._stepped_beam(project.plies, section)
+        with monkeypatch.context() as m:
+            m.setattr(analysis, "_ask_section", eager_ask)
+            eager = ev._stepped_beam(project.plies, section)
+        assert len(deferred.segments) == len(eager.segments) >= 3
+        _same(deferred, eager)
+        for a, b in zip(deferred.segments, eager.segments, strict=True):
+            assert a.bounds == b.bounds
+            _same(a, b)
+        stepped += 1
+    assert stepped == 2
 
 
 @pytest.mark.parametrize(("demo", "spans"), [("porch-header.plystack.json", 8),
