@@ -32,6 +32,7 @@ from .design.material_notes import material_warnings
 from .design.memo import with_partner
 from .design.openings import opening_checks
 from .design.segmented import SegmentResult, segment_results, segmented_checks
+from .design.service_moduli import service_materials
 from .design.staged import StagePart, StagesResult, stage_stiffness, staged_checks
 from .design.us_asd import us_checks
 from .design.vibration import vibration_checks
@@ -132,7 +133,9 @@ class Evaluator:
     def __init__(self, project: Project):
         self.project = project
         self.design = project.design_or_default()
-        self.materials: Mapping[str, Material] = project.all_materials()
+        # US-ASD: timber stiffness with E' = E C_M C_t C_i (NDS 2018 4.3.1)
+        self.materials: Mapping[str, Material] = service_materials(
+            project.all_materials(), self.design)
         self._prepared: PreparedBeam | None = None
         if project.beam is not None and not is_stepped(project.plies,
                                                        project.beam.layout.length):

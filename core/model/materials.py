@@ -77,6 +77,10 @@ class Material:
         existing: for existing timber of unknown grade, the assumed grade and condition
             factor its values come from; None otherwise.
         grade_rule: the grading rule the values belong to (text), kept for the file.
+        E_factors: where ``E`` is an adjusted modulus made for a design basis (US-ASD
+            E' = E C_M C_t C_i, ``design.service_moduli``), the factors by symbol; empty
+            for a record as read.
+        E_reference: the record's own E where ``E`` is adjusted; None otherwise.
 
     """
 
@@ -93,6 +97,8 @@ class Material:
     notes: str = ""
     grade_rule: str = ""
     existing: Existing | None = None
+    E_factors: Mapping[str, float] = field(default_factory=dict)
+    E_reference: float | None = None
 
     def value(self, key: str) -> float | None:
         """Return design value ``key`` or None where the record has none."""

@@ -14,6 +14,7 @@ from reportlab.platypus import CondPageBreak, KeepTogether, Spacer, Table
 
 from ..design.check import governing
 from ..model.caution import ASSUMPTIONS, CAUTION, FIRE_NOTE
+from ..model.materials import Material
 from ..model.project import Project
 from ..pipeline import Analysis
 from ..section.gamma import assumptions
@@ -114,10 +115,22 @@ def _section(a: Analysis, u: str, width: float) -> list[Any]:
                          for k, v in m.values.items())
         if m.density > 0:
             vals += f"; density {exact(m.density, 'density', u)}"
-        mats.append([m.id, m.name, m.kind, exact(m.E, "modulus", u), vals])
+        mats.append([m.id, m.name, m.kind, modulus_cell(m, u), vals])
     out += [para("Materials", H2), table(mats, width)]
     out += elevation_block(a, width)
     return out
+
+
+def modulus_cell(m: Material, u: str) -> str:
+    """E of a material, or where the design basis adjusts it (US-ASD, NDS 2018 4.3.1)
+    E' = E times its factors, each shown.
+    """
+    if m.E_reference is None:
+        return exact(m.E, "modulus", u)
+    return (f"E' = E {' '.join(symbol_text(k) for k in m.E_factors)} = "
+            f"{exact(m.E_reference, 'modulus', u)} \u00d7 "
+            + " \u00d7 ".join(plain(v) for v in m.E_factors.values())
+            + f" = {exact(m.E, 'modulus', u)} (NDS 2018 4.3.1)")
 
 
 def _transformed(a: Analysis, u: str, width: float) -> list[Any]:

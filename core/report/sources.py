@@ -11,6 +11,7 @@ from reportlab.lib.units import mm
 from reportlab.platypus import CondPageBreak
 
 from .. import __version__
+from ..design.service_moduli import S_E_PRIME
 from ..pipeline import Analysis
 from .derive import symbol_text
 from .layout import BODY, H1, H2, SMALL, para, table
@@ -52,6 +53,8 @@ def sources_section(a: Analysis, width: float) -> list[Any]:
             label = symbol_text(sym)
             if label not in names:
                 names.append(label)
+    if any(m.E_reference is not None for m in a.section.materials):
+        by_source.setdefault(without_memory_note(S_E_PRIME), []).append("E'")
     rows = [["Value", "Source"]]
     rows += [[", ".join(names), src] for src, names in sorted(by_source.items(),
                                                               key=lambda t: t[1][0])]
