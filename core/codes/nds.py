@@ -111,11 +111,22 @@ def C_i(value: str, incised: bool) -> float:
     return {"E": 0.95, "Emin": 0.95, "Fc_perp": 1.0}.get(value, 0.80)
 
 
-def C_r(repetitive: bool, product: str) -> float:
-    """NDS 2018 4.3.9 repetitive member factor: 1.15 for dimension lumber members in a
-    repetitive system (the user's declaration).
+#: The thickest sawn member that is dimension lumber (2 in to 4 in nominal, NDS 2018
+#: 4.3.9; actual sizes up to 3.5 in dressed, 4 in rough), m.
+DIMENSION_LUMBER_MAX = 4.0 * INCH
+
+
+def C_r(repetitive: bool, product: str, thickness: float | None = None) -> float:
+    """NDS 2018 4.3.9 repetitive member factor: 1.15 for dimension lumber (2 in to 4 in
+    thick) in a repetitive system (the user's declaration); 1.0 for timbers (5 in and
+    thicker, NDS Supplement Table 4D), glulam, LVL and steel. ``thickness``: the ply's
+    lesser dimension, m (None: taken as dimension lumber).
     """
-    return 1.15 if repetitive and product == "sawn" else 1.0
+    if not repetitive or product != "sawn":
+        return 1.0
+    if thickness is not None and thickness > DIMENSION_LUMBER_MAX + 1e-9:
+        return 1.0
+    return 1.15
 
 
 def C_b(bearing_length: float, at_end: bool) -> float:

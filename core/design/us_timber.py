@@ -45,9 +45,27 @@ def _size(ply: Ply, mat: Material, beam: BeamResult) -> tuple[str, float, float,
     face, thick = (ply.width, ply.height) if flat else (ply.height, ply.width)
     cf = nds.C_F(face, mat.product, mat.size_adjusted, thickness=thick)
     cfu = nds.C_fu(ply.width, ply.height) if flat and mat.product == "sawn" else 1.0
-    src = S_CF if mat.product == "sawn" else (
-        "NDS 2018 4.3.6.2 / typical LVL size factor (from memory)")
+    src = (S_CF if mat.product == "sawn" and not mat.size_adjusted else
+           "NDS 2018 4.3.6.2: C_F = (12/d)^(1/9) for d > 12 in, else 1.0 (from memory)"
+           if mat.product == "sawn" else
+           "NDS 2018 4.3.6.2 / typical LVL size factor (from memory)")
     return "C_F", cf, cfu, src
+
+
+def _thickness(ply: Ply) -> float:
+    """The ply's lesser dimension (its thickness as lumber), m."""
+    return min(ply.width, ply.height)
+
+
+def _cr_source(ply: Ply, mat: Material, design: DesignSpec) -> str:
+    """Where C_r comes from, and why it is 1.0 where the user declares a repetitive
+    system but the ply is not dimension lumber (NDS 2018 4.3.9).
+    """
+    if (design.repetitive_member and mat.product == "sawn"
+            and nds.C_r(True, mat.product, _thickness(ply)) == 1.0):
+        return ("NDS 2018 4.3.9: dimension lumber 2 in to 4 in thick only; this ply is "
+                "thicker (a timber), so 1.0 (from memory)")
+    return S_CR
 
 
 def _emin_adj(mat: Material, design: DesignSpec) -> float | None:
@@ -95,9 +113,9 @@ def _bending_for(i: int, section: Section, beam: BeamResult, combo: CombinationR
     cf_for_cm = size if sym == "C_F" else 1.0
     f = {"C_D": nds.C_D(combo.duration), "C_M": nds.C_M("Fb", mat.product, wet, Fb * cf_for_cm),
          "C_t": nds.C_t("Fb", temp, wet), "C_i": nds.C_i("Fb", design.incised),
-         "C_r": nds.C_r(design.repetitive_member, mat.product)}
+         "C_r": nds.C_r(design.repetitive_member, mat.product, _thickness(ply))}
     s = {ref_sym: mat.source_of(ref_sym), "C_D": S_TABLE, "C_M": S_CM, "C_t": S_CT,
-         "C_i": S_CI, "C_r": S_CR, sym: size_src}
+         "C_i": S_CI, "C_r": _cr_source(ply, mat, design), sym: size_src}
     if cfu != 1.0:
         f["C_fu"] = cfu
         s["C_fu"] = "NDS Supplement Table 4A flat use (from memory)"
@@ -183,7 +201,7 @@ def interaction_check(i: int, section: Section, beam: BeamResult, combo: Combina
     common_f = {"C_D": nds.C_D(combo.duration), "C_t": nds.C_t("Fb", temp, wet),
                 "C_i": nds.C_i("Fb", design.incised)}
     fb_no_cl = Fb * math.prod(common_f.values()) * nds.C_M("Fb", mat.product, wet, Fb * size) * (
-        size * cfu * nds.C_r(design.repetitive_member, mat.product))
+        size * cfu * nds.C_r(design.repetitive_member, mat.product, _thickness(ply)))
     flat = ply.width > ply.height
     face = ply.width if flat else ply.height
     if key == "Ft":
