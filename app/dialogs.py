@@ -143,7 +143,8 @@ FIELDS = {
     ("EU", "timber"): _COMMON + (
         ("E0_05", "E0,05", "modulus"), ("fm_k", "fm,k", "stress"), ("ft0_k", "ft,0,k", "stress"),
         ("fv_k", "fv,k", "stress"), ("fc0_k", "fc,0,k", "stress"),
-        ("fc90_k", "fc,90,k", "stress"), ("rho_k", "\u03c1k", "density")),
+        ("fc90_k", "fc,90,k", "stress"), ("rho_k", "\u03c1k", "density"),
+        ("s", "s (LVL size effect exponent)", "")),
     ("US", "steel"): _COMMON + (("Fy", "Fy", "stress"), ("Fu", "Fu", "stress")),
     ("EU", "steel"): _COMMON + (("Fy", "fy", "stress"), ("Fu", "fu", "stress")),
 }

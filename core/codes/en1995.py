@@ -37,7 +37,7 @@ def gamma_M(product: str) -> float:
 def k_h(depth: float, product: str) -> float:
     """Depth factor for bending. Solid timber (3.2(3), rho_k <= 700 kg/m3):
     min((150/h)^0.2, 1.3) for h < 150 mm; glulam (3.3(3)): min((600/h)^0.1, 1.1) for
-    h < 600 mm; LVL 1.0 here (the manufacturer's size effect governs). h in m.
+    h < 600 mm; LVL: see :func:`k_h_lvl` (1.0 here). h in m.
     """
     h = depth * 1000.0
     if product == "glulam":
@@ -45,6 +45,33 @@ def k_h(depth: float, product: str) -> float:
     if product == "sawn":
         return min((150 / h) ** 0.2, 1.3) if h < 150 else 1.0
     return 1.0
+
+
+#: EN 1995-1-1 3.4(3) / 3.4(4) reference sizes of LVL (from memory): depth 300 mm in
+#: bending, length 3,000 mm in tension, m.
+LVL_DEPTH_REF = 0.300
+LVL_LENGTH_REF = 3.000
+
+
+def k_h_lvl(depth: float, s: float | None) -> float | None:
+    """EN 1995-1-1 3.4(3) depth factor of LVL in edgewise bending (from memory):
+    k_h = min((300/h)^s, 1.2), s the product's declared size effect exponent (3.4(5),
+    EN 14374). Without s: 1.0 up to 300 mm (no increase taken: conservative); None
+    deeper, where the factor reduces the strength and cannot be found.
+    """
+    if s is None:
+        return 1.0 if depth <= LVL_DEPTH_REF + 1e-12 else None
+    return float(min((LVL_DEPTH_REF / depth) ** s, 1.2))
+
+
+def k_l_lvl(length: float, s: float | None) -> float | None:
+    """EN 1995-1-1 3.4(4) length factor of LVL in tension parallel to the grain (from
+    memory): k_l = min((3000/l)^(s/2), 1.1), l the member's length. Without s: 1.0 up to
+    3 m (conservative); None longer.
+    """
+    if s is None:
+        return 1.0 if length <= LVL_LENGTH_REF + 1e-12 else None
+    return float(min((LVL_LENGTH_REF / length) ** (s / 2), 1.1))
 
 
 def k_cr(product: str) -> float:

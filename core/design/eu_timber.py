@@ -78,6 +78,51 @@ def _k_crit(i: int, section: Section, beam: BeamResult, design: DesignSpec,
     return k, src, where
 
 
+S_KH = "EN 1995-1-1 3.2(3) / 3.3(3) (from memory)"
+
+
+def _k_h(i: int, section: Section, warnings: list[Problem]) -> tuple[float, str] | None:
+    """The depth factor of ply i in bending and its source; None (with the reason among
+    ``warnings``) for LVL deeper than 300 mm without its size effect exponent.
+    """
+    ply, mat = section.plies[i], section.materials[i]
+    if mat.product != "lvl":
+        return ec5.k_h(ply.height, mat.product), S_KH
+    s = mat.value("s")
+    k = ec5.k_h_lvl(ply.height, s)
+    if k is None:
+        warnings.append(MissingCheck(
+            f"materials.{mat.id}.s", f'is not given: the LVL ply "{ply.name}" is deeper '
+            "than 300 mm, where its bending strength falls by (300/h)^s (EN 1995-1-1 "
+            "3.4(3)); give the product's declared size effect exponent s"))
+        return None
+    if s is None:
+        return k, ("EN 1995-1-1 3.4(3): 1.0 without the product's declared s, no "
+                   "increase taken (from memory)")
+    return k, f"EN 1995-1-1 3.4(3): min((300/h)^s, 1.2), s = {s:g} (from memory)"
+
+
+def _tension_size(i: int, section: Section, beam: BeamResult,
+                  warnings: list[Problem]) -> float | None:
+    """The size factor on f_t,0,k of ply i: k_h by its larger dimension (3.2(3),
+    3.3(3)), for LVL k_l by its length (3.4(4)); None (reason among ``warnings``)
+    for LVL longer than 3 m without its size effect exponent.
+    """
+    ply, mat = section.plies[i], section.materials[i]
+    if mat.product != "lvl":
+        return ec5.k_h(max(ply.width, ply.height), mat.product)
+    length = beam.model.layout.length
+    start = ply.start if ply.start is not None else 0.0
+    end = ply.end if ply.end is not None else length
+    k = ec5.k_l_lvl(end - start, mat.value("s"))
+    if k is None:
+        warnings.append(MissingCheck(
+            f"materials.{mat.id}.s", f'is not given: the LVL ply "{ply.name}" is longer '
+            "than 3 m and carries tension, whose strength falls by (3000/l)^(s/2) (EN "
+            "1995-1-1 3.4(4)); give the product's declared size effect exponent s"))
+    return k
+
+
 def _bending_for(i: int, section: Section, beam: BeamResult, combo: CombinationResult,
                  design: DesignSpec, member_width: float, d: PlyDemand,
                  warnings: list[Problem]) -> Check | None:
@@ -87,10 +132,13 @@ def _bending_for(i: int, section: Section, beam: BeamResult, combo: CombinationR
     if crit is None:
         return None
     k, k_src, where = crit
+    depth = _k_h(i, section, warnings)
+    if depth is None:
+        return None
     km = ec5.k_mod(eu_duration(combo.duration), design.service_class)
-    f = {"k_mod": km, "k_h": ec5.k_h(ply.height, mat.product), "k_crit": k}
+    f = {"k_mod": km, "k_h": depth[0], "k_crit": k}
     s = {"fm_k": mat.source_of("fm_k"), "k_mod": S_KMOD, "gamma_M": S_GM,
-         "k_h": "EN 1995-1-1 3.2(3) / 3.3(3) (from memory)", "k_crit": k_src}
+         "k_h": depth[1], "k_crit": k_src}
     g = {"gamma_M": ec5.gamma_M(mat.product)}
     apply_overrides(f, s, design, ply.name)
     return Check(
@@ -133,10 +181,16 @@ def interaction_check(i: int, section: Section, beam: BeamResult, combo: Combina
         return None
     km = ec5.k_mod(eu_duration(combo.duration), design.service_class)
     gm = ec5.gamma_M(mat.product)
-    fmd = km * ec5.k_h(ply.height, mat.product) * fm / gm
+    depth = _k_h(i, section, warnings)
+    if depth is None:
+        return None
+    fmd = km * depth[0] * fm / gm
     sm = d.bending
     if key == "ft0_k":
-        ftd = km * ec5.k_h(max(ply.width, ply.height), mat.product) * fa / gm
+        k_t = _tension_size(i, section, beam, warnings)
+        if k_t is None:
+            return None
+        ftd = km * k_t * fa / gm
         ratio = d.axial / ftd + sm / fmd
         eq = "sigma_t,0,d / f_t,0,d + sigma_m,d / f_m,d <= 1 (EN 1995-1-1 6.2.3)"
         cid: CheckId = "tension-bending"

@@ -5,7 +5,7 @@ from __future__ import annotations
 from collections.abc import Mapping
 from typing import TYPE_CHECKING, Any
 
-from ..model.materials import DENSITY_KEYS, Existing, Material
+from ..model.materials import DENSITY_KEYS, NUMBER_KEYS, Existing, Material
 from ..model.plies import Ply
 from ..model.units import exact_text
 from .openings_file import write_holes, write_notches
@@ -25,7 +25,7 @@ def write_materials(materials: Mapping[str, Material], system: str) -> dict[str,
                                "E": exact_text(m.E, "modulus", system),
                                "density": exact_text(m.density, "density", system)}
         for key, v in m.values.items():
-            if key == "G":
+            if key in NUMBER_KEYS:
                 rec[key] = v
             elif key in DENSITY_KEYS:
                 rec[key] = exact_text(v, "density", system)

@@ -3,7 +3,8 @@
 A material record in a file uses the trade's own symbols as keys: "kind", "name", "E",
 "density", "source"; US timber reference values "Fb", "Ft", "Fv", "Fc", "Fc_perp",
 "Emin", "G"; European timber characteristic values "fm_k", "ft0_k", "fv_k", "fc0_k",
-"fc90_k", "rho_k"; steel "Fy", "Fu". Inside ``core`` all values are SI floats.
+"fc90_k", "rho_k", and for LVL its declared size effect exponent "s" (EN 1995-1-1
+3.4(5)); steel "Fy", "Fu". Inside ``core`` all values are SI floats.
 """
 
 from __future__ import annotations
@@ -26,7 +27,7 @@ STRESS_KEYS = (
 #: Keys parsed as densities.
 DENSITY_KEYS = ("rho_k",)
 #: Plain numbers.
-NUMBER_KEYS = ("G",)
+NUMBER_KEYS = ("G", "s")
 #: Text keys.
 TEXT_KEYS = ("name", "kind", "source", "product", "notes", "grade_rule")
 #: Flags.
@@ -154,6 +155,13 @@ def material_from_record(mid: str, record: Any, path: str) -> tuple[Material | N
             problems.append(Problem(f"{path}.G", "must be a plain number between 0 and 2"))
         else:
             values["G"] = float(g)
+    if "s" in record:
+        e = record["s"]
+        if isinstance(e, bool) or not isinstance(e, int | float) or not 0 < e < 1:
+            problems.append(Problem(f"{path}.s", "must be a plain number between 0 and 1 "
+                                    "(the LVL's declared size effect exponent)"))
+        else:
+            values["s"] = float(e)
     for key in ("name", "source", "product", "notes", "grade_rule"):
         if key in record and not isinstance(record[key], str):
             problems.append(Problem(f"{path}.{key}", "must be text"))

@@ -14,7 +14,7 @@ from reportlab.platypus import CondPageBreak, KeepTogether, Spacer, Table
 
 from ..design.check import governing
 from ..model.caution import ASSUMPTIONS, CAUTION, FIRE_NOTE
-from ..model.materials import Material
+from ..model.materials import NUMBER_KEYS, Material
 from ..model.project import Project
 from ..pipeline import Analysis
 from ..section.gamma import assumptions
@@ -109,7 +109,7 @@ def _section(a: Analysis, u: str, width: float) -> list[Any]:
         if m.id in seen:
             continue
         seen.append(m.id)
-        vals = ", ".join(f"G {plain(v)}" if k == "G" else
+        vals = ", ".join(f"{k} {plain(v)}" if k in NUMBER_KEYS else
                          (f"\u03c1_k {exact(v, 'density', u)}" if k == "rho_k" else
                           f"{symbol_text(k)} {exact(v, 'stress', u)}")
                          for k, v in m.values.items())
