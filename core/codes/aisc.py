@@ -2,7 +2,11 @@
 
 from __future__ import annotations
 
+import math
+
 OMEGA_B = 1.67  # AISC 360-16 F1, ASD
+OMEGA_T = 1.67  # AISC 360-16 D2(a), tensile yielding, ASD
+OMEGA_C = 1.67  # AISC 360-16 E1, ASD
 
 
 def rectangular_bar_Mn(Fy: float, E: float, d: float, t: float, L_b: float,
@@ -25,3 +29,16 @@ def rectangular_bar_Mn(Fy: float, E: float, d: float, t: float, L_b: float,
     if slender <= 1.9 * E / Fy:
         return min(C_b * (1.52 - 0.274 * slender * Fy / E) * Fy, mp), "F11-2 (inelastic LTB)"
     return min(1.9 * E * C_b / slender, mp), "F11-3 (elastic LTB)"
+
+
+def compression_Fcr(Fy: float, E: float, L_c: float | None, r: float) -> tuple[float, str]:
+    """AISC 360-16 E3 flexural buckling stress (from memory): F_e = pi^2 E / (L_c/r)^2;
+    F_y / F_e <= 2.25: F_cr = 0.658^(F_y/F_e) F_y (E3-2), else 0.877 F_e (E3-3).
+    ``L_c`` None: braced along its length (F_cr = F_y). Returns (F_cr, the equation).
+    """
+    if L_c is None or L_c <= 0.0:
+        return Fy, "braced along its length: F_cr = F_y"
+    Fe = math.pi ** 2 * E / (L_c / r) ** 2
+    if Fy / Fe <= 2.25:
+        return 0.658 ** (Fy / Fe) * Fy, "E3-2 (inelastic buckling)"
+    return 0.877 * Fe, "E3-3 (elastic buckling)"

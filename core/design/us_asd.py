@@ -16,6 +16,7 @@ from ..actions.analysis import BeamResult
 from ..codes import aisc, nds
 from ..codes.dowels import Fe_perpendicular, Fe_steel, nds_double_shear, nds_single_shear
 from ..codes.nds_fasteners import C_M_bolts
+from ..model.constants import INCH
 from ..model.design import DesignSpec
 from ..model.errors import MissingCheck, Problem
 from ..model.project import Project
@@ -35,8 +36,8 @@ from .common import (
     unit_shear_stress,
     uplift_checks,
 )
-from .demands import ply_demands
-from .plates import plate_bracing, us_plate_allowable
+from .demands import PlyDemand, ply_demands
+from .plates import PlateBracing, plate_bracing, us_plate_allowable
 from .transfer import support_shear_checks
 from .us_timber import S_CI, S_CM, S_CT, S_TABLE, bending_check, interaction_check
 
@@ -102,7 +103,8 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
         elif mat.kind == "steel":
             if joints is None:
                 joints = side_by_side_joints(section)
-            checks.extend(_steel_checks(i, section, beam, design, tau_unit, joints))
+            checks.extend(_steel_checks(i, section, beam, design, tau_unit, joints,
+                                        project.display_units))
         else:
             warnings.append(MissingCheck(f"plies[{i}].material", f'"{mat.id}" is neither '
                                          "timber nor steel: its stresses are reported but not "
@@ -120,7 +122,7 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
 
 
 def _steel_checks(i: int, section: Section, beam: BeamResult, design: DesignSpec,
-                  tau_unit: np.ndarray, joints: list[Joint]) -> list[Check]:
+                  tau_unit: np.ndarray, joints: list[Joint], system: str) -> list[Check]:
     ply, mat = section.plies[i], section.materials[i]
     Fy = mat.value("Fy")
     if Fy is None:
@@ -157,6 +159,11 @@ def _steel_checks(i: int, section: Section, beam: BeamResult, design: DesignSpec
         ds = ply_demands(section, beam, combo, i, design)
         if not ds:
             continue
+        if design.steel_rule == "AISC-F11":
+            both = _plate_interaction(i, section, design, ds, allow, bracing, combo.name,
+                                      system)
+            if both is not None:
+                out.append(both)
         d = max(ds, key=lambda q: q.stress)
         demand, x = d.stress, d.x
         out.append(Check(
@@ -191,6 +198,63 @@ def _steel_checks(i: int, section: Section, beam: BeamResult, design: DesignSpec
             notes=("Peak shear stress compared with the average-stress rule "
                           "(conservative).",)))
     return out
+
+
+def _plate_interaction(i: int, section: Section, design: DesignSpec,
+                       ds: list[PlyDemand], F_cb: float, bracing: PlateBracing,
+                       combination: str, system: str) -> Check | None:
+    """AISC 360-16 H2-1 (from memory) for a plate whose centroid is off the neutral
+    axis, so that it carries axial force with its own bending (a cover plate, a flitch
+    plate set high or low): |f_ra| / F_ca + f_rb / F_cb <= 1.0, with F_cb the plate's
+    F11 allowable bending stress (M_n / S) / Omega_b and F_ca = F_y / Omega_t (tension,
+    D2(a)) or F_cr / Omega_c (compression, E3, about the plate's thickness, r = t /
+    sqrt(12)): a plate on one face or lying flat buckles between its fasteners (L_c the
+    plate's unbraced length, or for a flat plate the spacing of the fasteners along it),
+    one between two timbers is braced by them. None where the plate carries no axial
+    force (its centroid on the neutral axis): its bending check is then the whole story.
+    """
+    ply, mat = section.plies[i], section.materials[i]
+    Fy = float(mat.value("Fy") or 0.0)
+    best: tuple[float, PlyDemand, float, str] | None = None
+    for d in ds:
+        if abs(d.axial) <= 1e-9 * max(d.stress, 1.0):
+            continue
+        if d.axial > 0:
+            F_ca, how = Fy / aisc.OMEGA_T, "F_ca = F_y / Omega_t (D2(a))"
+        else:
+            t = min(ply.width, ply.height)
+            L_c, why = bracing.L_b, "the plate's unbraced length"
+            if ply.width >= ply.height:  # flat: between the fasteners along it
+                given = design.connector.spacing or design.bolt.spacing
+                L_c = given or 24 * INCH
+                why = ("the spacing of its fasteners" if given else "no fastener spacing "
+                       "given: the largest stock spacing")
+            F_cr, eq = aisc.compression_Fcr(Fy, mat.E, L_c, t / math.sqrt(12.0))
+            F_ca = F_cr / aisc.OMEGA_C
+            how = (f"F_ca = F_cr / Omega_c, F_cr = {fmt(F_cr, 'stress', system)} by {eq}"
+                   + ("" if L_c is None else
+                      f", L_c = {fmt(L_c, 'length', system)} ({why}), r = t / sqrt(12)"))
+        ratio = abs(d.axial) / F_ca + d.bending / F_cb
+        if best is None or ratio > best[0]:
+            best = (ratio, d, F_ca, how)
+    if best is None:
+        return None
+    ratio, d, F_ca, how = best
+    kind = "tension" if d.axial > 0 else "compression"
+    eq = "|f_ra| / F_ca + f_rb / F_cb <= 1.0 (AISC 360-16 H2-1)"
+    return Check(
+        id="tension-bending" if d.axial > 0 else "compression-bending", ply=ply.name,
+        combination=combination, demand=ratio, capacity=1.0, quantity="ratio",
+        reference=("interaction", 1.0), factors={}, partial_factors={},
+        sources={"interaction": "AISC 360-16 H2-1 (from memory)",
+                 "F_ca": ("AISC 360-16 D2(a), Omega_t = 1.67" if d.axial > 0 else
+                          "AISC 360-16 E3, Omega_c = 1.67") + " (from memory)",
+                 "F_cb": "AISC 360-16 F11, Omega_b = 1.67 (from memory)"},
+        equation=eq, location="plate off the neutral axis", x=d.x,
+        notes=(f"Axial {kind} f_ra = {fmt(abs(d.axial), 'stress', system)} with its own "
+               f"bending f_rb = {fmt(d.bending, 'stress', system)}; {how} = "
+               f"{fmt(F_ca, 'stress', system)}, F_cb = {fmt(F_cb, 'stress', system)}; "
+               f"{bracing.note}; {d.state}.",))
 
 
 def _deflections(beam: BeamResult, section: Section, design: DesignSpec) -> list[Check]:
