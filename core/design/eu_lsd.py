@@ -53,6 +53,26 @@ S_KMOD = "EN 1995-1-1 Table 3.1 (from memory)"
 S_GM = "EN 1995-1-1 Table 2.3 (from memory)"
 
 
+def _shear_buckling(i: int, section: Section, fy: float, warnings: list[Problem]) -> bool:
+    """EN 1993-1-1 6.2.6(6) (from memory): an unstiffened web with h_w / t > 72 eps / eta
+    (eps = sqrt(235 MPa / f_y), eta = 1.0, conservative) must be checked for shear
+    buckling to EN 1993-1-5, which Plystack does not do: True (the reason among
+    ``warnings``, so the verdict is INCOMPLETE) for such an edgewise plate.
+    """
+    ply = section.plies[i]
+    if ply.width >= ply.height:  # flat: its depth is its thickness, no web to buckle
+        return False
+    limit = 72 * math.sqrt(235e6 / fy) / 1.0
+    if ply.height / ply.width <= limit:
+        return False
+    warnings.append(MissingCheck(
+        f"plies[{i}].width", f'"{ply.name}" is a slender web, h_w / t = '
+        f"{ply.height / ply.width:.1f} > 72 eps / eta = {limit:.1f} (EN 1993-1-1 6.2.6(6)): "
+        "its shear resistance needs the shear buckling check of EN 1993-1-5, which "
+        "Plystack does not make; use a thicker plate or check it by hand"))
+    return True
+
+
 def eu_checks(project: Project, section: Section, beam: BeamResult,
               design: DesignSpec, layouts: list[PlateLayout] | None = None,
               segment: bool = False) -> tuple[tuple[Check, ...], list[Problem]]:
@@ -119,6 +139,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
                 joints = side_by_side_joints(section)
             bracing = plate_bracing(section, i, design, joints)
             chi, lam = eu_plate_chi(fy, mat.E, ply.height, ply.width, bracing.L_b)
+            buckles = _shear_buckling(i, section, fy, warnings)
             fb_f = {"chi_LT": chi}
             gb = {"gamma_M1": en1993.GAMMA_M1} if bracing.L_b is not None else g0
             for combo in uls:
@@ -141,11 +162,16 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
                     x=d.x, notes=(f"{bracing.note}; demand {d.state} (final: timber E_mean / "
                                   "(1 + psi2 k_def), EN 1995-1-1 2.3.2.2(2)).",)))
                 fs = {"1/sqrt(3)": 1 / math.sqrt(3)}
+                if buckles:
+                    continue
+                # the plate's share with the final moduli where it is larger (EN 1995-1-1
+                # 2.3.2.2(2)), as for its bending
+                tau_p = max(float(tau_unit[i]), float(unit_shear_stress(final)[i]))
                 checks.append(Check(
                     id="shear",
                     ply=ply.name,
                     combination=combo.name,
-                    demand=float(tau_unit[i]) * combo.extremes.V_max_abs,
+                    demand=tau_p * combo.extremes.V_max_abs,
                     capacity=capacity_from(fy, fs, g0),
                     quantity="stress",
                     reference=("f_y", fy),
@@ -155,7 +181,9 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
                      "memory)", "gamma_M0": "EN 1993-1-1 6.1 (from memory)"},
                     equation="tau_Ed <= f_y / (sqrt(3) gamma_M0)",
                     location="",
-                    x=combo.extremes.x_V_max_abs))
+                    x=combo.extremes.x_V_max_abs,
+                    notes=("Peak shear stress, the larger of the instantaneous and final "
+                           "(timber E_mean / (1 + psi2 k_def)) shares.",)))
         else:
             warnings.append(MissingCheck(f"plies[{i}].material", f'"{mat.id}" is neither '
                                          "timber nor steel: its stresses are reported but not "

@@ -419,11 +419,34 @@ def shear_point(s: Section, i: int) -> tuple[float, float]:
     return float(ys[k]), float(tau[k])
 
 
+def _shear_section(a: Analysis, c: Check, combo: CombinationResult
+                   ) -> tuple[Section, str]:
+    """The section whose share of the shear the check took (a steel plate takes the
+    larger of the instantaneous and the crept or final one) and how to say it.
+    """
+    s, beam = a.section, a.beam
+    assert beam is not None
+    i = ply_index(s, c.ply)
+    V = combo.extremes.V_max_abs
+    crept = (eu_uls_section(s, beam, combo, a.design) if not a.design.us
+             else beam.creep_section)
+    for sec, label in ((s, ""), (crept, (
+            "the final moduli, timber E_mean / (1 + \u03c8\u2082 k_def) (EN 1995-1-1 "
+            "2.3.2.2(2)), give the plate more of the shear" if not a.design.us else
+            "the creep moduli, timber E / K_cr, give the plate more of the shear; taken on "
+            "the whole of it (conservative)"))):
+        if math.isclose(V * shear_point(sec, i)[1], abs(c.demand), rel_tol=1e-7,
+                        abs_tol=1e-12):
+            return sec, label
+    return s, ""
+
+
 def _shear(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     s, beam = a.section, a.beam
     assert beam is not None
     i = ply_index(s, c.ply)
     combo = combination(beam, c.combination)
+    s, label = _shear_section(a, c, combo)
     V, x = combo.extremes.V_max_abs, combo.extremes.x_V_max_abs
     y, tau1 = shear_point(s, i)
     b = float(s.profiles[i].width_inside(np.array([y]))[0])
@@ -449,7 +472,8 @@ def _shear(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
                      f"cut y = {q(y, 'length', u, IN)} plus its share (n b / \u03a3 n b) of "
                      "the plies wholly beyond the cut")
     where.append(f"b = {q(b, 'length', u, IN)} (width of {c.ply} at the cut); n = {num(n, IN)};"
-                 f" I_t = {q(s.I_transformed, 'second_moment', u, IN)}")
+                 f" I_t = {q(s.I_transformed, 'second_moment', u, IN)}"
+                 + (f" ({label})" if label else ""))
     sym = _symbols(a, c)[0]
     return where, shear_demand_text(sym, V, n, Q, s.I_transformed, b, u, result(c, u))
 

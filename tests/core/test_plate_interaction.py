@@ -6,7 +6,8 @@ extreme-fibre stress against 1.5 F_y / 1.67 alone would overstate its strength.
 
 Hand calculation (beam theory, the section by its own formulas): a 3.5 x 0.25 in A36
 plate under (or over) a 3.5 x 11.875 in LVL 2.0E of the library, simply supported over
-22 ft, a live load of 55 psf over 7.2 ft (no self-weight, no dead load, so no creep part), M = w L^2/8.
+22 ft, a live load of 55 psf over 7.2 ft (no self-weight, no dead load, so no creep
+part), M = w L^2/8.
 """
 
 from __future__ import annotations
