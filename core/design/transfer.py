@@ -30,7 +30,7 @@ from ..actions.analysis import BeamResult, CombinationResult
 from ..actions.beam import BeamModel, CaseSolution
 from ..model.design import DesignSpec
 from ..model.units import fmt
-from ..section.transformed import Section, with_moduli
+from ..section.transformed import Section, own_second_moment, with_moduli
 from .bolt_layout import BoltLayout
 from .check import Check, evolve
 from .common import joints_of_timber, side_by_side_joints, unit_shear_stress
@@ -492,7 +492,7 @@ def plate_actions(section: Section, i: int, x: float, M: float, V: float) -> Pla
     E_p, EI = float(section.E[i]), section.EI
     A = float(section.area[i])
     y_c = float(section.first_y[i]) / A
-    I_own = float(section.second_y[i]) - A * y_c * y_c
+    I_own = own_second_moment(section, i)
     F = -E_p * M * (y_c - section.neutral_axis_y) / EI * A
     alpha = E_p * float(section.I_na[i]) / EI
     return PlateActions(x, F, alpha * V, E_p * I_own * M / EI, y_c)

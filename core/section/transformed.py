@@ -144,7 +144,7 @@ class Section:
         for i, ply in enumerate(self.plies):
             a = float(self.area[i])
             centroid = float(self.first_y[i] / a) if a > 0 else ply.y + ply.height / 2
-            i_own = float(self.second_y[i] - a * centroid**2) if a > 0 else 0.0
+            i_own = own_second_moment(self, i)
             c_top = abs(float(self.y_top[i]) - y_na)
             c_bot = abs(float(self.y_bottom[i]) - y_na)
             e = float(self.E[i])
@@ -280,6 +280,21 @@ class Section:
         return affinity.scale(
             self.geoms[index], xfact=float(self.n[index]), yfact=1.0, origin=(ply.x_centre, 0.0)
         )
+
+
+def own_second_moment(section: Section, i: int) -> float:
+    """Ply i's second moment about its own centroid, m^4: b h^3 / 12 of a whole
+    rectangle (exact: the parallel-axis difference of moments about y = 0 loses digits
+    for a thin ply far from it), else that difference of the clipped polygon's moments.
+    """
+    a = float(section.area[i])
+    if a <= 0:
+        return 0.0
+    if section.is_unclipped(i):
+        ply = section.plies[i]
+        return ply.width * ply.height ** 3 / 12
+    centroid = float(section.first_y[i]) / a
+    return float(section.second_y[i]) - a * centroid * centroid
 
 
 def analyse(

@@ -144,3 +144,20 @@ def test_unknown_material_is_named():
     with pytest.raises(ProjectError) as info:
         analyse([rect("p", "nope", 0, 0, 0.1, 0.1)], {"w": timber("w")})
     assert "plies[0].material" in str(info.value)
+
+
+def test_a_thin_ply_far_from_the_origin_keeps_its_own_second_moment() -> None:
+    """b h^3 / 12 exactly (hand formula) for a whole rectangle, however far from y = 0:
+    a 1/1024 m ply 8 m up (all exact binary numbers) loses seven digits in the
+    parallel-axis difference of its moments about y = 0."""
+    from plystack.core.io.library import load_library
+    from plystack.core.model.plies import Ply
+    from plystack.core.section.transformed import analyse, own_second_moment
+
+    mats = load_library()
+    h = 2.0 ** -10
+    plies = (Ply("deep", "C24", 0.0, 0.0, 0.125, 8.0), Ply("thin", "S275", 0.125, 8.0, 0.25, h))
+    s = analyse(plies, mats)
+    assert s.is_unclipped(1)
+    assert own_second_moment(s, 1) == 0.25 * h ** 3 / 12
+    assert s.ply_results()[1].I_own == 0.25 * h ** 3 / 12
