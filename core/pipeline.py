@@ -245,8 +245,11 @@ class Evaluator:
                 checks += tuple(extra)
                 warnings.extend(open_warnings)
             warnings += material_warnings(section, beam, project.display_units)
-            out.append(Analysis(project, section, beam, self.design, checks, tuple(warnings),
-                                segments, stages, tuple(layouts)))
+            # a reason given by several checks (each combination, each ply of a
+            # material) is said once, in the order first given
+            out.append(Analysis(project, section, beam, self.design, checks,
+                                tuple(dict.fromkeys(warnings)), segments, stages,
+                                tuple(layouts)))
         return out
 
     def _beams(self, candidates: list[tuple[Ply, ...]],

@@ -42,6 +42,9 @@ def service_materials(materials: Mapping[str, Material],
     not 1 (:attr:`Material.E_factors` then holds the factors and ``E_reference`` the
     record's E); the mapping itself where none changes.
     """
+    if not design.us or not (design.wet_service or design.incised
+                             or design.temperature != "normal"):
+        return materials  # every factor on E is 1.0
     out: dict[str, Material] = {}
     changed = False
     for mid, mat in materials.items():

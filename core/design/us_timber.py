@@ -45,10 +45,12 @@ def _size(ply: Ply, mat: Material, beam: BeamResult) -> tuple[str, float, float,
     face, thick = (ply.width, ply.height) if flat else (ply.height, ply.width)
     cf = nds.C_F(face, mat.product, mat.size_adjusted, thickness=thick)
     cfu = nds.C_fu(ply.width, ply.height) if flat and mat.product == "sawn" else 1.0
-    src = (S_CF if mat.product == "sawn" and not mat.size_adjusted else
-           "NDS 2018 4.3.6.2: C_F = (12/d)^(1/9) for d > 12 in, else 1.0 (from memory)"
-           if mat.product == "sawn" else
-           "NDS 2018 4.3.6.2 / typical LVL size factor (from memory)")
+    if mat.product != "sawn":
+        src = "NDS 2018 4.3.6.2 / typical LVL size factor (from memory)"
+    elif mat.size_adjusted:
+        src = "NDS 2018 4.3.6.2: C_F = (12/d)^(1/9) for d > 12 in, else 1.0 (from memory)"
+    else:
+        src = S_CF
     return "C_F", cf, cfu, src
 
 

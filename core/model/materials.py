@@ -26,8 +26,10 @@ STRESS_KEYS = (
 )
 #: Keys parsed as densities.
 DENSITY_KEYS = ("rho_k",)
-#: Plain numbers.
-NUMBER_KEYS = ("G", "s")
+#: Plain numbers, with the open range each must lie in and what it is.
+NUMBER_RANGES = {"G": (0.0, 2.0, ""), "s": (0.0, 1.0, " (the LVL's declared size effect "
+                                                  "exponent)")}
+NUMBER_KEYS = tuple(NUMBER_RANGES)
 #: Text keys.
 TEXT_KEYS = ("name", "kind", "source", "product", "notes", "grade_rule")
 #: Flags.
@@ -149,19 +151,15 @@ def material_from_record(mid: str, record: Any, path: str) -> tuple[Material | N
                 values[key] = v
             except units.UnitError as exc:
                 problems.append(units.problem(exc))
-    if "G" in record:
-        g = record["G"]
-        if isinstance(g, bool) or not isinstance(g, int | float) or not 0 < g < 2:
-            problems.append(Problem(f"{path}.G", "must be a plain number between 0 and 2"))
+    for key, (lo, hi, what) in NUMBER_RANGES.items():
+        if key not in record:
+            continue
+        v = record[key]
+        if isinstance(v, bool) or not isinstance(v, int | float) or not lo < v < hi:
+            problems.append(Problem(f"{path}.{key}", f"must be a plain number between "
+                                    f"{lo:g} and {hi:g}{what}"))
         else:
-            values["G"] = float(g)
-    if "s" in record:
-        e = record["s"]
-        if isinstance(e, bool) or not isinstance(e, int | float) or not 0 < e < 1:
-            problems.append(Problem(f"{path}.s", "must be a plain number between 0 and 1 "
-                                    "(the LVL's declared size effect exponent)"))
-        else:
-            values["s"] = float(e)
+            values[key] = float(v)
     for key in ("name", "source", "product", "notes", "grade_rule"):
         if key in record and not isinstance(record[key], str):
             problems.append(Problem(f"{path}.{key}", "must be text"))

@@ -69,6 +69,8 @@ def test_deep_lvl_without_its_exponent_is_incomplete() -> None:
     missing = [w for w in a.warnings if isinstance(w, MissingCheck)
                and w.path == "materials.LVL-T.s"]
     assert missing and "300 mm" in missing[0].message
+    # said once for each joist, not once per combination and check
+    assert [w.message.split('"')[1] for w in missing] == ["left joist", "right joist"]
 
 
 def test_the_length_factor() -> None:
