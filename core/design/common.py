@@ -43,6 +43,15 @@ def bending_demand(section: Section, combo: CombinationResult, i: int) -> tuple[
     return best
 
 
+def no_yield_strength(i: int, section: Section) -> MissingCheck:
+    """The reason a steel ply without a yield strength is not checked (its bending and
+    shear need F_y).
+    """
+    mat = section.materials[i]
+    return MissingCheck(f"materials.{mat.id}.Fy", f'is not given: the steel ply '
+                        f'"{section.plies[i].name}" is not checked in bending or shear')
+
+
 def unit_shear_stress(section: Section) -> np.ndarray:
     """Largest shear stress in each ply for V = 1 N (Pa per N; read-only, found once per
     section).

@@ -37,6 +37,7 @@ from .common import (
     apply_overrides,
     connector_checks,
     deflection_checks,
+    no_yield_strength,
     pattern_notes,
     side_by_side_joints,
     unit_shear_stress,
@@ -133,6 +134,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
         elif mat.kind == "steel":
             fy = mat.value("Fy")
             if fy is None:
+                warnings.append(no_yield_strength(i, section))
                 continue
             g0 = {"gamma_M0": ec5.GAMMA_M0}
             if joints is None:

@@ -31,6 +31,7 @@ from .common import (
     apply_overrides,
     connector_checks,
     deflection_checks,
+    no_yield_strength,
     pattern_notes,
     side_by_side_joints,
     unit_shear_stress,
@@ -101,6 +102,8 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
                 checks += support_shear_checks(section, beam, combo, design, i, sh,
                                                project.display_units)
         elif mat.kind == "steel":
+            if mat.value("Fy") is None:
+                warnings.append(no_yield_strength(i, section))
             if joints is None:
                 joints = side_by_side_joints(section)
             checks.extend(_steel_checks(i, section, beam, design, tau_unit, joints,

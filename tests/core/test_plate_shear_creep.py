@@ -88,3 +88,18 @@ def test_a_slender_eu_plate_web_is_refused(t_mm: float, refused: bool) -> None:
         assert "EN 1993-1-5" in missing[0].message
     else:
         assert shear and not missing
+
+
+@pytest.mark.parametrize("demo", ["porch-header.plystack.json",
+                                  "stair-trimmer-eu.plystack.json"])
+def test_a_plate_without_a_yield_strength_is_incomplete(demo: str) -> None:
+    """Its bending and shear need F_y: not made, so the verdict cannot be OK."""
+    data = json.loads((DEMOS / demo).read_text("utf-8"))
+    data.pop("alternatives", None)
+    data["materials"] = {"PX": {"kind": "steel", "name": "plate of unknown grade",
+                                "E": "200000 MPa", "density": "7850 kg/m^3",
+                                "Fu": "400 MPa", "source": "user"}}
+    data["plies"][1]["material"] = "PX"
+    a = run(from_dict(data))
+    assert a.verdict == "INCOMPLETE"
+    assert [w.path for w in a.warnings if isinstance(w, MissingCheck)] == ["materials.PX.Fy"]
