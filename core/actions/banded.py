@@ -45,27 +45,30 @@ def cholesky_band(diagonals: list[list[float]], n: int, w: int) -> list[list[flo
 
 def _cholesky_band_3(diagonals: list[list[float]], n: int) -> list[list[float]]:
     """:func:`_cholesky_band_any` for the beam's half bandwidth 3, the inner loops of the
-    rows wholly inside the band written out: the same operations in the same order.
+    rows wholly inside the band written out: the same operations in the same order. The
+    three rows before each one are carried along (no indexing into the rows made).
     """
     rows = _cholesky_band_any(diagonals, 3, 3)  # the first rows start inside the band
     d0, d1, d2, d3 = diagonals
-    for i in range(3, n):
-        a, b, c = rows[i - 3], rows[i - 2], rows[i - 1]
-        l0 = d3[i - 3] / a[3]
-        s = d2[i - 2]
+    append = rows.append
+    a, b, c = rows
+    for e3, e2, e1, e0 in zip(d3, d2[1:], d1[2:], d0[3:n], strict=True):  # the entries of row i
+        l0 = e3 / a[3]
+        s = e2
         s -= l0 * b[2]
         l1 = s / b[3]
-        s = d1[i - 1]
+        s = e1
         s -= l0 * c[1]
         s -= l1 * c[2]
         l2 = s / c[3]
-        s = d0[i]
+        s = e0
         s -= l0 * l0
         s -= l1 * l1
         s -= l2 * l2
         if not (s > 0.0 and math.isfinite(s)):
             raise np.linalg.LinAlgError("matrix is not positive definite")
-        rows.append([l0, l1, l2, math.sqrt(s)])
+        a, b, c = b, c, [l0, l1, l2, math.sqrt(s)]
+        append(c)
     return rows
 
 
@@ -133,37 +136,45 @@ def solve_list(rows: list[list[float]], rhs: list[float], w: int) -> list[float]
 
 def _solve_list_3(rows: list[list[float]], rhs: list[float]) -> list[float]:
     """:func:`_solve_list_any` for the beam's half bandwidth 3, the inner loops written
-    out: the same subtractions in the same order.
+    out: the same subtractions in the same order. The last three values found, and the
+    rows they are read with, are carried along (no indexing into the lists made).
     """
     n = len(rows)
     if n <= 2 * 3:
         return _solve_list_any(rows, rhs, 3)
-    y = [0.0] * n
+    y = [0.0] * 3
     for i in range(3):  # L y = b, the rows that start inside the band
         row = rows[i]
         s = rhs[i]
         for m in range(3 - i, 3):
             s -= row[m] * y[i - 3 + m]
         y[i] = s / row[3]
-    for i in range(3, n):
-        r0, r1, r2, r3 = rows[i]
-        s = rhs[i]
-        s -= r0 * y[i - 3]
-        s -= r1 * y[i - 2]
-        s -= r2 * y[i - 1]
-        y[i] = s / r3
-    x = [0.0] * n
+    y1, y2, y3 = y  # y[i - 3], y[i - 2], y[i - 1]
+    append = y.append
+    for (r0, r1, r2, r3), s in zip(rows[3:], rhs[3:], strict=True):
+        s -= r0 * y1
+        s -= r1 * y2
+        s -= r2 * y3
+        y1, y2, y3 = y2, y3, s / r3
+        append(y3)
+    tail = [0.0] * n
     for i in range(n - 1, n - 4, -1):  # L^T x = y, the rows whose band ends past n
         s = y[i]
         for r in range(i + 1, n):
-            s -= rows[r][3 - r + i] * x[r]
-        x[i] = s / rows[i][3]
-    for i in range(n - 4, -1, -1):
-        s = y[i]
-        s -= rows[i + 1][2] * x[i + 1]
-        s -= rows[i + 2][1] * x[i + 2]
-        s -= rows[i + 3][0] * x[i + 3]
-        x[i] = s / rows[i][3]
+            s -= rows[r][3 - r + i] * tail[r]
+        tail[i] = s / rows[i][3]
+    x1, x2, x3 = tail[n - 3], tail[n - 2], tail[n - 1]  # x[i + 1], x[i + 2], x[i + 3]
+    p, q, t = rows[n - 3], rows[n - 2], rows[n - 1]  # rows i + 1, i + 2, i + 3
+    x = [x3, x2, x1]  # from the last, reversed at the end
+    push = x.append
+    for row, s in zip(reversed(rows[: n - 3]), reversed(y[: n - 3]), strict=True):
+        s -= p[2] * x1
+        s -= q[1] * x2
+        s -= t[0] * x3
+        x1, x2, x3 = s / row[3], x1, x2
+        push(x1)
+        p, q, t = row, p, q
+    x.reverse()
     return x
 
 
