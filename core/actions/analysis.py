@@ -384,10 +384,14 @@ def _build_all(prepared: PreparedBeam, cases: Mapping[str, CaseSolution], plan_:
         started[:] = True
     for u, s in terms:
         on = on_all[:, u]
-        if not on.any():
-            continue
-        # a started row adds the part (sol + s), a new one takes it (sol = s)
-        acc = np.where(on[:, None], np.where(started[:, None], acc + s.data, s.data), acc)
+        # a started row adds the part (sol + s), a new one takes it (sol = s); only the
+        # rows that load the part are touched
+        add = on & started
+        if add.any():
+            acc[add] += s.data
+        new = on & ~started
+        if new.any():
+            acc[new] = s.data
         started |= on
     zero = None
     out = []
@@ -425,17 +429,36 @@ def envelope(ext: Sequence[Extremes]) -> tuple[Extremes, dict[str, int]]:
     i_min = min(range(len(ext)), key=lambda i: ext[i].M_min)
     i_v = max(range(len(ext)), key=lambda i: ext[i].V_max_abs)
     i_w = max(range(len(ext)), key=lambda i: ext[i].deflection_max_abs)
-    by_region = []
-    for r, (name, _, _) in enumerate(ext[0].deflection_by_region):
-        best = max(ext, key=lambda e: abs(e.deflection_by_region[r][1]))
-        by_region.append((name, best.deflection_by_region[r][1], best.deflection_by_region[r][2]))
+    by_region = _worst_by_region(ext)
     e = Extremes(M_max=ext[i_max].M_max, x_M_max=ext[i_max].x_M_max,
                  M_min=ext[i_min].M_min, x_M_min=ext[i_min].x_M_min,
                  V_max_abs=ext[i_v].V_max_abs, x_V_max_abs=ext[i_v].x_V_max_abs,
                  deflection_max_abs=ext[i_w].deflection_max_abs,
                  x_deflection_max=ext[i_w].x_deflection_max,
-                 deflection_by_region=tuple(by_region))
+                 deflection_by_region=by_region)
     return e, {"M_max": i_max, "M_min": i_min, "V_max_abs": i_v, "deflection_max_abs": i_w}
+
+
+def _worst_by_region(ext: Sequence[Extremes]) -> tuple[tuple[str, float, float], ...]:
+    """For every region, the (name, deflection, x) of the extremes whose |deflection|
+    there is largest, the first of equals (as ``max`` over ``ext`` finds it): one
+    ``argmax`` over the arrangements and regions at once where every value is a finite
+    number, else region by region.
+    """
+    first = ext[0].deflection_by_region
+    try:
+        w = np.array([[r[1] for r in e.deflection_by_region] for e in ext], dtype=float)
+    except ValueError:  # regions of unequal number (not of one member)
+        w = np.zeros((0, 0))
+    if w.shape != (len(ext), len(first)) or not np.isfinite(w).all():
+        out = []
+        for r, (name, _, _) in enumerate(first):
+            best = max(ext, key=lambda e: abs(e.deflection_by_region[r][1]))
+            out.append((name, best.deflection_by_region[r][1], best.deflection_by_region[r][2]))
+        return tuple(out)
+    worst = np.abs(w).argmax(axis=0).tolist() if first else []
+    return tuple((name, ext[k].deflection_by_region[r][1], ext[k].deflection_by_region[r][2])
+                 for r, ((name, _, _), k) in enumerate(zip(first, worst, strict=True)))
 
 
 class _Batch:

@@ -363,17 +363,18 @@ def _by_region(model: BeamModel, e0: int, e1: int, aw: np.ndarray, w: np.ndarray
     for e, region in enumerate(model.element_regions[e0:e1]):
         if region in names:
             members.setdefault(names.index(region), []).append(e)
-    rows: list[list[tuple[str, float, float]]] = [[] for _ in range(k)]
     every = np.arange(k)
-    for r in sorted(members):
+    found = sorted(members)
+    worst = np.empty((2, len(found), k))  # the deflection and its x, region by region
+    for i, r in enumerate(found):
         els = np.array(members[r], dtype=int)
         a_r = aw[:, els].reshape(k, -1)
         j = np.argmax(a_r, axis=1)
-        w_r = w[:, els].reshape(k, -1)[every, j].tolist()
-        x_r = pos_w[:, els].reshape(k, -1)[every, j].tolist()
-        for c in range(k):
-            rows[c].append((names[r], w_r[c], x_r[c]))
-    return [tuple(row) for row in rows]
+        worst[0, i] = w[:, els].reshape(k, -1)[every, j]
+        worst[1, i] = pos_w[:, els].reshape(k, -1)[every, j]
+    labels = [names[r] for r in found]
+    return [tuple(zip(labels, w_c, x_c, strict=True))
+            for w_c, x_c in zip(worst[0].T.tolist(), worst[1].T.tolist(), strict=True)]
 
 
 @dataclass(frozen=True, eq=False)
