@@ -260,7 +260,10 @@ def cmd_size(args: argparse.Namespace) -> int:
     else:
         u = project.display_units
         if result.chosen is None:
-            print(f"{args.ply}: {result.message}")
+            last = result.next_smaller
+            print(f"{args.ply}: no option passes" + ("" if last is None else
+                  f": the largest, {units.fmt(last.value, 'length', u)}, still has "
+                  f"{last.governing_id} ratio {last.governing_ratio:.3f}"))
         else:
             print(f"{args.ply}: {args.dimension} {units.fmt(result.chosen.value, 'length', u)} "
                   f"passes (governing {result.chosen.governing_id}, ratio "
@@ -269,7 +272,7 @@ def cmd_size(args: argparse.Namespace) -> int:
                 n = result.next_smaller
                 print(f"  next smaller, {units.fmt(n.value, 'length', u)}, fails: "
                       f"{n.governing_id} ratio {n.governing_ratio:.3f}")
-            print(CAUTION)
+        print(CAUTION)  # beside every verdict, a passing option or none
     return 0 if result.chosen is not None else 1
 
 
@@ -470,12 +473,14 @@ def main(argv: list[str] | None = None,
                 return commands[args.command](args)
         except DataFileError as exc:  # a fault of the installation, not of the input
             return _fail([f"plystack: {p}" for p in exc.problems])
-        except ProjectError as exc:
-            return _fail([f"{args.file}: {p}" for p in exc.problems])
+        except ProjectError as exc:  # the file read, or the command itself (``demo``)
+            where = getattr(args, "file", None) or f"plystack {args.command}"
+            return _fail([f"{where}: {p}" for p in exc.problems])
         except UnitError as exc:
             return _fail([str(exc)])
         except OSError as exc:  # an output file that cannot be written
-            return _fail([f"{getattr(args, 'output', None) or args.file}: {exc.strerror or exc}"])
+            where = getattr(args, "output", None) or getattr(args, "file", None)
+            return _fail([f"{where}: {exc.strerror or exc}"])
     if args.command == "gui":
         if gui is None:
             return _fail(["plystack: the desktop program starts from the `plystack` command "

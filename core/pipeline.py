@@ -44,7 +44,7 @@ from .model.plies import Ply
 from .model.project import Project
 from .section.gamma import with_slip
 from .section.segments import Segment, is_stepped, segment_sections, segments_of
-from .section.transformed import Section, analyse, with_moduli
+from .section.transformed import Section, analyse, falls_apart, with_moduli
 
 #: Most plies analysed at once, far more than any built-up member has. The checks of
 #: side-by-side plies grow with the cube of their number (one run each, one desktop
@@ -166,6 +166,11 @@ class Evaluator:
         """
         plies = tuple(plies)
         plain = analyse(plies, self.materials, reference or self.project.reference_material)
+        if falls_apart(plain):
+            raise ProjectError(Problem("plies", "no ply touches another and they stand at "
+                                       "different heights, so they form no one section: "
+                                       "place them side by side or stacked, touching (a "
+                                       "flitch plate between its timbers)"))
         if len(self._plain) >= PLAIN_SECTIONS_HELD:
             self._plain.clear()
         self._plain[tuple(map(id, plies)), plain.reference_material] = (plies, plain)

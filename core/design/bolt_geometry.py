@@ -171,10 +171,18 @@ def layout_factors(section: Section, joint: Joint, layout: BoltLayout, design: D
     EA_plate = float(section.E[joint.steel]) * steel.width * width
     EA_wood = sum(float(section.E[j]) * section.plies[j].width * width for j in joint.timbers)
     main, side = (EA_plate, EA_wood) if joint.steel_is_main else (EA_wood, EA_plate)
-    cg = nf.C_g(n, main, side, min(gaps), nf.gamma_bolt_steel(D)) if gaps else 1.0
+    gap = min(gaps) if gaps else None
+    coincide = gap is not None and not gap > 0  # rows at one height: the plate too shallow
+    cg = (nf.C_g(n, main, side, gap, nf.gamma_bolt_steel(D))
+          if gap is not None and not coincide else 1.0)
+    cg_text = (f"NDS 2018 11.3.6 (from memory): a row of {n} bolts across the depth at "
+               "a station (the direction of the load), A_m and A_s = thickness x the station "
+               "spacing, gamma = 270,000 D^1.5 lbf/in (wood to steel)")
+    if coincide:
+        cg_text += ("; here bolts of the row stand at one height (the plate's shared depth "
+                    "leaves no room between the rows), where the factor is its limit 1.0 "
+                    "and the bolt-spacing check across the depth fails")
     return ({"C_g": cg, "C_Delta": c_delta},
-            {"C_g": f"NDS 2018 11.3.6 (from memory): a row of {n} bolts across the depth at "
-             "a station (the direction of the load), A_m and A_s = thickness x the station "
-             "spacing, gamma = 270,000 D^1.5 lbf/in (wood to steel)",
+            {"C_g": cg_text,
              "C_Delta": "NDS 2018 12.5.1 (from memory): end distance / 4D where between 2D "
              "and 4D, else 1.0 (see bolt-end)"})

@@ -16,6 +16,8 @@ from dataclasses import dataclass
 
 from ..model.constants import INCH
 from ..model.design import Bolt
+from ..model.errors import Problem, ProjectError
+from ..model.units import fmt
 from ..section.transformed import Section
 from .common import Joint
 
@@ -114,10 +116,14 @@ def layout_of(section: Section, joint: Joint, bolt: Bolt, extent: tuple[float, f
               spacing: float, us: bool) -> BoltLayout:
     """The layout of one plate's bolts (``spacing`` is used where no stations are given)."""
     lo, hi = shared_height(section, joint)
+    _within(bolt.row_heights, lo, hi, "design.bolt.rows", "the height the plate "
+            f'"{section.plies[joint.steel].name}" shares with its timbers', us, "length")
     rows = tuple(sorted(bolt.row_heights)) or default_rows(
         bolt.rows, bolt.diameter, lo, hi, US_ROW_SPREAD if us else None)
     if bolt.stations:
         stations = bolt.stations
+        _within(stations, extent[0], extent[1], "design.bolt.stations",
+                f'the length of the plate "{section.plies[joint.steel].name}"', us, "span")
         gaps = [b - a for a, b in zip(stations, stations[1:], strict=False)]
         nominal = min(gaps) if gaps else extent[1] - extent[0]
     else:
@@ -130,3 +136,17 @@ def layout_of(section: Section, joint: Joint, bolt: Bolt, extent: tuple[float, f
         per = tuple(every for _ in stations)
     return BoltLayout(joint.steel, tuple(stations), rows, per, nominal, extent,
                       not bolt.stations)
+
+
+def _within(values: tuple[float, ...], lo: float, hi: float, field: str, what: str,
+            us: bool, kind: str) -> None:
+    """A named problem where a bolt row or station the file gives lies outside ``lo`` to
+    ``hi`` (a bolt must pass through the plate and its timbers).
+    """
+    system = "US" if us else "SI"
+    tol = 1e-9 * max(abs(lo), abs(hi), 1.0)
+    outside = [v for v in values if not lo - tol <= v <= hi + tol]
+    if outside:
+        raise ProjectError(Problem(field, f"{fmt(outside[0], kind, system)} is outside "
+                                   f"{what} ({fmt(lo, kind, system)} to "
+                                   f"{fmt(hi, kind, system)})"))

@@ -120,7 +120,8 @@ def modulus_loss(section: Section, i: int, net: NetSection) -> float:
 def f13_factor(section: Section, joint: Joint, net: NetSection, d_hole: float,
                us: bool) -> float:
     """AISC 360-16 F13.1 (US) or EN 1993-1-1 6.2.5(4) (EU) for the plate's tension half
-    (the larger loss of the two halves): 1.0 where the rupture rule does not govern.
+    (the larger loss of the two halves): 1.0 where the rupture rule does not govern, 0.0
+    where the holes take the whole half (no net area is left).
     """
     mat = section.materials[joint.steel]
     Fy, Fu = mat.value("Fy"), mat.value("Fu")
@@ -138,8 +139,8 @@ def f13_factor(section: Section, joint: Joint, net: NetSection, d_hole: float,
             need, have = Yt * Fy * A_fg, Fu * A_fn
         else:
             need, have = Fy * A_fg / 1.0, 0.9 * Fu * A_fn / 1.25
-        if have < need:
-            worst = min(worst, have / need)
+        if have < need:  # holes wider than the half leave nothing: 0, the check fails
+            worst = min(worst, max(have, 0.0) / need)
     return worst
 
 

@@ -34,12 +34,12 @@ from ..actions.beam import CaseSolution, moment_at
 from ..codes import en1995, nds
 from ..model.constants import INCH
 from ..model.design import DesignSpec
-from ..model.errors import Problem
+from ..model.errors import Problem, ProjectError
 from ..model.openings import Hole, Notch
 from ..model.plies import Ply
 from ..model.units import fmt
 from ..section.transformed import Section
-from .check import Check
+from .check import Check, CheckId
 from .common import unit_shear_stress
 
 NOTCH_SOURCE_US = "NDS 2018 3.4.3.2 and 4.4.3 (from memory)"
@@ -178,10 +178,17 @@ def _hole_checks(hole: Hole, k: int, beam: BeamResult, section: Section,
                  checks: Sequence[Check], section_of: SectionOf, system: str,
                  warnings: list[Problem]) -> list[Check]:
     idx = _chosen(section, hole.plies)
+    lo, hi = hole.y - hole.diameter / 2, hole.y + hole.diameter / 2
+    if idx and all(hi <= section.plies[i].y or lo >= section.plies[i].top for i in idx):
+        raise ProjectError(Problem(f"beam.holes[{k}].y", f"the hole, from y = "
+                                   f"{fmt(lo, 'length', system)} to {fmt(hi, 'length', system)},"
+                                   " misses every ply it bores: place it within them"))
     bored = {section.plies[i].name for i in idx}
     net = section_of(_net_plies(section.plies, hole, bored))
     tau = unit_shear_stress(net)
     top, bot = net.ply_extreme_stresses(1.0)
+    g_top, g_bot = section.ply_extreme_stresses(1.0)  # where a hole leaves no net section
+    g_tau = unit_shear_stress(section)
     edge = 2 * INCH if system == "US" else 0.05
     for i in idx:
         p = section.plies[i]
@@ -201,7 +208,26 @@ def _hole_checks(hole: Hole, k: int, beam: BeamResult, section: Section,
                      and q.name in (name, name + " (above hole)")]
             own_b = _own(checks, "bending", name, combo.name)
             own_v = _own(checks, "shear", name, combo.name)
-            if not parts or own_b is None or own_v is None:
+            if own_b is None or own_v is None:
+                continue
+            if not parts:  # the hole takes the ply's whole depth: nothing is left there
+                whole = (f"Hole {k + 1}: {fmt(hole.diameter, 'length', system)} across, "
+                         f"centre at y = {fmt(hole.y, 'length', system)}, takes the whole "
+                         f"depth of {name}: nothing of the ply is left at the hole to carry "
+                         "the moment or the shear.")
+                # the demands on the gross section at the hole, against nothing
+                made: tuple[tuple[Check, CheckId, str, float], ...] = (
+                    (own_b, "bending-net", f"hole {k + 1}",
+                     max(abs(float(g_top[i])), abs(float(g_bot[i]))) * abs(M)),
+                    (own_v, own_v.id, f"net section at hole {k + 1}", float(g_tau[i]) * V))
+                for own, cid, where, demand in made:
+                    out.append(replace(own, id=cid, demand=demand, capacity=0.0, x=hole.x,
+                                       location=where, equation=own.equation + " on the gross "
+                                       "section at the hole; no net section is left",
+                                       segment=None, factors={**own.factors, "net": 0.0},
+                                       sources={**own.sources, "net": "no net section: the "
+                                                "hole is as deep as the ply"},
+                                       notes=(whole,)))
                 continue
             sigma = max(max(abs(float(top[j])), abs(float(bot[j]))) for j in parts) * abs(M)
             note = (f"Hole {k + 1}: {fmt(hole.diameter, 'length', system)} across, centre "

@@ -159,7 +159,10 @@ def derive(a: Analysis, c: Check) -> Derivation:
             f"{q(c.x or 0.0, 'length', u, IN)}."])
         return Derivation(tuple(where), f"demand = {result(c, u)}", capacity_line(a, c, u),
                           ratio_line(c, u))
-    if c.id == "bending":
+    if c.location.startswith(("hole ", "net section at hole ")):
+        # a beam hole's net section: its equation, the hole and the net numbers in notes
+        where, demand = [c.equation, *c.notes], f"demand = {result(c, u)}"
+    elif c.id == "bending":
         where, demand = _bending(a, c, u)
     elif c.id == "shear" and c.location.startswith("support"):
         where, demand = support_shear_text(a, c, u, _symbols(a, c)[0])

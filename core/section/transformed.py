@@ -371,10 +371,7 @@ def analyse(
                                                        candidates[i] if candidates else None)
             if area[i] > 0 and not touching:
                 loose.append(i)
-                warnings.append(MissingCheck(f"plies[{i}]", f'"{ply.name}" touches no other '
-                                             "ply; nothing connects it to the rest of the "
-                                             "section, so it is left out of the composite "
-                                             "section and not checked as part of it"))
+                warnings.append(MissingCheck(f"plies[{i}]", f'"{ply.name}" {LOOSE}'))
     if loose and len(loose) < sum(1 for a in area if a > 0):
         E = E.copy()
         E[loose] = 0.0
@@ -382,6 +379,30 @@ def analyse(
                      for i, (p, g, w) in enumerate(zip(plies, geoms, whole, strict=True)))
     return _assemble(plies, mats, reference, E_ref, E, area, first_y, second_y, y_bottom, y_top,
                      geoms, profiles, tuple(warnings), size, ProfileStack.of(profiles))
+
+
+#: What a ply that touches no other is told (``analyse``); :func:`falls_apart` reads it.
+LOOSE = ("touches no other ply; nothing connects it to the rest of the section, so it is "
+         "left out of the composite section and not checked as part of it")
+
+
+def falls_apart(section: Section) -> bool:
+    """True where the section has two or more plies of some area, none of them touches
+    another, and their centroids stand at different heights. ``analyse`` then keeps
+    every modulus (leaving every ply out would leave nothing), which is exact only where
+    the centroids share one height: the plies then bend about it alike, the composite
+    EI is the sum of their own and each stress is its own (two joists beside the gap a
+    flitch plate will fill). Elsewhere the composite numbers would describe a section
+    that does not exist.
+    """
+    solid = [i for i, a in enumerate(section.area) if a > 0]
+    loose = sum(1 for w in section.warnings if w.message.endswith(LOOSE))
+    if len(solid) < 2 or loose < len(solid):
+        return False
+    heights = [float(section.first_y[i]) / float(section.area[i]) for i in solid]
+    depth = max(float(section.y_top[i]) for i in solid) - min(float(section.y_bottom[i])
+                                                              for i in solid)
+    return max(heights) - min(heights) > 1e-9 * depth
 
 
 def with_moduli(section: Section, moduli: Sequence[float] | np.ndarray) -> Section:

@@ -283,15 +283,31 @@ def longest_span(project: Project, tolerance: float | None = None,
         _report(progress, len(tried), None, tried)
         return out
 
-    lo = max(1, int(0.3 / tol))  # 0.3 m
-    if not outcome(lo).ok:
-        raise ProjectError(Problem("beam.spans", "even a 0.3 m span fails: the section or "
-                                   "loads need changing"))
-    hi = lo * 2
-    while outcome(hi).ok:
-        lo, hi = hi, hi * 2
-        if hi * tol > 200:
-            raise ProjectError(Problem("beam.spans", "passes beyond 200 m: check the loads"))
+    least = max(1, int(0.3 / tol))  # 0.3 m
+    assert project.beam is not None  # scaled_spans names a project without a beam
+    # from the file's own span: a very short member may fail where the file's passes
+    # (its bolts and bearings no longer fit), so the search starts where the design is
+    given = max(least, round(project.beam.layout.spans[0] / tol))
+    if outcome(given).ok:
+        lo, hi = given, given * 2
+        while outcome(hi).ok:
+            lo, hi = hi, hi * 2
+            if hi * tol > 200:
+                raise ProjectError(Problem("beam.spans", "passes beyond 200 m: check the "
+                                           "loads"))
+    else:
+        hi, lo = given, given // 2
+        while True:
+            if lo <= least:
+                lo = least
+                if lo >= hi or not outcome(lo).ok:
+                    raise ProjectError(Problem("beam.spans", f"no span from 0.3 m to the "
+                                               f"file's {given * tol:.4g} m passes: the "
+                                               "section or loads need changing"))
+                break
+            if outcome(lo).ok:
+                break
+            hi, lo = lo, lo // 2
     while hi - lo > 1:
         mid = (lo + hi) // 2
         if outcome(mid).ok:

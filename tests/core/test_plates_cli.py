@@ -195,28 +195,29 @@ def test_output_that_is_a_file_exits_2(tmp_path, capsys):
 
 def test_station_outside_a_short_plate_exits_2(tmp_path, capsys):
     """Plate from 2 ft to 10 ft, stations at 1, 6 and 11 ft: the first and last stations
-    lie off the plate, 2 rows each, so 4 holes; the first is 1 ft - 2 ft = -12 in from the
-    plate's left end.
+    lie off the plate. The analysis itself refuses them (a bolt must pass through the
+    plate), naming the first, so nothing is drawn.
     """
     data = _demo()
     data["plies"][1].update({"from": "2 ft", "to": "10 ft"})
     data["design"]["bolt"]["stations"] = ["1 ft", "6 ft", "11 ft"]
     _fails(["plates", str(_write(tmp_path, data)), "-o", str(tmp_path / "o")], capsys,
-           "design.bolt.stations: 4 holes of PL1 do not lie wholly inside the plate "
-           '"flitch plate" (hole 1 has its centre -12.00 in from')
+           "design.bolt.stations: 1.0000 ft is outside the length of the plate "
+           '"flitch plate" (2.000 ft to 10.000 ft)')
     assert not (tmp_path / "o").exists()
 
 
 def test_row_outside_the_plate_exits_2(tmp_path, capsys):
     """Rows at 0.1 in and 5 in in the section: the plate starts at 1/4 in, so the lower row
-    is 0.15 in below its bottom edge; one problem for the six holes of that row.
+    is below its bottom edge; the analysis refuses it, one problem, nothing drawn.
     """
     data = _demo()
     data["design"]["bolt"]["rows"] = ["0.1 in", "5 in"]
     err = _fails(["plates", str(_write(tmp_path, data)), "-o", str(tmp_path / "o")], capsys,
-                 "design.bolt.rows: 6 holes of PL1 do not lie wholly inside the plate",
-                 "-0.1500 in above its bottom edge")
+                 "design.bolt.rows: 0.1000 in is outside the height the plate "
+                 '"flitch plate" shares with its timbers (0.2500 in to 9.000 in)')
     assert err.count("design.bolt.rows") == 1
+    assert not (tmp_path / "o").exists()
 
 
 def test_bolts_that_cannot_be_checked_need_a_spacing(tmp_path, capsys):
