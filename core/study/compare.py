@@ -284,7 +284,8 @@ def longest_span(project: Project, tolerance: float | None = None,
         return out
 
     least = max(1, int(0.3 / tol))  # 0.3 m
-    assert project.beam is not None  # scaled_spans names a project without a beam
+    if project.beam is None:
+        raise ProjectError(Problem("beam", "the project has no beam"))
     # from the file's own span: a very short member may fail where the file's passes
     # (its bolts and bearings no longer fit), so the search starts where the design is
     given = max(least, round(project.beam.layout.spans[0] / tol))
