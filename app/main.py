@@ -109,11 +109,25 @@ def _screenshot(app, window, target: str) -> int:  # type: ignore[no-untyped-def
         app.processEvents()
     window.canvas.fit()
     app.processEvents()
-    ok = window.grab().save(target)
+    from PySide6.QtCore import QBuffer, QByteArray, QIODevice
+
+    from plystack.core.io.atomic import write_bytes
+    from plystack.core.model.errors import Problem, ProjectError
+
+    data = QByteArray()
+    buffer = QBuffer(data)
+    buffer.open(QIODevice.OpenModeFlag.WriteOnly)
+    ok = window.grab().save(buffer, "PNG")
+    buffer.close()
     window.document.undo_stack.setClean()
     window.close()
-    if not ok:
-        print(f"could not write {target}", file=sys.stderr)
+    try:
+        if not ok:
+            raise ProjectError(Problem("--screenshot", "the window could not be rendered"))
+        write_bytes(target, bytes(data.data()), "--screenshot")
+    except ProjectError as exc:
+        for problem in exc.problems:
+            print(f"plystack gui: {problem}", file=sys.stderr)
         return 2
     return 0
 

@@ -343,9 +343,7 @@ def cmd_schedule(args: argparse.Namespace) -> int:
     """``plystack schedule``: exit 0 when every member ran and is OK, 1 when any is NOT OK,
     INCOMPLETE or could not run, 2 when the schedule file cannot be read.
     """
-    from pathlib import Path
-
-    from .io.atomic import write_text
+    from .io.atomic import output_folder, write_text
     from .io.schedule_file import (
         MemberJob,
         ScheduleError,
@@ -361,12 +359,7 @@ def cmd_schedule(args: argparse.Namespace) -> int:
         schedule = read_schedule(args.file)
     except ScheduleError as exc:
         return _fail([f"{args.file}: {m}" for m in exc.messages])
-    sheets = Path(args.sheets) if args.sheets else None
-    if sheets is not None:
-        try:
-            sheets.mkdir(parents=True, exist_ok=True)
-        except OSError as exc:
-            return _fail([f"--sheets {sheets}: {exc.strerror or exc}"])
+    sheets = output_folder(args.sheets, "--sheets", "the sheets") if args.sheets else None
     prepared = prepare(schedule, with_check=args.json, sheets=sheets)
     jobs = [j for j in prepared if isinstance(j, MemberJob)]
     worker = evaluate
@@ -442,7 +435,7 @@ def cmd_demo(args: argparse.Namespace) -> int:
     from .io.atomic import write_text_new
 
     write_text_new(args.output, demo_text(args.name))
-    print(f"wrote {args.output}: the demo project {args.name!r} (an invented scenario)")
+    print(f'wrote {args.output}: the demo project "{args.name}" (an invented scenario)')
     return 0
 
 

@@ -7,8 +7,7 @@ from __future__ import annotations
 import os
 from pathlib import Path
 
-from ..io.atomic import write_bytes, write_text
-from ..model.errors import Problem, ProjectError
+from ..io.atomic import output_folder, write_bytes, write_text
 from ..model.project import Project
 from .cut_list import cut_list_csv
 from .drawing import plate_dxf
@@ -18,24 +17,10 @@ from .plates import PlateSet, project_plates
 CUT_LIST = "cut-list.csv"
 
 
-def output_folder(directory: str | os.PathLike[str], field: str = "-o") -> Path:
-    """The output folder, made where it does not exist; a named problem where it cannot be."""
-    folder = Path(directory)
-    if folder.exists() and not folder.is_dir():
-        raise ProjectError(Problem(field, f"{os.fspath(directory)} is a file, not a folder; "
-                                   "give a folder for the drawings"))
-    try:
-        folder.mkdir(parents=True, exist_ok=True)
-    except OSError as exc:
-        raise ProjectError(Problem(field, f"{os.fspath(directory)}: the folder cannot be "
-                                   f"made ({exc.strerror or exc})")) from None
-    return folder
-
-
 def write_plates(plates: PlateSet, directory: str | os.PathLike[str],
                  field: str = "-o") -> list[Path]:
     """Write every plate's DXF file and the cut list; returns the paths written."""
-    folder = output_folder(directory, field)
+    folder = output_folder(directory, field, "the drawings")
     written = []
     for plate in plates.plates:
         path = folder / f"{plate.mark}.dxf"

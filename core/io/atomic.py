@@ -5,7 +5,9 @@ renamed over the target. A symbolic link is followed, so its target is replaced 
 the link stays; an existing file keeps its permission bits (and its owner where the
 user may give it, as root may); a new file gets the mode the user's umask gives; a FIFO,
 device or folder is refused rather than replaced. Other hard links of the file keep the
-old text: the name saved to is given a new file.
+old text: the name saved to is given a new file. A file the user may not write (read-only)
+is refused rather than replaced, as writing it in place would be; so is a folder that
+does not exist or cannot be written into. Each refusal names the field.
 """
 
 from __future__ import annotations
@@ -34,7 +36,42 @@ def _target(path: str | os.PathLike[str], field: str) -> Path:
     if target.exists() and not target.is_file():
         kind = "a folder" if target.is_dir() else "not a regular file (a FIFO or device)"
         raise ProjectError(Problem(field, f"{raw} is {kind}; give the name of a file"))
+    folder = target.parent if str(target.parent) else Path(".")
+    if not folder.is_dir():
+        what = "is not a folder" if folder.exists() else "does not exist"
+        raise ProjectError(Problem(field, f"{raw}: the folder {folder} {what}; create it or "
+                                   "give another file name"))
+    if target.exists() and not os.access(target, os.W_OK):
+        raise ProjectError(Problem(field, f"{raw} is read-only; give another file name or "
+                                   "allow writing it"))
     return target
+
+
+def _refused(field: str, raw: str, exc: OSError) -> ProjectError:
+    """An operating-system fault of a write, named by field and in words."""
+    reason = exc.strerror or "the system refused it"
+    return ProjectError(Problem(field, f"cannot write {raw}: {reason.lower()}"))
+
+
+def output_folder(directory: str | os.PathLike[str], field: str, what: str = "the files"
+                  ) -> Path:
+    """The output folder, made where it does not exist; a named problem where it cannot be
+    (``what``: what goes into it, for the message).
+    """
+    folder = Path(directory)
+    raw = os.fspath(directory)
+    if not raw:
+        raise ProjectError(Problem(field, "is empty: give a folder name"))
+    if folder.exists() and not folder.is_dir():
+        raise ProjectError(Problem(field, f"{raw} is a file, not a folder; give a folder "
+                                   f"for {what}"))
+    try:
+        folder.mkdir(parents=True, exist_ok=True)
+    except OSError as exc:
+        reason = (exc.strerror or "the system refused it").lower()
+        raise ProjectError(Problem(field, f"{raw}: the folder cannot be made ({reason})")
+                           ) from None
+    return folder
 
 
 def write_bytes(path: str | os.PathLike[str], data: bytes, field: str = "output") -> None:
@@ -48,7 +85,10 @@ def write_bytes(path: str | os.PathLike[str], data: bytes, field: str = "output"
         owner = (info.st_uid, info.st_gid)
     except FileNotFoundError:
         mode = 0o666 & ~_current_umask()
-    fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=str(folder))
+    try:
+        fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=str(folder))
+    except OSError as exc:  # a folder the user may not write into, a full disk
+        raise _refused(field, os.fspath(path), exc) from None
     try:
         with os.fdopen(fd, "wb") as fh:
             fh.write(data)
@@ -58,11 +98,13 @@ def write_bytes(path: str | os.PathLike[str], data: bytes, field: str = "output"
         _keep_owner(tmp, owner)
         os.replace(tmp, target)
         _sync_folder(folder)
-    except BaseException:
+    except BaseException as exc:
         try:
             os.unlink(tmp)
         except OSError:
             pass
+        if isinstance(exc, OSError):
+            raise _refused(field, os.fspath(path), exc) from None
         raise
 
 

@@ -263,6 +263,16 @@ def test_screenshot_command(tmp_path):
     out = tmp_path / "shot.png"
     assert main(["gui", str(demo), "--screenshot", str(out)]) == 0
     assert out.stat().st_size > 10_000
+    assert out.read_bytes()[:8] == b"\x89PNG\r\n\x1a\n"
+
+
+def test_screenshot_into_a_folder_names_the_option(tmp_path, capsys):
+    from plystack.app.launch import main
+
+    demo = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
+    assert main(["gui", str(demo), "--screenshot", str(tmp_path)]) == 2
+    assert (f"plystack gui: --screenshot: {tmp_path} is a folder; give the name of a file"
+            in capsys.readouterr().err)
 
 
 def test_alternatives_side_by_side_promote_and_undo(window, qtbot):

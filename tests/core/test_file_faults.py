@@ -165,9 +165,13 @@ def test_read_only_folder_keeps_the_old_file(tmp_path):
         else:
             os.chmod(folder, 0o555)
         before = path.read_bytes()
-        with pytest.raises(OSError) as info:
+        with pytest.raises(ProjectError) as info:
             save(_project("new"), path)
-        assert info.value.errno in (errno.EACCES, errno.EROFS, errno.EPERM)
+        text = str(info.value.problems[0])  # named by field, the reason in words
+        assert text.startswith("file: "), text
+        assert text.endswith(("is read-only; give another file name or allow writing it",
+                              *(os.strerror(e).lower() for e in
+                                (errno.EACCES, errno.EROFS, errno.EPERM)))), text
         assert path.read_bytes() == before
         assert _leftovers(folder) == []
     finally:
@@ -194,9 +198,9 @@ def test_full_disk_keeps_the_old_file(tmp_path):
                     fh.write(b"\0" * 4096)
                     fh.flush()
         big = _project("new " + "x" * 20_000)
-        with pytest.raises(OSError) as info:
+        with pytest.raises(ProjectError) as info:
             save(big, path)
-        assert info.value.errno == errno.ENOSPC
+        assert str(info.value.problems[0]).endswith(os.strerror(errno.ENOSPC).lower())
         assert path.read_bytes() == before
         assert _leftovers(folder) == []
         filler.unlink()
@@ -221,3 +225,58 @@ def test_save_as_root_keeps_the_owner(tmp_path):
     info = path.stat()
     assert (info.st_uid, info.st_gid) == (65534, 65534)
     assert load(path).title == "new"
+
+
+def test_missing_folder_is_named_by_the_field(tmp_path, capsys):
+    target = tmp_path / "no such folder" / "x.pdf"
+    with pytest.raises(ProjectError) as info:
+        write_bytes(target, b"x", "-o/--output")
+    assert str(info.value.problems[0]) == (
+        f"-o/--output: {target}: the folder {target.parent} does not exist; create it or "
+        "give another file name")
+    demo = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
+    assert main(["sheet", str(demo), "-o", str(target)]) == 2
+    err = capsys.readouterr().err
+    assert "-o/--output:" in err and "does not exist" in err and "Errno" not in err
+    assert not target.parent.exists()
+
+
+def test_a_file_in_place_of_the_folder_is_named(tmp_path):
+    (tmp_path / "plain").write_text("x")
+    with pytest.raises(ProjectError, match="the folder .*plain is not a folder"):
+        write_bytes(tmp_path / "plain" / "x.pdf", b"x", "-o")
+
+
+def test_read_only_file_is_refused_not_replaced(tmp_path, monkeypatch):
+    path = tmp_path / "kept.pdf"
+    path.write_bytes(b"old")
+    real = os.access
+    # root may write any file: the refusal is tested through what the system answers
+    monkeypatch.setattr(os, "access", lambda p, mode, **kw: False if Path(p) == path and
+                        mode == os.W_OK else real(p, mode, **kw))
+    with pytest.raises(ProjectError) as info:
+        write_bytes(path, b"new", "-o/--output")
+    assert str(info.value.problems[0]) == (f"-o/--output: {path} is read-only; give another "
+                                           "file name or allow writing it")
+    assert path.read_bytes() == b"old"
+    assert _leftovers(tmp_path) == []
+
+
+@pytest.mark.skipif(not hasattr(os, "geteuid") or os.geteuid() == 0,
+                    reason="root may write a read-only file")
+def test_read_only_file_is_refused_for_a_user(tmp_path):
+    path = tmp_path / "kept.pdf"
+    path.write_bytes(b"old")
+    os.chmod(path, 0o444)
+    with pytest.raises(ProjectError, match="is read-only"):
+        write_bytes(path, b"new", "-o")
+    assert path.read_bytes() == b"old"
+
+
+def test_sheets_folder_that_is_a_file_is_named(tmp_path, capsys):
+    schedule = Path(__file__).resolve().parents[2] / "assets" / "demo" / "renovation-schedule.csv"
+    plain = tmp_path / "plain.pdf"
+    plain.write_text("x")
+    assert main(["schedule", str(schedule), "--sheets", str(plain)]) == 2
+    err = capsys.readouterr().err
+    assert f"--sheets: {plain} is a file, not a folder; give a folder for the sheets" in err
