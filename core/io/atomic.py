@@ -49,7 +49,7 @@ def _target(path: str | os.PathLike[str], field: str) -> Path:
 
 def _refused(field: str, raw: str, exc: OSError) -> ProjectError:
     """An operating-system fault of a write, named by field and in words."""
-    reason = exc.strerror or "the system refused it"
+    reason = exc.strerror or str(exc) or "the system refused it"
     return ProjectError(Problem(field, f"cannot write {raw}: {reason.lower()}"))
 
 

@@ -13,14 +13,7 @@ from dataclasses import dataclass
 from typing import Any, Literal
 
 from ..model import units
-from ..model.errors import Problem
-
-
-def shown(raw: Any) -> str:
-    """A value as quoted in a message (see project_read.shown)."""
-    from .project_read import shown as _shown
-
-    return _shown(raw)
+from ..model.errors import Problem, shown
 
 Kind = Literal["flag", "choice", "count", "number", "quantity", "positive"]
 

@@ -16,7 +16,7 @@ from pathlib import Path
 from typing import Any
 
 from ..model.design import DesignSpec
-from ..model.errors import Problem, ProjectError
+from ..model.errors import Problem, ProjectError, shown
 from ..model.materials import Material
 from ..model.member import BeamSpec
 from ..model.plies import Ply, validate_extent
@@ -24,7 +24,7 @@ from ..model.project import Alternative, Project
 from .atomic import write_text
 from .design_file import read_design, write_design
 from .library import load_library
-from .project_read import read_beam, read_material_map, read_plies, shown
+from .project_read import read_beam, read_material_map, read_plies
 from .project_write import write_beam, write_materials, write_plies
 
 FORMAT = "plystack"

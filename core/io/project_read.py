@@ -8,7 +8,7 @@ from typing import TYPE_CHECKING, Any
 
 from ..model import units
 from ..model.combination import EU_DURATIONS, KINDS, US_DURATIONS, Combination
-from ..model.errors import Problem
+from ..model.errors import Problem, shown
 from ..model.materials import Material, existing_from_record, material_from_record
 from ..model.member import (
     CASES,
@@ -43,20 +43,6 @@ BOLT_DIAMETERS = {"US-ASD": (0.25 * 0.0254, 1.0 * 0.0254), "EU-LSD": (0.006, 0.0
 #: Load factors of a combination: from 0 to 10 (ASCE 7-16 2.4 and EN 1990 Table A1.2
 #: use at most 1.6; the bound only keeps the analysis finite).
 FACTOR_RANGE = (0.0, 10.0)
-
-
-def shown(raw: Any) -> str:
-    """A value as quoted in a message: short, whatever its type or size."""
-    if isinstance(raw, dict):
-        return "an object"
-    if isinstance(raw, list):
-        return "a list"
-    if isinstance(raw, int) and not isinstance(raw, bool) and raw.bit_length() > 64:
-        return "a very large number"
-    if isinstance(raw, float) and not math.isfinite(raw):
-        return "NaN" if raw != raw else ("Infinity" if raw > 0 else "-Infinity")
-    text = repr(raw)
-    return text if len(text) <= 40 else text[:37] + "..."
 
 
 def _quantity(raw: Any, dimension: str, path: str, problems: list[Problem]) -> float | None:
@@ -385,7 +371,7 @@ def read_combinations(raw: Any, path: str,
             duration = None
         kind = rec.get("kind")
         if kind is not None and kind not in KINDS:
-            problems.append(Problem(f"{p}.kind", f"{kind!r} is not a kind of combination; use "
+            problems.append(Problem(f"{p}.kind", f"{shown(kind)} is not a kind of combination; use "
                                     "one of " + ", ".join(KINDS)))
             kind = None
         out.append(Combination(name, fs, duration, kind, custom=True))

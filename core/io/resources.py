@@ -56,4 +56,4 @@ def demo_text(name: str = DEFAULT_DEMO) -> str:
     if name not in DEMOS:
         raise ProjectError(Problem("demo", f'"{name}" is not a demo; use one of '
                                    + ", ".join(DEMOS)))
-    return read_text(DEMOS[name], f"the demo project {name!r}")
+    return read_text(DEMOS[name], f'the demo project "{name}"')

@@ -13,7 +13,7 @@ from typing import Any
 
 from ..model import units
 from ..model.design import VibrationSpec
-from ..model.errors import Problem
+from ..model.errors import Problem, shown
 from ..model.units import exact_text
 
 VIBRATION_KEYS = ("spacing", "floor_width", "damping", "transverse_EI", "a_mm_per_kN", "b",
@@ -63,7 +63,7 @@ def read_vibration(raw: Any, path: str, problems: list[Problem]) -> VibrationSpe
             continue
         v = raw[key]
         if isinstance(v, bool) or not isinstance(v, int | float) or not lo < v <= hi:
-            problems.append(Problem(f"{path}.{key}", f"{v!r} must be a plain number greater "
+            problems.append(Problem(f"{path}.{key}", f"{shown(v)} must be a plain number greater "
                                     f"than {lo:g} and at most {hi:g}"))
             continue
         kw[name] = float(v) * factor

@@ -2,7 +2,29 @@
 
 from __future__ import annotations
 
+import json
+import math
 from dataclasses import dataclass
+from typing import Any
+
+
+def shown(raw: Any) -> str:
+    """A value of the input as quoted in a message: spelt as in the file (JSON: ``null``,
+    ``true``, ``"text"``), short whatever its type or size.
+    """
+    if isinstance(raw, dict):
+        return "an object"
+    if isinstance(raw, list | tuple):
+        return "a list"
+    if isinstance(raw, int) and not isinstance(raw, bool) and raw.bit_length() > 64:
+        return "a very large number"
+    if isinstance(raw, float) and not math.isfinite(raw):
+        return "NaN" if raw != raw else ("Infinity" if raw > 0 else "-Infinity")
+    try:
+        text = json.dumps(raw, ensure_ascii=False)
+    except (TypeError, ValueError):
+        text = f'"{raw}"'
+    return text if len(text) <= 40 else text[:37] + "..."
 
 
 @dataclass(frozen=True)

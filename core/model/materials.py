@@ -14,7 +14,7 @@ from dataclasses import dataclass, field
 from typing import Any
 
 from . import units
-from .errors import Problem
+from .errors import Problem, shown
 
 KINDS = ("timber", "steel", "other")
 
@@ -219,14 +219,14 @@ def existing_from_record(mid: str, record: dict[str, Any], known: Mapping[str, M
     grade = spec.get("assumed")
     assumed = known.get(grade) if isinstance(grade, str) else None
     if assumed is None or assumed.kind != "timber":
-        problems.append(Problem(f"{path}.existing.assumed", f"{grade!r} is not a known timber "
+        problems.append(Problem(f"{path}.existing.assumed", f"{shown(grade)} is not a known timber "
                                 "grade (the lower-bound grade the existing timber is taken as)"))
     elif assumed.existing is not None:
-        problems.append(Problem(f"{path}.existing.assumed", f"{grade!r} is itself existing "
+        problems.append(Problem(f"{path}.existing.assumed", f"{shown(grade)} is itself existing "
                                 "timber; assume a graded material"))
     k = spec.get("condition_factor", 1.0)
     if isinstance(k, bool) or not isinstance(k, int | float) or not 0 < k <= 1:
-        problems.append(Problem(f"{path}.existing.condition_factor", f"{k!r} must be a plain "
+        problems.append(Problem(f"{path}.existing.condition_factor", f"{shown(k)} must be a plain "
                                 "number greater than 0 and at most 1"))
     for key in ("name", "notes"):
         if key in record and not isinstance(record[key], str):

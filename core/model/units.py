@@ -13,7 +13,7 @@ import re
 from functools import lru_cache
 from typing import Any
 
-from .errors import Problem
+from .errors import Problem, shown
 
 #: Dimension names used by the parser, mapped to pint dimensionality strings.
 DIMENSIONS: dict[str, str] = {
@@ -341,17 +341,6 @@ def _shown(text: str) -> str:
     return text if len(text) <= 40 else text[:37] + "..."
 
 
-def _kind_of(value: Any) -> str:
-    """A short description of a value that is not text (for messages)."""
-    if isinstance(value, dict):
-        return "an object"
-    if isinstance(value, list):
-        return "a list"
-    if isinstance(value, int) and not isinstance(value, bool) and value.bit_length() > 64:
-        return "a very large number"
-    return _shown(repr(value))
-
-
 def parse(text: Any, dimension: str, field: str) -> float:
     """Parse a quantity string to an SI float.
 
@@ -371,7 +360,7 @@ def parse(text: Any, dimension: str, field: str) -> float:
     """
     if isinstance(text, bool) or not isinstance(text, str):
         raise UnitError(
-            f'{field}: {_kind_of(text)} must be a string with a unit, e.g. '
+            f'{field}: {shown(text)} must be a string with a unit, e.g. '
             f'"{_EXAMPLES[dimension]}"'
         )
     if not text.strip():
@@ -380,16 +369,16 @@ def parse(text: Any, dimension: str, field: str) -> float:
         return _parse_cached(text, dimension)
     except UnitError as exc:
         reason = str(exc)
-        shown = _shown(text)
+        quoted = _shown(text)
         if reason == "has no unit":
-            return _raise(f'{field}: "{shown}" has no unit; expected {DIMENSION_WORDS[dimension]}')
+            return _raise(f'{field}: "{quoted}" has no unit; expected {DIMENSION_WORDS[dimension]}')
         if reason == "has no number":
-            return _raise(f'{field}: "{shown}" has no number; expected '
+            return _raise(f'{field}: "{quoted}" has no number; expected '
                           f"{DIMENSION_WORDS[dimension]}")
         if reason.startswith(("is not ", "is longer", "has a number", "raises", "has paren",
                               "is too large", "is out of range")):
-            return _raise(f'{field}: "{shown}" {reason}')
-        return _raise(f'{field}: "{shown}" is not {DIMENSION_WORDS[dimension]} ({reason})')
+            return _raise(f'{field}: "{quoted}" {reason}')
+        return _raise(f'{field}: "{quoted}" is not {DIMENSION_WORDS[dimension]} ({reason})')
 
 
 def _raise(message: str) -> float:

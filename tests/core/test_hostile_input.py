@@ -66,7 +66,7 @@ CASES = [
     ("us-bolt-rows-fractional.plystack.json",  # 17
      "design.bolt.rows: 1.9 must be a whole number (a count)"),
     ("duplicate-ply-names.plystack.json",  # 17
-     "plies[2].name: 'left 2x10' is the name of an earlier ply"),
+     'plies[2].name: "left 2x10" is the name of an earlier ply'),
     ("ply-x-1e308-in.plystack.json", 'plies[2].x: "1e308 in" is out of range'),  # 18
     ("span-1e-9-m-singular.plystack.json",  # 9 (LinAlgError), 18 (numpy warnings)
      "beam: the analysis cannot be completed for these inputs: the beam's equations"),

@@ -53,7 +53,7 @@ def test_failed_save_keeps_old_file(tmp_path, monkeypatch):
         raise OSError("disk full")
 
     monkeypatch.setattr(os, "replace", boom)
-    with pytest.raises(OSError):
+    with pytest.raises(ProjectError, match="file: cannot write .*: disk full"):
         save(p, target)
     assert target.read_bytes() == before
     assert [f.name for f in tmp_path.iterdir()] == ["keep.plystack.json"]
@@ -68,7 +68,7 @@ def test_failed_save_keeps_old_file(tmp_path, monkeypatch):
     (lambda d: d["plies"][0].update(width="12"), 'plies[0].width: "12" has no unit'),
     (lambda d: d["plies"][1].pop("material"), "plies[1].material: is missing"),
     (lambda d: d["plies"][1].update(material="unobtainium"),
-     "plies[1].material: 'unobtainium' is not a known material"),
+     'plies[1].material: "unobtainium" is not a known material'),
     (lambda d: d["plies"][0].update(width="-2 in"), "plies[0].width: must be greater than zero"),
     (lambda d: d["plies"][0].update(height="0 in"), "plies[0].height: must be greater than zero"),
     (lambda d: d["plies"][0].update(depth="2 in"), "plies[0].depth: is not a known key"),
@@ -84,10 +84,10 @@ def test_failed_save_keeps_old_file(tmp_path, monkeypatch):
      'beam.supports: "propped" needs exactly one span'),
     (lambda d: d["beam"]["loads"][2].update(at="40 ft"), "beam.loads[2].at: is outside the member"),
     (lambda d: d["beam"]["loads"][0].update(case="X"),
-     "beam.loads[0].case: 'X' is not a load case"),
+     'beam.loads[0].case: "X" is not a load case'),
     (lambda d: d["beam"]["loads"][0].update(value="40 psi m"), "beam.loads[0].value"),
     (lambda d: d["beam"].update(combinations="LRFD"), 'beam.combinations: "LRFD" is not a known'),
-    (lambda d: d["design"].update(basis="CSA"), "design.basis: 'CSA' must be one of"),
+    (lambda d: d["design"].update(basis="CSA"), 'design.basis: "CSA" must be one of'),
 ])
 def test_bad_input_named(mutate, expected):
     data = base()
@@ -163,3 +163,23 @@ def test_material_without_density_loads_and_warns():
     a = run(p)
     assert any("materials.w.density" in str(w) for w in a.warnings)
     assert a.section.mass_per_length == 0.0
+
+
+@pytest.mark.parametrize("mutate,expected", [
+    (lambda d: d["plies"][0].update(material=None), "plies[0].material: null is not a known"),
+    (lambda d: d["plies"][1].update(height=True), "plies[1].height: true must be a string"),
+    (lambda d: d["plies"][1].update(width=False), "plies[1].width: false must be a string"),
+    (lambda d: d.update(format="it's"), '''format: must be "plystack" (got "it's")'''),
+    (lambda d: d["design"].update(basis=None), "design.basis: null must be one of"),
+])
+def test_values_are_quoted_as_the_file_spells_them(mutate, expected):
+    """A value echoed in a message is spelt as JSON (null, true, "text"), never in
+    Python's spelling (None, True, 'text').
+    """
+    d = json.loads(DEMO.read_text())
+    mutate(d)
+    with pytest.raises(ProjectError) as info:
+        loads(json.dumps(d))
+    text = "\n".join(str(p) for p in info.value.problems)
+    assert expected in text
+    assert not any(w in text for w in ("None", "True", "False", "'it")), text
