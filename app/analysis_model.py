@@ -132,7 +132,8 @@ class AnalysisModel(QObject):
         if not is_stepped(project.plies, length):
             return None
         try:
-            return segment_at(segments_of(project.plies, length), self.station)
+            return segment_at(segments_of(project.plies, length, project.display_units),
+                              self.station)
         except ProjectError:
             return None  # a stretch without plies: the analysis names it
 

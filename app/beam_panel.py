@@ -76,6 +76,10 @@ class ChoiceDelegate(QStyledItemDelegate):
         model.setData(index, editor.currentText())
 
 
+#: The spans field's tooltip while its text is accepted.
+SPANS_TIP = 'Spans left to right, separated by commas, e.g. "12 ft" or "4 m, 5.5 m"'
+
+
 def default_beam(system: str) -> BeamSpec:
     """A simple span with no loads but self-weight, for a new project."""
     span = 12 * 0.3048 if system == "US" else 3.6
@@ -114,8 +118,7 @@ class BeamPanel(QWidget):
         self._updating = False
         self.has_beam = QCheckBox("Analyse as a beam (spans, supports, loads)")
         self.spans = QLineEdit()
-        self.spans.setToolTip('Spans left to right, separated by commas, e.g. "12 ft" or '
-                              '"4 m, 5.5 m"')
+        self.spans.setToolTip(SPANS_TIP)
         self.supports = QComboBox()
         self.supports.addItems(SUPPORTS)
         nonneg = lambda v: None if v >= 0 else "must be zero or more"  # noqa: E731
@@ -241,8 +244,10 @@ class BeamPanel(QWidget):
         self.spans.editingFinished.connect(self._set_spans)
         self.supports.activated.connect(lambda _i: self._set_layout(
             supports=self.supports.currentText()))
-        self.over_left.accepted.connect(lambda v: self._set_layout(overhang_left=v))
-        self.over_right.accepted.connect(lambda v: self._set_layout(overhang_right=v))
+        self.over_left.accepted.connect(lambda v: self._set_layout(self.over_left,
+                                                                   overhang_left=v))
+        self.over_right.accepted.connect(lambda v: self._set_layout(self.over_right,
+                                                                    overhang_right=v))
         for edit in (self.over_left, self.over_right, self.bearing):
             edit.rejected.connect(self.error.setText)
         self.bearing.accepted.connect(lambda v: self._set_beam("Set bearing length",
@@ -333,6 +338,7 @@ class BeamPanel(QWidget):
                 self.spans.setText(", ".join(units.display_string(s, "span", u, 6)
                                              for s in lay.spans))
                 self.spans.setStyleSheet("")
+                self.spans.setToolTip(SPANS_TIP)
             self.supports.setCurrentText(lay.supports)
             self.over_left.set_value(lay.overhang_left)
             self.over_right.set_value(lay.overhang_right)
@@ -461,18 +467,32 @@ class BeamPanel(QWidget):
             return
         self._apply_beam(replace(beam, **changes), text)  # type: ignore[arg-type]
 
-    def _set_layout(self, **changes: object) -> None:
+    def _set_layout(self, source: QLineEdit | None = None, **changes: object) -> None:
+        """Apply a change of the layout; a refused one marks ``source`` (the field it was
+        typed into) and says that the results are still those of the layout as it was.
+        """
         beam = self.document.project.beam
         if self._updating or beam is None:
             return
         layout = replace(beam.layout, **changes)  # type: ignore[arg-type]
+        u = self.document.project.display_units
         problems = validate_layout(layout)
-        problems += [q for i, ld in enumerate(beam.loads)
-                     for q in validate_load(ld, layout.length, f"beam.loads[{i}]")]
+        if not problems:  # the loads are judged on a member that exists
+            problems = [q for i, ld in enumerate(beam.loads)
+                        for q in validate_load(ld, layout.length, f"beam.loads[{i}]", u)]
         if problems:
-            self.error.setText("; ".join(str(q) for q in problems))
+            was = ", ".join(units.fmt(s, "span", u) for s in beam.layout.spans)
+            message = ("; ".join(str(q) for q in problems)
+                       + f". Not applied: the results shown are for the spans {was}.")
+            self.error.setText(message)
+            if source is not None:
+                source.setStyleSheet(BAD_STYLE)
+                source.setToolTip(message)
             self.refresh_soon()
             return
+        if source is not None:
+            source.setStyleSheet("")
+            source.setToolTip(SPANS_TIP if source is self.spans else "")
         self._apply_beam(replace(beam, layout=layout), "Change beam layout")
 
     def refresh_soon(self) -> None:
@@ -492,13 +512,15 @@ class BeamPanel(QWidget):
         spans = []
         for i, part in enumerate(self.spans.text().split(",")):
             try:
-                spans.append(parse_entry(part, "span", u, f"spans[{i}]"))
+                spans.append(parse_entry(part, "span", u, f"beam.spans[{i}]"))
             except units.UnitError as exc:
-                self.error.setText(str(exc))
-                self.spans.setStyleSheet("QLineEdit { background: #ffd9d9; }")
+                was = ", ".join(units.fmt(s, "span", u) for s in beam.layout.spans)
+                message = f"{exc}. Not applied: the results shown are for the spans {was}."
+                self.error.setText(message)
+                self.spans.setStyleSheet(BAD_STYLE)
+                self.spans.setToolTip(message)
                 return
-        self.spans.setStyleSheet("")
-        self._set_layout(spans=tuple(spans))
+        self._set_layout(self.spans, spans=tuple(spans))
 
     def _set_basis(self, _index: int) -> None:
         if self._updating:
@@ -616,7 +638,8 @@ class BeamPanel(QWidget):
         except units.UnitError as exc:
             self._mark(row, column, str(exc))
             return
-        problems = validate_load(load, beam.layout.length, f"loads[{row}]")
+        problems = validate_load(load, beam.layout.length, f"loads[{row}]",
+                                 self.document.project.display_units)
         if problems:
             self._mark(row, column, "; ".join(str(q) for q in problems))
             return

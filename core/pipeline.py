@@ -279,7 +279,7 @@ class Evaluator:
     def _stepped_beam(self, plies: tuple[Ply, ...], section: Section) -> BeamResult:
         spec = self.project.beam
         assert spec is not None
-        segs = segments_of(plies, spec.layout.length)
+        segs = segments_of(plies, spec.layout.length, self.project.display_units)
         secs = self._segment_sections(plies, segs, section)
         creep = [with_moduli(s, creep_moduli(s, creep_factor(s, self.design))) for s in secs]
         stepping = Stepping(
@@ -351,7 +351,7 @@ class Evaluator:
                   beam: BeamResult) -> tuple[SegmentResult, ...]:
         spec = self.project.beam
         assert spec is not None
-        segs = segments_of(plies, spec.layout.length)
+        segs = segments_of(plies, spec.layout.length, self.project.display_units)
         secs = self._segment_sections(plies, segs, section)
         return segment_results(segs, secs, beam)
 

@@ -182,7 +182,7 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
         ref = None
     beam_spec = None
     if "beam" in data:
-        beam_spec = read_beam(data["beam"], "beam", problems)
+        beam_spec = read_beam(data["beam"], "beam", problems, units)
     design = None
     if "design" in data:
         design = read_design(data["design"], "design", problems)

@@ -174,8 +174,9 @@ def read_plies(raw: Any, path: str, known: Mapping[str, Material],
     return tuple(out)
 
 
-def read_beam(raw: Any, path: str, problems: list[Problem]) -> BeamSpec | None:
-    """The "beam" object."""
+def read_beam(raw: Any, path: str, problems: list[Problem], system: str = "SI"
+              ) -> BeamSpec | None:
+    """The "beam" object (``system``: the display units its messages give lengths in)."""
     from ..model.member import BeamSpec
 
     if not isinstance(raw, dict):
@@ -213,7 +214,7 @@ def read_beam(raw: Any, path: str, problems: list[Problem]) -> BeamSpec | None:
     layout = BeamLayout(tuple(spans), supports, over["overhang_left"], over["overhang_right"])
     if len(problems) == before:
         problems.extend(validate_layout(layout, path))
-    loads = _read_loads(raw.get("loads", []), f"{path}.loads", layout, problems)
+    loads = _read_loads(raw.get("loads", []), f"{path}.loads", layout, problems, system)
     combos = (read_combinations(raw["combinations"], f"{path}.combinations", problems)
               if "combinations" in raw else None)
     frac = None
@@ -265,7 +266,7 @@ def _load_positions(rec: dict[str, Any], typ: str, dim: str, p: str,
 
 
 def _read_loads(raw: Any, path: str, layout: BeamLayout,
-                problems: list[Problem]) -> tuple[Load, ...]:
+                problems: list[Problem], system: str) -> tuple[Load, ...]:
     if not isinstance(raw, list):
         problems.append(Problem(path, "must be a list of loads"))
         return ()
@@ -317,7 +318,7 @@ def _read_loads(raw: Any, path: str, layout: BeamLayout,
         load = Load(str(case), str(typ), value, trib, start, end, at, value_end, description,
                     lb, stage)
         if length > 0:
-            probs = validate_load(load, length, p)
+            probs = validate_load(load, length, p, system)
             problems.extend(probs)
             if probs:
                 continue

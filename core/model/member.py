@@ -12,6 +12,7 @@ import numpy as np
 from .combination import Combination
 from .errors import Problem
 from .openings import Hole, Notch
+from .units import fmt
 
 CASES = ("D", "L", "Lr", "S", "W")
 SUPPORTS = ("simple", "continuous", "cantilever", "fixed-fixed", "propped")
@@ -170,9 +171,12 @@ def validate_layout(layout: BeamLayout, path: str = "beam") -> list[Problem]:
     return problems
 
 
-def validate_load(load: Load, length: float, path: str) -> list[Problem]:
-    """Named problems of one load on a member of ``length``."""
+def validate_load(load: Load, length: float, path: str, system: str = "SI") -> list[Problem]:
+    """Named problems of one load on a member of ``length`` (positions in the messages in
+    the display units of ``system``).
+    """
     problems = []
+    member = f"0 to {fmt(length, 'span', system)}"
     tol = 1e-9 * max(length, 1.0)
     if load.case not in CASES:
         problems.append(Problem(f"{path}.case", f'"{load.case}" is not a load case; use one '
@@ -190,7 +194,7 @@ def validate_load(load: Load, length: float, path: str) -> list[Problem]:
         if load.at is None:
             problems.append(Problem(f"{path}.at", "is missing (where the point load acts)"))
         elif not -tol <= load.at <= length + tol:
-            problems.append(Problem(f"{path}.at", f"is outside the member (0 to {length:.4g} m)"))
+            problems.append(Problem(f"{path}.at", f"is outside the member ({member})"))
         lb = load.bearing_length
         if lb is not None and not (np.isfinite(lb) and lb > 0):
             problems.append(Problem(f"{path}.bearing_length", "must be greater than zero"))
@@ -202,9 +206,9 @@ def validate_load(load: Load, length: float, path: str) -> list[Problem]:
         start = 0.0 if load.start is None else load.start
         end = length if load.end is None else load.end
         if not -tol <= start <= length + tol:
-            problems.append(Problem(f"{path}.from", f"is outside the member (0 to {length:.4g} m)"))
+            problems.append(Problem(f"{path}.from", f"is outside the member ({member})"))
         if not -tol <= end <= length + tol:
-            problems.append(Problem(f"{path}.to", f"is outside the member (0 to {length:.4g} m)"))
+            problems.append(Problem(f"{path}.to", f"is outside the member ({member})"))
         if end <= start:
             problems.append(Problem(f"{path}.to", "must be greater than from"))
     return problems

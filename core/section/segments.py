@@ -15,6 +15,7 @@ from dataclasses import dataclass
 from ..model.errors import Problem, ProjectError
 from ..model.materials import Material
 from ..model.plies import EXTENT_TOLERANCE, Ply
+from ..model.units import fmt
 from .transformed import Section, analyse
 
 
@@ -39,10 +40,12 @@ def is_stepped(plies: Sequence[Ply], length: float) -> bool:
     return any(not p.covers_whole(length) for p in plies)
 
 
-def segments_of(plies: Sequence[Ply], length: float) -> tuple[Segment, ...]:
+def segments_of(plies: Sequence[Ply], length: float, system: str = "SI"
+                ) -> tuple[Segment, ...]:
     """The segments of a member of ``length``: cut at every ply end, left to right.
 
-    Raises a named problem where some stretch of the member holds no ply.
+    Raises a named problem where some stretch of the member holds no ply (its ends in the
+    display units of ``system``).
     """
     tol = EXTENT_TOLERANCE * max(length, 1.0)
     cuts = sorted({0.0, length, *(min(max(v, 0.0), length) for p in plies
@@ -58,8 +61,9 @@ def segments_of(plies: Sequence[Ply], length: float) -> tuple[Segment, ...]:
         held = tuple(i for i, p in enumerate(plies)
                      if p.extent(length)[0] - tol <= mid <= p.extent(length)[1] + tol)
         if not held:
-            raise ProjectError(Problem("plies", f"no ply runs from {a:.4g} m to {b:.4g} m "
-                                       "along the member (check the plies' from and to)"))
+            raise ProjectError(Problem("plies", f"no ply runs from {fmt(a, 'span', system)} "
+                                       f"to {fmt(b, 'span', system)} along the member (check "
+                                       "the plies' from and to)"))
         out.append(Segment(a, b, held))
     return tuple(out)
 

@@ -82,4 +82,7 @@ def test_a_stretch_without_plies_is_a_named_problem():
     plies = (Ply("a", "m", 0, 0, 1, 1, end=1.0), Ply("b", "m", 0, 0, 1, 1, start=2.0))
     with pytest.raises(ProjectError) as info:
         segments_of(plies, 4.0)
-    assert "no ply runs from 1 m to 2 m" in str(info.value.problems[0])
+    assert "no ply runs from 1.000 m to 2.000 m" in str(info.value.problems[0])
+    with pytest.raises(ProjectError) as info:  # in the project's display units
+        segments_of(plies, 4.0, "US")
+    assert "no ply runs from 3.281 ft to 6.562 ft" in str(info.value.problems[0])

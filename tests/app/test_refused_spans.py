@@ -1,0 +1,64 @@
+"""A span typed into the Beam panel that the member cannot take is refused in place: the
+field is marked, the message names the field in the project's units and says that the
+results shown are still those of the spans as they were; the model does not change. Keys
+are typed with real key events.
+"""
+
+from __future__ import annotations
+
+from PySide6.QtCore import Qt
+from PySide6.QtTest import QTest
+
+from plystack.app.beam_panel import SPANS_TIP
+from plystack.app.quantity import BAD_STYLE
+from plystack.core.model import units
+
+WAS = "Not applied: the results shown are for the spans 12.00 ft."
+
+
+def _type(window, qtbot, text: str) -> None:
+    edit = window.beam_panel.spans
+    edit.setFocus()
+    edit.selectAll()
+    QTest.keyClicks(edit, text)
+    QTest.keyClick(edit, Qt.Key.Key_Return)
+    qtbot.wait(50)
+
+
+def test_refused_spans_are_marked_and_leave_the_model(window, qtbot):
+    panel = window.beam_panel
+    before = window.document.project
+    cases = [
+        ("0 ft", "beam.spans[0]: must be greater than zero."),
+        # the demo's point load stands at 6 ft: a 2 ft member cannot hold it (US units)
+        ("2 ft", "beam.loads[2].at: is outside the member (0 to 2.000 ft)."),
+        ("abc", 'beam.spans[0]: "abc" has no number; expected a length.'),
+        ("12 ft, -3 ft", "beam.spans[1]: must be greater than zero."),
+    ]
+    for text, expected in cases:
+        _type(window, qtbot, text)
+        assert panel.error.text() == f"{expected} {WAS}", text
+        assert panel.spans.styleSheet() == BAD_STYLE
+        assert panel.spans.toolTip() == panel.error.text()
+        assert window.document.project == before
+        assert panel.spans.text() == text  # kept to be corrected
+    _type(window, qtbot, "14 ft")
+    assert panel.error.text() == ""
+    assert panel.spans.styleSheet() == ""
+    assert panel.spans.toolTip() == SPANS_TIP
+    assert window.document.project.beam.layout.spans == (units.parse("14 ft", "length", "x"),)
+    window.document.undo_stack.undo()
+    assert window.document.project == before
+
+
+def test_refused_overhang_marks_its_field(window, qtbot):
+    panel = window.beam_panel
+    before = window.document.project
+    edit = panel.over_left
+    edit.setFocus()
+    edit.selectAll()
+    QTest.keyClicks(edit, "-2 ft")
+    QTest.keyClick(edit, Qt.Key.Key_Return)
+    qtbot.wait(50)
+    assert edit.styleSheet() == BAD_STYLE
+    assert window.document.project == before
