@@ -142,7 +142,33 @@ class PlyPanel(QWidget):
                if i != self.index):
             self.error.setText(f"name: \u201c{text}\u201d is the name of another ply")
             return
-        self._replace("Rename ply", name=text)
+        self._rename(text)
+
+    def _rename(self, name: str) -> None:
+        """Rename the ply; the design's overrides and the notches and holes that name it
+        follow the new name (one step).
+        """
+        project = self.document.project
+        if self.index is None or self.index >= len(project.plies):
+            return
+        old = project.plies[self.index].name
+        plies = list(project.plies)
+        plies[self.index] = replace(plies[self.index], name=name)
+        renamed = project.with_plies(tuple(plies))
+        design = project.design
+        if design is not None and old in design.overrides and old != name:
+            overrides = {name if k == old else k: v for k, v in design.overrides.items()}
+            renamed = replace(renamed, design=replace(design, overrides=overrides))
+        beam = project.beam
+        if beam is not None and old != name:
+            def follow(items):  # type: ignore[no-untyped-def]
+                return tuple(replace(o, plies=tuple(name if n == old else n for n in o.plies))
+                             for o in items)
+
+            renamed = replace(renamed, beam=replace(beam, notches=follow(beam.notches),
+                                                    holes=follow(beam.holes)))
+        self.error.setText("")
+        self.document.apply(renamed, "Rename ply")
 
     @guarded("Setting the material")
     def _set_material(self, *_args: object) -> None:

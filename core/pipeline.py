@@ -27,6 +27,7 @@ from .actions.analysis import (
 from .actions.stages import is_staged, stage_solutions, stepped_stage_solutions
 from .design.bolt_checks import PlateLayout
 from .design.check import Check
+from .design.common import other_basis_fields, unapplied_overrides
 from .design.eu_lsd import eu_checks
 from .design.material_notes import material_warnings
 from .design.memo import with_partner
@@ -250,6 +251,9 @@ class Evaluator:
                 checks += tuple(extra)
                 warnings.extend(open_warnings)
             warnings += material_warnings(section, beam, project.display_units)
+            if beam is not None:
+                warnings += unapplied_overrides(self.design, plies, checks)
+                warnings += other_basis_fields(self.design)
             # a reason given by several checks (each combination, each ply of a
             # material) is said once, in the order first given
             out.append(Analysis(project, section, beam, self.design, checks,

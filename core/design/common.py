@@ -5,6 +5,7 @@ checks, joint layout of side-by-side plies, and stock fastener spacings.
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass
 
 import numpy as np
@@ -15,6 +16,7 @@ from ..actions.extremes import Extremes, extremes
 from ..model.constants import INCH
 from ..model.design import MECHANICAL_CONNECTORS, DesignSpec
 from ..model.errors import MissingCheck, Problem
+from ..model.plies import Ply
 from ..model.units import fmt
 from ..section.gamma import PartialSection
 from ..section.geometry import TOUCH_TOLERANCE, near_pairs
@@ -253,6 +255,64 @@ def apply_overrides(factors: dict[str, float], sources: dict[str, str], design: 
         if sym in factors:
             factors[sym] = v
             sources[sym] = "user override"
+
+
+def unapplied_overrides(design: DesignSpec, plies: Sequence[Ply], checks: Sequence[Check]
+                        ) -> list[Problem]:
+    """The user's overrides (design.overrides) that no check took, each named: a ply that
+    is not among ``plies``, or a factor symbol that no check of the ply has (a misspelt
+    symbol, or a factor of the other basis). What the user asked for must never go
+    unapplied without a word.
+    """
+    if not design.overrides:
+        return []
+    names = {p.name for p in plies}
+    applied = {(c.ply, sym) for c in checks for sym, src in c.sources.items()
+               if src == "user override"}
+    out: list[Problem] = []
+    for ply, factors in design.overrides.items():
+        path = f"design.overrides.{ply}"
+        if ply not in names:
+            out.append(Problem(path, f'no ply is named "{ply}"; its overrides are not '
+                               "applied"))
+            continue
+        for sym in factors:
+            if (ply, sym) not in applied:
+                out.append(Problem(f"{path}.{sym}", f'no check of "{ply}" has the factor '
+                                   f"{sym} on the {design.basis} basis; not applied"))
+    return out
+
+
+#: Design fields that only one basis reads, with what they are on it: a value set on the
+#: other basis is said as not used.
+BASIS_FIELDS = {
+    "US-ASD": {"K_cr": "the NDS 2018 3.5.2 creep factor",
+               "steel_rule": "the steel plates' allowable bending stress rule",
+               "wet_service": "the NDS wet service factors C_M",
+               "temperature": "the NDS temperature factors C_t",
+               "repetitive_member": "the NDS repetitive member factor C_r",
+               "incised": "the NDS incising factor C_i",
+               "fabricated_wet": "the NDS 11.3.3 wet service factor of the bolts"},
+    "EU-LSD": {"k_def": "the EN 1995-1-1 Table 3.2 creep factor",
+               "service_class": "the EN 1995-1-1 2.3.1.3 service class",
+               "en1990_expression": "the EN 1990 6.4.3.2(3) expression"},
+}
+
+
+def other_basis_fields(design: DesignSpec) -> list[Problem]:
+    """Design fields set away from their defaults that only the other basis reads (a
+    value the user gave that changes nothing must be said).
+    """
+    default = DesignSpec(basis=design.basis)
+    out = []
+    for basis, fields in BASIS_FIELDS.items():
+        if basis == design.basis:
+            continue
+        for name, what in fields.items():
+            if getattr(design, name) != getattr(default, name):
+                out.append(Problem(f"design.{name}", f"is {what}, read only on the {basis} "
+                                   f"basis; not used on the {design.basis} basis"))
+    return out
 
 
 def connector_checks(section: Section, beam: BeamResult, design: DesignSpec, system: str,

@@ -34,7 +34,7 @@ from ..actions.beam import CaseSolution, moment_at
 from ..codes import en1995, nds
 from ..model.constants import INCH
 from ..model.design import DesignSpec
-from ..model.errors import Problem, ProjectError
+from ..model.errors import MissingCheck, Problem, ProjectError
 from ..model.openings import Hole, Notch
 from ..model.plies import Ply
 from ..model.units import fmt
@@ -66,6 +66,24 @@ def shear_at(beam: BeamResult, sol: CaseSolution, x: float) -> float:
 def _chosen(section: Section, names: tuple[str, ...]) -> list[int]:
     return [i for i, (p, m) in enumerate(zip(section.plies, section.materials, strict=True))
             if (p.name in names if names else m.kind == "timber")]
+
+
+def _named(section: Section, names: tuple[str, ...], path: str, x: float, system: str,
+           timber: bool) -> None:
+    """Refuse a name of ``names`` that is no ply of the member at ``x`` (a misspelt name
+    or a ply that does not run there would leave the opening out unseen), and with
+    ``timber`` one that is not timber (notches are checked in timber).
+    """
+    at = {p.name: m.kind for p, m in zip(section.plies, section.materials, strict=True)}
+    for name in names:
+        if name not in at:
+            listed = ", ".join(f'"{n}"' for n in at)
+            raise ProjectError(Problem(path, f'"{name}" is not a ply of the member at x = '
+                                       f"{fmt(x, 'span', system)} ({listed})"))
+        if timber and at[name] != "timber":
+            raise ProjectError(Problem(path, f'"{name}" is not timber; a notch is checked in '
+                                       "timber plies (name them, or none for every timber "
+                                       "ply)"))
 
 
 def _own(checks: Sequence[Check], cid: str, ply: str, combo: str) -> Check | None:
@@ -101,12 +119,17 @@ def _limit_message(beam: BeamResult, notch: Notch, d: float) -> str | None:
 
 def _notch_check(notch: Notch, k: int, combo: CombinationResult, beam: BeamResult,
                  section: Section, checks: Sequence[Check], design: DesignSpec,
-                 system: str) -> Check | None:
+                 system: str, warnings: list[Problem]) -> Check | None:
     idx = _chosen(section, notch.plies)
     if not idx:
         return None
     own = [_own(checks, "shear", section.plies[i].name, combo.name) for i in idx]
     if any(c is None for c in own):
+        missing = next(section.plies[i].name for i, c in zip(idx, own, strict=True)
+                       if c is None)
+        warnings.append(MissingCheck(f"beam.notches[{k}]", f'"{missing}" has no shear check '
+                                     f"under {combo.name} to reduce at the notch; the notch "
+                                     "check cannot be made"))
         return None
     cap_v = min(c.capacity for c in own if c is not None)
     b = sum(section.plies[i].width for i in idx)
@@ -256,11 +279,14 @@ def opening_checks(section_at: Callable[[float], Section], beam: BeamResult,
                                 "EU basis"))
     for k, notch in enumerate(beam.spec.notches):
         sec = section_at(notch.x)
+        _named(sec, notch.plies, f"beam.notches[{k}].plies", notch.x, system, True)
         for combo in beam.strength():
-            c = _notch_check(notch, k, combo, beam, sec, checks, design, system)
+            c = _notch_check(notch, k, combo, beam, sec, checks, design, system, warnings)
             if c is not None:
                 out.append(c)
     for k, hole in enumerate(beam.spec.holes):
+        _named(section_at(hole.x), hole.plies, f"beam.holes[{k}].plies", hole.x, system,
+               False)
         out += _hole_checks(hole, k, beam, section_at(hole.x), checks, section_of, system,
                             warnings)
     return out, warnings

@@ -153,6 +153,9 @@ def read_plies(raw: Any, path: str, known: Mapping[str, Material],
         name = rec.get("name", f"ply {i + 1}")
         if not isinstance(name, str):
             problems.append(Problem(f"{p}.name", "must be text"))
+        elif not name.strip():
+            problems.append(Problem(f"{p}.name", "is empty; every ply needs a name (the "
+                                    "checks, overrides and --ply name it)"))
         mat = rec.get("material")
         if "material" in rec and (not isinstance(mat, str) or mat not in known):
             problems.append(Problem(f"{p}.material", f"{shown(mat)} is not a known material "

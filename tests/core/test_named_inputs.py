@@ -1,0 +1,117 @@
+"""What the user asks for by name is either applied or said: overrides of a ply or a
+factor no check takes, design fields of the other basis, notches and holes in plies that
+are not there, and plies without a name.
+"""
+
+from __future__ import annotations
+
+import copy
+import json
+from pathlib import Path
+
+import pytest
+
+from plystack.core.io.project_file import loads
+from plystack.core.model.errors import ProjectError
+from plystack.core.pipeline import run
+
+DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo"
+US = json.loads((DEMO / "porch-header.plystack.json").read_text())
+EU = json.loads((DEMO / "stair-trimmer-eu.plystack.json").read_text())
+
+
+def _run(data: dict):
+    return run(loads(json.dumps(data)))
+
+
+def _said(analysis, prefix: str) -> list[str]:
+    return [str(w) for w in analysis.warnings if w.path.startswith(prefix)]
+
+
+def test_an_applied_override_is_not_said_and_takes_effect():
+    d = copy.deepcopy(US)
+    d["design"]["overrides"] = {"left 2x10": {"C_D": 0.9}}
+    a = _run(d)
+    assert _said(a, "design.overrides") == []
+    bending = [c for c in a.checks if c.id == "bending" and c.ply == "left 2x10"]
+    assert bending and all(c.factors["C_D"] == 0.9 and c.sources["C_D"] == "user override"
+                           for c in bending)
+
+
+def test_unapplied_overrides_are_named():
+    d = copy.deepcopy(US)
+    d["design"]["overrides"] = {"ghost": {"C_D": 0.9}, "left 2x10": {"CD": 0.9},
+                                "flitch plate": {"k_mod": 0.8}}
+    a = _run(d)
+    assert _said(a, "design.overrides") == [
+        'design.overrides.ghost: no ply is named "ghost"; its overrides are not applied',
+        'design.overrides.left 2x10.CD: no check of "left 2x10" has the factor CD on the '
+        "US-ASD basis; not applied",
+        'design.overrides.flitch plate.k_mod: no check of "flitch plate" has the factor '
+        "k_mod on the US-ASD basis; not applied"]
+
+
+@pytest.mark.parametrize("data,field,value,expected", [
+    (US, "k_def", 0.6, "design.k_def: is the EN 1995-1-1 Table 3.2 creep factor, read only "
+     "on the EU-LSD basis; not used on the US-ASD basis"),
+    (US, "service_class", 2, "design.service_class: is the EN 1995-1-1 2.3.1.3 service "
+     "class, read only on the EU-LSD basis; not used on the US-ASD basis"),
+    (EU, "K_cr", 2.0, "design.K_cr: is the NDS 2018 3.5.2 creep factor, read only on the "
+     "US-ASD basis; not used on the EU-LSD basis"),
+    (EU, "wet_service", True, "design.wet_service: is the NDS wet service factors C_M, read "
+     "only on the US-ASD basis; not used on the EU-LSD basis"),
+])
+def test_a_field_of_the_other_basis_is_said(data, field, value, expected):
+    d = copy.deepcopy(data)
+    d["design"][field] = value
+    a = _run(d)
+    assert _said(a, f"design.{field}") == [expected]
+    same = _run(data)
+    assert [(c.id, c.ratio) for c in a.checks] == [(c.id, c.ratio) for c in same.checks]
+
+
+def test_the_demos_say_no_field_of_the_other_basis():
+    for data in (US, EU):
+        a = _run(data)
+        assert _said(a, "design.") == []
+
+
+@pytest.mark.parametrize("name", ["", "   "])
+def test_a_ply_without_a_name_is_refused(name):
+    d = copy.deepcopy(US)
+    d["plies"][0]["name"] = name
+    with pytest.raises(ProjectError) as info:
+        loads(json.dumps(d))
+    assert [str(p) for p in info.value.problems] == [
+        "plies[0].name: is empty; every ply needs a name (the checks, overrides and --ply "
+        "name it)"]
+
+
+NOTCH = {"face": "bottom", "depth": "1 in", "length": "3 in", "at": "0 in"}
+HOLE = {"diameter": "1 in", "at": "3 ft", "y": "4 in"}
+PLIES = '"left 2x10", "flitch plate", "right 2x10"'
+
+
+@pytest.mark.parametrize("key,item,expected", [
+    ("notches", {**NOTCH, "plies": ["ghost"]},
+     f'beam.notches[0].plies: "ghost" is not a ply of the member at x = 0 ft ({PLIES})'),
+    ("notches", {**NOTCH, "plies": ["flitch plate"]},
+     'beam.notches[0].plies: "flitch plate" is not timber; a notch is checked in timber '
+     "plies (name them, or none for every timber ply)"),
+    ("holes", {**HOLE, "plies": ["left 2x10", "ghost"]},
+     f'beam.holes[0].plies: "ghost" is not a ply of the member at x = 3.000 ft ({PLIES})'),
+])
+def test_an_opening_in_a_ply_that_is_not_there_is_refused(key, item, expected):
+    d = copy.deepcopy(US)
+    d["beam"][key] = [item]
+    with pytest.raises(ProjectError) as info:
+        _run(d)
+    assert [str(p) for p in info.value.problems] == [expected]
+
+
+def test_a_notch_in_a_named_timber_is_checked():
+    d = copy.deepcopy(US)
+    d["beam"]["notches"] = [{**NOTCH, "plies": ["left 2x10"]}]
+    a = _run(d)
+    notch = [c for c in a.checks if "notch" in (c.location or "")]
+    assert notch and {c.ply for c in notch} == {"left 2x10"}
