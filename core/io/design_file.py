@@ -175,8 +175,15 @@ def _read_lengths(raw: Any, longest: int, path: str, problems: list[Problem]) ->
     return tuple(out)
 
 
-def _write_bolt(bolt: Bolt, system: str) -> dict[str, Any]:
+def _write_bolt(bolt: Bolt, system: str, us: bool = True) -> dict[str, Any]:
+    """The "bolt" object: the strength the other basis reads (``fu`` on US-ASD, ``Fyb`` on
+    EU-LSD) only where it is not the default, so that saving adds nothing the file did not
+    say.
+    """
     out = write_fields(bolt, Bolt(), BOLT_FIELDS, system)
+    unread = "fu" if us else "Fyb"
+    if getattr(bolt, unread) == getattr(Bolt(), unread):
+        out.pop(unread, None)
     if bolt.row_heights:
         out["rows"] = [units.exact_text(y, "length", system) for y in bolt.row_heights]
     if bolt.stations:
@@ -249,7 +256,7 @@ def write_design(d: DesignSpec, system: str) -> dict[str, Any]:
     if d.connector != Connector():
         out["connector"] = write_fields(d.connector, Connector(), CONNECTOR_FIELDS, system)
     if d.bolt != Bolt():
-        out["bolt"] = _write_bolt(d.bolt, system)
+        out["bolt"] = _write_bolt(d.bolt, system, d.us)
     if d.vibration is not None:
         out["vibration"] = write_vibration(d.vibration, system)
     return out

@@ -5,6 +5,7 @@ from __future__ import annotations
 import copy
 import json
 import os
+from dataclasses import replace
 from pathlib import Path
 
 import pytest
@@ -12,6 +13,7 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from plystack.core.io.project_file import dumps, from_dict, load, loads, save
+from plystack.core.model.design import Bolt
 from plystack.core.model.errors import ProjectError
 
 DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo" / "porch-header.plystack.json"
@@ -183,3 +185,23 @@ def test_values_are_quoted_as_the_file_spells_them(mutate, expected):
     text = "\n".join(str(p) for p in info.value.problems)
     assert expected in text
     assert not any(w in text for w in ("None", "True", "False", "'it")), text
+
+
+def test_saving_adds_no_bolt_strength_the_basis_does_not_read():
+    """The US demo says no ``fu`` (EN 1995-1-1 (8.30) only): its save adds none; an EU
+    bolt at the default ``Fyb`` (NDS only) is saved without it; a value the user gave is
+    kept on either basis.
+    """
+    us = json.loads(dumps(load(DEMO)))
+    assert set(us["design"]["bolt"]) == {"diameter", "Fyb", "rows"}
+    p = load(DEMO)
+    bolt = replace(p.design.bolt, Fyb=Bolt().Fyb, diameter=0.016)
+    eu = replace(p, design=replace(p.design, basis="EU-LSD", bolt=bolt))
+    assert "Fyb" not in json.loads(dumps(eu))["design"]["bolt"]
+    given = replace(p, design=replace(p.design, bolt=replace(p.design.bolt, fu=500e6)))
+    assert json.loads(dumps(given))["design"]["bolt"]["fu"] == "500 MPa"
+    assert load_text_round(given) == given
+
+
+def load_text_round(project):
+    return loads(dumps(project))
