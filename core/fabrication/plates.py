@@ -28,7 +28,7 @@ from ..design.net_section import hole_diameter
 from ..design.transfer import plate_extent
 from ..model.constants import INCH, MM
 from ..model.design import DesignSpec
-from ..model.errors import Problem, ProjectError
+from ..model.errors import Problem, ProjectError, named_under
 from ..model.project import Project
 from ..model.units import fmt
 from ..pipeline import Analysis, run
@@ -140,12 +140,7 @@ def select_alternative(project: Project, alternative: str | None) -> Project:
     """The project with the plies of the named alternative (the project itself for None)."""
     if alternative is None:
         return project
-    alt = next((a for a in project.alternatives if a.name == alternative), None)
-    if alt is None:
-        names = ", ".join(f'"{a.name}"' for a in project.alternatives) or "none"
-        raise ProjectError(Problem("--alternative", f'"{alternative}" is not an '
-                                   f"alternative of this project ({names})"))
-    return project.with_plies(alt.plies)
+    return project.with_plies(project.alternative_named(alternative)[1].plies)
 
 
 def clearance_note(design: DesignSpec) -> str:
@@ -279,5 +274,9 @@ def plates_of(a: Analysis, alternative: str | None = None) -> PlateSet:
 
 def project_plates(project: Project, alternative: str | None = None) -> PlateSet:
     """Analyse the project (or the named alternative) and return its steel plates."""
-    return plates_of(run(select_alternative(project, alternative)), alternative)
+    chosen = select_alternative(project, alternative)
+    if alternative is None:
+        return plates_of(run(chosen), alternative)
+    with named_under(f"alternatives[{project.alternative_named(alternative)[0]}]"):
+        return plates_of(run(chosen), alternative)
 

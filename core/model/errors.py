@@ -4,7 +4,9 @@ from __future__ import annotations
 
 import json
 import math
-from dataclasses import dataclass
+from collections.abc import Iterator
+from contextlib import contextmanager
+from dataclasses import dataclass, replace
 from typing import Any
 
 
@@ -61,3 +63,18 @@ class ProjectError(ValueError):
             problems = [problems]
         self.problems: list[Problem] = list(problems)
         super().__init__("\n".join(str(p) for p in self.problems))
+
+
+@contextmanager
+def named_under(prefix: str, root: str = "plies") -> Iterator[None]:
+    """Name the problems raised inside under ``prefix``: a problem of ``root`` (``plies``,
+    ``plies[2].x``) becomes one of ``prefix.root`` (``alternatives[1].plies[2].x``), so
+    that the message points at the field of the file that holds them.
+    """
+    try:
+        yield
+    except ProjectError as exc:
+        raise ProjectError([
+            replace(p, path=f"{prefix}.{p.path}")
+            if p.path == root or p.path.startswith((f"{root}[", f"{root}.")) else p
+            for p in exc.problems]) from None

@@ -10,6 +10,7 @@ from collections.abc import Mapping
 from dataclasses import dataclass, field, replace
 
 from .design import DesignSpec
+from .errors import Problem, ProjectError
 from .materials import Material
 from .member import BeamSpec
 from .plies import Ply
@@ -47,6 +48,17 @@ class Project:
     def with_plies(self, plies: tuple[Ply, ...]) -> Project:
         """Return a copy with other plies."""
         return replace(self, plies=tuple(plies))
+
+    def alternative_named(self, name: str) -> tuple[int, Alternative]:
+        """The index and the alternative called ``name``; a named problem (the option
+        ``--alternative``) where there is none.
+        """
+        for k, alt in enumerate(self.alternatives):
+            if alt.name == name:
+                return k, alt
+        names = ", ".join(f'"{a.name}"' for a in self.alternatives) or "none"
+        raise ProjectError(Problem("--alternative", f'"{name}" is not an alternative of this '
+                                   f"project ({names})"))
 
     def design_or_default(self) -> DesignSpec:
         """The design choices, or the defaults of the US basis."""

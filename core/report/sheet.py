@@ -30,7 +30,7 @@ from reportlab.platypus import SimpleDocTemplate
 from .. import __version__
 from ..io.resources import read_bytes
 from ..model.caution import CAUTION
-from ..model.errors import Problem, ProjectError
+from ..model.errors import Problem, ProjectError, named_under
 from ..model.project import Project
 from ..pipeline import Analysis, run
 from .content import story
@@ -208,15 +208,17 @@ def _streams_without_base85() -> Iterator[None]:
 
 def analysis_for(project: Project, alternative: str | None) -> Analysis:
     """The analysis of the project (or of one of its alternatives)."""
+    where = ""
     if alternative is not None:
-        alt = next((a for a in project.alternatives if a.name == alternative), None)
-        if alt is None:
-            names = ", ".join(f'"{a.name}"' for a in project.alternatives) or "none"
-            raise ProjectError(Problem("--alternative", f'"{alternative}" is not an '
-                                       f"alternative of this project ({names})"))
+        k, alt = project.alternative_named(alternative)
         project = replace(project.with_plies(alt.plies),
                           title=f"{project.title} \u2014 {alt.name}")
-    a = run(project)
+        where = f"alternatives[{k}]"
+    if where:
+        with named_under(where):
+            a = run(project)
+    else:
+        a = run(project)
     if a.beam is None or not a.checks:
         raise ProjectError(Problem("beam", "the project has no beam with checks; a calculation "
                                    "sheet needs spans, supports and loads"))

@@ -18,7 +18,7 @@ from collections.abc import Callable, Iterator, Sequence
 from dataclasses import dataclass, replace
 
 from ..model.constants import INCH
-from ..model.errors import Problem, ProjectError
+from ..model.errors import Problem, ProjectError, named_under
 from ..model.plies import Ply
 from ..model.project import Alternative, Project
 from ..pipeline import Analysis, Evaluator, run
@@ -367,6 +367,10 @@ def alternative_analyses(project: Project, alternatives: Sequence[Alternative],
     for alt in alternatives:
         if done is not None and done.project == project.with_plies(alt.plies):
             yield done
+        elif alt in project.alternatives:  # its problems named where the file holds them
+            with named_under(f"alternatives[{project.alternatives.index(alt)}]"):
+                made = evaluator.analyse(alt.plies)
+            yield made
         else:
             yield evaluator.analyse(alt.plies)
 
