@@ -13,6 +13,7 @@ from reportlab.lib.units import mm
 from reportlab.platypus import CondPageBreak, KeepTogether, Spacer, Table
 
 from ..design.check import governing
+from ..io.project_file import dumps
 from ..model.caution import ASSUMPTIONS, CAUTION, FIRE_NOTE
 from ..model.materials import NUMBER_KEYS, Material
 from ..model.project import Project
@@ -23,6 +24,7 @@ from .checks import checks_section, place
 from .derive import symbol_text
 from .description import member_description
 from .drawings import profile_drawing, section_drawing
+from .fonts import undrawn
 from .layout import BODY, CAUTION_STYLE, EQ, FONT, H1, H2, SMALL, para, table
 from .loads import beam_section
 from .member import elevation_block, segments_block, staged_block, transfer_block
@@ -77,6 +79,13 @@ def _basis(a: Analysis, u: str) -> list[Any]:
                  f"{'yes' if d.compression_edge_braced else 'no'}.", BODY),
             para("Assumptions:", BODY)]
     out += [para("\u2022 " + text, BODY) for text in assumptions(a.section, ASSUMPTIONS)]
+    missing = undrawn(dumps(a.project))
+    if missing:
+        codes = ", ".join(f"U+{ord(c):04X}" for c in missing[:12])
+        more = f" and {len(missing) - 12} more" if len(missing) > 12 else ""
+        out.append(para("\u2022 The sheet's font cannot draw some characters of the "
+                        f"project's text ({codes}{more}): each is written as [U+...], its "
+                        "Unicode code point; the project file holds the text as typed.", BODY))
     if a.warnings:
         out.append(para("Warnings:", BODY))
         out += [para("\u2022 " + words(str(w)), BODY) for w in a.warnings]

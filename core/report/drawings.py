@@ -11,7 +11,7 @@ import math
 from collections.abc import Sequence
 
 import numpy as np
-from reportlab.graphics.shapes import Drawing, Group, Line, Polygon, PolyLine, Rect, String
+from reportlab.graphics.shapes import Drawing, Group, Line, Polygon, PolyLine, Rect
 from reportlab.lib import colors
 from reportlab.lib.units import mm
 from reportlab.pdfbase.pdfmetrics import stringWidth
@@ -20,9 +20,10 @@ from shapely.geometry import Polygon as ShapelyPolygon
 
 from ..model.units import sig, to_display, unit_label
 from ..section.transformed import Section
+from .fonts import FONT
+from .fonts import drawn_string as String
 from .numbers import num
 
-FONT = "PlyStackSans"
 TIMBER = colors.Color(0.93, 0.86, 0.72)
 GRAIN = colors.Color(0.55, 0.42, 0.25)
 STEEL = colors.Color(0.30, 0.32, 0.36)

@@ -13,7 +13,7 @@ from __future__ import annotations
 from collections.abc import Sequence
 from dataclasses import dataclass
 
-from reportlab.graphics.shapes import Circle, Drawing, Line, Polygon, Rect, String
+from reportlab.graphics.shapes import Circle, Drawing, Line, Polygon, Rect
 from reportlab.lib import colors
 from reportlab.lib.units import mm
 from reportlab.pdfbase.pdfmetrics import stringWidth
@@ -22,7 +22,9 @@ from ..design.bolt_layout import BoltLayout
 from ..model.member import CASES, BeamSpec, Load
 from ..model.openings import Notch
 from ..pipeline import Analysis
-from .drawings import FONT, STEEL, TIMBER, new_drawing
+from .drawings import STEEL, TIMBER, new_drawing
+from .fonts import FONT
+from .fonts import drawn_string as String
 from .numbers import exact, feet_inches, q
 
 LEFT, RIGHT = 30 * mm, 8 * mm

@@ -20,8 +20,10 @@ from reportlab.pdfbase.pdfmetrics import stringWidth as _string_width
 from reportlab.platypus import Flowable, Paragraph, Table, TableStyle
 from reportlab.platypus.paragraph import split as _paragraph_words
 
-FONT = "PlyStackSans"
-BOLD = "PlyStackSans-Bold"
+from .fonts import BOLD as BOLD
+from .fonts import FONT as FONT
+from .fonts import drawable
+
 BODY = ParagraphStyle("body", fontName=FONT, fontSize=8.5, leading=11)
 SMALL = ParagraphStyle("small", fontName=FONT, fontSize=7, leading=9)
 EQ = ParagraphStyle("eq", fontName=FONT, fontSize=8, leading=10.5, leftIndent=6 * mm,
@@ -109,6 +111,7 @@ class TextLine(Flowable):  # type: ignore[misc]
     """
 
     def __init__(self, text: str, style: ParagraphStyle) -> None:
+        text = drawable(text)
         self.text = text
         self.style = style
         self.encoding = "utf8"

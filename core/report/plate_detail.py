@@ -14,7 +14,7 @@ from collections.abc import Sequence
 from dataclasses import dataclass
 from typing import Any
 
-from reportlab.graphics.shapes import Circle, Drawing, Group, Line, Rect, String
+from reportlab.graphics.shapes import Circle, Drawing, Group, Line, Rect
 from reportlab.lib import colors
 from reportlab.lib.units import mm
 from reportlab.pdfbase.pdfmetrics import stringWidth
@@ -26,8 +26,10 @@ from ..design.net_section import hole_diameter
 from ..pipeline import Analysis
 from .connections import plate_layouts
 from .description import inch_text, member_description, mm_text
-from .drawings import FONT, STEEL, TIMBER, new_drawing
+from .drawings import STEEL, TIMBER, new_drawing
 from .elevation import position_text
+from .fonts import FONT
+from .fonts import drawn_string as String
 from .layout import BODY, H1, H2, SMALL, para, table
 from .numbers import feet_inches
 

@@ -35,8 +35,9 @@ from ..study.schedule import (
     mass_text,
     plates_text,
 )
+from .fonts import drawable, register_fonts
 from .layout import BODY, CAUTION_STYLE, FONT, H1, H2, SMALL
-from .sheet import _register_fonts, build_sheet
+from .sheet import build_sheet
 
 COMBINED = "schedule.pdf"
 RED = colors.Color(1.0, 0.84, 0.84)
@@ -70,7 +71,7 @@ def evaluate_with_sheet(job: MemberJob) -> MemberResult:
 
 
 def _esc(text: str) -> str:
-    return text.replace("&", "&amp;").replace("<", "&lt;").replace(">", "&gt;")
+    return drawable(text).replace("&", "&amp;").replace("<", "&lt;").replace(">", "&gt;")
 
 
 def _p(text: str, style: ParagraphStyle = CELL) -> Paragraph:
@@ -145,7 +146,7 @@ def summary_story(results: Sequence[MemberResult], title: str, width: float,
 
 def _summary_pdf(results: Sequence[MemberResult], title: str, paper: str,
                  first_pages: dict[int, int]) -> bytes:
-    _register_fonts()
+    register_fonts()
     size = landscape(LETTER if paper == "letter" else A4)
     buffer = io.BytesIO()
     doc = SimpleDocTemplate(buffer, pagesize=size, leftMargin=12 * mm, rightMargin=12 * mm,
@@ -156,7 +157,7 @@ def _summary_pdf(results: Sequence[MemberResult], title: str, paper: str,
         canvas.saveState()
         canvas.setFont(FONT, 7.5)
         canvas.drawString(12 * mm, 7 * mm, f"Plystack {__version__} \u2014 member schedule "
-                          f"{title} \u2014 summary page {document.page}")
+                          f"{drawable(title)} \u2014 summary page {document.page}")
         canvas.restoreState()
 
     doc.build(summary_story(results, title, size[0] - 24 * mm, first_pages),

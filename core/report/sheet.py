@@ -23,37 +23,29 @@ from reportlab.lib.pagesizes import A4, LETTER
 from reportlab.lib.units import mm
 from reportlab.lib.utils import simpleSplit
 from reportlab.pdfbase import pdfmetrics
-from reportlab.pdfbase.ttfonts import TTFont
 from reportlab.pdfgen import canvas as rl_canvas
 from reportlab.platypus import SimpleDocTemplate
 
 from .. import __version__
-from ..io.resources import read_bytes
 from ..model.caution import CAUTION
 from ..model.errors import Problem, ProjectError, named_under
 from ..model.project import Project
 from ..pipeline import Analysis, run
 from .content import story
+from .fonts import drawable, register_fonts
 
 PAPERS = {"letter": LETTER, "a4": A4}
 TITLE_BLOCK_HEIGHT = 32 * mm
 
 
-def _register_fonts() -> None:
-    if "PlyStackSans" in pdfmetrics.getRegisteredFontNames():
-        return
-    regular = read_bytes("fonts/DejaVuSans.ttf", "the sheet's font")
-    bold = read_bytes("fonts/DejaVuSans-Bold.ttf", "the sheet's bold font")
-    pdfmetrics.registerFont(TTFont("PlyStackSans", io.BytesIO(regular)))
-    pdfmetrics.registerFont(TTFont("PlyStackSans-Bold", io.BytesIO(bold)))
-    pdfmetrics.registerFontFamily("PlyStackSans", normal="PlyStackSans",
-                                  bold="PlyStackSans-Bold", italic="PlyStackSans",
-                                  boldItalic="PlyStackSans-Bold")
-
+def _fit(text: str, font: str, size: float, width: float, lines: int = 1) -> tuple[str, ...]:
+    """:func:`_fit_drawn` of the text as the font can draw it."""
+    return _fit_drawn(drawable(text), font, size, width, lines)
 
 
 @lru_cache(maxsize=256)
-def _fit(text: str, font: str, size: float, width: float, lines: int = 1) -> tuple[str, ...]:
+def _fit_drawn(text: str, font: str, size: float, width: float, lines: int = 1
+               ) -> tuple[str, ...]:
     """``text`` wrapped to at most ``lines`` lines of ``width``, the last one ellipsized
     (remembered: every page's title block sets the same texts).
     """
@@ -236,7 +228,7 @@ def build_sheet(project: Project, out: str | Path | io.BytesIO, paper: str = "le
     if paper not in PAPERS:
         raise ProjectError(Problem("--paper", f'"{paper}" must be letter or a4'))
     a = analysis_for(project, alternative)
-    _register_fonts()
+    register_fonts()
     size = PAPERS[paper]
     buffer = io.BytesIO()
     doc = SimpleDocTemplate(buffer, pagesize=size, leftMargin=15 * mm, rightMargin=15 * mm,

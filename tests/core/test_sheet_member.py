@@ -25,7 +25,8 @@ from plystack.core.pipeline import run
 from plystack.core.report.connections import plate_layouts
 from plystack.core.report.description import describe, inch_text, member_description
 from plystack.core.report.elevation import LEFT, RIGHT, elevation_drawing
-from plystack.core.report.sheet import _register_fonts, build_sheet
+from plystack.core.report.fonts import register_fonts as _register_fonts
+from plystack.core.report.sheet import build_sheet
 
 DEMO = Path(__file__).resolve().parents[2] / "assets" / "demo"
 US, EU = DEMO / "porch-header.plystack.json", DEMO / "stair-trimmer-eu.plystack.json"

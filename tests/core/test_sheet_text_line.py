@@ -18,6 +18,7 @@ from reportlab.pdfgen.canvas import Canvas
 from reportlab.platypus import Paragraph, SimpleDocTemplate, Table
 
 from plystack.core.report import layout
+from plystack.core.report.fonts import register_fonts as _register_fonts
 from plystack.core.report.layout import (
     BODY,
     CAUTION_STYLE,
@@ -29,7 +30,6 @@ from plystack.core.report.layout import (
     TextLine,
     esc,
 )
-from plystack.core.report.sheet import _register_fonts
 
 TEXTS = [
     "Assumptions:",
