@@ -15,17 +15,18 @@ class ToolActions:
     """Auto-size, longest span, and the Edit menu's ply edits."""
 
     def auto_size_selected(self) -> None:
-        """Smallest stock plate thickness of the selected ply that passes."""
+        """Smallest stock thickness of the selected ply that passes (plate thicknesses
+        for steel, timber thicknesses for timber).
+        """
         from plystack.app.dialogs import StudyProgress
-        from plystack.core.section.templates import PLATES_SI, PLATES_US
-        from plystack.core.study.compare import Stopped, auto_size, with_dimension
+        from plystack.core.study.compare import Stopped, auto_size, width_options, with_dimension
 
         i = self.canvas.selected  # type: ignore[attr-defined]
         p = self.document.project  # type: ignore[attr-defined]
         if i is None:
             self.inform("Auto-size", "Select a ply first.")  # type: ignore[attr-defined]
             return
-        options = list((PLATES_US if p.display_units == "US" else PLATES_SI).values())
+        options = width_options(p, p.plies[i].name)
         progress = StudyProgress(self, "Auto-size", "Trying stock thicknesses\u2026")  # type: ignore[arg-type]
         try:
             try:

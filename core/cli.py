@@ -240,14 +240,13 @@ def cmd_sweep(args: argparse.Namespace) -> int:
 def cmd_size(args: argparse.Namespace) -> int:
     """``plystack size``: exit 1 when no option passes."""
     from .model import units
-    from .section.templates import PLATES_SI, PLATES_US
-    from .study.compare import auto_size, incomplete_note, ply_index
+    from .study.compare import auto_size, incomplete_note, ply_index, width_options
 
     project = _load(args.file)
     if args.values is not None:
         options = _values(args.values, "--values")
     elif args.dimension == "width":
-        options = list((PLATES_US if project.display_units == "US" else PLATES_SI).values())
+        options = width_options(project, args.ply)
     else:
         ply = project.plies[ply_index(project.plies, args.ply)]
         step = 0.0127 if project.display_units == "US" else 0.01

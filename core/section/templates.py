@@ -1,8 +1,9 @@
 """Section templates: common built-up sections from nominal lumber sizes and stock plates.
 
 Dressed sizes of US dimension lumber (common practice): nominal 2x4 ... 2x12 are 1.5 in
-thick and 3.5, 5.5, 7.25, 9.25, 11.25 in deep. Metric sawn sizes are common European
-stock (mm). Stock plate thicknesses: 1/4 ... 3/4 in; 6 ... 20 mm (common practice).
+thick and 3.5, 5.5, 7.25, 9.25, 11.25 in deep; nominal 3x and 4x are 2.5 and 3.5 in
+thick. Metric sawn sizes are common European stock (mm). Stock plate thicknesses: 1/4
+... 3/4 in; 6 ... 20 mm (common practice).
 """
 
 from __future__ import annotations
@@ -28,6 +29,10 @@ LUMBER_SI: dict[str, tuple[float, float]] = {
     "47x225": (47 * MM, 225 * MM), "63x225": (63 * MM, 225 * MM),
     "75x225": (75 * MM, 225 * MM), "75x250": (75 * MM, 250 * MM),
 }
+#: Stock thicknesses of a timber ply (what ``size`` tries for a timber ply's width), m:
+#: dressed nominal 2x, 3x, 4x (common practice); the European sawn thicknesses above.
+TIMBER_THICKNESSES_US = (1.5 * IN, 2.5 * IN, 3.5 * IN)
+TIMBER_THICKNESSES_SI = tuple(sorted({t for t, _d in LUMBER_SI.values()}))
 PLATES_US = {"1/4 in": 0.25 * IN, "5/16 in": 0.3125 * IN, "3/8 in": 0.375 * IN,
              "1/2 in": 0.5 * IN, "5/8 in": 0.625 * IN, "3/4 in": 0.75 * IN}
 PLATES_SI = {"6 mm": 6 * MM, "8 mm": 8 * MM, "10 mm": 10 * MM, "12 mm": 12 * MM,

@@ -144,6 +144,26 @@ def with_dimension(plies: Sequence[Ply], name: str, dimension: str, value: float
     return tuple(out)
 
 
+def width_options(project: Project, name: str) -> list[float]:
+    """The stock widths ``size`` tries for a ply, in the project's units: plate
+    thicknesses for steel (and any ply not of timber), dressed or sawn timber thicknesses
+    for timber (section/templates).
+    """
+    from ..section.templates import (
+        PLATES_SI,
+        PLATES_US,
+        TIMBER_THICKNESSES_SI,
+        TIMBER_THICKNESSES_US,
+    )
+
+    ply = project.plies[ply_index(project.plies, name)]
+    material = project.all_materials().get(ply.material)
+    us = project.display_units == "US"
+    if material is not None and material.kind == "timber":
+        return list(TIMBER_THICKNESSES_US if us else TIMBER_THICKNESSES_SI)
+    return list((PLATES_US if us else PLATES_SI).values())
+
+
 def ply_index(plies: Sequence[Ply], name: str) -> int:
     """Index of the ply called ``name``."""
     for i, p in enumerate(plies):

@@ -181,3 +181,21 @@ def test_alternatives_on_one_evaluator_equal_each_run_alone():
         alone = run(project.with_plies(alt.plies))
         assert repr(a.checks) == repr(alone.checks) and repr(a.warnings) == repr(alone.warnings)
         assert a.section.EI == alone.section.EI
+
+
+def test_size_tries_timber_thicknesses_for_a_timber_ply(capsys):
+    """Dressed 2x, 3x, 4x thicknesses (1.5, 2.5, 3.5 in, common practice) for a timber
+    ply's width, stock plate thicknesses for a plate's; the demo's 2x10 passes at its own
+    1.5 in (it found no plate thickness that passes before).
+    """
+    from plystack.core.study.compare import width_options
+
+    p = load(DEMO)
+    inch = 0.0254  # exact by definition
+    assert width_options(p, "left 2x10") == [1.5 * inch, 2.5 * inch, 3.5 * inch]
+    assert width_options(p, "flitch plate")[:3] == [0.25 * inch, 0.3125 * inch, 0.375 * inch]
+    eu = load(DEMO.parent / "stair-trimmer-eu.plystack.json")
+    assert width_options(eu, "left joist") == [0.045, 0.047, 0.063, 0.075]
+    assert main(["size", str(DEMO), "--ply", "left 2x10", "--json"]) == 0
+    out = json.loads(capsys.readouterr().out)
+    assert out["value"] == 1.5 * inch and out["ok"] is True
