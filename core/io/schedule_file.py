@@ -191,14 +191,27 @@ def prepare(schedule: Schedule, with_check: bool = False,
     bases: dict[Path, Any] = {}
     out: list[MemberJob | MemberResult] = []
     names: set[str] = set()
+    marked: dict[str, int] = {}
     for r in schedule.rows:
         mark, base, alt = r.get(MARK), r.get(BASE), r.get(ALTERNATIVE) or None
         problems = []
         if r.extra:
             problems.append(RowProblem(r.row, None, f"has {len(r.extra)} more cells than the "
                                        "header has columns"))
+        problems += [RowProblem(r.row, c, "holds a control character (such as NUL); the "
+                                "cell must be plain text")
+                     for c, v in r.cells if any(ord(ch) < 32 and ch not in "\t" for ch in v)]
+        if problems:  # a cell that is no text is not looked at further (nor echoed raw)
+            out.append(failed(r.row, _printable(mark), _printable(base),
+                              None if alt is None else _printable(alt), problems))
+            continue
         if not mark:
             problems.append(RowProblem(r.row, MARK, "is empty; every member needs a mark"))
+        elif mark in marked:
+            problems.append(RowProblem(r.row, MARK, f'"{mark}" is the mark of row '
+                                       f"{marked[mark]}; every member needs its own mark"))
+        else:
+            marked[mark] = r.row
         changes = tuple((c, v) for c, v in r.cells if c not in RESERVED)
         for column, _value in changes:
             try:
@@ -223,6 +236,12 @@ def prepare(schedule: Schedule, with_check: bool = False,
             sheet = str(sheets / _sheet_name(mark, r.row, names))
         out.append(MemberJob(r.row, mark, base, alt, changes, data, with_check, sheet))
     return out
+
+
+def _printable(text: str | None) -> str:
+    """``text`` with each control character written as backslash, x and two hex digits."""
+    return "".join(f"\\x{ord(c):02x}" if ord(c) < 32 and c != "\t" else c
+                   for c in text or "")
 
 
 def _base(path: Path, cache: dict[Path, Any]) -> Any:

@@ -51,7 +51,8 @@ def materials(draw: st.DrawFn) -> dict[str, Material]:
 @st.composite
 def plies(draw: st.DrawFn, material_ids: list[str]) -> tuple[Ply, ...]:
     n = draw(st.integers(1, 4))
-    names = draw(st.lists(words, min_size=n, max_size=n, unique=True))
+    # every ply has a name (the reader refuses a blank one)
+    names = draw(st.lists(words.filter(str.strip), min_size=n, max_size=n, unique=True))
     return tuple(Ply(name, draw(st.sampled_from(material_ids)), draw(position),
                      draw(position), draw(positive_length), draw(positive_length))
                  for name in names)

@@ -475,3 +475,26 @@ def test_demo_members_without_overrides_equal_check_of_the_demo_files(capsys):
         member = {k: v for k, v in by_mark[mark].items()
                   if "verdict" in expected or k != "verdict"}
         assert _as_check(member) == expected
+
+
+def test_a_mark_used_twice_fails_the_later_row(tmp_path, capsys):
+    (tmp_path / "porch-header.plystack.json").write_text(
+        (DEMO / "porch-header.plystack.json").read_text())
+    path = _csv(tmp_path, "mark,base\nH-1,porch-header.plystack.json\n"
+                "H-2,porch-header.plystack.json\nH-1,porch-header.plystack.json\n")
+    code, rows = _schedule_json(capsys, path)
+    assert code == 1
+    assert [r["ran"] for r in rows] == [True, True, False]
+    assert rows[2]["problems"] == [{"row": 4, "column": "mark", "message": '"H-1" is the '
+                                    "mark of row 2; every member needs its own mark"}]
+
+
+def test_a_nul_in_a_cell_is_named_and_not_echoed_raw(tmp_path, capsys):
+    path = _csv(tmp_path, "mark,base\nH-1,\x00porch-header.plystack.json\n")
+    out = tmp_path / "results.csv"
+    assert main(["schedule", str(path), "-o", str(out), "--jobs", "1"]) == 1
+    err = capsys.readouterr().err
+    assert ("row 2, column base: holds a control character (such as NUL); the cell must be "
+            "plain text") in err
+    text = out.read_text()
+    assert "\x00" not in text and "\\x00porch-header.plystack.json" in text
