@@ -160,7 +160,8 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
                              f"lambda_LT = {lam:.3f}; {bracing.note} (from memory)"},
                     equation="sigma_Ed <= chi_LT f_y / gamma_M (EN 1993-1-1 6.2.1(5), "
                     "6.3.2, elastic)",
-                    location="" if bracing.L_b is None else f"L_b = {bracing.L_b:.4g} m",
+                    location="" if bracing.L_b is None else
+                    f"L_b = {fmt(bracing.L_b, 'span', project.display_units)}",
                     x=d.x, notes=(f"{bracing.note}; demand {d.state} (final: timber E_mean / "
                                   "(1 + psi2 k_def), EN 1995-1-1 2.3.2.2(2)).",)))
                 fs = {"1/sqrt(3)": 1 / math.sqrt(3)}

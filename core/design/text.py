@@ -33,7 +33,8 @@ COMBINATION_WIDTH = 30
 
 def _where(c: Check) -> str:
     """The check's ply and place; a splitting check names its timber first (its place
-    is long and wraps)."""
+    is long and wraps).
+    """
     where = c.ply or c.location
     if c.ply and c.location and c.id == "splitting":
         where = f"{c.ply}, {c.location}"

@@ -133,7 +133,7 @@ def _steel_checks(i: int, section: Section, beam: BeamResult, design: DesignSpec
     out = []
     bracing = plate_bracing(section, i, design, joints)
     allow, governs = us_plate_allowable(Fy, mat.E, ply.height, ply.width, bracing.L_b)
-    lb_text = "braced" if bracing.L_b is None else f"L_b = {bracing.L_b:.4g} m"
+    lb_text = "braced" if bracing.L_b is None else f"L_b = {fmt(bracing.L_b, 'span', system)}"
     if design.steel_rule == "AISC-F11":
         ratio = allow * aisc.OMEGA_B / Fy
         f: dict[str, float] = {"Z/S": 1.5} if bracing.L_b is None or ratio >= 1.5 else {

@@ -77,7 +77,7 @@ def _at(raw: Any, path: str, layout: BeamLayout,
 
 
 def read_notches(raw: Any, path: str, layout: BeamLayout,
-                 problems: list[Problem]) -> tuple[Notch, ...]:
+                 problems: list[Problem], system: str = "SI") -> tuple[Notch, ...]:
     """The beam's notches."""
     out = []
     for p, rec in _records(raw, path, NOTCH_KEYS, ("at", "face", "depth", "length"),
@@ -91,7 +91,7 @@ def read_notches(raw: Any, path: str, layout: BeamLayout,
         if len(problems) > before or x is None or depth is None or length is None:
             continue
         notch = Notch(x, face, depth, length, support, plies)
-        probs = validate_opening(notch, layout.length, p)
+        probs = validate_opening(notch, layout.length, p, system)
         problems.extend(probs)
         if not probs:
             out.append(notch)
@@ -99,7 +99,7 @@ def read_notches(raw: Any, path: str, layout: BeamLayout,
 
 
 def read_holes(raw: Any, path: str, layout: BeamLayout,
-               problems: list[Problem]) -> tuple[Hole, ...]:
+               problems: list[Problem], system: str = "SI") -> tuple[Hole, ...]:
     """The beam's holes."""
     out = []
     for p, rec in _records(raw, path, HOLE_KEYS, ("at", "y", "diameter"), problems):
@@ -111,7 +111,7 @@ def read_holes(raw: Any, path: str, layout: BeamLayout,
         if len(problems) > before or x is None or y is None or d is None:
             continue
         hole = Hole(x, y, d, plies)
-        probs = validate_opening(hole, layout.length, p)
+        probs = validate_opening(hole, layout.length, p, system)
         problems.extend(probs)
         if not probs:
             out.append(hole)

@@ -206,9 +206,10 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
             alternatives.append(Alternative(alt["name"], read_plies(
                 alt.get("plies", []), f"{p}.plies", known, problems)))
     problems.extend(_combination_kinds(beam_spec, design))
-    problems.extend(extent_problems(plies, "plies", beam_spec))
+    problems.extend(extent_problems(plies, "plies", beam_spec, units))
     for i, alt_ in enumerate(alternatives):
-        problems.extend(extent_problems(alt_.plies, f"alternatives[{i}].plies", beam_spec))
+        problems.extend(extent_problems(alt_.plies, f"alternatives[{i}].plies", beam_spec,
+                                        units))
     current = data.get("current_alternative")
     if current is not None and not isinstance(current, str):
         problems.append(Problem("current_alternative", "must be text (an alternative's name)"))
@@ -221,8 +222,11 @@ def from_dict(data: Any, library: Mapping[str, Material] | None = None) -> Proje
                    library=lib)
 
 
-def extent_problems(plies: Sequence[Ply], path: str, beam: BeamSpec | None) -> list[Problem]:
-    """Named problems of the plies' "from" / "to" along the member."""
+def extent_problems(plies: Sequence[Ply], path: str, beam: BeamSpec | None,
+                    system: str = "SI") -> list[Problem]:
+    """Named problems of the plies' "from" / "to" along the member (lengths in the
+    messages in the display units of ``system``).
+    """
     out: list[Problem] = []
     for i, ply in enumerate(plies):
         p = f"{path}[{i}]"
@@ -230,7 +234,7 @@ def extent_problems(plies: Sequence[Ply], path: str, beam: BeamSpec | None) -> l
             out += [Problem(f"{p}.{k}", "needs a beam (positions along the member)")
                     for k, v in (("from", ply.start), ("to", ply.end)) if v is not None]
         else:
-            out += validate_extent(ply, beam.layout.length, p)
+            out += validate_extent(ply, beam.layout.length, p, system)
     return out
 
 

@@ -229,8 +229,9 @@ def read_beam(raw: Any, path: str, problems: list[Problem], system: str = "SI"
     hold_down = None
     if "hold_down" in raw:
         hold_down = _positive(raw["hold_down"], "force", f"{path}.hold_down", problems)
-    notches = read_notches(raw.get("notches", []), f"{path}.notches", layout, problems)
-    holes = read_holes(raw.get("holes", []), f"{path}.holes", layout, problems)
+    notches = read_notches(raw.get("notches", []), f"{path}.notches", layout, problems,
+                           system)
+    holes = read_holes(raw.get("holes", []), f"{path}.holes", layout, problems, system)
     if len(problems) > before:
         return None
     return BeamSpec(layout, loads, self_weight, bearing, combos, frac, pattern, hold_down,

@@ -11,6 +11,7 @@ import math
 from dataclasses import dataclass
 
 from .errors import Problem
+from .units import fmt
 
 FACES = ("bottom", "top")
 
@@ -56,7 +57,8 @@ class Hole:
     plies: tuple[str, ...] = ()
 
 
-def validate_opening(item: Notch | Hole, length: float, path: str) -> list[Problem]:
+def validate_opening(item: Notch | Hole, length: float, path: str, system: str = "SI"
+                     ) -> list[Problem]:
     """Named problems of a notch's or hole's numbers."""
     problems = []
     sizes = ("depth", "length") if isinstance(item, Notch) else ("diameter",)
@@ -69,5 +71,6 @@ def validate_opening(item: Notch | Hole, length: float, path: str) -> list[Probl
                                 + ", ".join(FACES)))
     tol = 1e-9 * max(length, 1.0)
     if not math.isfinite(item.x) or not -tol <= item.x <= length + tol:
-        problems.append(Problem(f"{path}.at", f"is outside the member (0 to {length:.4g} m)"))
+        problems.append(Problem(f"{path}.at", "is outside the member (0 to "
+                                f"{fmt(length, 'span', system)})"))
     return problems

@@ -11,6 +11,7 @@ from dataclasses import dataclass, replace
 from shapely.geometry import Polygon, box
 
 from .errors import Problem
+from .units import fmt
 
 #: Ply ends closer than this fraction of the member length to each other or to the
 #: member's ends are taken as the same position (the beam's node tolerance).
@@ -94,7 +95,7 @@ def validate_ply(ply: Ply, path: str) -> list[Problem]:
 PLY_STAGES = ("existing", "added")
 
 
-def validate_extent(ply: Ply, length: float, path: str) -> list[Problem]:
+def validate_extent(ply: Ply, length: float, path: str, system: str = "SI") -> list[Problem]:
     """Named problems of a ply's extent along a member of ``length`` (its "from"/"to")."""
     problems = []
     tol = EXTENT_TOLERANCE * max(length, 1.0)
@@ -105,7 +106,7 @@ def validate_extent(ply: Ply, length: float, path: str) -> list[Problem]:
             problems.append(Problem(f"{path}.{field}", "is not a finite number"))
         elif not -tol <= value <= length + tol:
             problems.append(Problem(f"{path}.{field}", f"is outside the member (0 to "
-                                    f"{length:.4g} m)"))
+                                    f"{fmt(length, 'span', system)})"))
     if problems or (ply.start is None and ply.end is None):
         return problems
     a, b = ply.extent(length)

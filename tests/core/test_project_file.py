@@ -84,7 +84,12 @@ def test_failed_save_keeps_old_file(tmp_path, monkeypatch):
     (lambda d: d["beam"].update(supports="hinged"), 'beam.supports: "hinged" is not one of'),
     (lambda d: d["beam"].update(spans=["10 ft", "10 ft"], supports="propped"),
      'beam.supports: "propped" needs exactly one span'),
-    (lambda d: d["beam"]["loads"][2].update(at="40 ft"), "beam.loads[2].at: is outside the member"),
+    (lambda d: d["beam"]["loads"][2].update(at="40 ft"),
+     "beam.loads[2].at: is outside the member (0 to 12.00 ft)"),  # the file's units
+    (lambda d: d["plies"][1].update({"from": "20 ft"}),
+     "plies[1].from: is outside the member (0 to 12.00 ft)"),
+    (lambda d: d["beam"].update(holes=[{"diameter": "1 in", "at": "30 ft", "y": "4 in"}]),
+     "beam.holes[0].at: is outside the member (0 to 12.00 ft)"),
     (lambda d: d["beam"]["loads"][0].update(case="X"),
      'beam.loads[0].case: "X" is not a load case'),
     (lambda d: d["beam"]["loads"][0].update(value="40 psi m"), "beam.loads[0].value"),
