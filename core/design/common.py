@@ -62,10 +62,19 @@ def unit_shear_stress(section: Section) -> np.ndarray:
 
 
 def _unit_shear_stress(section: Section) -> np.ndarray:
+    """The largest |tau| of each ply for V = 1 N, over cuts at every ply edge, just
+    inside every ply edge, at the neutral axis and at 41 heights evenly over the depth.
+    """
     lo = float(section.y_bottom.min())
     hi = float(section.y_top.max())
+    # a cut exactly at an interface is shared by the plies on both sides of it, which
+    # splits the part of the plies wholly beyond the cut between them; the cuts one unit
+    # in the last place inside each ply's edges give each ply its own value there (the
+    # largest of a ply below the neutral axis with a ply wholly below it is at its top
+    # edge, of one above the neutral axis with a ply wholly above it at its bottom edge)
+    inside = [np.nextafter(section.y_top, -np.inf), np.nextafter(section.y_bottom, np.inf)]
     ys = np.sort(np.concatenate([np.linspace(lo, hi, 41), section.y_bottom, section.y_top,
-                                 [section.neutral_axis_y]]))
+                                 *inside, [section.neutral_axis_y]]))
     ys = ys[np.concatenate(([True], ys[1:] != ys[:-1]))]  # np.unique's, without numpy.ma
     tau = np.abs(section.shear_stress(1.0, ys))
     out = np.asarray(np.where(np.isfinite(tau), tau, 0.0).max(axis=1))  # no NaN is left
