@@ -53,7 +53,7 @@ def test_side_by_side_plies_keep_their_value_at_the_neutral_axis():
     y_na = sec.neutral_axis_y
     exact = abs(sec.shear_stress(1.0, [y_na]))[:, 0]
     # a flitch beam's largest is at the NA (a cut beside it may round one ulp higher)
-    assert all(t >= e and math.isclose(t, e, rel_tol=1e-14) for t, e in zip(tau, exact))
+    assert all(t >= e and math.isclose(t, e, rel_tol=1e-14) for t, e in zip(tau, exact, strict=True))
 
 
 @pytest.mark.parametrize("heights", [(0.05, 0.05, 0.2), (0.2, 0.05, 0.05), (0.1, 0.1, 0.1)])
