@@ -61,9 +61,10 @@ def unit_shear_stress(section: Section) -> np.ndarray:
     return once(section, "unit_shear_stress", lambda: _unit_shear_stress(section))
 
 
-def _unit_shear_stress(section: Section) -> np.ndarray:
-    """The largest |tau| of each ply for V = 1 N, over cuts at every ply edge, just
-    inside every ply edge, at the neutral axis and at 41 heights evenly over the depth.
+def shear_cuts(section: Section) -> np.ndarray:
+    """The heights at which a ply's largest shear stress is sought, sorted and each once:
+    every ply edge, just inside every ply edge, the neutral axis and 41 heights evenly
+    over the depth (the checks and the sheet's derivations use the same cuts).
     """
     lo = float(section.y_bottom.min())
     hi = float(section.y_top.max())
@@ -75,11 +76,29 @@ def _unit_shear_stress(section: Section) -> np.ndarray:
     inside = [np.nextafter(section.y_top, -np.inf), np.nextafter(section.y_bottom, np.inf)]
     ys = np.sort(np.concatenate([np.linspace(lo, hi, 41), section.y_bottom, section.y_top,
                                  *inside, [section.neutral_axis_y]]))
-    ys = ys[np.concatenate(([True], ys[1:] != ys[:-1]))]  # np.unique's, without numpy.ma
-    tau = np.abs(section.shear_stress(1.0, ys))
-    out = np.asarray(np.where(np.isfinite(tau), tau, 0.0).max(axis=1))  # no NaN is left
+    return ys[np.concatenate(([True], ys[1:] != ys[:-1]))]  # np.unique's, without numpy.ma
+
+
+def _unit_shear(section: Section) -> np.ndarray:
+    """|tau| of every ply at every cut of :func:`shear_cuts` for V = 1 N (0 outside it)."""
+    tau = np.abs(section.shear_stress(1.0, shear_cuts(section)))
+    return np.where(np.isfinite(tau), tau, 0.0)
+
+
+def _unit_shear_stress(section: Section) -> np.ndarray:
+    """The largest |tau| of each ply for V = 1 N over :func:`shear_cuts`."""
+    out = np.asarray(_unit_shear(section).max(axis=1))  # no NaN is left
     out.setflags(write=False)
     return out
+
+
+def shear_point(section: Section, i: int) -> tuple[float, float]:
+    """Height of the largest shear stress in ply i and its value per newton of V (the
+    cuts and the value of :func:`unit_shear_stress`).
+    """
+    tau = _unit_shear(section)[i]
+    k = int(np.argmax(tau))
+    return float(shear_cuts(section)[k]), float(tau[k])
 
 
 def region_span(name: str, x0: float, x1: float) -> float:

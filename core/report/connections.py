@@ -16,7 +16,7 @@ import numpy as np
 from ..actions.analysis import CombinationResult
 from ..design.bolt_layout import BoltLayout
 from ..design.check import Check
-from ..design.common import Joint, plate_share
+from ..design.common import Joint, plate_share, shear_point
 from ..design.net_section import hole_diameter, modulus_loss, net_section, net_shear
 from ..design.transfer import (
     StationDemand,
@@ -27,7 +27,6 @@ from ..design.transfer import (
     without_plates,
 )
 from ..pipeline import Analysis
-from ..section.transformed import Section
 from .numbers import NBSP, TIMES, num, q
 
 IN = 5
@@ -127,16 +126,6 @@ def transfer_text(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     return where, demand
 
 
-def _shear_point(s: Section, i: int) -> tuple[float, float]:
-    lo, hi = float(s.y_bottom.min()), float(s.y_top.max())
-    ys = np.unique(np.concatenate([np.linspace(lo, hi, 41), s.y_bottom, s.y_top,
-                                   [s.neutral_axis_y]]))
-    tau = np.abs(s.shear_stress(1.0, ys))[i]
-    tau = np.where(np.isfinite(tau), tau, 0.0)
-    k = int(np.argmax(tau))
-    return float(ys[k]), float(tau[k])
-
-
 def support_shear_text(a: Analysis, c: Check, u: str, sym: str) -> tuple[list[str], str]:
     """A timber's shear beside a support the plate does not bear on."""
     beam = a.beam
@@ -145,7 +134,7 @@ def support_shear_text(a: Analysis, c: Check, u: str, sym: str) -> tuple[list[st
     V = support_shear(beam, _combo(a, c), k)
     s = without_plates(a.section)
     i = next(j for j, p in enumerate(s.plies) if p.name == c.ply)
-    y, tau1 = _shear_point(s, i)
+    y, tau1 = shear_point(s, i)
     b = float(s.profiles[i].width_inside(np.array([y]))[0])
     n = float(s.n[i])
     Q = tau1 * s.I_transformed * b / n

@@ -24,7 +24,7 @@ from ..actions.extremes import element_polynomials
 from ..actions.patterns import region_parts
 from ..design.bearing import bearing_sites, bearing_surface, en_effective_length
 from ..design.check import Check
-from ..design.common import side_by_side_joints
+from ..design.common import shear_point, side_by_side_joints
 from ..design.demands import PlyDemand, eu_uls_section, ply_demands
 from ..model.combination import EN1990_PSI
 from ..pipeline import Analysis
@@ -407,19 +407,6 @@ def _bending_creep_us(a: Analysis, c: Check, u: str, combo: CombinationResult, d
               f"({q(M, 'moment', u, IN)} \u2212 {q(Ms, 'moment', u, IN)}) {TIMES} {mf} "
               f"{TIMES} {L(c0)} / {q_den(I0, 'second_moment', u, IN)} = {result(c, u)}")
     return where, demand
-
-
-def shear_point(s: Section, i: int) -> tuple[float, float]:
-    """Height of the largest shear stress in ply i and its value per newton of V (the
-    same stations as the design checks use).
-    """
-    lo, hi = float(s.y_bottom.min()), float(s.y_top.max())
-    ys = np.unique(np.concatenate([np.linspace(lo, hi, 41), s.y_bottom, s.y_top,
-                                   [s.neutral_axis_y]]))
-    tau = np.abs(s.shear_stress(1.0, ys))[i]
-    tau = np.where(np.isfinite(tau), tau, 0.0)
-    k = int(np.argmax(tau))
-    return float(ys[k]), float(tau[k])
 
 
 def _shear_section(a: Analysis, c: Check, combo: CombinationResult
