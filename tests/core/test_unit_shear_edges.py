@@ -87,3 +87,37 @@ def test_three_stacked_timbers_are_one_rectangle(heights):
         at = c if lo <= c <= hi else (hi if hi < c else lo)
         assert math.isclose(float(got[k]), tau(at), rel_tol=1e-12), (k, got[k], tau(at))
         y = hi
+
+
+def test_the_sheet_derives_a_thin_ply_between_two_others():
+    """The sheet's derivation of each shear check reproduces the check (it raises where
+    it does not): a thin timber between a steel plate and a timber, whose largest shear
+    is just inside its bottom edge, above the neutral axis.
+    """
+    import io
+    from dataclasses import replace
+
+    from plystack.core.pipeline import run
+    from plystack.core.report.sheet import build_sheet
+
+    p = load(DEMO)
+    plies = (Ply("steel", "A36", 0.01, 0.0, 0.1, 0.2),
+             Ply("thin", "DFL-No2", 0.0, 0.2, 0.0381, 0.01),
+             Ply("timber", "DFL-No2", 0.01, 0.21, 0.1, 0.2))
+    q = replace(p.with_plies(plies), alternatives=())
+    s = analyse(list(plies), q.all_materials(), "DFL-No2")
+    assert 0.0 < s.neutral_axis_y < 0.2
+    # the whole shear flow above the cut passes through the thin ply: V Q / (I_t b), by
+    # hand (transformed to the timber: the steel's width times n)
+    mats = q.all_materials()
+    n_s = mats["A36"].E / mats["DFL-No2"].E
+    parts = [(n_s * 0.1 * 0.2, 0.1), (0.0381 * 0.01, 0.205), (0.1 * 0.2, 0.31)]  # (A, y_c)
+    y_na = sum(a * y for a, y in parts) / sum(a for a, _ in parts)
+    i_t = (n_s * 0.1 * 0.2 ** 3 / 12 + 0.0381 * 0.01 ** 3 / 12 + 0.1 * 0.2 ** 3 / 12
+           + sum(a * (y - y_na) ** 2 for a, y in parts))
+    Q = sum(a * (y - y_na) for a, y in parts[1:])
+    expected = Q / (i_t * 0.0381)
+    assert math.isclose(float(unit_shear_stress(s)[1]), expected, rel_tol=1e-12)
+    a = run(q)
+    assert any(c.id == "shear" and c.ply == "thin" for c in a.checks)
+    assert build_sheet(q, io.BytesIO()) > 0
