@@ -17,6 +17,7 @@ from PySide6.QtWidgets import (
     QFormLayout,
     QHBoxLayout,
     QHeaderView,
+    QLabel,
     QLineEdit,
     QPushButton,
     QScrollArea,
@@ -75,6 +76,22 @@ class ChoiceDelegate(QStyledItemDelegate):
     def setModelData(self, editor, model, index):  # type: ignore[no-untyped-def]  # noqa: D102
         model.setData(index, editor.currentText())
 
+
+
+class MessageLabel(QLabel):
+    """The panel's message: plain text, shown only while it says something."""
+
+    def __init__(self) -> None:
+        super().__init__()
+        self.setTextFormat(Qt.TextFormat.PlainText)
+        self.setWordWrap(True)
+        self.setContentsMargins(6, 4, 6, 4)
+        self.setVisible(False)
+
+    def setText(self, text: str) -> None:
+        """Show ``text``; hide the label while it is empty."""
+        super().setText(text)
+        self.setVisible(bool(text))
 
 #: The spans field's tooltip while its text is accepted.
 SPANS_TIP = 'Spans left to right, separated by commas, e.g. "12 ft" or "4 m, 5.5 m"'
@@ -173,7 +190,7 @@ class BeamPanel(QWidget):
         self.connector_rows.setKeyboardTracking(False)
         self.connector_rows.setToolTip("Connectors at each station, across the width")
         self.connector_predrilled = QCheckBox("Nails in predrilled holes")
-        self.error = plain_label("")
+        self.error = MessageLabel()
         self.error.setStyleSheet("color: #b00000")
         self.reactions = QTableWidget(0, 0)
         self._reactions_pending = False  # an analysis came while the panel was hidden
@@ -227,7 +244,6 @@ class BeamPanel(QWidget):
         layout.addWidget(plain_label("Loads (positions from the left end of the member)"))
         layout.addWidget(self.loads, 1)
         layout.addLayout(buttons)
-        layout.addWidget(self.error)
         layout.addWidget(plain_label("Reactions (upward +), per load case and per "
                                      "combination"))
         layout.addWidget(self.reactions, 1)
@@ -237,6 +253,7 @@ class BeamPanel(QWidget):
         scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
         outer = QVBoxLayout(self)
         outer.setContentsMargins(0, 0, 0, 0)
+        outer.addWidget(self.error)  # above the scrolled fields: always in view
         outer.addWidget(scroll)
         if analysis is not None:
             analysis.analysis_changed.connect(self.show_reactions)

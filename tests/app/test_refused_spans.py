@@ -25,8 +25,19 @@ def _type(window, qtbot, text: str) -> None:
     qtbot.wait(50)
 
 
+def _show_beam_tab(window, qtbot) -> None:
+    from PySide6.QtWidgets import QTabWidget
+
+    tabs = window.beam_panel.parentWidget()
+    while not isinstance(tabs, QTabWidget):
+        tabs = tabs.parentWidget()
+    tabs.setCurrentWidget(window.beam_panel)
+    qtbot.wait(20)
+
+
 def test_refused_spans_are_marked_and_leave_the_model(window, qtbot):
     panel = window.beam_panel
+    _show_beam_tab(window, qtbot)
     before = window.document.project
     cases = [
         ("0 ft", "beam.spans[0]: must be greater than zero."),
@@ -38,12 +49,15 @@ def test_refused_spans_are_marked_and_leave_the_model(window, qtbot):
     for text, expected in cases:
         _type(window, qtbot, text)
         assert panel.error.text() == f"{expected} {WAS}", text
+        assert panel.error.isVisible()  # above the scrolled fields, in view
+        assert panel.error.mapTo(panel, panel.error.rect().topLeft()).y() < \
+            panel.spans.mapTo(panel, panel.spans.rect().topLeft()).y()
         assert panel.spans.styleSheet() == BAD_STYLE
         assert panel.spans.toolTip() == panel.error.text()
         assert window.document.project == before
         assert panel.spans.text() == text  # kept to be corrected
     _type(window, qtbot, "14 ft")
-    assert panel.error.text() == ""
+    assert panel.error.text() == "" and not panel.error.isVisible()
     assert panel.spans.styleSheet() == ""
     assert panel.spans.toolTip() == SPANS_TIP
     assert window.document.project.beam.layout.spans == (units.parse("14 ft", "length", "x"),)
