@@ -153,6 +153,10 @@ def cmd_check(args: argparse.Namespace) -> int:
     project = _load(args.file)
     moment = units.parse(args.moment, "moment", "--moment") if args.moment is not None else None
     shear = units.parse(args.shear, "force", "--shear") if args.shear is not None else None
+    if args.reference is not None and args.reference not in project.all_materials():
+        used = ", ".join(dict.fromkeys(f'"{p.material}"' for p in project.plies)) or "none"
+        raise ProjectError(Problem("--reference", f'"{args.reference}" is not a material id '
+                                   f"of this project (its plies use {used})"))
     analysis = run(project, reference=args.reference)
     if args.json:
         _print_json(check_json(analysis, moment, shear))

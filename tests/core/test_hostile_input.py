@@ -218,6 +218,8 @@ def test_lone_surrogate_in_arguments_never_crashes(capsys, tmp_path):
     (["check", str(DEMO), "--moment", ""], "--moment: is empty"),
     (["check", str(DEMO), "--shear", " "], "--shear: is empty"),
     (["check", str(DEMO), "--reference", ""], "--reference: is empty"),
+    (["check", str(DEMO), "--reference", "nope"], '--reference: "nope" is not a material id '
+     'of this project (its plies use "DFL-No2", "A36")'),
     (["size", str(DEMO), "--ply", "flitch plate", "--values", ""], "--values: is empty"),
     (["sheet", str(DEMO), "-o", ""], "-o/--output: is empty"),
     (["span", str(DEMO), "--tributary-widths", "0 in, -12 in"],
