@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import argparse
 import json
+import re
 import sys
 import warnings
 from collections.abc import Callable, Iterator
@@ -26,8 +27,12 @@ if TYPE_CHECKING:
 
 class _Parser(argparse.ArgumentParser):
     def error(self, message: str) -> None:  # type: ignore[override]
+        """Usage and the message, values in double quotes as everywhere else (argparse
+        quotes choices the Python way), exit status 2.
+        """
         self.print_usage(sys.stderr)
-        print(f"plystack: {message}", file=sys.stderr)
+        quoted = re.sub(r"'([^']*)'", r'"\1"', message)
+        print(f"plystack: {quoted}", file=sys.stderr)
         raise SystemExit(2)
 
 

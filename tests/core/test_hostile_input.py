@@ -438,3 +438,14 @@ def test_thousands_of_point_loads_are_refused_by_name(tmp_path, capsys):
     assert code == 2
     assert f"at most {MAX_NODES:,}" in out + err
     assert not any(name in out + err for name in PYTHON_CLASS_NAMES)
+
+
+def test_argument_errors_quote_values_as_the_rest_does(capsys):
+    """argparse quotes choices the Python way ('width'); the command line says "width"."""
+    with pytest.raises(SystemExit) as info:
+        main(["sweep", str(DEMO), "--ply", "p", "--dimension", "depth", "--values", "1 in"])
+    assert info.value.code == 2
+    err = capsys.readouterr().err
+    assert ('plystack: argument --dimension: invalid choice: "depth" (choose from "width", '
+            '"height")') in err
+    assert "'" not in err.splitlines()[-1]
