@@ -255,11 +255,15 @@ def _shear_by_ply(section: Section, shear: float) -> list[dict[str, Any]]:
 
 
 def shear_stations(section: Section, n: int = 200) -> np.ndarray:
-    """Heights for shear profiles: a fine grid plus every ply edge and the neutral axis."""
+    """Heights for shear profiles: a fine grid plus every ply edge, just inside every ply
+    edge (a cut at an interface is shared by the plies on both sides; see
+    design/common.shear_cuts) and the neutral axis.
+    """
     lo = float(section.y_bottom.min())
     hi = float(section.y_top.max())
     ys = np.concatenate([np.linspace(lo, hi, n), section.y_bottom, section.y_top,
-                         [section.neutral_axis_y]])
+                         np.nextafter(section.y_top, -np.inf),
+                         np.nextafter(section.y_bottom, np.inf), [section.neutral_axis_y]])
     return np.unique(ys)
 
 

@@ -121,3 +121,28 @@ def test_the_sheet_derives_a_thin_ply_between_two_others():
     a = run(q)
     assert any(c.id == "shear" and c.ply == "thin" for c in a.checks)
     assert build_sheet(q, io.BytesIO()) > 0
+
+
+def test_check_shear_option_reports_a_thin_ply_whole(tmp_path, capsys):
+    """``check --shear`` lists each ply's largest shear stress with the checks' cuts: the
+    thin ply between two others gets V Q / (I_t b), not the shared interface value.
+    """
+    import json
+
+    from plystack.core.cli import main
+    from plystack.core.io.project_file import save
+
+    p = load(DEMO)
+    plies = (Ply("steel", "A36", 0.01, 0.0, 0.1, 0.2),
+             Ply("thin", "DFL-No2", 0.0, 0.2, 0.0381, 0.01),
+             Ply("timber", "DFL-No2", 0.01, 0.21, 0.1, 0.2))
+    path = tmp_path / "thin.plystack.json"
+    from dataclasses import replace
+
+    save(replace(p.with_plies(plies), alternatives=()), path)
+    assert main(["check", str(path), "--json", "--shear", "1000 N"]) in (0, 1)
+    out = json.loads(capsys.readouterr().out)
+    rows = {r["name"]: r for r in out["shear"]["plies"]}
+    s = analyse(list(plies), p.all_materials(), "DFL-No2")
+    assert math.isclose(rows["thin"]["tau_max"], 1000 * float(unit_shear_stress(s)[1]),
+                        rel_tol=1e-12)
