@@ -285,6 +285,29 @@ def apply_overrides(factors: dict[str, float], sources: dict[str, str], design: 
             sources[sym] = "user override"
 
 
+def uncombined_cases(beam: BeamResult) -> list[Problem]:
+    """A named missing check for every load case on the member (self-weight is D) that no
+    strength combination takes: the strength checks would leave that load out, so the
+    verdict cannot be OK (a user's own list of combinations can omit a case).
+    """
+    strength = beam.strength()
+    if not strength:
+        return []  # said already: there is no strength combination at all
+    taken = {case for c in strength for case in c.combination.cases()}
+    spec = beam.spec
+    out: list[Problem] = []
+    if spec.self_weight and "D" not in taken:
+        out.append(MissingCheck("beam.combinations", "no strength combination takes case D, "
+                                "which holds the self-weight; the strength checks leave it "
+                                "out"))
+    for i, load in enumerate(spec.loads):
+        if load.case not in taken and not (load.case == "D" and spec.self_weight):
+            out.append(MissingCheck("beam.combinations", f"no strength combination takes "
+                                    f"case {load.case} of beam.loads[{i}]; the strength "
+                                    "checks leave that load out"))
+    return out
+
+
 def unapplied_overrides(design: DesignSpec, plies: Sequence[Ply], checks: Sequence[Check]
                         ) -> list[Problem]:
     """The user's overrides (design.overrides) that no check took, each named: a ply that

@@ -40,6 +40,7 @@ from .common import (
     no_yield_strength,
     pattern_notes,
     side_by_side_joints,
+    uncombined_cases,
     unit_shear_stress,
     uplift_checks,
 )
@@ -87,6 +88,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
     if not uls:
         warnings.append(MissingCheck("beam.combinations", 'no ULS combination: use "EN1990" for '
                                 "the EU basis; strength checks are skipped"))
+    warnings += uncombined_cases(beam)
     sc = design.service_class
     tau_unit = unit_shear_stress(section)
     member_width = max(p.x + p.width for p in section.plies) - min(p.x for p in section.plies)

@@ -34,6 +34,7 @@ from .common import (
     no_yield_strength,
     pattern_notes,
     side_by_side_joints,
+    uncombined_cases,
     unit_shear_stress,
     uplift_checks,
 )
@@ -59,6 +60,7 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
         warnings.append(MissingCheck("beam.combinations", 'no ASD combination: use "ASD" (or your '
                                 "own list) with the US basis; timber strength checks are "
                                 "skipped"))
+    warnings += uncombined_cases(beam)
     member_width = max(p.x + p.width for p in section.plies) - min(p.x for p in section.plies)
     joints: list[Joint] | None = None  # found at the first steel ply
     for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):

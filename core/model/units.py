@@ -145,6 +145,37 @@ def _bounded(text: str) -> None:
         raise UnitError(f"has a number of more than {MAX_DIGITS} digits")
 
 
+_NUMBER_TOKEN = re.compile(r"[0-9._]+")
+_WELL_FORMED_NUMBER = re.compile(r"\d+(\.\d*)?|\.\d+")
+#: Two numbers side by side (read as their product), unless the second begins a fraction
+#: (a mixed number such as 9 1/4) or the first ends a feet-and-inches text.
+_SIDE_BY_SIDE = re.compile(r"\d\.?\s+\.?\d+(?!\d*\s*/)")
+_FRACTION_CHAIN = re.compile(r"\d\s*/\s*\d+\s*/")
+
+
+def _well_formed(text: str) -> None:
+    """Refuse number notations that would be read as some other value without a word: a
+    decimal comma or thousands separator ("3,6 m" would be 36 m), a number with two
+    points or an underscore ("12.5.1 ft", "1_000 in"), two numbers side by side ("2 3
+    ft" would be 6 ft), a fraction of a fraction ("1/2/2 ft") and a unit before its
+    number ("ft 12").
+    """
+    if "," in text:
+        raise UnitError("has a comma: write a decimal point and no thousands separator "
+                        "(3.6 m, 1000 lbf)")
+    for token in _NUMBER_TOKEN.findall(text):
+        if not _WELL_FORMED_NUMBER.fullmatch(token):
+            raise UnitError(f'has a malformed number "{token}"')
+    if _SIDE_BY_SIDE.search(text):
+        raise UnitError("has two numbers side by side; give one number and its unit (a "
+                        "mixed fraction such as 9 1/4 in is one number)")
+    if _FRACTION_CHAIN.search(text):
+        raise UnitError("has a fraction of a fraction")
+    first = text.lstrip()[:1]
+    if first and not (first.isdigit() or first in "+-.("):
+        raise UnitError("must begin with its number, e.g. 12 ft")
+
+
 def _bounded_expression(expr: str) -> None:
     """Refuse powers of numbers, chained powers and deep parentheses in the rewritten text."""
     if "**" in _UNIT_POWER.sub("", expr):
@@ -298,6 +329,7 @@ def _parse_cached(text: str, dimension: str) -> float:
         raise UnitError("has no unit")
     if not any(ch.isdigit() for ch in text):
         raise UnitError("has no number")
+    _well_formed(text)
     expr = _normalise(text)
     _bounded_expression(expr)
     plain = _plain_value(expr, dimension)
@@ -376,7 +408,9 @@ def parse(text: Any, dimension: str, field: str) -> float:
             return _raise(f'{field}: "{quoted}" has no number; expected '
                           f"{DIMENSION_WORDS[dimension]}")
         if reason.startswith(("is not ", "is longer", "has a number", "raises", "has paren",
-                              "is too large", "is out of range")):
+                              "is too large", "is out of range", "has a comma",
+                              "has a malformed", "has two numbers", "has a fraction of",
+                              "must begin")):
             return _raise(f'{field}: "{quoted}" {reason}')
         return _raise(f'{field}: "{quoted}" is not {DIMENSION_WORDS[dimension]} ({reason})')
 

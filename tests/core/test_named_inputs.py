@@ -115,3 +115,23 @@ def test_a_notch_in_a_named_timber_is_checked():
     a = _run(d)
     notch = [c for c in a.checks if "notch" in (c.location or "")]
     assert notch and {c.ply for c in notch} == {"left 2x10"}
+
+
+def test_a_load_no_strength_combination_takes_makes_the_verdict_incomplete():
+    d = copy.deepcopy(US)
+    d["beam"]["combinations"] = [{"name": "D", "factors": {"D": 1}, "duration": "permanent",
+                                  "kind": "ASD"}]
+    a = _run(d)
+    assert a.verdict == "INCOMPLETE"
+    assert [str(p) for p in a.incomplete_reasons] == [
+        "beam.combinations: no strength combination takes case L of beam.loads[1]; the "
+        "strength checks leave that load out"]
+    d["beam"]["combinations"].append({"name": "D + L", "factors": {"D": 1, "L": 1},
+                                      "duration": "ten-years", "kind": "ASD"})
+    assert _run(d).verdict == "OK"
+    d["beam"]["combinations"] = [{"name": "L", "factors": {"L": 1}, "duration": "ten-years",
+                                  "kind": "ASD"}]
+    reasons = [str(p) for p in _run(d).incomplete_reasons]
+    assert reasons[0] == ("beam.combinations: no strength combination takes case D, which "
+                          "holds the self-weight; the strength checks leave it out")
+    assert len(reasons) == 1  # the demo's D loads are said with the self-weight

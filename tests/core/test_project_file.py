@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import copy
 import json
+import math
 import os
 from dataclasses import replace
 from pathlib import Path
@@ -210,3 +211,33 @@ def test_saving_adds_no_bolt_strength_the_basis_does_not_read():
 
 def load_text_round(project):
     return loads(dumps(project))
+
+
+@pytest.mark.parametrize("text,reason", [
+    ("3,6 m", "has a comma: write a decimal point and no thousands separator"),
+    ("12,5 ft", "has a comma"),
+    ("1,000 in", "has a comma"),
+    ("12.5.1 ft", 'has a malformed number "12.5.1"'),
+    ("1_000 in", 'has a malformed number "1_000"'),
+    ("2 3 ft", "has two numbers side by side"),
+    ("1 000 in", "has two numbers side by side"),
+    ("1 1/2/2 ft", "has a fraction of a fraction"),
+    ("ft 12", "must begin with its number"),
+])
+def test_number_notations_read_as_another_value_are_refused(text, reason):
+    """"3,6 m" was read as 36 m, "12.5.1 ft" as 1.25 ft and "2 3 ft" as 6 ft, silently."""
+    d = json.loads(DEMO.read_text())
+    d["beam"]["spans"] = [text]
+    with pytest.raises(ProjectError) as info:
+        loads(json.dumps(d))
+    assert str(info.value.problems[0]).startswith(f'beam.spans[0]: "{text}" {reason}')
+
+
+@pytest.mark.parametrize("text,inches", [("9 1/4 in", 9.25), ("12 ft 6 in", 150.0),
+                                         ('12\' 6"', 150.0), ("1 3/4 in", 1.75),
+                                         ("9-1/4 in", 9.25), ("12E1 in", 120.0),
+                                         (".5 in", 0.5), ("12 ft 6 1/2 in", 150.5)])
+def test_trade_notations_still_read(text, inches):
+    from plystack.core.model import units
+
+    assert math.isclose(units.parse(text, "length", "x"), inches * 0.0254, rel_tol=1e-15)
