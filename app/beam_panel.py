@@ -33,7 +33,7 @@ from plystack.app.analysis_model import AnalysisModel
 from plystack.app.document import Document
 from plystack.app.quantity import BAD_STYLE, QuantityEdit, parse_entry
 from plystack.app.safe import guarded, plain_label, plain_tip
-from plystack.core.io.design_file import connector_problems
+from plystack.core.io.design_file import bolt_diameter_problem, connector_problems
 from plystack.core.model import units
 from plystack.core.model.design import (
     CONNECTOR_TYPES,
@@ -162,7 +162,9 @@ class BeamPanel(QWidget):
         self.total_limit = QLineEdit()
         for edit in (self.live_limit, self.total_limit):
             edit.setToolTip("Span divided by this number, e.g. 360")
-        self.bolt_diameter = QuantityEdit("length", "bolt diameter", system, positive)
+        self.bolt_diameter = QuantityEdit(
+            "length", "bolt diameter", system,
+            lambda v: bolt_diameter_problem(v, self.document.project.design_or_default().basis))
         self.connector_allowable = QuantityEdit("force", "connector allowable", system, positive)
         self.connector_allowable.setToolTip("Allowable (US) or design (EU) lateral load of one "
                                             "connector, already adjusted")

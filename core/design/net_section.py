@@ -89,14 +89,31 @@ def holes_removed(section: Section, plies: tuple[int, ...], heights: tuple[float
     S1 = float(np.sum(n * section.first_y))
     S2 = float(np.sum(n * section.second_y))
     for i in plies:
-        b = section.plies[i].width
-        for y in heights:
-            A = b * d_hole
+        ply = section.plies[i]
+        b = ply.width
+        for y, h in _taken(ply.y, ply.top, heights, d_hole):
+            A = b * h
             S0 -= float(n[i]) * A
             S1 -= float(n[i]) * A * y
-            S2 -= float(n[i]) * (A * y * y + b * d_hole**3 / 12)
+            S2 -= float(n[i]) * (A * y * y + b * h**3 / 12)
     y_na = S1 / S0
     return NetSection(station, y_na, S2 - S1 * y_na, heights)
+
+
+def _taken(lo: float, hi: float, heights: tuple[float, ...], d_hole: float
+           ) -> list[tuple[float, float]]:
+    """The (centre, height) of what the holes take out of a ply from ``lo`` to ``hi``: a
+    hole wholly inside it as it is; one that runs past an edge only within the ply, and
+    holes that overlap once (the band of :func:`_bands`), so that no hole takes out
+    material the ply does not have.
+    """
+    bands = _bands(lo, hi, heights, d_hole)
+    whole = {(y - d_hole / 2, y + d_hole / 2): y for y in heights}
+    out = []
+    for a, b in bands:
+        y = whole.get((a, b))
+        out.append((y, d_hole) if y is not None else ((a + b) / 2, b - a))
+    return out
 
 
 def net_fibres(section: Section, net: NetSection, i: int) -> tuple[float, float]:

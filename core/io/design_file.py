@@ -125,16 +125,26 @@ def connector_problems(conn: Connector, path: str, problems: list[Problem]) -> N
                                     "and 4 times it (EN 1995-1-1 Annex B)"))
 
 
+def bolt_diameter_problem(d: float, basis: str) -> str | None:
+    """Why a bolt diameter is outside the range of the basis's dowel equations
+    (BOLT_DIAMETERS), or None; the file reader and the desktop program's field say the
+    same.
+    """
+    lo, hi = BOLT_DIAMETERS.get(basis, (0.0, float("inf")))
+    if lo * (1 - 1e-9) <= d <= hi * (1 + 1e-9):
+        return None
+    words = ("1/4 in to 1 in (NDS 2018 12.3, Table 12.3.1B)" if basis == "US-ASD"
+             else "6 mm to 30 mm (EN 1995-1-1 8.5.1.1 and 8.6)")
+    size = f"{d / 0.0254:.4g} in" if basis == "US-ASD" else f"{d * 1000:.4g} mm"
+    return f"{size} is outside the bolt diameters the equations hold for: {words}"
+
+
 def _bolt_diameter_in_range(d: float, basis: str, path: str,
                             problems: list[Problem]) -> None:
     """A bolt diameter within the range of the basis's dowel equations (BOLT_DIAMETERS)."""
-    lo, hi = BOLT_DIAMETERS.get(basis, (0.0, float("inf")))
-    if not lo * (1 - 1e-9) <= d <= hi * (1 + 1e-9):
-        words = ("1/4 in to 1 in (NDS 2018 12.3, Table 12.3.1B)" if basis == "US-ASD"
-                 else "6 mm to 30 mm (EN 1995-1-1 8.5.1.1 and 8.6)")
-        size = f"{d / 0.0254:.4g} in" if basis == "US-ASD" else f"{d * 1000:.4g} mm"
-        problems.append(Problem(path, f"{size} is outside the bolt diameters the equations "
-                                f"hold for: {words}"))
+    problem = bolt_diameter_problem(d, basis)
+    if problem is not None:
+        problems.append(Problem(path, problem))
 
 
 def _read_bolt(raw: Any, path: str, problems: list[Problem]) -> Bolt:

@@ -76,3 +76,26 @@ def test_refused_overhang_marks_its_field(window, qtbot):
     qtbot.wait(50)
     assert edit.styleSheet() == BAD_STYLE
     assert window.document.project == before
+
+
+def test_bolt_diameter_outside_the_equations_is_refused_as_the_file_does(window, qtbot):
+    panel = window.beam_panel
+    _show_beam_tab(window, qtbot)
+    before = window.document.project
+    edit = panel.bolt_diameter
+    edit.setFocus()
+    edit.selectAll()
+    QTest.keyClicks(edit, "2 in")
+    QTest.keyClick(edit, Qt.Key.Key_Return)
+    qtbot.wait(50)
+    assert edit.styleSheet() == BAD_STYLE
+    assert panel.error.text() == ("bolt diameter: 2 in is outside the bolt diameters the "
+                                  "equations hold for: 1/4 in to 1 in (NDS 2018 12.3, Table "
+                                  "12.3.1B)")
+    assert window.document.project == before
+    edit.selectAll()
+    QTest.keyClicks(edit, "5/8 in")
+    QTest.keyClick(edit, Qt.Key.Key_Return)
+    qtbot.wait(50)
+    assert edit.styleSheet() == ""
+    assert window.document.project.design.bolt.diameter == units.parse("5/8 in", "length", "x")
