@@ -83,7 +83,7 @@ def clip_plies_marked(plies: tuple[Ply, ...] | list[Ply]
                              [p.x + p.width for p in plies], [p.top for p in plies]))
     later_of: dict[int, list[int]] = {}
     for i, j in near_pairs(plies, 0.0):
-        if _overlap(plies[i], plies[j]):
+        if overlap(plies[i], plies[j]):
             later_of.setdefault(i, []).append(j)
     out: list[BaseGeometry] = []
     whole: list[bool] = []
@@ -98,7 +98,7 @@ def clip_plies_marked(plies: tuple[Ply, ...] | list[Ply]
     return out, whole
 
 
-def _overlap(a: Ply, b: Ply) -> bool:
+def overlap(a: Ply, b: Ply) -> bool:
     """True where two rectangles share area (touching edges do not count)."""
     return (min(a.x + a.width, b.x + b.width) > max(a.x, b.x)
             and min(a.top, b.top) > max(a.y, b.y))

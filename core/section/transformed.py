@@ -33,6 +33,7 @@ from .geometry import (
     clip_plies_marked,
     is_unclipped,
     near_pairs,
+    overlap,
     polygon_moments,
     rectangle_moments,
     rectangle_profile,
@@ -356,6 +357,10 @@ def analyse(
             y_bottom[i], y_top[i] = ply.y, ply.top
         else:
             _, y_bottom[i], _, y_top[i] = g.bounds
+            later = [f'"{q.name}"' for q in plies[i + 1:] if overlap(ply, q)]
+            warnings.append(Problem(f"plies[{i}]", f'"{ply.name}" is cut by the later '
+                                    f"{', '.join(later)} where they overlap (the later ply "
+                                    "wins there): check the widths and positions"))
     unclipped = all(is_unclipped(float(a), p) for a, p in zip(area, plies, strict=True))
     loose: list[int] = []
     if len(plies) > 1:

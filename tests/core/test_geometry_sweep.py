@@ -12,7 +12,8 @@ import pytest
 from plystack.core.design.common import side_by_side_joints
 from plystack.core.io.library import load_library
 from plystack.core.model.plies import Ply
-from plystack.core.section.geometry import _overlap, near_pairs, rectangles_touch
+from plystack.core.section.geometry import near_pairs, rectangles_touch
+from plystack.core.section.geometry import overlap as _overlap
 from plystack.core.section.transformed import analyse
 
 

@@ -135,3 +135,16 @@ def test_a_load_no_strength_combination_takes_makes_the_verdict_incomplete():
     assert reasons[0] == ("beam.combinations: no strength combination takes case D, which "
                           "holds the self-weight; the strength checks leave it out")
     assert len(reasons) == 1  # the demo's D loads are said with the self-weight
+
+
+def test_a_ply_cut_by_a_later_overlapping_ply_is_said():
+    """The demo's plate widened to 1/2 in without moving the right 2x10: the plate is cut
+    where they overlap (the later ply wins, by design); that changes its bolts, so it is
+    said."""
+    d = copy.deepcopy(US)
+    d["plies"][1]["width"] = "1/2 in"
+    a = _run(d)
+    assert _said(a, "plies[1]") == [
+        'plies[1]: "flitch plate" is cut by the later "right 2x10" where they overlap (the '
+        "later ply wins there): check the widths and positions"]
+    assert _said(_run(US), "plies") == []
