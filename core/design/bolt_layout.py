@@ -127,6 +127,15 @@ def layout_of(section: Section, joint: Joint, bolt: Bolt, extent: tuple[float, f
         gaps = [b - a for a, b in zip(stations, stations[1:], strict=False)]
         nominal = min(gaps) if gaps else extent[1] - extent[0]
     else:
+        length = extent[1] - extent[0]
+        if bolt.spacing is not None and bolt.end_distance is None and bolt.spacing >= length:
+            system = "US" if us else "SI"
+            given = fmt(bolt.spacing, "span", system)
+            raise ProjectError(Problem("design.bolt.spacing", f"{given} does not fit two "
+                                       "bolt locations on the plate "
+                                       f'"{section.plies[joint.steel].name}" '
+                                       f"({fmt(length, 'span', system)} long): give a shorter "
+                                       "spacing or the stations"))
         stations = placed_stations(extent[0], extent[1], spacing, bolt.end_distance)
         nominal = stations[1] - stations[0] if len(stations) > 1 else extent[1] - extent[0]
     every = tuple(range(len(rows)))

@@ -132,3 +132,25 @@ def test_the_longest_span_of_the_eu_demo_is_found_from_its_own_span() -> None:
     assert found.span > p.beam.layout.spans[0]
     assert run(scaled_spans(p, found.span)).verdict == "OK"
     assert run(scaled_spans(p, found.span + found.tolerance)).verdict != "OK"
+
+
+def test_a_spacing_that_cannot_be_used_is_refused_not_replaced(tmp_path, capsys):
+    """A spacing of 30 ft on a 12 ft plate was laid out every 72 in without a word."""
+    import json as _json
+
+    from plystack.core.cli import main as _main
+
+    data = _json.loads(US.read_text())
+    data["design"]["bolt"]["spacing"] = "30 ft"
+    path = tmp_path / "far.plystack.json"
+    path.write_text(_json.dumps(data))
+    assert _main(["check", str(path)]) == 2
+    assert ('design.bolt.spacing: 30.00 ft does not fit two bolt locations on the plate '
+            '"flitch plate" (12.00 ft long): give a shorter spacing or the stations'
+            ) in capsys.readouterr().err
+    data["design"]["bolt"]["spacing"] = "24 in"
+    data["design"]["bolt"]["stations"] = ["1 ft", "3 ft"]
+    path.write_text(_json.dumps(data))
+    assert _main(["check", str(path)]) == 2
+    assert ("design.bolt.spacing: is given with stations: give the stations or a spacing, "
+            "not both") in capsys.readouterr().err
