@@ -41,7 +41,8 @@ def _target(path: str | os.PathLike[str], field: str) -> Path:
         what = "is not a folder" if folder.exists() else "does not exist"
         raise ProjectError(Problem(field, f"{raw}: the folder {folder} {what}; create it or "
                                    "give another file name"))
-    if target.exists() and not os.access(target, os.W_OK):
+    if target.exists() and (not os.access(target, os.W_OK)
+                            or not target.stat().st_mode & 0o222):  # root too is refused
         raise ProjectError(Problem(field, f"{raw} is read-only; give another file name or "
                                    "allow writing it"))
     return target
