@@ -26,7 +26,7 @@ from PySide6.QtWidgets import (
 )
 
 from plystack.app.safe import plain_label, plain_tip, reporter
-from plystack.core.design.check import Check
+from plystack.core.design.check import Check, ratio_text
 from plystack.core.design.text import governing_per_group
 from plystack.core.model.caution import CAUTION, FIRE_NOTE
 from plystack.core.model.units import fmt, sig
@@ -443,7 +443,7 @@ class ResultsPanel(QWidget):
             overall = "INCOMPLETE"
         elif overall == "OK":
             overall = verdict_of(float(gov.ratio), True, amber)
-        ratio = f"{gov.ratio:.3f}" if math.isfinite(gov.ratio) else "not a number"
+        ratio = ratio_text(gov.ratio)
         missing = "".join(f"\n  not checked: {p}" for p in a.incomplete_reasons[:4])
         more = len(a.incomplete_reasons) - 4
         if more > 0:

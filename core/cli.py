@@ -16,7 +16,9 @@ from contextlib import contextmanager
 from typing import TYPE_CHECKING, Any
 
 from . import __version__
+from .design.check import ratio_text
 from .io.resources import DEFAULT_DEMO, DEMOS, DataFileError, demo_text
+from .io.table import text_table
 from .model.caution import CAUTION
 from .model.errors import Problem, ProjectError
 from .model.units import UnitError
@@ -207,13 +209,13 @@ def cmd_compare(args: argparse.Namespace) -> int:
         _print_json([{"name": alt.name, **check_json(a)} for alt, a, _ in rows])
         return 0
     u = project.display_units
-    print(f"{'alternative':<24}{'EI':>18}{'mass/length':>16}{'governs':>22}{'ratio':>8}"
-          f"{'deflection':>14}  verdict")
-    for alt, _a, o in rows:
-        print(f"{alt.name[:23]:<24}{fmt(o.EI, 'EI', u):>18}"
-              f"{fmt(o.mass_per_length, 'mass_per_length', u):>16}{o.governing_id:>22}"
-              f"{o.governing_ratio:>8.3f}{fmt(o.deflection_max_abs, 'deflection', u, 3):>14}  "
-              f"{o.verdict}")
+    header = ["alternative", "EI", "mass/length", "governs", "ratio", "deflection", "verdict"]
+    cells = [[alt.name, fmt(o.EI, "EI", u), fmt(o.mass_per_length, "mass_per_length", u),
+              o.governing_id, ratio_text(o.governing_ratio),
+              fmt(o.deflection_max_abs, "deflection", u, 3), o.verdict]
+             for alt, _a, o in rows]
+    for line in text_table(header, cells, frozenset({1, 2, 4, 5})):
+        print(line)
     print(CAUTION)
     return 0
 
@@ -233,15 +235,17 @@ def cmd_sweep(args: argparse.Namespace) -> int:
         return 0
     u = project.display_units
     print(f"{args.ply}: {args.dimension}")
-    print(f"{'value':>12}{'governs':>22}{'ratio':>8}{'deflection':>14}{'mass/length':>16}  verdict")
-    previous_ok = None
+    cells, previous_ok = [], None
     for r in rows:
-        mark = "  <- pass/fail boundary" if previous_ok is not None and r.ok != previous_ok else ""
+        mark = "<- pass/fail boundary" if previous_ok is not None and r.ok != previous_ok else ""
         previous_ok = r.ok
-        print(f"{units.fmt(r.value, 'length', u):>12}{r.governing_id:>22}{r.governing_ratio:>8.3f}"
-              f"{units.fmt(r.deflection_max_abs, 'deflection', u, 3):>14}"
-              f"{units.fmt(r.mass_per_length, 'mass_per_length', u):>16}  "
-              f"{r.verdict}{mark}")
+        cells.append([units.fmt(r.value, "length", u), r.governing_id,
+                      ratio_text(r.governing_ratio),
+                      units.fmt(r.deflection_max_abs, "deflection", u, 3),
+                      units.fmt(r.mass_per_length, "mass_per_length", u), r.verdict, mark])
+    header = ["value", "governs", "ratio", "deflection", "mass/length", "verdict", ""]
+    for line in text_table(header, cells, frozenset({0, 2, 3, 4})):
+        print(line)
     print(CAUTION)
     return 0
 
@@ -271,15 +275,15 @@ def cmd_size(args: argparse.Namespace) -> int:
             last = result.next_smaller
             print(f"{args.ply}: no option passes" + ("" if last is None else
                   f": the largest, {units.fmt(last.value, 'length', u)}, still has "
-                  f"{last.governing_id} ratio {last.governing_ratio:.3f}"))
+                  f"{last.governing_id} ratio {ratio_text(last.governing_ratio)}"))
         else:
             print(f"{args.ply}: {args.dimension} {units.fmt(result.chosen.value, 'length', u)} "
                   f"passes (governing {result.chosen.governing_id}, ratio "
-                  f"{result.chosen.governing_ratio:.3f}){incomplete_note(result.chosen.verdict)}")
+                  f"{ratio_text(result.chosen.governing_ratio)}){incomplete_note(result.chosen.verdict)}")
             if result.next_smaller is not None:
                 n = result.next_smaller
                 print(f"  next smaller, {units.fmt(n.value, 'length', u)}, fails: "
-                      f"{n.governing_id} ratio {n.governing_ratio:.3f}")
+                      f"{n.governing_id} ratio {ratio_text(n.governing_ratio)}")
         print(CAUTION)  # beside every verdict, a passing option or none
     return 0 if result.chosen is not None else 1
 
@@ -301,7 +305,7 @@ def cmd_span(args: argparse.Namespace) -> int:
     u = project.display_units
     print(f"Longest span that passes every check: {units.fmt(result.span, 'span', u)} "
           f"(to {units.fmt(result.tolerance, 'length', u, 3)}); governing "
-          f"{result.governing_id}, ratio {result.governing_ratio:.3f}"
+          f"{result.governing_id}, ratio {ratio_text(result.governing_ratio)}"
           + incomplete_note(result.verdict))
     for row in table:
         width = units.fmt(float(row["tributary_width"]), "length", u)  # type: ignore[arg-type]

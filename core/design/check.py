@@ -149,6 +149,15 @@ def capacity_from(reference: float, factors: Mapping[str, float],
     return value
 
 
+def ratio_text(ratio: float) -> str:
+    """A ratio as the tables write it: three decimals; "\u221e" where there is no
+    capacity left (demand over zero); "not a number" where neither side is (0 / 0).
+    """
+    if math.isfinite(ratio):
+        return f"{ratio:.3f}"
+    return "\u221e" if ratio > 0 else "not a number"
+
+
 def governing(checks: tuple[Check, ...] | list[Check]) -> Check | None:
     """The check with the highest ratio."""
     return max(checks, key=lambda c: c.ratio) if checks else None

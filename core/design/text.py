@@ -6,7 +6,7 @@ import textwrap
 
 from ..model.caution import CAUTION
 from ..model.units import fmt
-from .check import Check, governing
+from .check import Check, governing, ratio_text
 
 QUANTITY_KIND = {"stress": "stress", "deflection": "deflection", "force": "force",
                  "shear_flow": "shear_flow", "ratio": "ratio", "frequency": "frequency",
@@ -71,7 +71,7 @@ def checks_text(checks: tuple[Check, ...], system: str, verdict: str | None = No
         combo = _wrapped(c.combination or "", w_combo - 2)
         lines.append(f"  {c.id:<{w_id}}{place[0]:<{w_place}}{combo[0]:<{w_combo}}"
                      f"{fmt(c.demand, kind, system):>18}{fmt(c.capacity, kind, system):>18}"
-                     f"{c.ratio:>8.3f}  {'OK' if c.ok else 'NOT OK'}")
+                     f"{ratio_text(c.ratio):>8}  {'OK' if c.ok else 'NOT OK'}")
         for k in range(1, max(len(place), len(combo))):
             more = (f"  {'':<{w_id}}{place[k] if k < len(place) else '':<{w_place}}"
                     f"{combo[k] if k < len(combo) else ''}")
@@ -85,7 +85,7 @@ def checks_text(checks: tuple[Check, ...], system: str, verdict: str | None = No
         lines.append("")
         lines.append(f"Governing: {gov.id} in {gov.ply or gov.location} under "
                      f"{gov.combination or 'the layout'},"
-                     f" ratio {gov.ratio:.3f}. Verdict: {verdict}")
+                     f" ratio {ratio_text(gov.ratio)}. Verdict: {verdict}")
     else:
         lines.append(f"Verdict: {verdict}")
     if incomplete:

@@ -19,6 +19,7 @@ from ..model.units import fmt, sig
 from ..pipeline import Analysis
 from ..section.gamma import PartialSection, assumptions
 from ..section.transformed import PlyResult, Section
+from .table import text_table
 
 
 def _f(x: Any) -> Any:
@@ -337,15 +338,13 @@ def beam_text(beam: BeamResult, u: str) -> list[str]:
                           for c, sol in beam.cases.items())
         lines.append(f"    support {k + 1} at {fmt(x, 'span', u)}: {parts}")
     lines.append("  Combinations")
-    lines.append(f"    {'name':<34}{'kind':<22}{'M max':>14}{'M min':>14}{'|V| max':>12}"
-                 f"{'defl.':>11}{'defl. total':>13}")
-    for c in beam.combinations:
-        e = c.extremes
-        lines.append(f"    {c.name[:33]:<34}{c.combination.kind_on(beam.basis):<22}"
-                     f"{fmt(e.M_max, 'moment', u):>14}"
-                     f"{fmt(e.M_min, 'moment', u):>14}{fmt(e.V_max_abs, 'force', u):>12}"
-                     f"{fmt(e.deflection_max_abs, 'deflection', u, 3):>11}"
-                     f"{fmt(c.total.deflection_max_abs, 'deflection', u, 3):>13}")
+    header = ["name", "kind", "M max", "M min", "|V| max", "defl.", "defl. total"]
+    cells = [[c.name, c.combination.kind_on(beam.basis), fmt(c.extremes.M_max, "moment", u),
+              fmt(c.extremes.M_min, "moment", u), fmt(c.extremes.V_max_abs, "force", u),
+              fmt(c.extremes.deflection_max_abs, "deflection", u, 3),
+              fmt(c.total.deflection_max_abs, "deflection", u, 3)]
+             for c in beam.combinations]
+    lines += ["    " + t for t in text_table(header, cells, frozenset(range(2, 7)))]
     if beam.patterned_cases:
         lines.append(f"  Pattern loading: {', '.join(beam.patterned_cases)} placed on each of "
                      f"{', '.join(beam.regions)} or not; the envelope is shown")

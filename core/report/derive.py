@@ -23,7 +23,7 @@ from ..actions.beam import CaseSolution
 from ..actions.extremes import element_polynomials
 from ..actions.patterns import region_parts
 from ..design.bearing import bearing_sites, bearing_surface, en_effective_length
-from ..design.check import Check
+from ..design.check import Check, ratio_text
 from ..design.common import shear_point, side_by_side_joints
 from ..design.demands import PlyDemand, eu_uls_section, ply_demands
 from ..model.combination import EN1990_PSI
@@ -231,7 +231,7 @@ def ratio_line(c: Check, u: str) -> str:
     """Demand / capacity = ratio, and the verdict."""
     kind = _kind(c)
     verdict = "\u2264 1 \u2192 OK" if c.ok else "> 1 \u2192 NOT OK"
-    ratio = f"{c.ratio:.3f}" if math.isfinite(c.ratio) else "\u221e"
+    ratio = ratio_text(c.ratio)
     return (f"ratio = {q(abs(c.demand), kind, u)} / {q(c.capacity, kind, u)} = {ratio} "
             f"{verdict}")
 

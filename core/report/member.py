@@ -12,7 +12,7 @@ from reportlab.lib.units import mm
 from reportlab.platypus import CondPageBreak, KeepTogether
 
 from ..design.bolt_layout import BoltLayout
-from ..design.check import Check, governing
+from ..design.check import Check, governing, ratio_text
 from ..design.common import plate_share
 from ..design.transfer import Transfer, transfers
 from ..pipeline import Analysis
@@ -76,7 +76,7 @@ def segment_rows(a: Analysis) -> list[list[str]]:
                      q(seg.section.neutral_axis_y, "length", u, 5),
                      "" if gov is None else f"{label(a, gov)} {gov.id}, {gov.ply or ''} "
                      f"({gov.combination or 'layout'})",
-                     "" if gov is None else f"{gov.ratio:.3f}"])
+                     "" if gov is None else ratio_text(gov.ratio)])
     return rows
 
 

@@ -42,3 +42,37 @@ def test_every_place_is_whole_and_the_columns_line_up(name):
         assert block[0][ratio_end - 5:ratio_end] == f"{c.ratio:.3f}"
     splits = [t for t in body if "splitting" in t]
     assert len(set(splits)) == len(splits)  # the two timbers' rows differ
+
+
+def test_ratio_text_spells_no_capacity_and_not_a_number_in_words():
+    from plystack.core.design.check import ratio_text
+
+    assert ratio_text(0.95) == "0.950"
+    assert ratio_text(float("inf")) == "\u221e"  # demand over no capacity
+    assert ratio_text(float("nan")) == "not a number"
+
+
+def test_text_table_sizes_columns_to_their_texts():
+    from plystack.core.io.table import text_table
+
+    lines = text_table(["name", "EI"], [["a long alternative name here", "1"],
+                                        ["b", "1126070182 lbf*in^2"]], frozenset({1}))
+    assert lines == ["name" + " " * 26 + " " * 17 + "EI",  # 28 + 2 spaces, 19 wide
+                     "a long alternative name here" + " " * 2 + " " * 18 + "1",
+                     "b" + " " * 29 + "1126070182 lbf*in^2"]
+
+
+def test_compare_keeps_long_names_whole(tmp_path, capsys):
+    import json
+
+    from plystack.core.cli import main
+
+    data = json.loads((DEMO / "porch-header.plystack.json").read_text())
+    data["alternatives"][1]["name"] = "1/4 in plate with a rather long name to show"
+    path = tmp_path / "long.plystack.json"
+    path.write_text(json.dumps(data))
+    assert main(["compare", str(path)]) == 0
+    out = capsys.readouterr().out.splitlines()
+    assert any(t.startswith("1/4 in plate with a rather long name to show  ") for t in out)
+    verdict_at = {t.rindex("OK") for t in out[1:4]}
+    assert len(verdict_at) == 1  # the verdicts in one column
