@@ -38,11 +38,12 @@ from .design.staged import StagePart, StagesResult, stage_stiffness, staged_chec
 from .design.us_asd import us_checks
 from .design.vibration import vibration_checks
 from .model.constants import GRAVITY
-from .model.design import DesignSpec
+from .model.design import Bolt, DesignSpec
 from .model.errors import MissingCheck, Problem, ProjectError
 from .model.materials import Material
 from .model.plies import Ply
 from .model.project import Project
+from .model.units import fmt
 from .section.gamma import with_slip
 from .section.segments import Segment, is_stepped, segment_sections, segments_of
 from .section.transformed import Section, analyse, falls_apart, with_moduli
@@ -106,6 +107,16 @@ class Analysis:
         if self.incomplete_reasons:
             return "INCOMPLETE"
         return "OK"
+
+
+def _default_bolt(design: DesignSpec, system: str) -> Problem:
+    """The word that the plates' bolts are the program's default, not the user's."""
+    b = design.bolt
+    strength = (f"F_yb {fmt(b.Fyb, 'stress', system)}" if design.us
+                else f"f_u {fmt(b.fu, 'stress', system)}")
+    return Problem("design.bolt", f"is not given: the plates' bolts are taken as "
+                   f"{fmt(b.diameter, 'length', system)} diameter, {strength}, {b.rows} rows "
+                   "(the program's default); give design.bolt for the bolts to be used")
 
 
 def run_checks(project: Project, section: Section, beam: BeamResult, design: DesignSpec,
@@ -251,6 +262,8 @@ class Evaluator:
                 checks += tuple(extra)
                 warnings.extend(open_warnings)
             warnings += material_warnings(section, beam, project.display_units)
+            if layouts and self.design.bolt == Bolt():
+                warnings.append(_default_bolt(self.design, project.display_units))
             if beam is not None:
                 warnings += unapplied_overrides(self.design, plies, checks)
                 warnings += other_basis_fields(self.design)

@@ -148,3 +148,18 @@ def test_a_ply_cut_by_a_later_overlapping_ply_is_said():
         'plies[1]: "flitch plate" is cut by the later "right 2x10" where they overlap (the '
         "later ply wins there): check the widths and positions"]
     assert _said(_run(US), "plies") == []
+
+
+def test_bolts_the_user_did_not_give_are_said_as_the_default():
+    d = copy.deepcopy(US)
+    del d["design"]["bolt"]
+    a = _run(d)
+    assert _said(a, "design.bolt") == [
+        "design.bolt: is not given: the plates' bolts are taken as 0.5000 in diameter, F_yb "
+        "45000 psi, 2 rows (the program's default); give design.bolt for the bolts to be used"]
+    assert _said(_run(US), "design.bolt") == []  # the demo gives its bolts
+    e = copy.deepcopy(EU)
+    del e["design"]["bolt"]
+    assert _said(_run(e), "design.bolt")[0].startswith(
+        "design.bolt: is not given: the plates' bolts are taken as 12.70 mm diameter, f_u "
+        "400.0 MPa")
