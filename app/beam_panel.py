@@ -50,6 +50,7 @@ from plystack.core.model.member import (
     BeamLayout,
     BeamSpec,
     Load,
+    bearing_problem,
     validate_layout,
     validate_load,
 )
@@ -142,7 +143,7 @@ class BeamPanel(QWidget):
         positive = lambda v: None if v > 0 else "must be greater than zero"  # noqa: E731
         self.over_left = QuantityEdit("span", "overhang left", system, nonneg)
         self.over_right = QuantityEdit("span", "overhang right", system, nonneg)
-        self.bearing = QuantityEdit("length", "bearing length", system, positive)
+        self.bearing = QuantityEdit("length", "bearing length", system, self._bearing_problem)
         self.self_weight = QCheckBox("Include self-weight (case D)")
         self.combos = QComboBox()
         self.combos.addItems(["ASD", "EN1990"])
@@ -499,6 +500,10 @@ class BeamPanel(QWidget):
         if not problems:  # the loads are judged on a member that exists
             problems = [q for i, ld in enumerate(beam.loads)
                         for q in validate_load(ld, layout.length, f"beam.loads[{i}]", u)]
+            why = (None if beam.bearing_length is None
+                   else bearing_problem(beam.bearing_length, layout, u))
+            if why is not None:
+                problems.append(Problem("beam.bearing_length", why))
         if problems:
             was = ", ".join(units.fmt(s, "span", u) for s in beam.layout.spans)
             message = ("; ".join(str(q) for q in problems)
@@ -513,6 +518,14 @@ class BeamPanel(QWidget):
             source.setStyleSheet("")
             source.setToolTip(SPANS_TIP if source is self.spans else "")
         self._apply_beam(replace(beam, layout=layout), "Change beam layout")
+
+    def _bearing_problem(self, value: float) -> str | None:
+        """Why a bearing length typed into the field cannot be (the file's rule)."""
+        if not value > 0:
+            return "must be greater than zero"
+        beam = self.document.project.beam
+        return None if beam is None else bearing_problem(value, beam.layout,
+                                                         self.document.project.display_units)
 
     def refresh_soon(self) -> None:
         """Restore the widgets from the model (after a refused edit of a combo box)."""

@@ -15,6 +15,7 @@ from ..model.member import (
     LOAD_STAGES,
     BeamLayout,
     Load,
+    bearing_problem,
     validate_layout,
     validate_load,
 )
@@ -217,6 +218,9 @@ def read_beam(raw: Any, path: str, problems: list[Problem], system: str = "SI"
     layout = BeamLayout(tuple(spans), supports, over["overhang_left"], over["overhang_right"])
     if len(problems) == before:
         problems.extend(validate_layout(layout, path))
+        why = None if bearing is None else bearing_problem(bearing, layout, system)
+        if why is not None:
+            problems.append(Problem(f"{path}.bearing_length", why))
     loads = _read_loads(raw.get("loads", []), f"{path}.loads", layout, problems, system)
     combos = (read_combinations(raw["combinations"], f"{path}.combinations", problems)
               if "combinations" in raw else None)

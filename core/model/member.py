@@ -171,6 +171,21 @@ def validate_layout(layout: BeamLayout, path: str = "beam") -> list[Problem]:
     return problems
 
 
+def bearing_problem(bearing: float, layout: BeamLayout, system: str = "SI") -> str | None:
+    """Why a support's bearing length cannot be (None where it can): at most half the
+    shortest span, so that the two bearings of a span do not overlap (a cantilever's one
+    support: at most its span).
+    """
+    if not layout.spans:
+        return None
+    limit = min(layout.spans) if layout.supports == "cantilever" else min(layout.spans) / 2
+    if bearing <= limit * (1 + 1e-12):
+        return None
+    return (f"{fmt(bearing, 'length', system)} is longer than "
+            + ("the cantilever" if layout.supports == "cantilever" else "half the shortest span")
+            + f" ({fmt(limit, 'length', system)}): the bearings would overlap the member")
+
+
 def validate_load(load: Load, length: float, path: str, system: str = "SI") -> list[Problem]:
     """Named problems of one load on a member of ``length`` (positions in the messages in
     the display units of ``system``).

@@ -99,3 +99,19 @@ def test_bolt_diameter_outside_the_equations_is_refused_as_the_file_does(window,
     qtbot.wait(50)
     assert edit.styleSheet() == ""
     assert window.document.project.design.bolt.diameter == units.parse("5/8 in", "length", "x")
+
+
+def test_bearing_longer_than_half_the_span_is_refused(window, qtbot):
+    panel = window.beam_panel
+    _show_beam_tab(window, qtbot)
+    before = window.document.project
+    edit = panel.bearing
+    edit.setFocus()
+    edit.selectAll()
+    QTest.keyClicks(edit, "10 ft")
+    QTest.keyClick(edit, Qt.Key.Key_Return)
+    qtbot.wait(50)
+    assert edit.styleSheet() == BAD_STYLE
+    assert panel.error.text() == ("bearing length: 120.0 in is longer than half the shortest "
+                                  "span (72.00 in): the bearings would overlap the member")
+    assert window.document.project == before

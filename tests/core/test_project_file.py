@@ -85,6 +85,9 @@ def test_failed_save_keeps_old_file(tmp_path, monkeypatch):
     (lambda d: d["beam"].update(supports="hinged"), 'beam.supports: "hinged" is not one of'),
     (lambda d: d["beam"].update(spans=["10 ft", "10 ft"], supports="propped"),
      'beam.supports: "propped" needs exactly one span'),
+    (lambda d: d["beam"].update(bearing_length="10 ft"),  # two bearings on a 12 ft span
+     "beam.bearing_length: 120.0 in is longer than half the shortest span (72.00 in): the "
+     "bearings would overlap the member"),
     (lambda d: d["beam"]["loads"][2].update(at="40 ft"),
      "beam.loads[2].at: is outside the member (0 to 12.00 ft)"),  # the file's units
     (lambda d: d["plies"][1].update({"from": "20 ft"}),
