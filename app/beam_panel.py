@@ -346,10 +346,13 @@ class BeamPanel(QWidget):
         self.temperature.setCurrentText(design.temperature)
         self.steel_rule.setCurrentText(design.steel_rule)
         live, total, _ = design.deflection_limits()
-        if not self.live_limit.hasFocus():
-            self.live_limit.setText(f"{live:g}")
-        if not self.total_limit.hasFocus():
-            self.total_limit.setText(f"{total:g}")
+        for which, edit, value in (("live", self.live_limit, live),
+                                   ("total", self.total_limit, total)):
+            if not edit.hasFocus():  # the model's value: a refused entry's mark goes
+                edit.setText(f"{value:g}")
+                edit.setStyleSheet("")
+                if self.error.text().startswith(f"deflection limit {which}:"):
+                    self.error.setText("")
         self.bolt_diameter.set_value(design.bolt.diameter)
         self._show_connector(design.connector)
         if beam is not None:
@@ -583,7 +586,7 @@ class BeamPanel(QWidget):
         if not 1 <= value <= 100000:
             self.error.setText(f"deflection limit {which}: \u201c{edit.text()}\u201d must be a "
                                "number such as 360 (span divided by it)")
-            edit.setStyleSheet("QLineEdit { background: #ffd9d9; }")
+            edit.setStyleSheet(BAD_STYLE)
             return
         edit.setStyleSheet("")
         self._set_design(**{f"{which}_limit": value})

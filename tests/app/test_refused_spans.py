@@ -115,3 +115,23 @@ def test_bearing_longer_than_half_the_span_is_refused(window, qtbot):
     assert panel.error.text() == ("bearing length: 120.0 in is longer than half the shortest "
                                   "span (72.00 in): the bearings would overlap the member")
     assert window.document.project == before
+
+
+def test_a_refused_limit_loses_its_mark_when_the_model_shows_again(window, qtbot):
+    panel = window.beam_panel
+    _show_beam_tab(window, qtbot)
+
+    def enter(edit, text):
+        edit.setFocus()
+        edit.selectAll()
+        QTest.keyClicks(edit, text)
+        QTest.keyClick(edit, Qt.Key.Key_Return)
+        qtbot.wait(30)
+
+    enter(panel.live_limit, "0")
+    assert panel.live_limit.styleSheet() == BAD_STYLE
+    assert panel.error.text().startswith("deflection limit live:")
+    enter(panel.bearing, "4 in")  # another edit: the panel shows the model again
+    assert panel.live_limit.text() == "360"
+    assert panel.live_limit.styleSheet() == ""
+    assert not panel.error.text().startswith("deflection limit live:")
