@@ -49,14 +49,23 @@ def loads_block(a: Analysis, u: str, width: float) -> list[Any]:
     for k, ld in enumerate(beam.spec.loads, start=1):
         trib = width_text(ld.tributary_width, u) if ld.tributary_width else ""
         line = q(ld.line_value, "line_load", u) if ld.type != "point" else ""
+        value = exact(ld.value, KINDS[ld.type], u)
+        if ld.value_end is not None and ld.type != "point":  # a varying load: both ends
+            value += f" \u2192 {exact(ld.value_end, KINDS[ld.type], u)}"
+            line += f" \u2192 {q(ld.line_value_end, 'line_load', u)}"
         rows.append([str(k), ld.case, ld.description or CASE_WORDS.get(ld.case, ""), ld.type,
-                     exact(ld.value, KINDS[ld.type], u), trib, line, _where(ld, u)])
+                     value, trib, line, _where(ld, u)])
         if ld.type == "area" and ld.tributary_width:
             span_w = exact(ld.tributary_width, "span", u)
             shown = f"{trib} ({span_w})" if u == "US" else span_w
             lines.append(para(
                 f"Load {k} ({ld.case}): w = q s = {exact(ld.value, 'area_load', u)} {TIMES} "
                 f"{shown} = {q(ld.line_value, 'line_load', u, IN)}", EQ))
+            if ld.value_end is not None:
+                lines.append(para(
+                    f"Load {k} ({ld.case}) at its end: w = q s = "
+                    f"{exact(ld.value_end, 'area_load', u)} {TIMES} {shown} = "
+                    f"{q(ld.line_value_end, 'line_load', u, IN)}", EQ))
     out: list[Any] = [para("Loads", H2), table(rows, width)]
     if lines:
         out.append(para("Area loads to line loads (q the area load, s the tributary width "
