@@ -43,6 +43,21 @@ def _fit(text: str, font: str, size: float, width: float, lines: int = 1) -> tup
     return _fit_drawn(drawable(text), font, size, width, lines)
 
 
+def _by_characters(lines: list[str], font: str, size: float, width: float) -> list[str]:
+    """``lines`` with every line wider than ``width`` broken between characters."""
+    out: list[str] = []
+    for line in lines:
+        rest = line
+        while rest and pdfmetrics.stringWidth(rest, font, size) > width:
+            k = len(rest)
+            while k > 1 and pdfmetrics.stringWidth(rest[:k], font, size) > width:
+                k -= 1
+            out.append(rest[:k])
+            rest = rest[k:]
+        out.append(rest)
+    return out
+
+
 @lru_cache(maxsize=256)
 def _fit_drawn(text: str, font: str, size: float, width: float, lines: int = 1
                ) -> tuple[str, ...]:
@@ -50,6 +65,8 @@ def _fit_drawn(text: str, font: str, size: float, width: float, lines: int = 1
     (remembered: every page's title block sets the same texts).
     """
     wrapped = simpleSplit(text, font, size, width) or [""]
+    if any(pdfmetrics.stringWidth(t, font, size) > width for t in wrapped):
+        wrapped = _by_characters(wrapped, font, size, width)  # a word longer than the box
     if len(wrapped) <= lines:
         return tuple(wrapped)
     kept = wrapped[:lines]
@@ -153,8 +170,11 @@ def _title_block_maker(project: Project, paper: tuple[float, float],
                                 _fit(val, "PlyStackSans-Bold", 7.5, xb - xa - 2 * pad)[0])
             self.setFont("PlyStackSans", 6.3)
             self.drawString(x0 + left + pad, top - 3.4 * mm, "Seal and signature")
-            self.drawString(x0 + left + pad, y0 + 1.8 * mm,
-                            f"Licence No.: {info.get('licence', '')}")
+            licence = _fit(f"Licence No.: {info.get('licence', '')}", "PlyStackSans", 6.3,
+                           seal - 2 * pad, 2)
+            for k, line in enumerate(licence):
+                self.drawString(x0 + left + pad, y0 + (1.8 + 2.5 * (len(licence) - 1 - k)) * mm,
+                                line)
             self.setStrokeColor(colors.black)
 
         def _draw_footer(self) -> None:

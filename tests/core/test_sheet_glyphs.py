@@ -50,3 +50,19 @@ def test_the_sheet_writes_code_points_and_says_so():
     build_sheet(load(DEMO), plain)
     assert "cannot draw" not in "\n".join(
         page.extract_text() for page in PdfReader(io.BytesIO(plain.getvalue())).pages)
+
+
+def test_title_block_texts_fit_their_boxes_even_without_spaces():
+    """A title of one long word ran over the seal box and off the page; a long licence
+    number ran past the seal box."""
+    from plystack.core.report.sheet import _fit
+
+    register_fonts()
+    width = 300.0
+    for text, lines in (("W" * 200, 2), ("Licence No.: PE-123456789 State of Washington", 2),
+                        ("x" * 50 + " " + "y" * 80, 1)):
+        out = _fit(text, BOLD, 9.5, width, lines)
+        assert 1 <= len(out) <= lines
+        assert all(pdfmetrics.stringWidth(t, BOLD, 9.5) <= width for t in out), out
+        joined = "".join(out).replace("\u2026", "")
+        assert text.replace(" ", "").startswith(joined.replace(" ", ""))
