@@ -202,6 +202,14 @@ def _hole_checks(hole: Hole, k: int, beam: BeamResult, section: Section,
                  warnings: list[Problem]) -> list[Check]:
     idx = _chosen(section, hole.plies)
     lo, hi = hole.y - hole.diameter / 2, hole.y + hole.diameter / 2
+    if not hole.plies:  # every timber ply: a plate at the hole's height is said, not bored
+        crossed = [f'"{p.name}"' for p, m in zip(section.plies, section.materials, strict=True)
+                   if m.kind != "timber" and p.y < hi and p.top > lo]
+        if crossed:
+            warnings.append(Problem(f"beam.holes[{k}].plies", "are not given: the hole bores "
+                                    f"the timber plies only, and {', '.join(crossed)} at its "
+                                    "height is taken as not bored; name every ply it passes "
+                                    "through"))
     if idx and all(hi <= section.plies[i].y or lo >= section.plies[i].top for i in idx):
         raise ProjectError(Problem(f"beam.holes[{k}].y", f"the hole, from y = "
                                    f"{fmt(lo, 'length', system)} to {fmt(hi, 'length', system)},"

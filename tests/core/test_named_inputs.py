@@ -163,3 +163,13 @@ def test_bolts_the_user_did_not_give_are_said_as_the_default():
     assert _said(_run(e), "design.bolt")[0].startswith(
         "design.bolt: is not given: the plates' bolts are taken as 12.70 mm diameter, f_u "
         "400.0 MPa")
+
+
+def test_a_hole_without_plies_at_a_plates_height_says_the_plate_is_not_bored():
+    d = copy.deepcopy(US)
+    d["beam"]["holes"] = [{"diameter": "2 in", "at": "6 ft", "y": "4.625 in"}]
+    assert _said(_run(d), "beam.holes") == [
+        'beam.holes[0].plies: are not given: the hole bores the timber plies only, and '
+        '"flitch plate" at its height is taken as not bored; name every ply it passes through']
+    d["beam"]["holes"][0]["plies"] = ["left 2x10", "flitch plate", "right 2x10"]
+    assert _said(_run(d), "beam.holes") == []
