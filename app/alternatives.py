@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import math
+import textwrap
 from dataclasses import replace
 
 import numpy as np
@@ -94,6 +95,7 @@ class AlternativesPanel(QWidget):
         self.table = QTableWidget(0, 0)
         self.figure = Figure(figsize=(5, 2.4), layout="constrained")
         self.chart = FigureCanvasQTAgg(self.figure)
+        self.chart.setMinimumHeight(170)  # below that the axes collapse to nothing
         self.ax = self.figure.subplots()
         add = self.add_button = QPushButton("Keep current as alternative")
         promote = QPushButton("Make selected current")
@@ -201,8 +203,9 @@ class AlternativesPanel(QWidget):
             self.ax.bar(idx + 0.2, defl, 0.4, label="deflection ratio", color="#c9a25c",
                         hatch="//")
             self.ax.axhline(1.0, color="#b02020", lw=1, ls="--")
-            self.ax.set_xticks(idx, [n[:18].replace("$", r"\$") for n in self.names],
-                               fontsize=7)
+            labels = ["\n".join(textwrap.wrap(n, 18, max_lines=2, placeholder="\u2026"))
+                      .replace("$", r"\$") for n in self.names]
+            self.ax.set_xticks(idx, labels, fontsize=7)
             self.ax.legend(fontsize=7)
             self.ax.set_ylabel("ratio", fontsize=8)
         self.chart.draw_idle()
