@@ -90,6 +90,12 @@ class FileActions:
         return QFileDialog.getExistingDirectory(self, "Export plate drawings", start)  # type: ignore[arg-type]
 
     def _last_dir(self) -> str:
+        """The folder a file dialog opens in: the open project's own folder, else the
+        last folder used, else home.
+        """
+        current = self.document.path  # type: ignore[attr-defined]
+        if current is not None and Path(current).parent.is_dir():
+            return str(Path(current).parent)
         value = self.settings.value("last_dir", "")  # type: ignore[attr-defined]
         folder = str(value) if value else ""
         return folder if folder and os.path.isdir(folder) else str(Path.home())

@@ -245,3 +245,20 @@ def test_a_save_that_fails_keeps_the_work_and_names_the_reason(window, tmp_path)
     assert not window._save_to(folder)
     assert warned and warned[0][0] == "Save failed" and "folder" in warned[0][1]
     assert window.document.modified
+
+
+def test_dialogs_start_in_the_open_projects_folder(window, tmp_path):
+    """Save As on a project opened from one folder starts there, not in the last folder
+    another project was saved to."""
+    window.autosaves = AutosaveStore(tmp_path / "autosave")
+    here, elsewhere = tmp_path / "job-b", tmp_path / "job-a"
+    here.mkdir()
+    elsewhere.mkdir()
+    path = here / "stair.plystack.json"
+    save(window.document.project, path)
+    window.open_path(path)
+    window.settings.setValue("last_dir", str(elsewhere))
+    starts = []
+    window.ask_save_path = lambda start: starts.append(start) or ""
+    window.save_as()
+    assert starts and Path(starts[0]).parent == here
