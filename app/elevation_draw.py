@@ -345,15 +345,23 @@ class ElevationDrawing:
             p.setPen(pen(QColor(60, 60, 60), 1.0))
             p.setZValue(30)
         labels = self.dim_labels.sized(len(texts))
-        row = Row()
+        rows: dict[float, Row] = {}  # one per plate's chain of dimensions
+        beside: list[QRectF] = []  # the edge labels placed so far
         for label, (text, x, y, dx, dy) in zip(labels, texts, strict=True):
             label.setZValue(31)
             if dx == 0.5:  # along the chain: never over the previous one
+                row = rows.setdefault(y, Row())
                 w = label.size_of(text)[0]
                 x = row.free_x(x - w / 2) + w / 2
                 row.took(label.place(text, x, y, dx, dy, QColor(40, 40, 40)))
-            else:
-                label.place(text, x, y, dx, dy, QColor(40, 40, 40))
+            else:  # beside the stations: moved down until clear of the others
+                box = label.place(text, x, y, dx, dy, QColor(40, 40, 40))
+                for _ in range(4 * len(beside) + 1):  # a bound on the moves
+                    if not any(box.intersects(b.adjusted(-GAP, -1, GAP, 1)) for b in beside):
+                        break
+                    y += box.height() + 3
+                    box = label.place(text, x, y, dx, dy, QColor(40, 40, 40))
+                beside.append(box)
 
     # --- one bar per ply ------------------------------------------------------------------
 

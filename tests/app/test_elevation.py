@@ -459,3 +459,34 @@ def test_the_elevation_draws_the_layouts_the_analysis_carries():
         assert len(drawn) == len(a.layouts) == 1
         assert drawn[0].layout is a.layouts[0].layout
         assert drawn[0].plate == a.layouts[0].ply == 1
+
+
+def test_edge_labels_of_two_plates_do_not_cover_each_other(window, qtbot):
+    """Two flitch plates with their stations at the same positions: their edge labels
+    beside the first station were drawn one over the other."""
+    from dataclasses import replace
+
+    from plystack.core.model.plies import Ply
+
+    p = window.document.project
+    IN = 0.0254
+    plies = (Ply("t1", "DFL-No2", 0.0, 0.0, 1.5 * IN, 9.25 * IN),
+             Ply("pl1", "A36", 1.5 * IN, 0.25 * IN, 0.375 * IN, 8.75 * IN),
+             Ply("t2", "DFL-No2", 1.875 * IN, 0.0, 1.5 * IN, 9.25 * IN),
+             Ply("pl2", "A36", 3.375 * IN, 1.0 * IN, 0.375 * IN, 7.0 * IN),
+             Ply("t3", "DFL-No2", 3.75 * IN, 0.0, 1.5 * IN, 9.25 * IN))
+    window.document.apply(replace(p.with_plies(plies), alternatives=()), "two plates")
+    window.elevation.refresh()
+    qtbot.wait(50)
+    edge = [item.sceneBoundingRect() for item in window.elevation.drawing.dim_labels.items
+            if item.isVisible() and item.text_item.text().startswith("edge ")]
+    assert len(edge) == 4
+    assert not any(a.intersects(b) for k, a in enumerate(edge) for b in edge[k + 1:])
+    # each plate's chain of end and spacing labels keeps to its own row: the second one's
+    # was pushed right of the first one's, past the member's end
+    ends = [item.sceneBoundingRect() for item in window.elevation.drawing.dim_labels.items
+            if item.isVisible() and item.text_item.text().startswith("end ")]
+    assert len(ends) == 4
+    left = sorted(ends, key=lambda r: r.left())
+    assert abs(left[0].left() - left[1].left()) < 60  # both first end labels at the left
+    assert abs(left[2].right() - left[3].right()) < 60  # both last ones at the right
