@@ -319,6 +319,7 @@ def test_singular_beam_stops_with_a_named_problem():
     data = json.loads(DEMO.read_text())
     data["beam"].update(spans=["1e-6 mm"], overhang_left="999 m", overhang_right="999 m",
                         loads=[])
+    data["beam"].pop("bearing_length")  # longer than the span: refused before the solve
     from plystack.core.io.project_file import from_dict
 
     with pytest.raises(ProjectError, match="the analysis cannot be completed for these inputs"):

@@ -95,8 +95,10 @@ def beams(draw: st.DrawFn) -> BeamSpec:
                         draw(st.sampled_from(KINDS)), custom=True)
             for name in draw(st.lists(words.filter(bool), min_size=1, max_size=3,
                                       unique=True)))
-    return BeamSpec(layout, tuple(loads), draw(st.booleans()),
-                    draw(st.none() | positive_length), combos,
+    # a bearing at most half the shortest span (the cantilever's span): the reader's rule
+    most = min(spans) if supports == "cantilever" else min(spans) / 2
+    bearing = draw(st.none() | _floats(most * 1e-3, most))
+    return BeamSpec(layout, tuple(loads), draw(st.booleans()), bearing, combos,
                     draw(st.none() | _floats(0.0, 1.0)))
 
 
