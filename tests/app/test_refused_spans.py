@@ -16,13 +16,17 @@ from plystack.core.model import units
 WAS = "Not applied: the results shown are for the spans 12.00 ft."
 
 
-def _type(window, qtbot, text: str) -> None:
-    edit = window.beam_panel.spans
+def _enter(edit, qtbot, text: str) -> None:
+    """Type ``text`` into ``edit`` with real key events, replacing what it held, and Enter."""
     edit.setFocus()
     edit.selectAll()
     QTest.keyClicks(edit, text)
     QTest.keyClick(edit, Qt.Key.Key_Return)
     qtbot.wait(50)
+
+
+def _type(window, qtbot, text: str) -> None:
+    _enter(window.beam_panel.spans, qtbot, text)
 
 
 def _show_beam_tab(window, qtbot) -> None:
@@ -69,11 +73,7 @@ def test_refused_overhang_marks_its_field(window, qtbot):
     panel = window.beam_panel
     before = window.document.project
     edit = panel.over_left
-    edit.setFocus()
-    edit.selectAll()
-    QTest.keyClicks(edit, "-2 ft")
-    QTest.keyClick(edit, Qt.Key.Key_Return)
-    qtbot.wait(50)
+    _enter(edit, qtbot, "-2 ft")
     assert edit.styleSheet() == BAD_STYLE
     assert window.document.project == before
 
@@ -83,20 +83,13 @@ def test_bolt_diameter_outside_the_equations_is_refused_as_the_file_does(window,
     _show_beam_tab(window, qtbot)
     before = window.document.project
     edit = panel.bolt_diameter
-    edit.setFocus()
-    edit.selectAll()
-    QTest.keyClicks(edit, "2 in")
-    QTest.keyClick(edit, Qt.Key.Key_Return)
-    qtbot.wait(50)
+    _enter(edit, qtbot, "2 in")
     assert edit.styleSheet() == BAD_STYLE
     assert panel.error.text() == ("bolt diameter: 2 in is outside the bolt diameters the "
                                   "equations hold for: 1/4 in to 1 in (NDS 2018 12.3, Table "
                                   "12.3.1B)")
     assert window.document.project == before
-    edit.selectAll()
-    QTest.keyClicks(edit, "5/8 in")
-    QTest.keyClick(edit, Qt.Key.Key_Return)
-    qtbot.wait(50)
+    _enter(edit, qtbot, "5/8 in")
     assert edit.styleSheet() == ""
     assert window.document.project.design.bolt.diameter == units.parse("5/8 in", "length", "x")
 
@@ -106,11 +99,7 @@ def test_bearing_longer_than_half_the_span_is_refused(window, qtbot):
     _show_beam_tab(window, qtbot)
     before = window.document.project
     edit = panel.bearing
-    edit.setFocus()
-    edit.selectAll()
-    QTest.keyClicks(edit, "10 ft")
-    QTest.keyClick(edit, Qt.Key.Key_Return)
-    qtbot.wait(50)
+    _enter(edit, qtbot, "10 ft")
     assert edit.styleSheet() == BAD_STYLE
     assert panel.error.text() == ("bearing length: 120.0 in is longer than half the shortest "
                                   "span (72.00 in): the bearings would overlap the member")
@@ -121,17 +110,10 @@ def test_a_refused_limit_loses_its_mark_when_the_model_shows_again(window, qtbot
     panel = window.beam_panel
     _show_beam_tab(window, qtbot)
 
-    def enter(edit, text):
-        edit.setFocus()
-        edit.selectAll()
-        QTest.keyClicks(edit, text)
-        QTest.keyClick(edit, Qt.Key.Key_Return)
-        qtbot.wait(30)
-
-    enter(panel.live_limit, "0")
+    _enter(panel.live_limit, qtbot, "0")
     assert panel.live_limit.styleSheet() == BAD_STYLE
     assert panel.error.text().startswith("deflection limit live:")
-    enter(panel.bearing, "4 in")  # another edit: the panel shows the model again
+    _enter(panel.bearing, qtbot, "4 in")  # another edit: the panel shows the model again
     assert panel.live_limit.text() == "360"
     assert panel.live_limit.styleSheet() == ""
     assert not panel.error.text().startswith("deflection limit live:")
