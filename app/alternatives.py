@@ -95,7 +95,6 @@ class AlternativesPanel(QWidget):
         self.table = QTableWidget(0, 0)
         self.figure = Figure(figsize=(5, 2.4), layout="constrained")
         self.chart = FigureCanvasQTAgg(self.figure)
-        self.chart.setMinimumHeight(170)  # below that the axes collapse to nothing
         self.ax = self.figure.subplots()
         add = self.add_button = QPushButton("Keep current as alternative")
         promote = QPushButton("Make selected current")
