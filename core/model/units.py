@@ -145,7 +145,34 @@ def _bounded(text: str) -> None:
         raise UnitError(f"has a number of more than {MAX_DIGITS} digits")
 
 
-_NUMBER_TOKEN = re.compile(r"[0-9._]+")
+_NUMBER_TOKEN = re.compile(r"[0-9._]*[0-9][0-9._]*")  # a run with a digit in it
+#: Unicode fractions, as the mixed numbers the parser reads ("9\u00bd in" is 9 1/2 in).
+_VULGAR = {"\u00bd": "1/2", "\u2153": "1/3", "\u2154": "2/3", "\u00bc": "1/4",
+           "\u00be": "3/4", "\u2155": "1/5", "\u2156": "2/5", "\u2157": "3/5",
+           "\u2158": "4/5", "\u2159": "1/6", "\u215a": "5/6", "\u215b": "1/8",
+           "\u215c": "3/8", "\u215d": "5/8", "\u215e": "7/8"}
+_VULGAR_RE = re.compile("(\\d?)\\s*([" + "".join(_VULGAR) + "])")
+#: A number written after a unit ("5 m 2", "6\" 1/2"), a number right before a
+#: parenthesis ("2 (3) ft") and a fraction followed by another number ("2 1/2 1/2 in"):
+#: each would be read as a product.
+_AFTER_UNIT = re.compile(r"[A-Za-z\"'\u2032\u2033)]\s+[\d.(]")
+_BEFORE_PARENTHESIS = re.compile(r"[\d.]\s*\(")
+_FRACTION_THEN_NUMBER = re.compile(r"\d\s*/\s*\d+\s+[\d.]")
+
+
+def vulgar_fractions(text: str) -> str:
+    """``text`` with Unicode fractions and the fraction slash written as ``a/b`` (a
+    whole number before one becomes a mixed number): they were dropped before.
+    """
+    if text.isascii():
+        return text
+    text = text.replace("\u2044", "/")
+
+    def spelt(m: re.Match[str]) -> str:
+        whole = m.group(1)
+        return f"{whole} {_VULGAR[m.group(2)]}" if whole else _VULGAR[m.group(2)]
+
+    return _VULGAR_RE.sub(spelt, text)
 _WELL_FORMED_NUMBER = re.compile(r"\d+(\.\d*)?|\.\d+")
 #: Two numbers side by side (read as their product), unless the second begins a fraction
 #: (a mixed number such as 9 1/4) or the first ends a feet-and-inches text.
@@ -166,14 +193,17 @@ def _well_formed(text: str) -> None:
     for token in _NUMBER_TOKEN.findall(text):
         if not _WELL_FORMED_NUMBER.fullmatch(token):
             raise UnitError(f'has a malformed number "{token}"')
-    if _SIDE_BY_SIDE.search(text):
+    first = text.lstrip()[:1]
+    if first and not (first.isdigit() or first in "+-.("):
+        raise UnitError("must begin with its number, e.g. 12 ft")
+    side_by_side = (_SIDE_BY_SIDE.search(text) or _BEFORE_PARENTHESIS.search(text)
+                    or _FRACTION_THEN_NUMBER.search(text)
+                    or (not _FEET_INCH.match(text) and _AFTER_UNIT.search(text)))
+    if side_by_side:
         raise UnitError("has two numbers side by side; give one number and its unit (a "
                         "mixed fraction such as 9 1/4 in is one number)")
     if _FRACTION_CHAIN.search(text):
         raise UnitError("has a fraction of a fraction")
-    first = text.lstrip()[:1]
-    if first and not (first.isdigit() or first in "+-.("):
-        raise UnitError("must begin with its number, e.g. 12 ft")
 
 
 def _bounded_expression(expr: str) -> None:
@@ -325,6 +355,7 @@ def _fraction_value(expr: str, dimension: str) -> float | None:
 @lru_cache(maxsize=4096)
 def _parse_cached(text: str, dimension: str) -> float:
     _bounded(text)
+    text = vulgar_fractions(text)
     if _NUMBER_ONLY.match(text):
         raise UnitError("has no unit")
     if not any(ch.isdigit() for ch in text):

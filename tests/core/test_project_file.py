@@ -226,6 +226,10 @@ def load_text_round(project):
     ("1 000 in", "has two numbers side by side"),
     ("1 1/2/2 ft", "has a fraction of a fraction"),
     ("ft 12", "must begin with its number"),
+    ("5 m 2", "has two numbers side by side"),
+    ('6" 1/2', "has two numbers side by side"),
+    ("2 (3) ft", "has two numbers side by side"),
+    ("2 1/2 1/2 in", "has two numbers side by side"),
 ])
 def test_number_notations_read_as_another_value_are_refused(text, reason):
     """"3,6 m" was read as 36 m, "12.5.1 ft" as 1.25 ft and "2 3 ft" as 6 ft, silently."""
@@ -239,8 +243,14 @@ def test_number_notations_read_as_another_value_are_refused(text, reason):
 @pytest.mark.parametrize("text,inches", [("9 1/4 in", 9.25), ("12 ft 6 in", 150.0),
                                          ('12\' 6"', 150.0), ("1 3/4 in", 1.75),
                                          ("9-1/4 in", 9.25), ("12E1 in", 120.0),
-                                         (".5 in", 0.5), ("12 ft 6 1/2 in", 150.5)])
+                                         (".5 in", 0.5), ("12 ft 6 1/2 in", 150.5),
+                                         ("6 in.", 6.0), ("1/4 in.", 0.25), ("14 ft.", 168.0),
+                                         ("9\u00bd in", 9.5), ("11\u215e in", 11.875),
+                                         ("\u00bd in", 0.5), ("9 1\u20444 in", 9.25),
+                                         ("12'6\"", 150.0), ("2'-0 3/4\"", 24.75)])
 def test_trade_notations_still_read(text, inches):
+    """Abbreviations with a period, Unicode fractions (9\u00bd in was read as 9 in) and the
+    fraction slash read as the trade means them."""
     from plystack.core.model import units
 
     assert math.isclose(units.parse(text, "length", "x"), inches * 0.0254, rel_tol=1e-15)
