@@ -33,7 +33,7 @@ class _Parser(argparse.ArgumentParser):
         quotes choices the Python way), exit status 2.
         """
         self.print_usage(sys.stderr)
-        quoted = re.sub(r"'([^']*)'", r'"\1"', message)
+        quoted = re.sub(r"(?<!\w)'([^']*)'(?!\w)", r'"\1"', message)
         print(f"plystack: {quoted}", file=sys.stderr)
         raise SystemExit(2)
 

@@ -110,13 +110,16 @@ class Analysis:
 
 
 def _default_bolt(design: DesignSpec, system: str) -> Problem:
-    """The word that the plates' bolts are the program's default, not the user's."""
+    """The word that the plates' bolts are the program's default values (given in the
+    file or not, they are the same values, so the word cannot say which).
+    """
     b = design.bolt
     strength = (f"F_yb {fmt(b.Fyb, 'stress', system)}" if design.us
                 else f"f_u {fmt(b.fu, 'stress', system)}")
-    return Problem("design.bolt", f"is not given: the plates' bolts are taken as "
+    return Problem("design.bolt", f"the plates' bolts are the program's default, "
                    f"{fmt(b.diameter, 'length', system)} diameter, {strength}, {b.rows} rows "
-                   "(the program's default); give design.bolt for the bolts to be used")
+                   "(design.bolt gives nothing else): give design.bolt for the bolts to be "
+                   "used")
 
 
 def run_checks(project: Project, section: Section, beam: BeamResult, design: DesignSpec,
@@ -172,13 +175,16 @@ class Evaluator:
                 self._prepared = PreparedBeam.of(self.project.beam, self.design)
         return self._prepared
 
-    def section(self, plies: Sequence[Ply], reference: str | None = None) -> Section:
+    def section(self, plies: Sequence[Ply], reference: str | None = None,
+                net: bool = False) -> Section:
         """The transformed section of ``plies``; stacked plies joined by mechanical
-        fasteners with their slip (EN 1995-1-1 Annex B, ``section.gamma``).
+        fasteners with their slip (EN 1995-1-1 Annex B, ``section.gamma``). Plies that
+        form no one section are refused, except in a net section at a hole (``net``),
+        whose parts of a bored ply act as that ply.
         """
         plies = tuple(plies)
         plain = analyse(plies, self.materials, reference or self.project.reference_material)
-        if falls_apart(plain):
+        if not net and falls_apart(plain):
             raise ProjectError(Problem("plies", "no ply touches another and they stand at "
                                        "different heights, so they form no one section: "
                                        "place them side by side or stacked, touching (a "
@@ -314,7 +320,7 @@ class Evaluator:
             return next((s.section for s in segments if s.start <= x <= s.end), section)
 
         def section_of(plies: Sequence[Ply]) -> Section:
-            return self.section(plies, section.reference_material)
+            return self.section(plies, section.reference_material, net=True)
 
         return opening_checks(section_at, beam, checks, self.design, system, section_of)
 

@@ -68,13 +68,24 @@ def _chosen(section: Section, names: tuple[str, ...]) -> list[int]:
             if (p.name in names if names else m.kind == "timber")]
 
 
-def _named(section: Section, names: tuple[str, ...], path: str, x: float, system: str,
+def _beside(section_at: Callable[[float], Section], x: float, beam: BeamResult
+            ) -> list[Section]:
+    """The sections just left and right of ``x`` (a ply that starts or ends at x is
+    there: its extent is closed).
+    """
+    length = beam.model.layout.length
+    step = 1e-9 * max(length, 1.0)
+    return [section_at(min(max(x + d, 0.0), length)) for d in (-step, 0.0, step)]
+
+
+def _named(sections: list[Section], names: tuple[str, ...], path: str, x: float, system: str,
            timber: bool) -> None:
     """Refuse a name of ``names`` that is no ply of the member at ``x`` (a misspelt name
     or a ply that does not run there would leave the opening out unseen), and with
     ``timber`` one that is not timber (notches are checked in timber).
     """
-    at = {p.name: m.kind for p, m in zip(section.plies, section.materials, strict=True)}
+    at = {p.name: m.kind for section in sections
+          for p, m in zip(section.plies, section.materials, strict=True)}
     for name in names:
         if name not in at:
             listed = ", ".join(f'"{n}"' for n in at)
@@ -287,14 +298,15 @@ def opening_checks(section_at: Callable[[float], Section], beam: BeamResult,
                                 "EU basis"))
     for k, notch in enumerate(beam.spec.notches):
         sec = section_at(notch.x)
-        _named(sec, notch.plies, f"beam.notches[{k}].plies", notch.x, system, True)
+        _named(_beside(section_at, notch.x, beam), notch.plies, f"beam.notches[{k}].plies",
+               notch.x, system, True)
         for combo in beam.strength():
             c = _notch_check(notch, k, combo, beam, sec, checks, design, system, warnings)
             if c is not None:
                 out.append(c)
     for k, hole in enumerate(beam.spec.holes):
-        _named(section_at(hole.x), hole.plies, f"beam.holes[{k}].plies", hole.x, system,
-               False)
+        _named(_beside(section_at, hole.x, beam), hole.plies, f"beam.holes[{k}].plies",
+               hole.x, system, False)
         out += _hole_checks(hole, k, beam, section_at(hole.x), checks, section_of, system,
                             warnings)
     return out, warnings

@@ -155,13 +155,14 @@ def test_bolts_the_user_did_not_give_are_said_as_the_default():
     del d["design"]["bolt"]
     a = _run(d)
     assert _said(a, "design.bolt") == [
-        "design.bolt: is not given: the plates' bolts are taken as 0.5000 in diameter, F_yb "
-        "45000 psi, 2 rows (the program's default); give design.bolt for the bolts to be used"]
+        "design.bolt: the plates' bolts are the program's default, 0.5000 in diameter, F_yb "
+        "45000 psi, 2 rows (design.bolt gives nothing else): give design.bolt for the bolts "
+        "to be used"]
     assert _said(_run(US), "design.bolt") == []  # the demo gives its bolts
     e = copy.deepcopy(EU)
     del e["design"]["bolt"]
     assert _said(_run(e), "design.bolt")[0].startswith(
-        "design.bolt: is not given: the plates' bolts are taken as 12.70 mm diameter, f_u "
+        "design.bolt: the plates' bolts are the program's default, 12.70 mm diameter, f_u "
         "400.0 MPa")
 
 
@@ -173,3 +174,27 @@ def test_a_hole_without_plies_at_a_plates_height_says_the_plate_is_not_bored():
         '"flitch plate" at its height is taken as not bored; name every ply it passes through']
     d["beam"]["holes"][0]["plies"] = ["left 2x10", "flitch plate", "right 2x10"]
     assert _said(_run(d), "beam.holes") == []
+
+
+def test_a_hole_at_a_plies_start_names_it_and_a_hole_in_a_gap_is_checked():
+    """A ply's extent is closed: a hole at the very start of a plate that stops short
+    may name it (it was refused there and accepted at the plate's end); a hole in the
+    joists beside the plate's gap forms a net section of parts apart at two heights,
+    which is a net section, not plies that form no member (it was refused)."""
+    d = copy.deepcopy(US)
+    d["plies"][1]["from"], d["plies"][1]["to"] = "1 ft", "11 ft"
+    for at, plies in (("1 ft", ["flitch plate", "left 2x10"]),
+                      ("11 ft", ["flitch plate", "left 2x10"]), ("0.5 ft", ["left 2x10"])):
+        d["beam"]["holes"] = [{"diameter": "1 in", "at": at, "y": "4 in", "plies": plies}]
+        a = _run(d)
+        assert any(c.location.startswith("hole 1") for c in a.checks), at
+
+
+def test_end_distance_with_stations_is_refused():
+    d = copy.deepcopy(US)
+    d["design"]["bolt"].update(stations=["1 ft", "6 ft"], end_distance="3 in")
+    with pytest.raises(ProjectError) as info:
+        loads(json.dumps(d))
+    assert [str(p) for p in info.value.problems] == [
+        "design.bolt.end_distance: is given with stations: give the stations or an end "
+        "distance, not both"]
