@@ -26,7 +26,11 @@ class ToolActions:
         if i is None:
             self.inform("Auto-size", "Select a ply first.")  # type: ignore[attr-defined]
             return
-        options = width_options(p, p.plies[i].name)
+        try:
+            options = width_options(p, p.plies[i].name)
+        except ProjectError as exc:  # glulam, LVL: no stock list of the program's
+            self.warn("Auto-size", "\n".join(str(q) for q in exc.problems))  # type: ignore[attr-defined]
+            return
         progress = StudyProgress(self, "Auto-size", "Trying stock thicknesses\u2026")  # type: ignore[arg-type]
         try:
             try:

@@ -147,7 +147,7 @@ def with_dimension(plies: Sequence[Ply], name: str, dimension: str, value: float
 def width_options(project: Project, name: str) -> list[float]:
     """The stock widths ``size`` tries for a ply, in the project's units: plate
     thicknesses for steel (and any ply not of timber), dressed or sawn timber thicknesses
-    for timber (section/templates).
+    for sawn timber (section/templates); glulam and LVL need the user's list.
     """
     from ..section.templates import (
         PLATES_SI,
@@ -160,6 +160,10 @@ def width_options(project: Project, name: str) -> list[float]:
     material = project.all_materials().get(ply.material)
     us = project.display_units == "US"
     if material is not None and material.kind == "timber":
+        if material.product != "sawn":  # glulam and LVL: stock widths are the maker's
+            raise ProjectError(Problem("--values", f'is needed for "{name}" ({material.id}, '
+                                       f"{material.product}): its stock widths are the "
+                                       "maker's; give the widths to try"))
         return list(TIMBER_THICKNESSES_US if us else TIMBER_THICKNESSES_SI)
     return list((PLATES_US if us else PLATES_SI).values())
 

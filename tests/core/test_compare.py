@@ -199,3 +199,23 @@ def test_size_tries_timber_thicknesses_for_a_timber_ply(capsys):
     assert main(["size", str(DEMO), "--ply", "left 2x10", "--json"]) == 0
     out = json.loads(capsys.readouterr().out)
     assert out["value"] == 1.5 * inch and out["ok"] is True
+
+
+def test_size_asks_for_the_widths_of_glulam_and_lvl():
+    """Sawn thicknesses are no stock of glulam or LVL (their widths are the maker's):
+    without --values the search is refused by name rather than run on sizes not made."""
+    from dataclasses import replace
+
+    from plystack.core.model.errors import ProjectError
+    from plystack.core.study.compare import width_options
+
+    p = load(DEMO)
+    mats = p.all_materials()
+    for product in ("glulam", "lvl"):
+        mid = next(m.id for m in mats.values() if m.product == product)
+        q = p.with_plies(tuple(replace(x, material=mid) if x.name == "left 2x10" else x
+                               for x in p.plies))
+        with pytest.raises(ProjectError) as info:
+            width_options(q, "left 2x10")
+        assert str(info.value.problems[0]).startswith(
+            f'--values: is needed for "left 2x10" ({mid}, {product})')
