@@ -157,7 +157,9 @@ class PlyPanel(QWidget):
         renamed = project.with_plies(tuple(plies))
         design = project.design
         if design is not None and old in design.overrides and old != name:
-            overrides = {name if k == old else k: v for k, v in design.overrides.items()}
+            # the renamed ply's overrides win over a stale entry of the new name
+            overrides = {name if k == old else k: v for k, v in design.overrides.items()
+                         if k != name}
             renamed = replace(renamed, design=replace(design, overrides=overrides))
         beam = project.beam
         if beam is not None and old != name:
