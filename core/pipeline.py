@@ -27,7 +27,7 @@ from .actions.analysis import (
 from .actions.stages import is_staged, stage_solutions, stepped_stage_solutions
 from .design.bolt_checks import PlateLayout
 from .design.check import Check
-from .design.common import other_basis_fields, unapplied_overrides
+from .design.common import other_basis_fields, unapplied_overrides, unused_bolt_fields
 from .design.eu_lsd import eu_checks
 from .design.material_notes import material_warnings
 from .design.memo import with_partner
@@ -273,6 +273,8 @@ class Evaluator:
             if beam is not None:
                 warnings += unapplied_overrides(self.design, plies, checks)
                 warnings += other_basis_fields(self.design)
+                if layouts:
+                    warnings += unused_bolt_fields(self.design)
             # a reason given by several checks (each combination, each ply of a
             # material) is said once, in the order first given
             out.append(Analysis(project, section, beam, self.design, checks,

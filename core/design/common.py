@@ -366,6 +366,19 @@ def other_basis_fields(design: DesignSpec) -> list[Problem]:
     return out
 
 
+def unused_bolt_fields(design: DesignSpec) -> list[Problem]:
+    """A bolt spacing or end distance given beside the stations, which place the bolts
+    themselves: said, since neither is used.
+    """
+    bolt = design.bolt
+    if not bolt.stations:
+        return []
+    return [Problem(f"design.bolt.{key}", "is not used: the stations give the bolts' "
+                    "positions")
+            for key, value in (("spacing", bolt.spacing), ("end_distance", bolt.end_distance))
+            if value is not None]
+
+
 def connector_checks(section: Section, beam: BeamResult, design: DesignSpec, system: str,
                      warnings: list[Problem]) -> list[Check]:
     """Connectors of stacked plies, on either basis: the shear flow V Q / I_t at each

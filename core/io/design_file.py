@@ -160,11 +160,6 @@ def _read_bolt(raw: Any, path: str, problems: list[Problem]) -> Bolt:
         if key in raw and key not in scalars:
             lists[key] = _read_lengths(raw[key], longest, f"{path}.{key}", problems)
     heights = lists.get("rows", ())
-    for key in ("spacing", "end_distance"):  # either would be left out unseen
-        if "stations" in raw and key in raw:
-            problems.append(Problem(f"{path}.{key}", "is given with stations: give the "
-                                    "stations or " + ("a spacing" if key == "spacing"
-                                                      else "an end distance") + ", not both"))
     return replace(bolt, row_heights=heights, rows=len(heights) or bolt.rows,
                    stations=tuple(sorted(lists.get("stations", ()))))
 

@@ -190,11 +190,11 @@ def test_a_hole_at_a_plies_start_names_it_and_a_hole_in_a_gap_is_checked():
         assert any(c.location.startswith("hole 1") for c in a.checks), at
 
 
-def test_end_distance_with_stations_is_refused():
+def test_end_distance_and_spacing_beside_stations_are_said_as_not_used():
     d = copy.deepcopy(US)
-    d["design"]["bolt"].update(stations=["1 ft", "6 ft"], end_distance="3 in")
-    with pytest.raises(ProjectError) as info:
-        loads(json.dumps(d))
-    assert [str(p) for p in info.value.problems] == [
-        "design.bolt.end_distance: is given with stations: give the stations or an end "
-        "distance, not both"]
+    d["design"]["bolt"].update(stations=["1 ft", "6 ft", "11 ft"], end_distance="3 in",
+                               spacing="24 in")
+    a = _run(d)
+    assert _said(a, "design.bolt.") == [
+        "design.bolt.spacing: is not used: the stations give the bolts' positions",
+        "design.bolt.end_distance: is not used: the stations give the bolts' positions"]
