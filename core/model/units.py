@@ -146,18 +146,27 @@ def _bounded(text: str) -> None:
 
 
 _NUMBER_TOKEN = re.compile(r"[0-9._]*[0-9][0-9._]*")  # a run with a digit in it
-#: Unicode fractions, as the mixed numbers the parser reads ("9\u00bd in" is 9 1/2 in).
-_VULGAR = {"\u00bd": "1/2", "\u2153": "1/3", "\u2154": "2/3", "\u00bc": "1/4",
-           "\u00be": "3/4", "\u2155": "1/5", "\u2156": "2/5", "\u2157": "3/5",
-           "\u2158": "4/5", "\u2159": "1/6", "\u215a": "5/6", "\u215b": "1/8",
-           "\u215c": "3/8", "\u215d": "5/8", "\u215e": "7/8"}
-_VULGAR_RE = re.compile("(\\d?)\\s*([" + "".join(_VULGAR) + "])")
+_WELL_FORMED_NUMBER = re.compile(r"\d+(\.\d*)?|\.\d+")
+#: Two numbers side by side (read as their product), unless the second begins a fraction
+#: (a mixed number such as 9 1/4) or the first ends a feet-and-inches text.
+_SIDE_BY_SIDE = re.compile(r"\d\.?\s+\.?\d+(?!\d*\s*/)")
 #: A number written after a unit ("5 m 2", "6\" 1/2"), a number right before a
 #: parenthesis ("2 (3) ft") and a fraction followed by another number ("2 1/2 1/2 in"):
 #: each would be read as a product.
 _AFTER_UNIT = re.compile(r"[A-Za-z\"'\u2032\u2033)]\s+[\d.(]")
 _BEFORE_PARENTHESIS = re.compile(r"[\d.]\s*\(")
 _FRACTION_THEN_NUMBER = re.compile(r"\d\s*/\s*\d+\s+[\d.]")
+_FRACTION_CHAIN = re.compile(r"\d\s*/\s*\d+\s*/")
+#: Unicode fractions, as the mixed numbers the parser reads ("9\u00bd in" is 9 1/2 in).
+_VULGAR = {"\u00bd": "1/2", "\u2153": "1/3", "\u2154": "2/3", "\u00bc": "1/4",
+           "\u00be": "3/4", "\u2155": "1/5", "\u2156": "2/5", "\u2157": "3/5",
+           "\u2158": "4/5", "\u2159": "1/6", "\u215a": "5/6", "\u215b": "1/8",
+           "\u215c": "3/8", "\u215d": "5/8", "\u215e": "7/8"}
+_VULGAR_RE = re.compile("(\\d?)\\s*([" + "".join(_VULGAR) + "])")
+
+
+class _Refused(UnitError):
+    """A notation refused in words that the message gives as they are."""
 
 
 def vulgar_fractions(text: str) -> str:
@@ -173,37 +182,32 @@ def vulgar_fractions(text: str) -> str:
         return f"{whole} {_VULGAR[m.group(2)]}" if whole else _VULGAR[m.group(2)]
 
     return _VULGAR_RE.sub(spelt, text)
-_WELL_FORMED_NUMBER = re.compile(r"\d+(\.\d*)?|\.\d+")
-#: Two numbers side by side (read as their product), unless the second begins a fraction
-#: (a mixed number such as 9 1/4) or the first ends a feet-and-inches text.
-_SIDE_BY_SIDE = re.compile(r"\d\.?\s+\.?\d+(?!\d*\s*/)")
-_FRACTION_CHAIN = re.compile(r"\d\s*/\s*\d+\s*/")
 
 
 def _well_formed(text: str) -> None:
     """Refuse number notations that would be read as some other value without a word: a
     decimal comma or thousands separator ("3,6 m" would be 36 m), a number with two
     points or an underscore ("12.5.1 ft", "1_000 in"), two numbers side by side ("2 3
-    ft" would be 6 ft), a fraction of a fraction ("1/2/2 ft") and a unit before its
-    number ("ft 12").
+    ft" would be 6 ft, "5 m 2" 10 m, "2 (3) ft" 6 ft), a fraction of a fraction ("1/2/2
+    ft") and a unit before its number ("ft 12").
     """
     if "," in text:
-        raise UnitError("has a comma: write a decimal point and no thousands separator "
+        raise _Refused("has a comma: write a decimal point and no thousands separator "
                         "(3.6 m, 1000 lbf)")
     for token in _NUMBER_TOKEN.findall(text):
         if not _WELL_FORMED_NUMBER.fullmatch(token):
-            raise UnitError(f'has a malformed number "{token}"')
+            raise _Refused(f'has a malformed number "{token}"')
     first = text.lstrip()[:1]
     if first and not (first.isdigit() or first in "+-.("):
-        raise UnitError("must begin with its number, e.g. 12 ft")
+        raise _Refused("must begin with its number, e.g. 12 ft")
     side_by_side = (_SIDE_BY_SIDE.search(text) or _BEFORE_PARENTHESIS.search(text)
                     or _FRACTION_THEN_NUMBER.search(text)
                     or (not _FEET_INCH.match(text) and _AFTER_UNIT.search(text)))
     if side_by_side:
-        raise UnitError("has two numbers side by side; give one number and its unit (a "
+        raise _Refused("has two numbers side by side; give one number and its unit (a "
                         "mixed fraction such as 9 1/4 in is one number)")
     if _FRACTION_CHAIN.search(text):
-        raise UnitError("has a fraction of a fraction")
+        raise _Refused("has a fraction of a fraction")
 
 
 def _bounded_expression(expr: str) -> None:
@@ -438,10 +442,9 @@ def parse(text: Any, dimension: str, field: str) -> float:
         if reason == "has no number":
             return _raise(f'{field}: "{quoted}" has no number; expected '
                           f"{DIMENSION_WORDS[dimension]}")
-        if reason.startswith(("is not ", "is longer", "has a number", "raises", "has paren",
-                              "is too large", "is out of range", "has a comma",
-                              "has a malformed", "has two numbers", "has a fraction of",
-                              "must begin")):
+        if isinstance(exc, _Refused) or reason.startswith((
+                "is not ", "is longer", "has a number", "raises", "has paren",
+                "is too large", "is out of range")):
             return _raise(f'{field}: "{quoted}" {reason}')
         return _raise(f'{field}: "{quoted}" is not {DIMENSION_WORDS[dimension]} ({reason})')
 
