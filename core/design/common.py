@@ -79,15 +79,23 @@ def shear_cuts(section: Section) -> np.ndarray:
     return ys[np.concatenate(([True], ys[1:] != ys[:-1]))]  # np.unique's, without numpy.ma
 
 
-def _unit_shear(section: Section) -> np.ndarray:
-    """|tau| of every ply at every cut of :func:`shear_cuts` for V = 1 N (0 outside it)."""
-    tau = np.abs(section.shear_stress(1.0, shear_cuts(section)))
-    return np.where(np.isfinite(tau), tau, 0.0)
+def _unit_shear(section: Section) -> tuple[np.ndarray, np.ndarray]:
+    """The cuts of :func:`shear_cuts` and |tau| of every ply at each for V = 1 N (0
+    outside the ply), found once per section (read-only).
+    """
+    def make() -> tuple[np.ndarray, np.ndarray]:
+        ys = shear_cuts(section)
+        tau = np.abs(section.shear_stress(1.0, ys))
+        tau = np.where(np.isfinite(tau), tau, 0.0)
+        tau.setflags(write=False)
+        return ys, tau
+
+    return once(section, "unit_shear", make)
 
 
 def _unit_shear_stress(section: Section) -> np.ndarray:
     """The largest |tau| of each ply for V = 1 N over :func:`shear_cuts`."""
-    out = np.asarray(_unit_shear(section).max(axis=1))  # no NaN is left
+    out = np.asarray(_unit_shear(section)[1].max(axis=1))  # no NaN is left
     out.setflags(write=False)
     return out
 
@@ -96,9 +104,9 @@ def shear_point(section: Section, i: int) -> tuple[float, float]:
     """Height of the largest shear stress in ply i and its value per newton of V (the
     cuts and the value of :func:`unit_shear_stress`).
     """
-    tau = _unit_shear(section)[i]
-    k = int(np.argmax(tau))
-    return float(shear_cuts(section)[k]), float(tau[k])
+    ys, tau = _unit_shear(section)
+    k = int(np.argmax(tau[i]))
+    return float(ys[k]), float(tau[i, k])
 
 
 def region_span(name: str, x0: float, x1: float) -> float:
