@@ -78,32 +78,33 @@ def test_refused_overhang_marks_its_field(window, qtbot):
     assert window.document.project == before
 
 
-def test_bolt_diameter_outside_the_equations_is_refused_as_the_file_does(window, qtbot):
+def _refused_in(window, qtbot, field: str, text: str, message: str):
+    """Type ``text`` into the beam panel's ``field``: marked, ``message`` shown, the
+    model unchanged. Returns the field."""
     panel = window.beam_panel
     _show_beam_tab(window, qtbot)
     before = window.document.project
-    edit = panel.bolt_diameter
-    _enter(edit, qtbot, "2 in")
+    edit = getattr(panel, field)
+    _enter(edit, qtbot, text)
     assert edit.styleSheet() == BAD_STYLE
-    assert panel.error.text() == ("bolt diameter: 2 in is outside the bolt diameters the "
-                                  "equations hold for: 1/4 in to 1 in (NDS 2018 12.3, Table "
-                                  "12.3.1B)")
+    assert panel.error.text() == message
     assert window.document.project == before
+    return edit
+
+
+def test_bolt_diameter_outside_the_equations_is_refused_as_the_file_does(window, qtbot):
+    edit = _refused_in(window, qtbot, "bolt_diameter", "2 in",
+                       "bolt diameter: 2 in is outside the bolt diameters the equations hold "
+                       "for: 1/4 in to 1 in (NDS 2018 12.3, Table 12.3.1B)")
     _enter(edit, qtbot, "5/8 in")
     assert edit.styleSheet() == ""
     assert window.document.project.design.bolt.diameter == units.parse("5/8 in", "length", "x")
 
 
 def test_bearing_longer_than_half_the_span_is_refused(window, qtbot):
-    panel = window.beam_panel
-    _show_beam_tab(window, qtbot)
-    before = window.document.project
-    edit = panel.bearing
-    _enter(edit, qtbot, "10 ft")
-    assert edit.styleSheet() == BAD_STYLE
-    assert panel.error.text() == ("bearing length: 120.0 in is longer than half the shortest "
-                                  "span (72.00 in): the bearings would overlap the member")
-    assert window.document.project == before
+    _refused_in(window, qtbot, "bearing", "10 ft",
+                "bearing length: 120.0 in is longer than half the shortest span (72.00 in): "
+                "the bearings would overlap the member")
 
 
 def test_a_refused_limit_loses_its_mark_when_the_model_shows_again(window, qtbot):
