@@ -508,19 +508,27 @@ class BeamPanel(QWidget):
             if why is not None:
                 problems.append(Problem("beam.bearing_length", why))
         if problems:
-            was = ", ".join(units.fmt(s, "span", u) for s in beam.layout.spans)
-            message = ("; ".join(str(q) for q in problems)
-                       + f". Not applied: the results shown are for the spans {was}.")
-            self.error.setText(message)
-            if source is not None:
-                source.setStyleSheet(BAD_STYLE)
-                source.setToolTip(message)
+            self._refuse("; ".join(str(q) for q in problems), source)
             self.refresh_soon()
             return
         if source is not None:
             source.setStyleSheet("")
             source.setToolTip(SPANS_TIP if source is self.spans else "")
         self._apply_beam(replace(beam, layout=layout), "Change beam layout")
+
+    def _refuse(self, reason: str, source: QLineEdit | None) -> None:
+        """Say why a layout edit is not applied, and that the results shown are still
+        those of the spans as they were; mark ``source``, the field it was typed into.
+        """
+        beam = self.document.project.beam
+        u = self.document.project.display_units
+        was = "" if beam is None else ", ".join(units.fmt(s, "span", u)
+                                                for s in beam.layout.spans)
+        message = f"{reason}. Not applied: the results shown are for the spans {was}."
+        self.error.setText(message)
+        if source is not None:
+            source.setStyleSheet(BAD_STYLE)
+            source.setToolTip(message)
 
     def _bearing_problem(self, value: float) -> str | None:
         """Why a bearing length typed into the field cannot be (the file's rule)."""
@@ -549,11 +557,7 @@ class BeamPanel(QWidget):
             try:
                 spans.append(parse_entry(part, "span", u, f"beam.spans[{i}]"))
             except units.UnitError as exc:
-                was = ", ".join(units.fmt(s, "span", u) for s in beam.layout.spans)
-                message = f"{exc}. Not applied: the results shown are for the spans {was}."
-                self.error.setText(message)
-                self.spans.setStyleSheet(BAD_STYLE)
-                self.spans.setToolTip(message)
+                self._refuse(str(exc), self.spans)
                 return
         self._set_layout(self.spans, spans=tuple(spans))
 
