@@ -275,8 +275,8 @@ def plates_of(a: Analysis, alternative: str | None = None) -> PlateSet:
 def project_plates(project: Project, alternative: str | None = None) -> PlateSet:
     """Analyse the project (or the named alternative) and return its steel plates."""
     chosen = select_alternative(project, alternative)
-    if alternative is None:
-        return plates_of(run(chosen), alternative)
-    with named_under(f"alternatives[{project.alternative_named(alternative)[0]}]"):
+    where = (None if alternative is None
+             else f"alternatives[{project.alternative_named(alternative)[0]}]")
+    with named_under(where):
         return plates_of(run(chosen), alternative)
 

@@ -66,14 +66,17 @@ class ProjectError(ValueError):
 
 
 @contextmanager
-def named_under(prefix: str, root: str = "plies") -> Iterator[None]:
+def named_under(prefix: str | None, root: str = "plies") -> Iterator[None]:
     """Name the problems raised inside under ``prefix``: a problem of ``root`` (``plies``,
     ``plies[2].x``) becomes one of ``prefix.root`` (``alternatives[1].plies[2].x``), so
-    that the message points at the field of the file that holds them.
+    that the message points at the field of the file that holds them (``None``: as
+    they are).
     """
     try:
         yield
     except ProjectError as exc:
+        if prefix is None:
+            raise
         raise ProjectError([
             replace(p, path=f"{prefix}.{p.path}")
             if p.path == root or p.path.startswith((f"{root}[", f"{root}.")) else p

@@ -220,16 +220,13 @@ def _streams_without_base85() -> Iterator[None]:
 
 def analysis_for(project: Project, alternative: str | None) -> Analysis:
     """The analysis of the project (or of one of its alternatives)."""
-    where = ""
+    where = None
     if alternative is not None:
         k, alt = project.alternative_named(alternative)
         project = replace(project.with_plies(alt.plies),
                           title=f"{project.title} \u2014 {alt.name}")
         where = f"alternatives[{k}]"
-    if where:
-        with named_under(where):
-            a = run(project)
-    else:
+    with named_under(where):
         a = run(project)
     if a.beam is None or not a.checks:
         raise ProjectError(Problem("beam", "the project has no beam with checks; a calculation "
