@@ -98,7 +98,7 @@ class ElevationView(QGraphicsView):
         self.bolts = plate_bolts(None)
         self.drawing = ElevationDrawing(self.scene())
         self.marker = QGraphicsLineItem()
-        self.marker.setPen(pen(STATION, 1.2, Qt.PenStyle.DashLine))
+        self.marker.setPen(pen(STATION, 1.0, Qt.PenStyle.DashLine))
         self.marker.setZValue(80)
         self.scene().addItem(self.marker)
         document.changed.connect(self._document_changed)

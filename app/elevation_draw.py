@@ -165,7 +165,7 @@ class ElevationDrawing:
             color = FILLS.get(kind, FILLS["other"])[0]
             if kind == "steel":  # hidden between timbers: a dashed outline (drafting)
                 item.setBrush(QBrush(QColor(color.red(), color.green(), color.blue(), 70)))
-                item.setPen(pen(QColor(40, 45, 55), 1.2, Qt.PenStyle.DashLine))
+                item.setPen(pen(QColor(40, 45, 55), 1.0, Qt.PenStyle.DashLine))
             else:
                 item.setBrush(QBrush(color))
                 item.setPen(pen(QColor(120, 90, 50), 1.0))

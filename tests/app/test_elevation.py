@@ -21,6 +21,7 @@ from PySide6.QtGui import QMouseEvent
 from PySide6.QtTest import QTest
 from PySide6.QtWidgets import QApplication, QGraphicsPathItem
 
+from plystack.app.elevation_items import pen
 from plystack.app.elevation_model import (
     concerned_bolts,
     dragged_extent,
@@ -411,6 +412,20 @@ def test_supports_loads_and_openings_are_drawn_one_item_each(short_plate):
     # hand: the hole's centre 6 ft along and 4 5/8 in up, 1 in across
     assert f.x_m(hole.center().x()) == pytest.approx(6 * FT, abs=1e-9)
     assert hole.width() == pytest.approx(1 * IN / f.length * f.width, abs=1e-9)
+
+
+def test_the_hidden_plate_and_the_station_marker_are_dashed_one_pixel_wide(short_plate):
+    # a dashed cosmetic pen wider than one pixel is stroked as an antialiased outline by
+    # Qt's raster engine (several times slower: see elevation_items.pen); the demo's
+    # plate (the second ply) is drawn hidden between its timbers, dashed
+    view = short_plate.elevation
+    plate = view.drawing.plies.items[1].pen()
+    assert plate.style() == Qt.PenStyle.DashLine and plate.isCosmetic()
+    assert plate.widthF() == 1.0
+    assert view.marker.pen().style() == Qt.PenStyle.DashLine
+    assert view.marker.pen().widthF() == 1.0
+    assert pen(Qt.GlobalColor.black, 2.0, Qt.PenStyle.DotLine).widthF() == 1.0
+    assert pen(Qt.GlobalColor.black, 2.0).widthF() == 2.0  # solid pens keep their width
 
 
 def test_plies_that_leave_a_stretch_empty_draw_and_pick_without_a_crash(qtbot, tmp_path):
