@@ -195,17 +195,18 @@ def C_fu(width: float, thickness: float) -> float:
     memory), by the wide face ``width`` and the ``thickness``, m: 2-3 in thick: width
     2-3 in 1.0, 4 in 1.1, 5 in 1.1, 6 in 1.15, 8 in 1.15, 10 in and wider 1.2; 4 in
     thick: 4 in 1.0, 5-8 in 1.05, 10 in and wider 1.1.
+
+    The table is by nominal size; a width is read as the largest nominal width whose
+    dressed width (2x4 3.5 in, 2x6 5.5 in, 2x10 9.25 in, ...) it reaches, so a width
+    between two sizes takes the smaller factor.
     """
     w, t = width / INCH, thickness / INCH
-    if t <= 3.0 + 1e-6:
-        for limit, f in ((3.5, 1.0), (4.5, 1.1), (5.5, 1.15), (7.25, 1.15)):
-            if w <= limit + 1e-6:
-                return f
-        return 1.2
-    for limit, f in ((3.5, 1.0), (7.25, 1.05)):
-        if w <= limit + 1e-6:
+    steps = (((9.25, 1.2), (5.5, 1.15), (3.5, 1.1)) if t <= 3.0 + 1e-6
+             else ((9.25, 1.1), (4.5, 1.05)))
+    for reached, f in steps:
+        if w >= reached - 1e-6:
             return f
-    return 1.1
+    return 1.0
 
 
 def K_cr(wet_service: bool) -> float:

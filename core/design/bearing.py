@@ -245,10 +245,9 @@ def us_bearing(section: Section, beam: BeamResult, design: DesignSpec,
     for site, surface, i_min, fcp in _borne(section, sites, "Fc_perp", design, warnings):
         mat = section.materials[i_min]
         worst = max(combos, key=site.force)
-        if site.face == "top":
-            at_end = min(site.x, L - site.x) - site.length / 2 < NDS_END_CLEAR
-        else:
-            at_end = site.x <= 1e-9 or site.x >= L - 1e-9
+        # "not nearer than 3 in to the end": the bearing's own edge, on either face (a
+        # support on a short overhang bears near the member's end too)
+        at_end = min(site.x, L - site.x) - site.length / 2 < NDS_END_CLEAR
         f = {"C_M": nds.C_M("Fc_perp", mat.product, design.wet_service),
              "C_t": nds.C_t("Fc_perp", design.temperature, design.wet_service),
              "C_i": nds.C_i("Fc_perp", design.incised), "C_b": nds.C_b(site.length, at_end)}
@@ -267,14 +266,11 @@ def us_bearing(section: Section, beam: BeamResult, design: DesignSpec,
 
 def en_effective_length(site: BearingSite, length: float) -> float:
     """EN 1995-1-1 6.1.5(1): l_ef = l plus up to 30 mm on each side, not beyond the
-    member's ends (a support at an end of the member spreads to one side only).
+    member's ends (a support at an end of the member spreads to one side only; one on an
+    overhang shorter than 30 mm beyond its bearing, only as far as the end).
     """
-    if site.face == "top":
-        left = site.x - site.length / 2
-        right = length - site.x - site.length / 2
-    else:
-        left = 0.0 if site.x <= 1e-9 else EN_SPREAD
-        right = 0.0 if site.x >= length - 1e-9 else EN_SPREAD
+    left = site.x - site.length / 2  # to the member's ends, on either face (a support
+    right = length - site.x - site.length / 2  # on a short overhang spreads that far)
     return site.length + min(EN_SPREAD, max(left, 0.0)) + min(EN_SPREAD, max(right, 0.0))
 
 

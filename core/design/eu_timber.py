@@ -23,7 +23,7 @@ from .check import Check, CheckId, capacity_from
 from .common import apply_overrides
 from .demands import PlyDemand, eu_uls_section, ply_demands
 from .slip import carries_axial
-from .stability import edge_stability
+from .stability import EdgeStability, edge_stabilities, edge_stability
 
 S_KMOD = "EN 1995-1-1 Table 3.1 (from memory)"
 S_GM = "EN 1995-1-1 Table 2.3 (from memory)"
@@ -53,8 +53,24 @@ def bending_check(i: int, section: Section, beam: BeamResult, combo: Combination
 def _k_crit(i: int, section: Section, beam: BeamResult, design: DesignSpec,
             member_width: float, d: PlyDemand, warnings: list[Problem]
             ) -> tuple[float, str, str] | None:
+    """k_crit of ply i at the demand ``d``, its source and the check's location: at a
+    support between two spans or overhangs the lower of the two sides (EN 1995-1-1
+    6.3.3); None where E_0,05 is missing (warned).
+    """
+    found = None
+    for edge in edge_stabilities(beam, design, "top" if d.sign > 0 else "bottom", d.x):
+        got = _k_crit_in(i, section, design, member_width, d, edge, warnings)
+        if got is None:
+            return None
+        if found is None or got[0] < found[0]:
+            found = got
+    return found
+
+
+def _k_crit_in(i: int, section: Section, design: DesignSpec, member_width: float,
+               d: PlyDemand, edge: EdgeStability, warnings: list[Problem]
+               ) -> tuple[float, str, str] | None:
     ply, mat = section.plies[i], section.materials[i]
-    edge = edge_stability(beam, design, "top" if d.sign > 0 else "bottom", d.x)
     where = f"{edge.region}, {edge.edge} edge in compression"
     if not d.compression:
         return 1.0, "ply wholly in tension at this extreme: no lateral buckling", where

@@ -17,9 +17,10 @@ conservative).
 
 US: NDS 2018 3.4.3.3 (from memory): the shear the connection puts into the timber V <=
 V'_r = (2/3) F'_v b d_e, times (d_e / d)^2 where the connection is less than 5 d from the
-end of the member; d_e = d less the distance from the unloaded edge to the nearest edge of
-the nearest bolt (= h_e + D / 2 here, at most d). V: the whole force the timber receives
-at the site (the larger of the shears either side of the connection is never more).
+end of the member; for bolts and lag screws d_e = d less the distance from the unloaded
+edge to the centre of the nearest bolt (= h_e here; the nearest edge is the rule of split
+rings and shear plates). V: the whole force the timber receives at the site (the larger of
+the shears either side of the connection is never more).
 """
 
 from __future__ import annotations
@@ -113,8 +114,8 @@ def _us_resistance(Fv: float, b: float, h: float, d_e: float, near_end: bool,
         capacity_from(V_r, f), ("(2/3) F'v b d_e", V_r), f, {},
         {"(2/3) F'v b d_e": "NDS 2018 3.4.3.3 (from memory): F'v the timber's "
          "adjusted shear value under the combination (its shear check), d_e = d "
-         "less the distance from the unloaded edge to the nearest edge of the "
-         "nearest bolt",
+         "less the distance from the unloaded edge to the centre of the nearest "
+         "bolt",
          **({"(d_e/d)^2": "NDS 2018 3.4.3.3(a): connection less than 5d from "
              "the end of the member (from memory)"} if near_end else {})},
         "V <= (2/3) F'v b d_e (d_e / d)^2" if near_end else "V <= (2/3) F'v b d_e",
@@ -241,7 +242,7 @@ def splitting_checks(section: Section, joint: Joint, site: SplitSite, design: De
             Fv = shear_capacity.get(tb.name)
             if Fv is None or h_e <= 0:
                 continue
-            d_e = min(h_e + design.bolt.diameter / 2, h)
+            d_e = min(h_e, h)  # to the centre of the bolt nearest the unloaded edge
             if nearest_end is None:
                 nearest_end = _nearest_end(site.stations, length, memo)
             near_end = nearest_end < 5 * h

@@ -46,12 +46,12 @@ class EdgeStability:
     note: str
 
 
-def _region_at(beam: BeamResult, x: float) -> tuple[str, float, float]:
+def _regions_at(beam: BeamResult, x: float) -> list[tuple[str, float, float]]:
+    """The spans and overhangs x lies in: two at a support between them (the moment over
+    it compresses the edge on both sides), else one.
+    """
     regions = beam.model.layout.regions()
-    for name, a, b in regions:
-        if a - 1e-9 <= x <= b + 1e-9:
-            return name, a, b
-    return regions[0]
+    return [r for r in regions if r[1] - 1e-9 <= x <= r[2] + 1e-9] or [regions[0]]
 
 
 def _load_kind(loads: tuple[Load, ...], a: float, b: float, length: float) -> str:
@@ -71,10 +71,29 @@ def _load_kind(loads: tuple[Load, ...], a: float, b: float, length: float) -> st
     return "mixed"
 
 
+def edge_stabilities(beam: BeamResult, design: DesignSpec, edge: str, x: float
+                     ) -> tuple[EdgeStability, ...]:
+    """The stability input of the ``edge`` in compression at ``x`` in each span or
+    overhang x lies in: at a support between two (the hogging moment over it compresses
+    the bottom edge on both sides) one for each, and the check takes the lower factor
+    (C_L, k_crit) of the two, as neither side braces the other.
+    """
+    return tuple(_edge_in(beam, design, edge, region) for region in _regions_at(beam, x))
+
+
 def edge_stability(beam: BeamResult, design: DesignSpec, edge: str, x: float) -> EdgeStability:
-    """The stability input of the ``edge`` in compression at ``x``."""
+    """Of :func:`edge_stabilities`, the one with the longest unbraced length (the
+    buckling length of a ply in compression; the first where they are alike).
+    """
+    found = edge_stabilities(beam, design, edge, x)
+    return max(found, key=lambda e: -1.0 if e.unbraced is None else e.unbraced)
+
+
+def _edge_in(beam: BeamResult, design: DesignSpec, edge: str,
+             region: tuple[str, float, float]) -> EdgeStability:
+    """The stability input of the ``edge`` in compression in one span or overhang."""
     layout = beam.model.layout
-    name, a, b = _region_at(beam, x)
+    name, a, b = region
     cantilever = layout.supports == "cantilever" or name.startswith("overhang")
     kind = _load_kind(beam.spec.loads, a, b, layout.length)
     single = cantilever or (len(layout.spans) == 1 and layout.supports in ("simple",

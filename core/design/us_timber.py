@@ -26,7 +26,7 @@ from .check import Check, CheckId, capacity_from
 from .common import apply_overrides
 from .demands import PlyDemand, ply_demands
 from .slip import carries_axial
-from .stability import edge_stability
+from .stability import EdgeStability, edge_stabilities, edge_stability
 
 S_TABLE = "NDS 2018 Table 2.3.2 (from memory)"
 S_CM = "NDS Supplement Table 4A/5A wet service factors (from memory)"
@@ -121,42 +121,25 @@ def _bending_for(i: int, section: Section, beam: BeamResult, combo: CombinationR
     if cfu != 1.0:
         f["C_fu"] = cfu
         s["C_fu"] = "NDS Supplement Table 4A flat use (from memory)"
-    edge = edge_stability(beam, design, "top" if d.sign > 0 else "bottom", d.x)
-    c_l, extra = 1.0, {}
-    if not d.compression:
-        s["C_L"] = "ply wholly in tension at this extreme: no lateral buckling"
-    elif edge.braced:
-        s["C_L"] = f"NDS 2018 3.3.3: {edge.note}"
-    else:
-        emin = _emin_adj(mat, design)
-        if emin is None:
-            warnings.append(MissingCheck(f"materials.{mat.id}.Emin", "is not given: beam "
-                                         "stability (NDS 3.3.3) of an unbraced edge needs it"))
+    found = None
+    for edge in edge_stabilities(beam, design, "top" if d.sign > 0 else "bottom", d.x):
+        stable = _stability(i, section, design, member_width, d, edge,
+                            Fb * math.prod(f.values()) * (size if sym == "C_F" else 1.0),
+                            warnings)
+        if stable is None:
             return None
-        b = member_width if design.stability_width == "member" else ply.width
-        lu = float(edge.unbraced or 0.0)
-        le = nds.effective_length(lu, ply.height, edge.nds_case)
-        rb = nds.R_B(le, ply.height, b)
-        fb_star = Fb * math.prod(f.values()) * (size if sym == "C_F" else 1.0)
-        extra = {"l_u": lu, "l_e": le, "R_B": rb, "b": b}
-        if rb > 50:
-            notes.append(f"R_B = {rb:.1f} exceeds 50 (NDS 2018 3.3.3.7): brace the "
-                         f"{edge.edge} edge; no capacity is allowed.")
-            c_l = 0.0
-        else:
-            c_l = nds.C_L(fb_star, emin, ply.height, b, lu, edge.nds_case)
-        s["C_L"] = (f"NDS 2018 3.3.3, l_e per Table 3.3.3 ({edge.nds_case}), b = "
-                    f"{'member' if design.stability_width == 'member' else 'ply'} width; "
-                    f"{edge.note} (from memory)")
-        notes.append(f"C_L: l_u = {lu:.4g} m, l_e = {le:.4g} m, R_B = {rb:.3g}, "
-                     f"b = {b:.4g} m.")
+        if found is None or stable[0] < found[0]:  # the lower C_L of two sides
+            found = stable
+    assert found is not None
+    c_l, s["C_L"], note, edge = found
+    if note:
+        notes.extend(note)
     if sym == "C_V":
         f["C_V" if size <= c_l else "C_L"] = min(size, c_l)
     else:
         f["C_L"] = c_l
         f[sym] = size
     apply_overrides(f, s, design, ply.name)
-    del extra
     return Check(
         id="bending", ply=ply.name, combination=combo.name, demand=d.stress,
         capacity=capacity_from(Fb, f), quantity="stress", reference=(ref_sym, Fb),
@@ -164,6 +147,41 @@ def _bending_for(i: int, section: Section, beam: BeamResult, combo: CombinationR
         equation="f_b = n M c / I_t <= F'b = Fb x factors",
         location=f"{edge.region}, {edge.edge} edge in compression", x=d.x,
         notes=tuple(notes))
+
+
+def _stability(i: int, section: Section, design: DesignSpec, member_width: float,
+               d: PlyDemand, edge: EdgeStability, fb_star: float, warnings: list[Problem]
+               ) -> tuple[float, str, tuple[str, ...], EdgeStability] | None:
+    """C_L of ply i at the demand ``d`` with the compression edge ``edge`` (NDS 2018
+    3.3.3), its source, its notes and the edge; None where Emin is missing (warned).
+    ``fb_star``: F*b, the reference value times every factor but C_L.
+    """
+    ply, mat = section.plies[i], section.materials[i]
+    if not d.compression:
+        return 1.0, "ply wholly in tension at this extreme: no lateral buckling", (), edge
+    if edge.braced:
+        return 1.0, f"NDS 2018 3.3.3: {edge.note}", (), edge
+    emin = _emin_adj(mat, design)
+    if emin is None:
+        warnings.append(MissingCheck(f"materials.{mat.id}.Emin", "is not given: beam "
+                                     "stability (NDS 3.3.3) of an unbraced edge needs it"))
+        return None
+    b = member_width if design.stability_width == "member" else ply.width
+    lu = float(edge.unbraced or 0.0)
+    le = nds.effective_length(lu, ply.height, edge.nds_case)
+    rb = nds.R_B(le, ply.height, b)
+    notes: list[str] = []
+    if rb > 50:
+        notes.append(f"R_B = {rb:.1f} exceeds 50 (NDS 2018 3.3.3.7): brace the "
+                     f"{edge.edge} edge; no capacity is allowed.")
+        c_l = 0.0
+    else:
+        c_l = nds.C_L(fb_star, emin, ply.height, b, lu, edge.nds_case)
+    source = (f"NDS 2018 3.3.3, l_e per Table 3.3.3 ({edge.nds_case}), b = "
+              f"{'member' if design.stability_width == 'member' else 'ply'} width; "
+              f"{edge.note} (from memory)")
+    notes.append(f"C_L: l_u = {lu:.4g} m, l_e = {le:.4g} m, R_B = {rb:.3g}, b = {b:.4g} m.")
+    return c_l, source, tuple(notes), edge
 
 
 def interaction_check(i: int, section: Section, beam: BeamResult, combo: CombinationResult,

@@ -66,7 +66,7 @@ def _plain_splitting(section: Section, joint: Joint, site: SplitSite,
             Fv = shear_capacity.get(name)
             if Fv is None or h_e <= 0:
                 continue
-            d_e = min(h_e + design.bolt.diameter / 2, h)
+            d_e = min(h_e, h)  # NDS 2018 3.4.3.3: to the centre of the nearest bolt
             near_end = min(min(x, length - x) for x in site.stations) < 5 * h
             r = splitting._us_resistance(Fv, b, h, d_e, near_end, system)
         bolts_at = (f"{site.label}: bolts at y = " + ", ".join(

@@ -72,6 +72,23 @@ def test_point_load_near_the_end_gets_no_C_b():
     assert c.factors["C_b"] == 1.0
 
 
+@pytest.mark.parametrize(("overhang", "C_b"), [("1 in", 1.0), ("4 in", 1.0),
+                                               ("4.5 in", 1.125), ("10 in", 1.125)])
+def test_a_support_on_a_short_overhang_bears_near_the_end(overhang, C_b):
+    """NDS 2018 3.10.4: C_b only for a bearing not nearer than 3 in to the member's end.
+    A 3 in bearing centred on a support with an overhang of e: its edge is e - 1.5 in
+    from the end; e = 1 in and 4 in leave 2.5 in or less, so C_b = 1; e = 4.5 in leaves
+    3 in and e = 10 in 8.5 in, so C_b = (3 + 0.375) / 3 = 1.125.
+    """
+    data = copy.deepcopy(US)
+    data["beam"]["overhang_right"] = overhang
+    a = run(from_dict(data))
+    c = bearing(a, "support 2")
+    assert c.factors["C_b"] == C_b
+    assert c.capacity / PSI == pytest.approx(625.0 * C_b, rel=1e-12)
+    assert bearing(a, "support 1").factors["C_b"] == 1.0  # at the member's end
+
+
 def test_missing_Fc_perp_makes_the_verdict_incomplete():
     data = copy.deepcopy(US)
     data["materials"] = {"NOFCP": {"kind": "timber", "name": "no Fc_perp", "E": "1600000 psi",
@@ -130,6 +147,25 @@ def test_eu_point_load_at_the_end_spreads_to_one_side():
     data["beam"]["loads"][2]["at"] = "40 mm"
     p = bearing(run(from_dict(data)), "point load 3")
     assert p.demand == pytest.approx(7500.0 / (0.075 * 0.110), rel=1e-9)
+
+
+@pytest.mark.parametrize(("overhang", "spread"), [("20 mm", 0.0), ("70 mm", 0.020),
+                                                  ("200 mm", 0.030)])
+def test_eu_support_on_a_short_overhang_spreads_only_to_the_end(overhang, spread):
+    """EN 1995-1-1 6.1.5(1): up to 30 mm beyond each side of the bearing, within the
+    member. A 100 mm bearing centred on a support with an overhang of e reaches e - 50 mm
+    from the end: 20 mm of overhang leaves nothing, 70 mm leaves 20 mm, 200 mm the full
+    30 mm; the side towards the span spreads 30 mm. The reaction of support 2 with the
+    overhang: taken from the program's own beam (statics are tested elsewhere).
+    """
+    data = copy.deepcopy(EU)
+    data["beam"]["overhang_right"] = overhang
+    a = run(from_dict(data))
+    s = bearing(a, "support 2")
+    l_ef = 0.100 + 0.030 + spread
+    combo = next(c for c in a.beam.combinations if c.name == s.combination)
+    R = float(combo.solution.reactions[1])
+    assert s.demand == pytest.approx(R / (0.075 * l_ef), rel=1e-12)
 
 
 @pytest.mark.parametrize("data", [US, EU], ids=["US", "EU"])

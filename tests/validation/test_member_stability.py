@@ -55,6 +55,38 @@ def test_beam_stability_uses_the_combination_load_duration():
     assert c.capacity / PSI == pytest.approx(624.7, abs=0.05)
 
 
+def test_hogging_over_a_support_takes_the_worse_side_of_it():
+    """A 2x10 on a 6 ft span with an 8 ft overhang, loaded at the tip (D 300, L 600 lbf):
+    the largest hogging moment is over support 2, where the bottom edge (unbraced, no
+    length given: each region whole) is in compression on both sides. NDS 2018 Table
+    3.3.3: the span, "any other case", l_u = 72 in, l_u/d = 7.8: l_e = 1.63 x 72 + 3 d =
+    145.1 in; the overhang, a cantilever with a point load at its free end, l_u = 96 in,
+    l_u/d = 10.4: l_e = 1.44 x 96 + 3 d = 166.0 in, the longer: it sets C_L (3.3.3.8).
+    """
+    a = run(from_dict({
+        "format": "plystack", "version": 1, "title": "overhang", "display_units": "US",
+        "plies": [{"name": "joist", "material": "DFL-No2", "x": "0 in", "y": "0 in",
+                   "width": "1.5 in", "height": "9.25 in"}],
+        "beam": {"spans": ["6 ft"], "supports": "simple", "overhang_right": "8 ft",
+                 "self_weight": False, "bearing_length": "3 in", "combinations": "ASD",
+                 "loads": [{"case": "D", "type": "point", "value": "300 lbf", "at": "14 ft"},
+                           {"case": "L", "type": "point", "value": "600 lbf",
+                            "at": "14 ft"}]},
+        "design": {"basis": "US-ASD", "compression_edge_braced": True}}))
+    c = next(c for c in a.checks if c.id == "bending" and c.combination == "D + L")
+    assert c.x == pytest.approx(72 * 0.0254, rel=1e-12)
+    assert c.location == "overhang right, bottom edge in compression"
+    Fb, Emin, d, b = 900.0, 580000.0, 9.25, 1.5
+    fb_star = Fb * 1.0 * 1.1  # C_D 1.0 (D + L), C_F 2x10
+    le = 1.44 * 96 + 3 * d
+    fbe = 1.20 * Emin / (le * d / b**2)
+    r = fbe / fb_star
+    cl = (1 + r) / 1.9 - math.sqrt(((1 + r) / 1.9) ** 2 - r / 0.95)
+    assert c.factors["C_L"] == pytest.approx(cl, rel=1e-12)
+    assert c.capacity / PSI == pytest.approx(fb_star * cl, rel=1e-12)
+    assert f"l_e = {le * 0.0254:.4g} m" in " ".join(c.notes)
+
+
 def test_point_load_at_centre_uses_its_effective_length():
     a = run(us_joist(False, [{"case": "L", "type": "point", "value": "500 lbf", "at": "6 ft"}]))
     c = next(c for c in a.checks if c.id == "bending" and c.combination == "D + L")
@@ -77,6 +109,24 @@ def test_flat_2x10_uses_C_F_by_its_wide_face_and_C_fu():
     a = run(us_joist(True, [{"case": "L", "type": "line", "value": "5 plf"}], plies=plies))
     c = next(c for c in a.checks if c.id == "bending" and c.combination == "D + L")
     assert c.factors["C_F"] == 1.1 and c.factors["C_fu"] == 1.2  # Supplement Table 4A
+
+
+@pytest.mark.parametrize(("width", "C_fu"), [
+    ("2.5 in", 1.0), ("3 in", 1.0), ("3.5 in", 1.1), ("4.5 in", 1.1), ("5.5 in", 1.15),
+    ("7.25 in", 1.15), ("8 in", 1.15), ("9.25 in", 1.2), ("11.25 in", 1.2)])
+def test_flat_use_factor_by_the_nominal_width_reached(width, C_fu):
+    """NDS Supplement Table 4A (from memory), 2 in nominal thickness used flatwise: 2x3
+    (2.5 in) 1.0, 2x4 (3.5 in) and 2x5 1.1, 2x6 (5.5 in) and 2x8 1.15, 2x10 and wider
+    1.2; a width between two dressed sizes (3 in, 8 in) takes the smaller size's factor.
+    """
+    plies = [{"name": "flat", "material": "DFL-No2", "x": "0 in", "y": "0 in",
+              "width": width, "height": "1.5 in"}]
+    a = run(us_joist(True, [{"case": "L", "type": "line", "value": "5 plf"}], plies=plies))
+    c = next(c for c in a.checks if c.id == "bending" and c.combination == "D + L")
+    if C_fu == 1.0:
+        assert c.factors.get("C_fu", 1.0) == 1.0
+    else:
+        assert c.factors["C_fu"] == C_fu
 
 
 def test_4x10_uses_the_4_in_size_factor():
@@ -154,6 +204,34 @@ def test_eu_lateral_torsional_stability(level, extra):
     if level == "centroid":
         assert k == pytest.approx(0.653, abs=5e-4)
         assert c.capacity / MPa == pytest.approx(9.64, abs=0.01)
+
+
+def test_eu_hogging_over_a_support_takes_the_worse_side_of_it():
+    """C24 45 x 220 on a 2 m span with a 2.6 m overhang, a point load at the tip, the top
+    edge braced, loads on the top (the tension edge where the moment hogs: less 0.5 h,
+    6.3.3(3)). Over support 2 the bottom edge is compressed on both sides (EN 1995-1-1
+    Table 6.1): the span, constant moment, l_ef = 1.0 x 2.0 - 0.11 = 1.89 m; the overhang,
+    a cantilever with a point load at its free end, l_ef = 0.8 x 2.6 - 0.11 = 1.97 m, the
+    longer: its k_crit (6.34) is the lower and is taken.
+    """
+    a = run(from_dict({
+        "format": "plystack", "version": 1, "title": "C24", "display_units": "SI",
+        "plies": [{"name": "joist", "material": "C24", "x": "0 mm", "y": "0 mm",
+                   "width": "45 mm", "height": "220 mm"}],
+        "beam": {"spans": ["2 m"], "supports": "simple", "overhang_right": "2.6 m",
+                 "self_weight": False, "bearing_length": "90 mm",
+                 "loads": [{"case": "D", "type": "point", "value": "0.5 kN", "at": "4.6 m"},
+                           {"case": "L", "type": "point", "value": "1 kN", "at": "4.6 m"}]},
+        "design": {"basis": "EU-LSD", "service_class": 1, "compression_edge_braced": True,
+                   "load_level": "top"}}))
+    c = next(c for c in a.checks if c.id == "bending" and c.combination.startswith(
+        "ULS 1.35G + 1.5Q[L]"))
+    assert c.x == pytest.approx(2.0, rel=1e-12)
+    assert c.location == "overhang right, bottom edge in compression"
+    crit = 0.78 * 45**2 * 7400 / (220 * (0.8 * 2600 - 0.5 * 220))
+    lam = math.sqrt(24 / crit)
+    k = 1.56 - 0.75 * lam if lam <= 1.4 else 1 / lam**2
+    assert c.factors["k_crit"] == pytest.approx(k, rel=1e-12)
 
 
 @settings(max_examples=15, deadline=None)

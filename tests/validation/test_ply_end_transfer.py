@@ -219,7 +219,7 @@ def test_splitting_at_the_plate_end_by_hand():
     """At the plate's end the plate's share of the shear, alpha V, goes down into the two
     timbers (half each) through the end zone's bolts: loaded edge the bottom. The largest
     alpha V: at the end (V = w (72 - 12) in = 1560 lbf) with creep (timber E / 1.5, the
-    larger alpha). NDS 2018 3.4.3.3 (from memory): d_e = 7.0 + 0.25 = 7.25 in, the stations
+    larger alpha). NDS 2018 3.4.3.3 (from memory): d_e = 7.0 in (to the top bolt's centre), the stations
     at 15 and 21 in are within 5 d of the end: V'_r = (2/3) 180 psi x 1.5 in x d_e (d_e / d)^2."""
     I_w = 2 * 1.5 * 9.25**3 / 12
     I_s = 0.375 * 8.75**3 / 12
@@ -229,6 +229,6 @@ def test_splitting_at_the_plate_end_by_hand():
     c = next(c for c in a.checks if c.id == "splitting" and c.combination == "D + L"
              and c.location.startswith("end of P") and c.ply == "L")
     assert c.demand / LBF == pytest.approx(alpha * V / 2, rel=1e-9)
-    assert c.capacity / LBF == pytest.approx(2 / 3 * 180 * 1.5 * 7.25 * (7.25 / 9.25) ** 2,
+    assert c.capacity / LBF == pytest.approx(2 / 3 * 180 * 1.5 * 7.0 * (7.0 / 9.25) ** 2,
                                              rel=1e-9)
     assert "loaded edge bottom" in c.location

@@ -5,8 +5,9 @@ Sources (outside the project):
   w = 1 for bolts), F_90,Rd = k_mod F_90,Rk / gamma_M, gamma_M = 1.3 for connections
   (Table 2.3), k_mod = 0.8 medium-term in service class 1 (Table 3.1) (all from memory);
 - NDS 2018 3.4.3.3 (from memory): V'_r = (2/3) F'_v b d_e (d_e / d)^2 for a connection less
-  than 5 d from the end, d_e = d less the distance from the unloaded edge to the nearest
-  edge of the nearest bolt; DF-L No.2 F_v = 180 psi (NDS Supplement 2018 Table 4A, from
+  than 5 d from the end, for bolts d_e = d less the distance from the unloaded edge to the
+  centre of the nearest bolt (the nearest edge is the rule of split rings and shear
+  plates); DF-L No.2 F_v = 180 psi (NDS Supplement 2018 Table 4A, from
   memory), C_D = 1.0 for D + L;
 - statics of a simple span (reactions) and the plate's share alpha = E_p I_p,na / EI
   (common practice), as in test_load_transfer.py.
@@ -26,14 +27,14 @@ from tests.validation.test_load_transfer import ALPHA, LBF, flitch
 def test_us_splitting_at_a_support_the_plate_does_not_bear_on_by_hand():
     """R1 = 312 x 6 + 300 x 8 / 12 = 2072 lbf (D + L); the plate's share alpha R1 goes down
     into the two timbers through the end station (12 in from the end, rows at 2.25 and
-    7.0 in), half each. Loaded edge: the bottom; d_e = 7.0 + 0.25 = 7.25 in (the top bolt's
-    far edge); 12 in < 5 d = 46.25 in from the end, so (d_e / d)^2 applies."""
+    7.0 in), half each. Loaded edge: the bottom; d_e = 7.0 in (to the top bolt's centre);
+    12 in < 5 d = 46.25 in from the end, so (d_e / d)^2 applies."""
     R1 = 312 * 6 + 300 * 8 / 12
     a = run(from_dict(flitch()))
     chk = [c for c in a.checks if c.id == "splitting" and c.combination == "D + L"
            and c.location.startswith("support 1")]
     assert sorted(c.ply for c in chk) == ["L", "R"]
-    d_e, d = 7.25, 9.25
+    d_e, d = 7.0, 9.25
     cap = 2 / 3 * 180 * 1.5 * d_e * (d_e / d) ** 2
     for c in chk:
         assert c.demand / LBF == pytest.approx(ALPHA * R1 / 2, rel=1e-9)
@@ -43,14 +44,14 @@ def test_us_splitting_at_a_support_the_plate_does_not_bear_on_by_hand():
 
 def test_us_splitting_under_a_point_load_pushes_towards_the_top():
     """The 300 lbf post at 4 ft bears on the timbers: alpha P goes up into the plate, the
-    bolts push the timbers up: loaded edge the top, d_e = 9.25 - 2.25 + 0.25 = 7.25 in;
+    bolts push the timbers up: loaded edge the top, d_e = 9.25 - 2.25 = 7.0 in;
     the stations (36 and 60 in) are 5 d = 46.25 in or more from the end only for 60 in, so
     the nearer one (36 in) sets the reduced value."""
     a = run(from_dict(flitch()))
     c = next(c for c in a.checks if c.id == "splitting" and c.combination == "D + L"
              and c.location.startswith("point load") and c.ply == "L")
     assert c.demand / LBF == pytest.approx(ALPHA * 300 / 2, rel=1e-9)
-    cap = 2 / 3 * 180 * 1.5 * 7.25 * (7.25 / 9.25) ** 2
+    cap = 2 / 3 * 180 * 1.5 * 7.0 * (7.0 / 9.25) ** 2
     assert c.capacity / LBF == pytest.approx(cap, rel=1e-9)
     assert "loaded edge top" in c.location
 
