@@ -24,7 +24,7 @@ from pathlib import Path
 
 sys.path.insert(0, str(Path(__file__).resolve().parent))
 
-from bench_paired import _checkout_files, _commit_files, _package  # noqa: E402
+from bench_paired import _checkout_files, _commit_files, _package
 
 ROOT = Path(__file__).resolve().parents[1]
 PLOTS = {"none": None, "stress": 0, "actions": 1}
@@ -37,8 +37,9 @@ sys.path.insert(0, sys.argv[1])
 sys.path.insert(1, sys.argv[2])
 from PySide6.QtCore import QStandardPaths
 QStandardPaths.setTestModeEnabled(True)
+from pathlib import Path
 import bench_gui
-bench_gui.DEMO = __import__("pathlib").Path(sys.argv[1]) / "plystack" / "demo" / "porch-header.plystack.json"
+bench_gui.DEMO = Path(sys.argv[1]) / "plystack" / "demo" / "porch-header.plystack.json"
 tab = None if sys.argv[4] == "none" else int(sys.argv[4])
 steps = int(sys.argv[3])
 bench_gui.drag_steps(tab, 10)  # warm: imports, fonts, first layouts

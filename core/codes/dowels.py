@@ -137,6 +137,40 @@ def en_thick_steel_single(f_h: float, t1: float, d: float, M_y: float) -> YieldM
     })
 
 
+def en_thin_steel_outer(f_h: float, t2: float, d: float, M_y: float) -> YieldModes:
+    """EN 1995-1-1 (8.12) thin steel plates (t <= 0.5 d) as the outer members of a
+    double-shear joint, per shear plane, rope effect left out: modes j, k with t2 the
+    timber (central member) thickness (from memory). N.
+    """
+    return YieldModes({"j": 0.5 * f_h * t2 * d, "k": 1.15 * math.sqrt(2 * M_y * f_h * d)})
+
+
+def en_thick_steel_outer(f_h: float, t2: float, d: float, M_y: float) -> YieldModes:
+    """EN 1995-1-1 (8.13) thick steel plates (t >= d) as the outer members of a
+    double-shear joint, per shear plane, rope effect left out: modes l, m (from
+    memory). N.
+    """
+    return YieldModes({"l": 0.5 * f_h * t2 * d, "m": 2.3 * math.sqrt(M_y * f_h * d)})
+
+
+def en_steel_outer(f_h: float, t2: float, d: float, M_y: float,
+                   t_steel: float) -> tuple[float, str]:
+    """EN 1995-1-1 8.2.3 steel plates on both faces of one timber (steel-timber-steel),
+    per shear plane, by the plate thickness t as :func:`en_steel_single` (thin (8.12),
+    thick (8.13), linear between); t2 is the timber's thickness. Returns (F_v,Rk per
+    shear plane, N; which rule).
+    """
+    thin = en_thin_steel_outer(f_h, t2, d, M_y).value
+    thick = en_thick_steel_outer(f_h, t2, d, M_y).value
+    if t_steel <= 0.5 * d:
+        return thin, "thin plates (8.12)"
+    if t_steel >= d:
+        return thick, "thick plates (8.13)"
+    w = (t_steel - 0.5 * d) / (0.5 * d)
+    return thin + w * (thick - thin), (f"interpolated between (8.12) and (8.13), t/d = "
+                                       f"{t_steel / d:.3g}")
+
+
 def en_steel_single(f_h: float, t1: float, d: float, M_y: float,
                     t_steel: float) -> tuple[float, str]:
     """EN 1995-1-1 8.2.3 steel-to-timber, single shear, by the plate thickness t (from

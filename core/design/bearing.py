@@ -279,7 +279,8 @@ def eu_bearing(section: Section, beam: BeamResult, design: DesignSpec,
     """EN 1995-1-1 6.1.5 bearing at every support and under every point load with a
     bearing length, for the governing ULS combination (k_mod of its duration class).
     """
-    from .eu_timber import S_GM, S_KMOD, eu_duration
+    from ..model.combination import eu_duration
+    from .eu_timber import S_GM, S_KMOD
 
     sites = bearing_sites(beam)
     if not uls or not sites:

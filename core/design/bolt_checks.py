@@ -151,7 +151,6 @@ def _choose(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint
     if bolt.stations or bolt.spacing is not None:
         return _Choice(layout_of(section, joint, bolt, extent, bolt.spacing or L, design.us),
                        None, (), {})
-    share = plate_share(section, joint.steel)
     depth = section.depth
     stock = STOCK_SPACINGS_US if system == "US" else STOCK_SPACINGS_SI
     allowed = [s for s in stock if s >= 4 * bolt.diameter] or [stock[-1]]
@@ -160,14 +159,14 @@ def _choose(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint
     for s in allowed:
         layout = layout_of(section, joint, bolt, extent, s, design.us)
         factors = layout_factors(section, joint, layout, design, L)
-        if s != allowed[-1] and many and _fails(loads, layout, share, depth, value, combos,
+        if s != allowed[-1] and many and _fails(loads, layout, depth, value, combos,
                                                 factors[0]):
             continue  # the trial below would stop at a combination over the capacity
         found: dict[int, _Found] = {}
         for k, c in enumerate(combos):
-            items = placed_transfers(loads[k], layout, share, depth)
+            items = placed_transfers(loads[k], layout, _alpha(loads[k]), depth)
             capacity = value.capacity(c, factors[0])
-            gov = governing_within(loads[k], layout, share, items, capacity)
+            gov = governing_within(loads[k], layout, _alpha(loads[k]), items, capacity)
             if gov is None:  # a station carries more than the capacity
                 break
             found[k] = (items, gov)
@@ -178,7 +177,13 @@ def _choose(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint
     return _Choice(layout, factors, loads, found)  # the last one tried where none passes
 
 
-def _fails(loads: tuple[PlateLoads, ...], layout: BoltLayout, share: float, depth: float,
+def _alpha(loads: PlateLoads) -> float:
+    """The plate's share of the distributed load of ``loads`` (``transfer.plate_shares``)."""
+    assert loads.share is not None
+    return loads.share
+
+
+def _fails(loads: tuple[PlateLoads, ...], layout: BoltLayout, depth: float,
            value: BoltValue, combos: tuple[CombinationResult, ...],
            geometry: Mapping[str, float]) -> bool:
     """True where a combination's most loaded bolts of ``layout`` carry more than the
@@ -186,7 +191,8 @@ def _fails(loads: tuple[PlateLoads, ...], layout: BoltLayout, share: float, dept
     cannot tell, so that the trial itself decides).
     """
     for k, c in enumerate(combos):
-        within = trial_within(loads[k], layout, share, depth, value.capacity(c, geometry))
+        within = trial_within(loads[k], layout, _alpha(loads[k]), depth,
+                              value.capacity(c, geometry))
         if within is None:
             return False
         if not within:
@@ -258,7 +264,7 @@ def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: 
     value = replace(value, sources={**value.sources, **{k: v for k, v in geo_sources.items()
                                                          if k in value.sources}})
     out: list[Check] = geometry_checks(section, joint, layout, design, L, system)
-    out += net_checks(section, joint, layout, design, gross)
+    out += net_checks(section, joint, layout, design, gross, beam)
     out += net_shear_checks(section, joint, layout, design, beam, gross, system)
     extent = layout.extent
     where = layout_text(layout, system)
@@ -269,11 +275,12 @@ def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: 
     for k, combo in enumerate(strength):
         f = value.adjusted(combo, geo)
         found = choice.found.get(k)
+        loads = (choice.loads[k] if choice.loads else
+                 plate_loads(section, beam, combo, design, joint.steel, extent))
+        alpha = _alpha(loads)
         if found is None:
-            loads = (choice.loads[k] if choice.loads else
-                     plate_loads(section, beam, combo, design, joint.steel, extent))
-            items = placed_transfers(loads, layout, share, section.depth)
-            found = (items, governing_demand(loads, layout, share, items))
+            items = placed_transfers(loads, layout, alpha, section.depth)
+            found = (items, governing_demand(loads, layout, alpha, items))
         items, gov = found
         source = ("the transfers of the zones it is in" if gov.from_transfers >= gov.net
                   else "the load on its tributary length with the transfers of its zones")
@@ -287,7 +294,7 @@ def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: 
                       f"{value.capacity_symbol}"),
             location=where, fasteners=fasteners, x=gov.x,
             notes=(*value.notes,
-                   f"Plate's share of the load E_p I_p / EI = {share:.3f}.",
+                   _share_note(share, alpha),
                    f"Most loaded bolts: station {gov.station + 1} of {len(layout.stations)} "
                    f"at x = {fmt(gov.x, 'span', system)}, {gov.bolts} bolts, governed by "
                    f"{source}.", CAUTION)))
@@ -301,6 +308,15 @@ def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: 
             out += splitting_checks(section, joint, _site(t, w), design,
                                     combo.name, f.get("k_mod"), shear, L, system, resisted)
     return BoltedPlate(tuple(out), PlateLayout(joint.steel, joint, layout))
+
+
+def _share_note(share: float, alpha: float) -> str:
+    """The note on the plate's share alpha a ``bolts`` check takes."""
+    if alpha == share:
+        return f"Plate's share of the load E_p I_p / EI = {share:.3f}."
+    return (f"Plate's share of the load E_p I_p / EI = {share:.3f} at once, {alpha:.3f} on the "
+            "final section (timber E_mean / (1 + psi2 k_def), EN 1995-1-1 2.3.2.2): the "
+            "larger, taken.")
 
 
 @dataclass(frozen=True)

@@ -301,18 +301,35 @@ def uncombined_cases(beam: BeamResult) -> list[Problem]:
     strength = beam.strength()
     if not strength:
         return []  # said already: there is no strength combination at all
-    taken = {case for c in strength for case in c.combination.cases()}
+    return _cases_not_taken(beam, strength, "strength combination", "strength checks")
+
+
+def unserviced_cases(beam: BeamResult, combos: Sequence[CombinationResult]) -> list[Problem]:
+    """:func:`uncombined_cases` for the combinations the deflection checks use
+    (``combos``; EN 1995-1-1 7.2: the characteristic ones): a missing check where there
+    is none (a user's list of ULS combinations only) or where one of the loads is in
+    none of them.
+    """
+    if not combos:
+        return [MissingCheck("beam.combinations", "has no SLS-characteristic combination: "
+                             "the deflection checks (EN 1995-1-1 7.2, EN 1990 6.5.3) are "
+                             "not made")]
+    return _cases_not_taken(beam, combos, "SLS-characteristic combination",
+                            "deflection checks")
+
+
+def _cases_not_taken(beam: BeamResult, combos: Sequence[CombinationResult], kind: str,
+                     checks: str) -> list[Problem]:
+    taken = {case for c in combos for case in c.combination.cases()}
     spec = beam.spec
     out: list[Problem] = []
     if spec.self_weight and "D" not in taken:
-        out.append(MissingCheck("beam.combinations", "no strength combination takes case D, "
-                                "which holds the self-weight; the strength checks leave it "
-                                "out"))
+        out.append(MissingCheck("beam.combinations", f"no {kind} takes case D, which holds "
+                                f"the self-weight; the {checks} leave it out"))
     for i, load in enumerate(spec.loads):
         if load.case not in taken and not (load.case == "D" and spec.self_weight):
-            out.append(MissingCheck("beam.combinations", f"no strength combination takes "
-                                    f"case {load.case} of beam.loads[{i}]; the strength "
-                                    "checks leave that load out"))
+            out.append(MissingCheck("beam.combinations", f"no {kind} takes case {load.case} "
+                                    f"of beam.loads[{i}]; the {checks} leave that load out"))
     return out
 
 

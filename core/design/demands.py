@@ -4,9 +4,10 @@ state with creep where the standard asks for it.
 US (NDS 2018 3.5.2, from memory, and common practice for members of different creep):
 the sustained part acts on the section with timber moduli divided by K_cr, the rest on
 the short-term section. EU (EN 1995-1-1 2.3.2.2(2), from memory): at ULS the timber moduli
-are E_mean / (1 + psi2 k_def), psi2 of the leading variable action (1.0 for permanent
-actions alone). Both the instantaneous and the final state must hold; each ply's demand is
-the larger (the timber usually governs at once, the steel after creep).
+are E_mean / (1 + psi2 k_def), psi2 of the action causing the largest stress in relation
+to the strength, 1.0 where that action is permanent (see :func:`governing_action`). Both
+the instantaneous and the final state must hold; each ply's demand is the larger (the
+timber usually governs at once, the steel after creep).
 """
 
 from __future__ import annotations
@@ -16,7 +17,8 @@ from dataclasses import dataclass
 import numpy as np
 
 from ..actions.analysis import BeamResult, CombinationResult
-from ..model.combination import EN1990_PSI
+from ..codes import en1995 as ec5
+from ..model.combination import EN1990_PSI, EU_CASE_DURATION, eu_duration
 from ..model.design import DesignSpec
 from ..section.transformed import Section, with_moduli
 from .memo import once
@@ -67,12 +69,42 @@ def _ply_state(section: Section, i: int, M: float, sustained: float | None,
     return ext, float(s[2]), own, bool(min(s[0], s[1]) < 0)
 
 
+def governing_action(beam: BeamResult, combo: CombinationResult, design: DesignSpec) -> str:
+    """The case of a ULS combination that causes the largest stress in relation to the
+    strength (EN 1995-1-1 2.3.2.2(2)): each case's design moment, its factor times its
+    largest |M| alone over the member, divided by k_mod of its own duration class (Table
+    3.1; the strength the stress is related to); the first of equal ones, D before the
+    variable cases.
+    """
+    def weight(case: str, factor: float) -> float:
+        ext = beam.extremes_of(case)
+        moment = factor * max(abs(ext.M_max), abs(ext.M_min))
+        return moment / ec5.k_mod(eu_duration(EU_CASE_DURATION.get(case, "permanent")),
+                                  design.service_class)
+
+    acting = sorted(((c, f) for c, f in combo.combination.factors.items()
+                     if f > 0 and c in beam.case_extremes), key=lambda cf: cf[0] != "D")
+    if not acting:
+        return "D"
+    return max(acting, key=lambda cf: weight(*cf))[0]
+
+
+def eu_psi2(beam: BeamResult, combo: CombinationResult, design: DesignSpec) -> float:
+    """psi2 of the final moduli of a ULS combination (EN 1995-1-1 2.3.2.2(2)): that of
+    :func:`governing_action`, 1.0 where it is permanent (D).
+    """
+    case = governing_action(beam, combo, design)
+    if case == "D":
+        return 1.0
+    return {**EN1990_PSI, **design.psi}[case][2]
+
+
 def eu_uls_section(section: Section, beam: BeamResult, combo: CombinationResult,
                    design: DesignSpec) -> Section:
-    """The section with timber moduli E_mean / (1 + psi2 k_def) for a ULS combination."""
-    psi = {**EN1990_PSI, **design.psi}
-    variables = {c: f for c, f in combo.combination.factors.items() if c != "D" and f > 0}
-    psi2 = psi[max(variables, key=lambda c: variables[c])][2] if variables else 1.0
+    """The section with timber moduli E_mean / (1 + psi2 k_def) for a ULS combination
+    (:func:`eu_psi2`).
+    """
+    psi2 = eu_psi2(beam, combo, design)
     k_def = beam.creep_factor - 1.0
 
     def make() -> Section:

@@ -19,10 +19,14 @@ from ..codes.dowels import (
     en_f_h_k,
     en_M_y,
     en_steel_centre,
+    en_steel_outer,
     en_steel_single,
+    en_thick_steel_outer,
     en_thick_steel_single,
+    en_thin_steel_outer,
     en_thin_steel_single,
 )
+from ..model.combination import eu_duration as _eu_duration
 from ..model.design import DesignSpec
 from ..model.errors import MissingCheck, Problem
 from ..model.project import Project
@@ -42,11 +46,11 @@ from .common import (
     side_by_side_joints,
     uncombined_cases,
     unit_shear_stress,
+    unserviced_cases,
     uplift_checks,
 )
 from .demands import eu_uls_section, ply_demands
 from .eu_timber import bending_check as eu_bending
-from .eu_timber import eu_duration as _eu_duration
 from .eu_timber import interaction_check as eu_interaction
 from .plates import eu_plate_chi, plate_bracing
 from .transfer import support_shear_checks
@@ -217,6 +221,7 @@ def _deflections(section: Section, beam: BeamResult, design: DesignSpec,
     src = {"limit": "EN 1995-1-1 7.2 Table 7.2 range, the user's choice (national annexes "
            "vary)"}
     chars = [c for c in beam.combinations if c.combination.kind == "SLS-characteristic"]
+    warnings += unserviced_cases(beam, chars)
     if isinstance(beam.spec.combinations, tuple) and not any(
             c.combination.kind == "SLS-quasi-permanent" for c in beam.combinations):
         warnings.append(Problem("beam.combinations", "no SLS-quasi-permanent combination in "
@@ -277,10 +282,17 @@ def _layouts_without_checks(section: Section, beam: BeamResult, design: DesignSp
 
 
 def bolt_value(section: Section, design: DesignSpec, jt: Joint, system: str,
-                warnings: list[Problem]) -> BoltValue | None:
+                warnings: list[Problem], joints: list[Joint] | None = None
+                ) -> BoltValue | None:
     """F_v,Rk of one bolt of a plate (EN 1995-1-1 8.2.3) with k_mod and gamma_M; None,
-    with a named missing check, where a timber beside it has no rho_k.
+    with a named missing check, where a timber beside it has no rho_k. ``joints``: the
+    section's side-by-side joints (found here when not given): a timber with plates on
+    both faces is the central member of a steel-timber-steel joint (8.12, 8.13) for a
+    plate on one face, and gives each central plate beside it half its thickness (the
+    first term of (8.12) and (8.13), 0.5 f_h t2 d per plane; 8.1.3(1) multiple shear).
     """
+    if joints is None:
+        joints = side_by_side_joints(section)
     bolt = design.bolt
     d = bolt.diameter
     steel = section.plies[jt.steel]
@@ -293,8 +305,24 @@ def bolt_value(section: Section, design: DesignSpec, jt: Joint, system: str,
     My = en_M_y(bolt.fu, d)
     rho = min(r for r in rhos if r is not None)
     fh = en_f_h_k(rho, d, 90.0)
-    t1 = min(section.plies[j].width for j in jt.timbers)
-    if jt.steel_is_main:
+    def plated(j: int) -> bool:  # plates on both faces of timber j
+        return sum(1 for other in joints if j in other.timbers) >= 2
+
+    t1 = min(section.plies[j].width / (2 if plated(j) else 1) for j in jt.timbers)
+    if not jt.steel_is_main and plated(jt.timbers[0]):
+        t2 = section.plies[jt.timbers[0]].width
+        value, rule = en_steel_outer(fh, t2, d, My, steel.width)
+        kind = f"steel plates on both faces of the timber, per plane, {rule}"
+        Fv_Rk = value
+        thin_o = en_thin_steel_outer(fh, t2, d, My)
+        thick_o = en_thick_steel_outer(fh, t2, d, My)
+        mode_text = ("thin plates (8.12): " + ", ".join(
+            f"({m}) {fmt(v, 'force', system)}" for m, v in thin_o.modes.items())
+            + "; thick plates (8.13): " + ", ".join(
+            f"({m}) {fmt(v, 'force', system)}" for m, v in thick_o.modes.items())
+            + f"; F_v,Rk {fmt(value, 'force', system)} ({rule}), t2 = timber thickness "
+            "(a plate on each face: the timber is the central member).")
+    elif jt.steel_is_main:
         modes = en_steel_centre(fh, t1, d, My)
         kind = "steel plate as central member, (8.11)"
         Fv_Rk = modes.value * 2

@@ -16,6 +16,7 @@ from __future__ import annotations
 
 from ..actions.analysis import BeamResult, CombinationResult
 from ..codes import en1995 as ec5
+from ..model.combination import eu_duration
 from ..model.design import DesignSpec
 from ..model.errors import MissingCheck, Problem
 from ..section.transformed import Section
@@ -27,12 +28,6 @@ from .stability import EdgeStability, edge_stabilities, edge_stability
 
 S_KMOD = "EN 1995-1-1 Table 3.1 (from memory)"
 S_GM = "EN 1995-1-1 Table 2.3 (from memory)"
-
-
-def eu_duration(duration: str) -> str:
-    """An EU load-duration class for any duration name."""
-    return {"ten-years": "long-term", "two-months": "medium-term", "seven-days": "short-term",
-            "ten-minutes": "instantaneous", "impact": "instantaneous"}.get(duration, duration)
 
 
 def bending_check(i: int, section: Section, beam: BeamResult, combo: CombinationResult,
@@ -85,6 +80,10 @@ def _k_crit_in(i: int, section: Section, design: DesignSpec, member_width: float
         return None
     b = member_width if design.stability_width == "member" else ply.width
     lef = ec5.l_ef(float(edge.unbraced or 0.0), edge.en_case, ply.height, edge.load_on)
+    if lef <= 0:  # a length under half the depth, loaded on its tension edge
+        return 1.0, (f"EN 1995-1-1 6.3.3: l_ef per Table 6.1 ({edge.en_case}, load on the "
+                     f"{edge.load_on}) = {lef:.4g} m, not above zero: no lateral torsional "
+                     f"buckling; {edge.note} (from memory)"), where
     crit = ec5.sigma_m_crit(b, ply.height, E005, lef)
     lam = ec5.lambda_rel_m(fm, crit)
     k = ec5.k_crit(lam)

@@ -40,6 +40,7 @@ from ..section.transformed import Section
 from .bolt_layout import BoltLayout
 from .check import Check, evolve
 from .common import Joint, own_checks
+from .demands import eu_uls_section, ply_demands
 from .memo import once
 
 
@@ -161,24 +162,84 @@ def f13_factor(section: Section, joint: Joint, net: NetSection, d_hole: float,
     return worst
 
 
+def crept_section(section: Section, beam: BeamResult, combination: str | None,
+                  design: DesignSpec) -> Section:
+    """The section with crept timber moduli that a combination's demands with creep use
+    (US: timber moduli / K_cr; EU: the combination's final section).
+    """
+    if design.us or combination is None:
+        return beam.creep_section
+    combo = next(c for c in beam.combinations if c.name == combination)
+    return eu_uls_section(section, beam, combo, design)
+
+
+def demand_state(section: Section, beam: BeamResult, c: Check, i: int,
+                 design: DesignSpec) -> str | None:
+    """The state of a gross ``bending`` demand of ply i: "instantaneous" or "with creep"
+    (``demands.ply_demands``, the demand it was made from); None where none matches.
+    """
+    combo = next((cb for cb in beam.combinations if cb.name == c.combination), None)
+    if combo is None:
+        return None
+    final = None if design.us else eu_uls_section(section, beam, combo, design)
+    return next((d.state for d in ply_demands(section, beam, combo, i, design, eu_final=final)
+                 if d.stress == c.demand and d.x == c.x), None)
+
+
+def states_of(state: str | None, us: bool) -> tuple[bool, ...]:
+    """The sections a net demand's loss is sought on (False at once, True with creep):
+    an instantaneous demand at once; one with creep on the EU basis on the final section
+    (the whole combination acts there); on the US basis both (its sustained part acts
+    with creep, the rest at once: the larger loss bounds the sum), as for a demand of no
+    known state.
+    """
+    if state == "instantaneous":
+        return (False,)
+    if state == "with creep" and not us:
+        return (True,)
+    return (False, True)
+
+
+def largest_loss(section: Section, crept: Section, joint: Joint, layout: BoltLayout, i: int,
+                 d_hole: float, states: tuple[bool, ...] = (False, True)
+                 ) -> tuple[float, NetSection, bool]:
+    """The largest loss of section modulus of ply i at the holes of any station, on the
+    section at once and (or) with creep (``states``, :func:`states_of`): (loss, the net
+    section, True where with creep).
+    """
+    best: tuple[float, NetSection, bool] | None = None
+    for sec, creep in ((section, False), (crept, True)):
+        if creep not in states:
+            continue
+        for k in range(len(layout.stations)):
+            net = net_section(sec, joint, layout, k, d_hole)
+            loss = modulus_loss(sec, i, net)
+            if best is None or loss > best[0]:
+                best = (loss, net, creep)
+    assert best is not None
+    return best
+
+
 def net_checks(section: Section, joint: Joint, layout: BoltLayout, design: DesignSpec,
-               gross: list[Check]) -> list[Check]:
+               gross: list[Check], beam: BeamResult) -> list[Check]:
     """A ``bending-net`` check for the plate and each of its timbers under every
-    combination of their ``bending`` checks.
+    combination of their ``bending`` checks: the gross demand times the largest loss of
+    section modulus at the holes (:func:`largest_loss`).
     """
     d_hole = hole_diameter(design)
-    nets = [net_section(section, joint, layout, k, d_hole) for k in range(len(layout.stations))]
     out = []
     for i in (*joint.timbers, joint.steel):
         name = section.plies[i].name
-        net = max(nets, key=lambda s: modulus_loss(section, i, s))
-        loss = modulus_loss(section, i, net)
-        extra: dict[str, float] = {}
-        if i == joint.steel:
-            extra = {"F13.1": f13_factor(section, joint, net, d_hole, design.us)}
         for c in own_checks(section, gross).bending.get(name, ()):
+            crept = crept_section(section, beam, c.combination, design)
+            states = states_of(demand_state(section, beam, c, i, design), design.us)
+            loss, net, creep = largest_loss(section, crept, joint, layout, i, d_hole, states)
+            extra: dict[str, float] = {}
+            if i == joint.steel:
+                extra = {"F13.1": f13_factor(section, joint, net, d_hole, design.us)}
             factors = {**c.factors, **extra}
             capacity = c.capacity * extra.get("F13.1", 1.0)
+            state = " with creep (timber moduli crept)" if creep else ""
             out.append(evolve(
                 c, id="bending-net", demand=c.demand * loss, capacity=capacity,
                 factors=factors, sources={**c.sources, **(
@@ -186,11 +247,18 @@ def net_checks(section: Section, joint: Joint, layout: BoltLayout, design: Desig
                      "EN 1993-1-1 6.2.5(4) (from memory)"} if extra else {})},
                 equation="f_net = f_gross (c' / I_t,net) / (c / I_t) <= capacity",
                 location=f"station {net.station + 1} of {section.plies[joint.steel].name}",
-                notes=(f"Net section at the holes of station {net.station + 1} "
+                notes=(f"Net section{state} at the holes of station {net.station + 1} "
                        f"(hole diameter {d_hole * 1000:.4g} mm): I_t,net = {net.I_t:.6g} m^4, "
                        f"neutral axis y = {net.y_na:.6g} m; section modulus loss "
-                       f"{loss:.5g}; holes taken at the largest moment (conservative).",)))
+                       f"{loss:.5g}{_of_states(states)}; holes taken at the largest moment "
+                       "(conservative).",)))
     return out
+
+
+def _of_states(states: tuple[bool, ...]) -> str:
+    if len(states) == 2:
+        return ", the larger at once and with creep (the demand's sustained part creeps)"
+    return " with creep (the demand's state)" if states[0] else ""
 
 
 @dataclass(frozen=True)

@@ -37,6 +37,7 @@ from ..codes import en1995 as ec5
 from ..codes import en1995_fasteners as en
 from ..codes import nds_fasteners as nf
 from ..model.caution import CAUTION
+from ..model.combination import eu_duration
 from ..model.design import DesignSpec
 from ..model.errors import MissingCheck, Problem
 from ..model.units import fmt
@@ -48,7 +49,6 @@ from .check import Check, Fasteners, capacity_from
 from .common import Joint, own_checks, side_by_side_joints
 from .demands import eu_uls_section
 from .eu_lsd import bolt_value as eu_bolt_value
-from .eu_timber import eu_duration
 from .splitting import SplitSite, splitting_checks
 from .transfer import (
     GroupForce,

@@ -33,7 +33,8 @@ from ..model.units import fmt
 from ..section.transformed import Section, own_second_moment, with_moduli
 from .bolt_layout import BoltLayout
 from .check import Check, evolve
-from .common import joints_of_timber, side_by_side_joints, unit_shear_stress
+from .common import joints_of_timber, plate_share, side_by_side_joints, unit_shear_stress
+from .demands import eu_uls_section
 from .memo import once, with_partner
 from .tributary import load_between, tributaries, whole_terms
 from .zones import (
@@ -190,6 +191,8 @@ class PlateLoads:
         whole: the term of each element a tributary covers whole, as
             ``tributary.load_between`` adds it (0.0 for an element of no length); empty
             where the nodes do not ascend (then every term is found where it is used).
+        share: alpha, the plate's share of these loads (:func:`bolt_share`; None: the
+            caller's).
 
     """
 
@@ -199,6 +202,7 @@ class PlateLoads:
     dq: tuple[float, ...]
     whole: tuple[float, ...] = field(default=(), compare=False, repr=False)
     arrays: ForceArrays | None = field(default=None, compare=False, repr=False)
+    share: float | None = None
 
     def positions(self) -> list[float] | np.ndarray:
         """The transfers' positions, m (as an array where :attr:`arrays` holds them)."""
@@ -223,7 +227,51 @@ def plate_loads(section: Section, beam: BeamResult, combo: CombinationResult,
     nodes, q, dq = (tuple(beam.model.nodes.tolist()), tuple(sol.q.tolist()),
                     tuple(sol.dq.tolist()))
     forces = tuple(items)
-    return PlateLoads(forces, nodes, q, dq, whole_terms(nodes, q, dq), force_arrays(forces))
+    return PlateLoads(forces, nodes, q, dq, whole_terms(nodes, q, dq), force_arrays(forces),
+                      bolt_share(section, beam, combo, design, plate))
+
+
+@dataclass(frozen=True)
+class ShareBasis:
+    """What the plate's share alpha of a combination's loads is made of (see
+    :func:`bolt_share`).
+
+    Attributes:
+        at_once: E_p I_p,na / EI on the short-term section.
+        final: the same on the combination's final section (EU: timber E_mean / (1 +
+            psi2 k_def)); None on the US basis.
+
+    """
+
+    at_once: float
+    final: float | None
+
+    @property
+    def alpha(self) -> float:
+        """The share taken: the larger of the two (at once on the US basis)."""
+        return self.at_once if self.final is None else max(self.at_once, self.final)
+
+
+def share_basis(section: Section, beam: BeamResult, combo: CombinationResult,
+                design: DesignSpec, plate: int) -> ShareBasis:
+    """:class:`ShareBasis` of steel ply ``plate`` under one combination."""
+    final = None if design.us else plate_share(eu_uls_section(section, beam, combo, design),
+                                               plate)
+    return ShareBasis(plate_share(section, plate), final)
+
+
+def bolt_share(section: Section, beam: BeamResult, combo: CombinationResult,
+               design: DesignSpec, plate: int) -> float:
+    """The plate's share alpha of a combination's loads that its bolts pass on.
+
+    EU: the larger of alpha at once and alpha on the combination's final section (timber
+    E_mean / (1 + psi2 k_def); EN 1995-1-1 2.3.2.2(1)-(2), from memory: at ULS the
+    distribution of forces in a member of parts with different creep takes the final
+    moduli), as the plate's own stresses take it. US: alpha at once, E_p I_p,na / EI with
+    the short-term moduli (common practice; NDS 2018 has no rule for the redistribution
+    by creep in a connection).
+    """
+    return share_basis(section, beam, combo, design, plate).alpha
 
 
 def placed_transfers(loads: PlateLoads, layout: BoltLayout, share: float,

@@ -308,6 +308,8 @@ def check_text(a: Analysis, moment: float | None = None, shear: float | None = N
                          f"{fmt(shear_row['tau_max'], 'stress', u)}")
     if a.beam is not None:
         lines.extend(beam_text(a.beam, u))
+    if a.stages is not None:
+        lines.extend(stages_text(a.stages, u))
     if a.checks or a.beam is not None:
         from ..design.text import checks_text
 
@@ -322,6 +324,28 @@ def check_text(a: Analysis, moment: float | None = None, shear: float | None = N
     lines.append("")
     lines.append(FIRE_NOTE)
     return "\n".join(lines) + "\n"
+
+
+def stages_text(st: StagesResult, u: str) -> list[str]:
+    """Both stages of a member strengthened under load, as the checks add them: the
+    combinations table above is of the built-up section under every load, these are the
+    two stages the checks use.
+    """
+    existing = ", ".join(p.name for p in st.existing.plies)
+    lines = ["", "Stages (strengthened under load: the checks add the two; the combinations "
+             "above are of the built-up section under every load)",
+             f"  before: {existing}, EI {fmt(st.existing.EI, 'EI', u)}; after: the built-up "
+             f"section, EI {fmt(st.built_up.EI, 'EI', u)}"]
+    header = ["combination", "defl. before", "defl. after", "sum"]
+    after = {r.combination: r for r in st.after}
+    cells = [[r.combination, fmt(r.deflection_max, "deflection", u, 3),
+              fmt(after[r.combination].deflection_max, "deflection", u, 3),
+              fmt(r.deflection_max + after[r.combination].deflection_max, "deflection", u, 3)]
+             for r in st.before if r.combination in after]
+    lines += ["    " + t for t in text_table(header, cells, frozenset(range(1, 4)))]
+    lines.append("  (each stage's largest deflection; the sum bounds the member's, which the "
+                 "deflection checks find along it)")
+    return lines
 
 
 def beam_text(beam: BeamResult, u: str) -> list[str]:

@@ -83,6 +83,12 @@ class Combination:
         return kind == "ASD" if basis == "US" else kind.startswith("SLS")
 
 
+def eu_duration(duration: str) -> str:
+    """An EU load-duration class for any duration name."""
+    return {"ten-years": "long-term", "two-months": "medium-term", "seven-days": "short-term",
+            "ten-minutes": "instantaneous", "impact": "instantaneous"}.get(duration, duration)
+
+
 def duration_of(combo: Combination, basis: str) -> str:
     """Load duration of a combination: its own, else that of its shortest case."""
     if combo.duration:

@@ -20,8 +20,11 @@ from ..codes.dowels import (
     en_f_h_k,
     en_M_y,
     en_steel_centre,
+    en_steel_outer,
     en_steel_single,
+    en_thick_steel_outer,
     en_thick_steel_single,
+    en_thin_steel_outer,
     en_thin_steel_single,
     nds_double_shear,
     nds_single_shear,
@@ -56,6 +59,8 @@ EN_CENTRE = {
     "h": "2.3 \u221a(M_y,Rk f_h,k d)",
 }
 EN_THIN = {"a": "0.4 f_h,k t\u2081 d", "b": "1.15 \u221a(2 M_y,Rk f_h,k d)"}
+EN_THIN_OUTER = {"j": "0.5 f_h,k t\u2082 d", "k": "1.15 \u221a(2 M_y,Rk f_h,k d)"}
+EN_THICK_OUTER = {"l": "0.5 f_h,k t\u2082 d", "m": "2.3 \u221a(M_y,Rk f_h,k d)"}
 EN_THICK = {
     "c": "f_h,k t\u2081 d",
     "d": "f_h,k t\u2081 d (\u221a(2 + 4 M_y,Rk / (f_h,k d t\u2081\u00b2)) \u2212 1)",
@@ -167,12 +172,38 @@ def _en(a: Analysis, c: Check, jt: Joint, u: str) -> tuple[list[str], YieldModes
              f"sin\u00b2\u03b1 + cos\u00b2\u03b1) = {q(fh, 'stress', u, IN)}",
              f"M_y,Rk = 0.3 f_u,k d^2.6 = 0.3 {TIMES} {num(bolt.fu / 1e6, IN)} {TIMES} "
              f"{num(dm, IN)}^2.6 = {num(My * 1000.0, IN)}{NBSP}N\u00b7mm"]
+    joints = side_by_side_joints(s)
+
+    def plated(j: int) -> bool:  # plates on both faces of timber j (as eu_lsd.bolt_value)
+        return sum(1 for other in joints if j in other.timbers) >= 2
+
+    if not jt.steel_is_main and plated(jt.timbers[0]):
+        t2 = s.plies[jt.timbers[0]].width
+        t = s.plies[jt.steel].width
+        thin = en_thin_steel_outer(fh, t2, d, My)
+        thick = en_thick_steel_outer(fh, t2, d, My)
+        value, rule = en_steel_outer(fh, t2, d, My, t)
+        where.append(f"Steel plates on both faces of the timber (steel-timber-steel, the "
+                     f"timber the central member), per shear plane, rope effect left out; "
+                     f"t\u2082 = {q(t2, 'length', u, IN)} (timber thickness), plate t = "
+                     f"{q(t, 'length', u, IN)}, d = {q(d, 'length', u, IN)}: {rule}")
+        if 0.5 * d < t < d:
+            w = (t - 0.5 * d) / (0.5 * d)
+            where.append(f"F_v,Rk = thin + (t \u2212 0.5 d) / (0.5 d) {TIMES} (thick \u2212 thin) "
+                         f"= {q(thin.value, 'force', u, IN)} + {num(w, IN)} {TIMES} "
+                         f"({q(thick.value, 'force', u, IN)} \u2212 "
+                         f"{q(thin.value, 'force', u, IN)}) = {q(value, 'force', u, IN)}")
+        rows = (_mode_table(thin, EN_THIN_OUTER, u, " per plane", False)
+                + _mode_table(thick, EN_THICK_OUTER, u, " per plane", False)[1:])
+        return where, YieldModes({rule: value}), rows
     if jt.steel_is_main:
-        t1 = min(s.plies[j].width for j in jt.timbers)
+        t1 = min(s.plies[j].width / (2 if plated(j) else 1) for j in jt.timbers)
         modes = en_steel_centre(fh, t1, d, My)
+        half = (" (half of a timber with plates on both faces, 8.1.3(1))"
+                if any(plated(j) for j in jt.timbers) else "")
         where.append(f"Steel plate as the central member of a double-shear joint, (8.11), "
                      f"per shear plane, rope effect left out; t\u2081 = "
-                     f"{q(t1, 'length', u, IN)} (timber thickness)")
+                     f"{q(t1, 'length', u, IN)} (timber thickness{half})")
         eqs = EN_CENTRE
     else:
         # 8.2.3: t1 is the timber's thickness; the plate's thickness t sets the rule
@@ -227,8 +258,8 @@ def bolt_derivation(a: Analysis, c: Check, u: str) -> BoltText:
     where += [f"\u03b1 = E_p I_p,na / EI = n_p I_p,na / I_t = {num(float(s.n[i]), IN)} {TIMES} "
               f"{q(float(s.I_na[i]), 'second_moment', u, IN)} / "
               f"{q(s.I_transformed, 'second_moment', u, IN)} = {num(share, IN)}: the share of "
-              "the load the plate takes by its bending stiffness, passed between plate and "
-              "timbers by the bolts"]
+              "the load the plate takes by its bending stiffness at once, passed between plate "
+              "and timbers by the bolts (with creep, where worse, below)"]
     shared = len(where)
     station_where, demand = station_text(a, c, u)
     where += [f"W = total load on the member under {combo.name} = \u03a3R = {terms} = "

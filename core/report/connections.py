@@ -17,10 +17,20 @@ from ..actions.analysis import CombinationResult
 from ..design.bolt_layout import BoltLayout
 from ..design.check import Check
 from ..design.common import Joint, plate_share, shear_point
-from ..design.net_section import hole_diameter, modulus_loss, net_section, net_shear
+from ..design.net_section import (
+    crept_section,
+    demand_state,
+    hole_diameter,
+    largest_loss,
+    net_section,
+    net_shear,
+    states_of,
+)
 from ..design.transfer import (
     StationDemand,
     Transfer,
+    bolt_share,
+    share_basis,
     station_demands,
     support_shear,
     transfers,
@@ -39,14 +49,36 @@ def _combo(a: Analysis, c: Check) -> CombinationResult:
 
 def plate_setup(a: Analysis, c: Check, plate: str | None = None) -> tuple[Joint, BoltLayout,
                                                                           float]:
-    """The joint, the layout and alpha of the plate a bolt check is about."""
+    """The joint, the layout and alpha of the distributed load of the plate a bolt check
+    is about, under the check's combination (at once where it has none).
+    """
     s, beam = a.section, a.beam
     assert beam is not None
     name = plate or c.ply
     placed = next((p for p in a.layouts if s.plies[p.ply].name == name), None)
     if placed is None:
         raise ValueError("the plate's bolt value cannot be made")
-    return placed.joint, placed.layout, plate_share(s, placed.ply)
+    if c.combination is None:
+        return placed.joint, placed.layout, plate_share(s, placed.ply)
+    share = bolt_share(s, beam, _combo(a, c), a.design, placed.ply)
+    return placed.joint, placed.layout, share
+
+
+def share_lines(a: Analysis, c: Check, plate: int) -> list[str]:
+    """How the plate's share alpha of the check's combination is found: at once, and on
+    the final section where that is larger (EU; ``transfer.bolt_share``).
+    """
+    beam = a.beam
+    assert beam is not None
+    combo = _combo(a, c)
+    basis = share_basis(a.section, beam, combo, a.design, plate)
+    lines = [f"\u03b1\u2080 = E_p I_p,na / EI = {num(basis.at_once, IN)} at once"]
+    if basis.final is not None and basis.final > basis.at_once:
+        lines.append(f"\u03b1_fin = {num(basis.final, IN)} on the final section of "
+                     f"{combo.name} (timber E_mean / (1 + \u03c8\u2082 k_def), EN 1995-1-1 "
+                     f"2.3.2.2); \u03b1 = max(\u03b1\u2080, \u03b1_fin) = "
+                     f"{num(basis.alpha, IN)}")
+    return lines
 
 
 def layout_for(a: Analysis, jt: Joint) -> BoltLayout | None:
@@ -68,8 +100,8 @@ def _items(a: Analysis, c: Check, layout: BoltLayout, share: float) -> list[Tran
     return transfers(a.section, a.beam, _combo(a, c), a.design, layout, share)
 
 
-def _transfer_term(t: Transfer, share: float, u: str) -> str:
-    return f"{num(share, IN)} {TIMES} {q(abs(t.force), 'force', u, IN)} / {t.bolts}"
+def _transfer_term(t: Transfer, u: str) -> str:
+    return f"{num(t.share, IN)} {TIMES} {q(abs(t.force), 'force', u, IN)} / {t.bolts}"
 
 
 def _zone_line(t: Transfer, layout: BoltLayout, u: str) -> str:
@@ -100,7 +132,8 @@ def station_text(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
              f"{q(gov.b, 'span', u)}, distributed load on it w_trib = "
              f"{q(gov.load, 'force', u, IN)}"]
     where += [_zone_line(t, layout, u) for t in gov.transfers]
-    terms = [_transfer_term(t, share, u) for t in gov.transfers]
+    where += share_lines(a, c, layout.plate)[1:]  # alpha at once: in the bolt's lines
+    terms = [_transfer_term(t, u) for t in gov.transfers]
     if gov.transfers and gov.from_transfers >= gov.net:
         demand = (f"P = \u03a3 \u03b1 F / n_zone = {' + '.join(terms)} = "
                   f"{q(c.demand, 'force', u)}")
@@ -119,9 +152,8 @@ def transfer_text(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
             key=lambda t: (abs(t.x - (c.x or 0.0)), abs(t.demand - c.demand)))
     if not math.isclose(t.demand, c.demand, rel_tol=1e-9):
         raise ValueError("the sheet's transfer does not reproduce the check's demand")
-    where = [f"\u03b1 = E_p I_p,na / EI = {num(share, IN)} (the plate's share, as in its "
-             "bolts check)", _zone_line(t, layout, u)]
-    demand = (f"P_t = \u03b1 F = {num(share, IN)} {TIMES} {q(abs(t.force), 'force', u, IN)} = "
+    where = [*share_lines(a, c, layout.plate), _zone_line(t, layout, u)]
+    demand = (f"P_t = \u03b1 F = {num(t.share, IN)} {TIMES} {q(abs(t.force), 'force', u, IN)} = "
               f"{q(c.demand, 'force', u)}")
     return where, demand
 
@@ -182,20 +214,28 @@ def net_text(a: Analysis, c: Check, u: str, sym: str) -> tuple[list[str], str]:
     station, _, plate = c.location.partition(" of ")
     jt, layout, _share = plate_setup(a, c, plate)
     k = int(station.split()[-1]) - 1
-    net = net_section(a.section, jt, layout, k, hole_diameter(a.design))
     i = next(j for j, p in enumerate(a.section.plies) if p.name == c.ply)
-    loss = modulus_loss(a.section, i, net)
+    assert a.beam is not None
+    crept = crept_section(a.section, a.beam, c.combination, a.design)
     gross = next(g for g in a.checks if g.id == "bending" and g.ply == c.ply
                  and g.combination == c.combination)
+    states = states_of(demand_state(a.section, a.beam, gross, i, a.design), a.design.us)
+    loss, net, creep = largest_loss(a.section, crept, jt, layout, i, hole_diameter(a.design),
+                                    states)
+    if net.station != k:
+        raise ValueError("the sheet's net section is not at the check's station")
     if not math.isclose(gross.demand * loss, c.demand, rel_tol=1e-9):
         raise ValueError("the sheet's net section does not reproduce the check's demand")
     holes = ", ".join(q(y, "length", u) for y in net.holes)
     where = [f"Holes of {plate} at station {k + 1} (x = {q(layout.stations[k], 'span', u)}): "
              f"diameter {q(hole_diameter(a.design), 'length', u, IN)} at y = {holes}, through "
              "the plate and its timbers; taken at the largest moment (conservative)",
-             f"Net section: I_t,net = {q(net.I_t, 'second_moment', u, IN)}, neutral axis y = "
+             f"Net section{' with creep (timber moduli crept)' if creep else ''}: I_t,net = "
+             f"{q(net.I_t, 'second_moment', u, IN)}, neutral axis y = "
              f"{q(net.y_na, 'length', u, IN)}; (c\u2032 / I_t,net) / (c / I_t) = "
-             f"{num(loss, IN)} for {c.ply}",
+             f"{num(loss, IN)} for {c.ply}"
+             + (", the larger of the section at once and with creep (the demand's sustained "
+                "part creeps)" if len(states) == 2 else ""),
              f"Gross demand {q(gross.demand, 'stress', u, IN)}: the bending check of {c.ply} "
              f"under {c.combination}"]
     demand = (f"{sym}_net = {sym} (c\u2032 / I_t,net) / (c / I_t) = "

@@ -25,8 +25,7 @@ from ..actions.patterns import region_parts
 from ..design.bearing import bearing_sites, bearing_surface, en_effective_length
 from ..design.check import Check, ratio_text
 from ..design.common import shear_point, side_by_side_joints
-from ..design.demands import PlyDemand, eu_uls_section, ply_demands
-from ..model.combination import EN1990_PSI
+from ..design.demands import PlyDemand, eu_psi2, eu_uls_section, governing_action, ply_demands
 from ..pipeline import Analysis
 from ..section.gamma import PartialSection
 from ..section.transformed import Section
@@ -41,7 +40,7 @@ from .connections import (
     transfer_text,
 )
 from .handbook import handbook_terms
-from .numbers import NBSP, TIMES, exact, factor_text, num, q, q_den
+from .numbers import NBSP, TIMES, exact, factor, factor_text, num, num_value, q, q_den
 
 IN = 5  #: significant figures of an equation's inputs (results get 4)
 
@@ -228,12 +227,22 @@ def result(c: Check, u: str) -> str:
 
 
 def ratio_line(c: Check, u: str) -> str:
-    """Demand / capacity = ratio, and the verdict."""
+    """Demand / capacity = ratio, and the verdict: the two printed with the fewest
+    significant figures (four or more) whose quotient gives the printed ratio to within
+    half its last digit, so that a reader dividing them finds it.
+    """
     kind = _kind(c)
     verdict = "\u2264 1 \u2192 OK" if c.ok else "> 1 \u2192 NOT OK"
     ratio = ratio_text(c.ratio)
-    return (f"ratio = {q(abs(c.demand), kind, u)} / {q(c.capacity, kind, u)} = {ratio} "
-            f"{verdict}")
+    digits = 4
+    if math.isfinite(c.ratio):
+        f = factor(kind, u)
+        for digits in range(4, 8):
+            cap = num_value(c.capacity * f, digits)
+            if cap and abs(num_value(abs(c.demand) * f, digits) / cap - float(ratio)) <= 5e-4:
+                break
+    return (f"ratio = {q(abs(c.demand), kind, u, digits)} / {q(c.capacity, kind, u, digits)} "
+            f"= {ratio} {verdict}")
 
 
 def _symbols(a: Analysis, c: Check) -> tuple[str, str]:
@@ -331,10 +340,13 @@ def _bending(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     _check_close(value, c, "bending")
     if sec is not s:
         psi2, k_def = _psi2_kdef(a, combo)
+        assert a.beam is not None
         where.append(f"final state: timber moduli E_fin = E_mean / (1 + \u03c8\u2082 k_def) "
                      f"= E_mean / (1 + {factor_text(psi2)} {TIMES} {factor_text(k_def)}) "
-                     "(EN 1995-1-1 2.3.2.2(2); \u03c8\u2082 of the leading variable action, "
-                     "1.0 for permanent actions alone)")
+                     "(EN 1995-1-1 2.3.2.2(2); \u03c8\u2082 of the action causing the "
+                     f"largest stress in relation to the strength, here "
+                     f"{governing_action(a.beam, combo, a.design)}: its factor times its "
+                     "largest |M| over k_mod of its duration; 1.0 where it is permanent)")
     where += [f"c{low} = |y \u2212 y_na{sub}| = |{q(fibre, 'length', u, IN)} \u2212 "
               f"{q(y_na, 'length', u, IN)}| = {q(dist, 'length', u, IN)} (extreme fibre of "
               f"{c.ply})",
@@ -350,15 +362,10 @@ def _bending(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
 
 
 def _psi2_kdef(a: Analysis, combo: CombinationResult) -> tuple[float, float]:
-    """psi2 of the leading variable action (1.0 without one) and k_def, as
-    :func:`eu_uls_section` takes them.
-    """
+    """psi2 and k_def as :func:`eu_uls_section` takes them (:func:`eu_psi2`)."""
     beam = a.beam
     assert beam is not None
-    psi = {**EN1990_PSI, **a.design.psi}
-    variables = {k: f for k, f in combo.combination.factors.items() if k != "D" and f > 0}
-    psi2 = psi[max(variables, key=lambda k: variables[k])][2] if variables else 1.0
-    return psi2, beam.creep_factor - 1.0
+    return eu_psi2(beam, combo, a.design), beam.creep_factor - 1.0
 
 
 def _bending_creep_us(a: Analysis, c: Check, u: str, combo: CombinationResult, d: PlyDemand,

@@ -13,8 +13,7 @@ from reportlab.platypus import CondPageBreak, KeepTogether
 
 from ..design.bolt_layout import BoltLayout
 from ..design.check import Check, governing, ratio_text
-from ..design.common import plate_share
-from ..design.transfer import Transfer, transfers
+from ..design.transfer import Transfer, bolt_share, transfers
 from ..pipeline import Analysis
 from .checks import label
 from .connections import plate_layouts
@@ -186,7 +185,9 @@ def transfer_rows(a: Analysis) -> list[list[str]]:
              "Ratio"]]
     for c in checks:
         jt, lay = lays[c.ply or ""]
-        share = plate_share(a.section, jt.steel)
+        share = bolt_share(a.section, a.beam, next(
+            cb for cb in a.beam.combinations if cb.name == c.combination), a.design,
+            jt.steel)
         try:
             t = _transfer_of(a, c, lay, share)
         except ValueError as exc:
@@ -204,7 +205,7 @@ def transfer_rows(a: Analysis) -> list[list[str]]:
         rows.append([label(a, c), c.ply or "", c.combination or "",
                      f"{t.label if t.kind == 'support' else 'point load'} at "
                      f"{position_text(t.x, u)}",
-                     f"{what}\u00a0=\u00a0{q(abs(t.force), 'force', u, 5)}", num(share, 5),
+                     f"{what}\u00a0=\u00a0{q(abs(t.force), 'force', u, 5)}", num(t.share, 5),
                      q(c.demand, "force", u), f"{position_text(lo, u)} to "
                      f"{position_text(hi, u)}", stations, str(t.bolts),
                      q(per, "force", u, 5), q(c.capacity, "force", u), f"{c.ratio:.3f}"])

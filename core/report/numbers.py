@@ -70,6 +70,18 @@ def num(value: float, digits: int = 4) -> str:
     return (MINUS if value < 0 else "") + text
 
 
+def num_value(value: float, digits: int = 4) -> float:
+    """The number :func:`num` prints for ``value``, as a float (what a reader works on)."""
+    if not math.isfinite(value) or value == 0:
+        return value
+    magnitude = math.floor(math.log10(abs(value)))
+    if magnitude >= 6 or magnitude <= -5:
+        exp = 3 * math.floor(magnitude / 3)
+        return num_value(value / 10.0**exp, digits) * 10.0**exp
+    decimals = max(digits - 1 - magnitude, 0)
+    return math.copysign(float(f"{abs(value):.{decimals}f}"), value)
+
+
 def factor_text(value: float) -> str:
     """A dimensionless factor as given (up to six significant figures, no padding)."""
     text = f"{value:.6g}"

@@ -137,6 +137,30 @@ def test_a_load_no_strength_combination_takes_makes_the_verdict_incomplete():
     assert len(reasons) == 1  # the demo's D loads are said with the self-weight
 
 
+def test_eu_deflections_without_a_characteristic_combination_are_a_missing_check():
+    """EN 1995-1-1 7.2 limits the deflection of the characteristic combination (EN 1990
+    6.5.3): a user's list of ULS combinations only makes no deflection check, so the
+    verdict is INCOMPLETE; a characteristic combination without L leaves the L loads out
+    of the deflection checks, and says so.
+    """
+    d = copy.deepcopy(EU)
+    d["beam"]["combinations"] = [{"name": "U1", "factors": {"D": 1.35, "L": 1.5},
+                                  "duration": "medium-term", "kind": "ULS"}]
+    a = _run(d)
+    assert not any(c.id.startswith("deflection") for c in a.checks)
+    assert a.verdict == "INCOMPLETE"
+    assert [str(p) for p in a.incomplete_reasons] == [
+        "beam.combinations: has no SLS-characteristic combination: the deflection checks "
+        "(EN 1995-1-1 7.2, EN 1990 6.5.3) are not made"]
+    d["beam"]["combinations"].append({"name": "S1", "factors": {"D": 1.0},
+                                      "kind": "SLS-characteristic"})
+    assert [str(p) for p in _run(d).incomplete_reasons] == [
+        f"beam.combinations: no SLS-characteristic combination takes case L of "
+        f"beam.loads[{i}]; the deflection checks leave that load out" for i in (1, 3)]
+    d["beam"]["combinations"][1]["factors"]["L"] = 1.0
+    assert _run(d).incomplete_reasons == ()
+
+
 def test_a_ply_cut_by_a_later_overlapping_ply_is_said():
     """The demo's plate widened to 1/2 in without moving the right 2x10: the plate is cut
     where they overlap (the later ply wins, by design); that changes its bolts, so it is

@@ -108,3 +108,21 @@ def test_fonts_are_embedded():
             "/FontDescriptor"]
         desc = desc.get_object()
         assert any(k in desc for k in ("/FontFile", "/FontFile2", "/FontFile3"))
+
+
+def test_the_ratio_line_prints_figures_enough_to_divide_back():
+    """A reader divides the printed demand by the printed capacity: with four figures,
+    1,633 lbf / 721.6 lbf = 2.2630 would not give the printed 2.262 (the ratio of the
+    unrounded values 1632.6 / 721.62 = 2.2624); five figures do (1,632.6 / 721.62 =
+    2.2624)."""
+    from plystack.core.design.check import Check
+    from plystack.core.model.constants import LBF
+    from plystack.core.report.derive import ratio_line
+
+    c = Check(id="splitting", ply="L", combination="D + L", demand=1632.6 * LBF,
+              capacity=721.62 * LBF, quantity="force", reference=("V", 1.0))
+    line = ratio_line(c, "US")
+    assert line == ("ratio = 1,632.6\u00a0lbf / 721.62\u00a0lbf = 2.262 > 1 \u2192 NOT OK")
+    plain = Check(id="splitting", ply="L", combination="D + L", demand=500.0 * LBF,
+                  capacity=800.0 * LBF, quantity="force", reference=("V", 1.0))
+    assert ratio_line(plain, "US").startswith("ratio = 500.0\u00a0lbf / 800.0\u00a0lbf = 0.625")

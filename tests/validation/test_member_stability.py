@@ -299,3 +299,40 @@ def test_eu_bolts_with_a_plate_on_one_face_use_the_timber_thickness():
                    "bolt": {"diameter": "12 mm", "fu": "400 MPa"}}})
     c = next(c for c in run(p).checks if c.id == "bolts")
     assert c.reference[1] == pytest.approx(expected, rel=1e-9)
+
+
+@pytest.mark.parametrize(("t", "rule"), [(16.0, "thick"), (6.0, "thin"), (12.0, "between")])
+def test_eu_plates_on_both_faces_of_a_timber_are_a_steel_timber_steel_joint(t, rule):
+    """EN 1995-1-1 8.2.3 (from memory): a timber between two steel plates is the central
+    member of a double-shear joint, each plane F_v,Rk = min(0.5 f_h t2 d, 1.15 sqrt(2 M_y
+    f_h d)) with thin plates (8.12) or min(0.5 f_h t2 d, 2.3 sqrt(M_y f_h d)) with thick
+    ones (8.13), linear between; not the single-shear (8.9)/(8.10) with the whole timber
+    for each plate. C24 60 mm (rho_k 350), 16 mm bolts, f_u 400 MPa."""
+    import math as m
+
+    d, t2, fu, rho = 16.0, 60.0, 400.0, 350.0
+    fh = 0.082 * (1 - 0.01 * d) * rho / (1.35 + 0.015 * d)
+    My = 0.3 * fu * d**2.6
+    thin = min(0.5 * fh * t2 * d, 1.15 * m.sqrt(2 * My * fh * d))
+    thick = min(0.5 * fh * t2 * d, 2.3 * m.sqrt(My * fh * d))
+    expected = {"thick": thick, "thin": thin,
+                "between": thin + (t - 0.5 * d) / (0.5 * d) * (thick - thin)}[rule]
+    p = from_dict({
+        "format": "plystack", "version": 1, "title": "two side plates", "display_units": "SI",
+        "plies": [{"name": "plate L", "material": "S275", "x": "0 mm", "y": "10 mm",
+                   "width": f"{t} mm", "height": "200 mm"},
+                  {"name": "joist", "material": "C24", "x": f"{t} mm", "y": "0 mm",
+                   "width": "60 mm", "height": "220 mm"},
+                  {"name": "plate R", "material": "S275", "x": f"{t + 60} mm", "y": "10 mm",
+                   "width": f"{t} mm", "height": "200 mm"}],
+        "beam": {"spans": ["3.6 m"], "supports": "simple", "self_weight": False,
+                 "bearing_length": "90 mm",
+                 "loads": [{"case": "D", "type": "line", "value": "0.5 kN/m"},
+                           {"case": "L", "type": "line", "value": "1.0 kN/m"}]},
+        "design": {"basis": "EU-LSD", "service_class": 1,
+                   "bolt": {"diameter": "16 mm", "fu": "400 MPa", "rows": 1}}})
+    found = [c for c in run(p).checks if c.id == "bolts"]
+    assert {c.ply for c in found} == {"plate L", "plate R"}
+    for c in found:
+        assert c.reference[1] == pytest.approx(expected, rel=1e-12)
+    assert 0.5 * fh * t2 * d == pytest.approx(7277.8867924528, rel=1e-12)  # the trial's

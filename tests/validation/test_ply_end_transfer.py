@@ -219,8 +219,9 @@ def test_splitting_at_the_plate_end_by_hand():
     """At the plate's end the plate's share of the shear, alpha V, goes down into the two
     timbers (half each) through the end zone's bolts: loaded edge the bottom. The largest
     alpha V: at the end (V = w (72 - 12) in = 1560 lbf) with creep (timber E / 1.5, the
-    larger alpha). NDS 2018 3.4.3.3 (from memory): d_e = 7.0 in (to the top bolt's centre), the stations
-    at 15 and 21 in are within 5 d of the end: V'_r = (2/3) 180 psi x 1.5 in x d_e (d_e / d)^2."""
+    larger alpha). NDS 2018 3.4.3.3 (from memory): d_e = 7.0 in (to the top bolt's
+    centre), the stations at 15 and 21 in are within 5 d of the end: V'_r = (2/3) 180 psi
+    x 1.5 in x d_e (d_e / d)^2."""
     I_w = 2 * 1.5 * 9.25**3 / 12
     I_s = 0.375 * 8.75**3 / 12
     alpha = E_S * I_s / (E_W / 1.5 * I_w + E_S * I_s)

@@ -98,6 +98,28 @@ def test_stages_in_json():
     assert st["shored"] is False
 
 
+def test_stages_in_the_text_output_add_up_to_the_deflection_checked():
+    """The text of ``check`` shows both stages beside the built-up section's table: the
+    deflections 5 w L^4 / (384 EI) of each stage (midspan, both uniform) and their sum,
+    the deflection-total check's demand (to the 3 figures printed)."""
+    from plystack.core.io.output import check_text
+    from plystack.core.model.units import fmt
+
+    p = from_dict(_project())
+    a = run(p)
+    text = check_text(a)
+    assert "Stages (strengthened under load" in text
+    mats = p.all_materials()
+    L, Et = 15 * FT, mats["DFL-No2"].E
+    w1 = 5 * 40 * PLF * L**4 / (384 * Et * 1.5 * INCH * (9.25 * INCH) ** 3 / 12)
+    _, w_total, _ = _hand(p)
+    row = next(t for t in text.splitlines() if t.strip().startswith("D + L ")
+               and t.count(" in") == 3)
+    assert row.split()[-6:] == [*fmt(w1, "deflection", "US", 3).split(),
+                                *fmt(w_total - w1, "deflection", "US", 3).split(),
+                                *fmt(w_total, "deflection", "US", 3).split()]
+
+
 def test_staged_long_term_deflection_creeps_the_dead_load_on_the_joist_alone():
     """US: the sustained part is D (no sustained live fraction given); NDS 2018 3.5.2
     K_cr divides the timber modulus under it (from memory); the live load is short-term
