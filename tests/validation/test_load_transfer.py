@@ -223,7 +223,7 @@ def test_eu_transfer_uses_the_design_value_of_the_zone(combination, psi2):
              for p in a.section.plies]
     y_na = (sum(e * A * y for e, (A, y, _) in zip(E, rects, strict=True))
             / sum(e * A for e, (A, _, _) in zip(E, rects, strict=True)))
-    EI_i = [e * (I + A * (y - y_na) ** 2) for e, (A, y, I) in zip(E, rects, strict=True)]
+    EI_i = [e * (own + A * (y - y_na) ** 2) for e, (A, y, own) in zip(E, rects, strict=True)]
     jt_share = EI_i[1] / sum(EI_i)
     assert jt_share > a.section.E[1] * a.section.I_na[1] / a.section.EI  # at once
     k = a.beam.model.layout.support_positions().index(0.0)

@@ -81,7 +81,8 @@ def test_eu_splitting_at_a_support_by_hand():
     transformed section (plate centred on the timbers: one neutral axis at 110 mm,
     alpha = E_p I_p / (E_t I_t + E_p I_p), C24 E0,mean 11,000 MPa, S275 210,000 MPa, from
     memory) on the final section, the larger (EN 1995-1-1 2.3.2.2: timber E_mean / (1 +
-    psi2 k_def), Q governs: psi2 0.3, k_def 0.6 in service class 1). Zone: stations within d = 220 mm of the support, 0.1 and 0.2 m. Loaded edge
+    psi2 k_def), Q governs: psi2 0.3, k_def 0.6 in service class 1). Zone: stations
+    within d = 220 mm of the support, 0.1 and 0.2 m. Loaded edge
     the bottom, h_e = 160 mm (the top row), h = 220 mm, b = 45 mm; half the force each."""
     a = run(from_dict(_eu(["0.1 m", "0.2 m", "2 m", "3.8 m", "3.9 m"])))
     w = 1.35 * 1000 + 1.5 * 2000
