@@ -264,14 +264,26 @@ def us_bearing(section: Section, beam: BeamResult, design: DesignSpec,
     return out
 
 
-def en_effective_length(site: BearingSite, length: float) -> float:
-    """EN 1995-1-1 6.1.5(1): l_ef = l plus up to 30 mm on each side, not beyond the
-    member's ends (a support at an end of the member spreads to one side only; one on an
-    overhang shorter than 30 mm beyond its bearing, only as far as the end).
+def en_effective_length(site: BearingSite, length: float,
+                        sites: Sequence[BearingSite] = ()) -> float:
+    """EN 1995-1-1 6.1.5(1) (with A1, from memory): l_ef = l plus 30 mm on each side, but
+    not more than a (to the member's end), l (the contact length itself) or l1 / 2 (half
+    the clear distance to the next bearing on the same face, of ``sites``): a support at
+    an end of the member spreads to one side only, one on a short overhang only as far as
+    the end.
     """
-    left = site.x - site.length / 2  # to the member's ends, on either face (a support
-    right = length - site.x - site.length / 2  # on a short overhang spreads that far)
-    return site.length + min(EN_SPREAD, max(left, 0.0)) + min(EN_SPREAD, max(right, 0.0))
+    left = site.x - site.length / 2  # to the member's ends, on either face
+    right = length - site.x - site.length / 2
+    for other in sites:
+        if other is site or other.face != site.face:
+            continue
+        gap = abs(other.x - site.x) - (other.length + site.length) / 2  # l1
+        if other.x < site.x:
+            left = min(left, gap / 2)
+        elif other.x > site.x:
+            right = min(right, gap / 2)
+    cap = min(EN_SPREAD, site.length)
+    return site.length + min(cap, max(left, 0.0)) + min(cap, max(right, 0.0))
 
 
 def eu_bearing(section: Section, beam: BeamResult, design: DesignSpec,
@@ -289,7 +301,7 @@ def eu_bearing(section: Section, beam: BeamResult, design: DesignSpec,
     out = []
     for site, surface, i_min, fc90 in _borne(section, sites, "fc90_k", design, warnings):
         mat = section.materials[i_min]
-        l_ef = en_effective_length(site, L)
+        l_ef = en_effective_length(site, L, sites)
         spread = l_ef - site.length
         best = None
         for combo in uls:

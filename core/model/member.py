@@ -179,11 +179,21 @@ def bearing_problem(bearing: float, layout: BeamLayout, system: str = "SI") -> s
     if not layout.spans:
         return None
     limit = min(layout.spans) if layout.supports == "cantilever" else min(layout.spans) / 2
-    if bearing <= limit * (1 + 1e-12):
-        return None
-    return (f"{fmt(bearing, 'length', system)} is longer than "
-            + ("the cantilever" if layout.supports == "cantilever" else "half the shortest span")
-            + f" ({fmt(limit, 'length', system)}): the bearings would overlap the member")
+    if bearing > limit * (1 + 1e-12):
+        return (f"{fmt(bearing, 'length', system)} is longer than "
+                + ("the cantilever" if layout.supports == "cantilever"
+                   else "half the shortest span")
+                + f" ({fmt(limit, 'length', system)}): the bearings would overlap the member")
+    L = layout.length
+    for k, x in enumerate(layout.support_positions()):
+        a = min(x, L - x)  # the overhang beyond this support (0: at the member's end)
+        if 1e-9 * max(L, 1.0) < a < bearing / 2 * (1 - 1e-12):
+            return (f"{fmt(bearing, 'length', system)} centred on support {k + 1} would run "
+                    f"past the member's end: its overhang is {fmt(a, 'length', system)}, "
+                    f"less than half the bearing ({fmt(bearing / 2, 'length', system)}); "
+                    "lengthen the overhang, shorten the bearing, or put the support at the "
+                    "end (a support at an end bears within the member)")
+    return None
 
 
 def validate_load(load: Load, length: float, path: str, system: str = "SI") -> list[Problem]:
@@ -213,6 +223,12 @@ def validate_load(load: Load, length: float, path: str, system: str = "SI") -> l
         lb = load.bearing_length
         if lb is not None and not (np.isfinite(lb) and lb > 0):
             problems.append(Problem(f"{path}.bearing_length", "must be greater than zero"))
+        elif lb is not None and load.at is not None and -tol <= load.at <= length + tol and (
+                min(load.at, length - load.at) < lb / 2 - tol):
+            problems.append(Problem(f"{path}.bearing_length", f"{fmt(lb, 'length', system)} "
+                                    f"centred at x = {fmt(load.at, 'span', system)} would run "
+                                    "past the member's end: move the load in by half the "
+                                    "bearing or shorten the bearing"))
     else:
         if load.bearing_length is not None:
             problems.append(Problem(f"{path}.bearing_length", "only applies to point loads"))

@@ -507,13 +507,14 @@ def _bearing(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
                   f"{TIMES} {exact(lb, 'length', u)}) = {result(c, u)}")
         where.append(f"l_b = {exact(lb, 'length', u)} (bearing length)")
     else:
-        l_ef = en_effective_length(site, beam.model.layout.length)
+        l_ef = en_effective_length(site, beam.model.layout.length, bearing_sites(beam))
         add = q(l_ef - lb, "length", u, IN)
         kN = f" {TIMES} 1,000{NBSP}N/kN" if u == "SI" else ""
         value = R / (sum(widths) * l_ef)
         where.append(f"l_ef = l + {add} = {exact(lb, 'length', u)} + {add} = "
                      f"{q(l_ef, 'length', u, IN)} (EN 1995-1-1 6.1.5(1): up to 30 mm beyond "
-                     "each side of the bearing that has room within the member)")
+                     "each side of the bearing, not more than l, the room to the member's end "
+                     "or half the clear distance to the next bearing on that face)")
         demand = (f"{sym} = F / (\u03a3b l_ef) = {q(R, 'force', u, IN)}{kN} / ({widths_text} "
                   f"{TIMES} ({exact(lb, 'length', u)} + {add})) = {result(c, u)}")
     _check_close(value, c, "bearing")

@@ -72,12 +72,12 @@ def test_point_load_near_the_end_gets_no_C_b():
     assert c.factors["C_b"] == 1.0
 
 
-@pytest.mark.parametrize(("overhang", "C_b"), [("1 in", 1.0), ("4 in", 1.0),
+@pytest.mark.parametrize(("overhang", "C_b"), [("1.5 in", 1.0), ("4 in", 1.0),
                                                ("4.5 in", 1.125), ("10 in", 1.125)])
 def test_a_support_on_a_short_overhang_bears_near_the_end(overhang, C_b):
     """NDS 2018 3.10.4: C_b only for a bearing not nearer than 3 in to the member's end.
     A 3 in bearing centred on a support with an overhang of e: its edge is e - 1.5 in
-    from the end; e = 1 in and 4 in leave 2.5 in or less, so C_b = 1; e = 4.5 in leaves
+    from the end; e = 1.5 in and 4 in leave 2.5 in or less, so C_b = 1; e = 4.5 in leaves
     3 in and e = 10 in 8.5 in, so C_b = (3 + 0.375) / 3 = 1.125.
     """
     data = copy.deepcopy(US)
@@ -87,6 +87,25 @@ def test_a_support_on_a_short_overhang_bears_near_the_end(overhang, C_b):
     assert c.factors["C_b"] == C_b
     assert c.capacity / PSI == pytest.approx(625.0 * C_b, rel=1e-12)
     assert bearing(a, "support 1").factors["C_b"] == 1.0  # at the member's end
+
+
+@pytest.mark.parametrize("overhang", ["1 in", "1.4 in"])
+def test_a_bearing_that_would_run_past_the_end_is_refused(overhang):
+    """A 3 in bearing centred on a support 1 in (or 1.4 in) from the member's end would
+    stand partly beyond it: refused by field, rather than checked on contact it has not."""
+    data = copy.deepcopy(US)
+    data["beam"]["overhang_right"] = overhang
+    with pytest.raises(ProjectError, match=r"beam\.bearing_length: 3\.000 in centred on "
+                       r"support 2 would run past the member's end"):
+        from_dict(data)
+
+
+def test_a_point_load_bearing_past_the_end_is_refused():
+    data = copy.deepcopy(US)
+    data["beam"]["loads"][2]["at"] = "0.5 in"  # a 2 in bearing: 1 in either side
+    with pytest.raises(ProjectError, match=r"loads\[2\]\.bearing_length: 2\.000 in "
+                       r"centred at x = .* would run past the member's end"):
+        from_dict(data)
 
 
 def test_missing_Fc_perp_makes_the_verdict_incomplete():
@@ -149,12 +168,12 @@ def test_eu_point_load_at_the_end_spreads_to_one_side():
     assert p.demand == pytest.approx(7500.0 / (0.075 * 0.110), rel=1e-9)
 
 
-@pytest.mark.parametrize(("overhang", "spread"), [("20 mm", 0.0), ("70 mm", 0.020),
+@pytest.mark.parametrize(("overhang", "spread"), [("50 mm", 0.0), ("70 mm", 0.020),
                                                   ("200 mm", 0.030)])
 def test_eu_support_on_a_short_overhang_spreads_only_to_the_end(overhang, spread):
     """EN 1995-1-1 6.1.5(1): up to 30 mm beyond each side of the bearing, within the
     member. A 100 mm bearing centred on a support with an overhang of e reaches e - 50 mm
-    from the end: 20 mm of overhang leaves nothing, 70 mm leaves 20 mm, 200 mm the full
+    from the end: 50 mm of overhang leaves nothing, 70 mm leaves 20 mm, 200 mm the full
     30 mm; the side towards the span spreads 30 mm. The reaction of support 2 with the
     overhang: the largest over the pattern arrangements, taken from the program's own beam
     (statics are tested elsewhere).
@@ -167,6 +186,25 @@ def test_eu_support_on_a_short_overhang_spreads_only_to_the_end(overhang, spread
     combo = next(c for c in a.beam.combinations if c.name == s.combination)
     R = float(combo.reactions_max[1])
     assert s.demand == pytest.approx(R / (0.075 * l_ef), rel=1e-12)
+
+
+def test_eu_spread_is_at_most_the_bearing_itself_and_half_the_gap_to_the_next():
+    """EN 1995-1-1 6.1.5(1) (with A1, from memory): 30 mm each side but not more than l or
+    l1 / 2. A 20 mm bearing under the point load: 20 + 20 + 20 = 60 mm (not 80); a second
+    point load 60 mm away with a 40 mm bearing: the clear gap l1 = 60 - (20 + 40) / 2 =
+    30 mm, so 15 mm on that side of the first (min(30, 20, 15): 20 + 20 + 15 = 55 mm) and
+    of the second (min(30, 40, 15): 40 + 15 + 30 = 85 mm)."""
+    data = copy.deepcopy(EU)
+    data["beam"]["loads"][2]["bearing_length"] = "20 mm"
+    p = bearing(run(from_dict(data)), "point load 3")
+    assert p.demand == pytest.approx(7500.0 / (0.075 * 0.060), rel=1e-9)
+    data["beam"]["loads"].append({"case": "L", "type": "point", "value": "1 kN", "at": "2.06 m",
+                                  "bearing_length": "40 mm"})
+    a = run(from_dict(data))
+    assert bearing(a, "point load 3").demand == pytest.approx(7500.0 / (0.075 * 0.055),
+                                                              rel=1e-9)
+    assert bearing(a, "point load 4").demand == pytest.approx(1500.0 / (0.075 * 0.085),
+                                                              rel=1e-9)
 
 
 @pytest.mark.parametrize("data", [US, EU], ids=["US", "EU"])
