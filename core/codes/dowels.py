@@ -154,14 +154,16 @@ def en_thick_steel_outer(f_h: float, t2: float, d: float, M_y: float) -> YieldMo
 
 
 def en_steel_outer(f_h: float, t2: float, d: float, M_y: float,
-                   t_steel: float) -> tuple[float, str]:
+                   t_steel: float, hole: float | None = None) -> tuple[float, str]:
     """EN 1995-1-1 8.2.3 steel plates on both faces of one timber (steel-timber-steel),
     per shear plane, by the plate thickness t as :func:`en_steel_single` (thin (8.12),
-    thick (8.13), linear between); t2 is the timber's thickness. Returns (F_v,Rk per
-    shear plane, N; which rule).
+    thick (8.13), linear between; thin where the holes are not tight enough for a thick
+    plate); t2 is the timber's thickness. Returns (F_v,Rk per shear plane, N; which rule).
     """
     thin = en_thin_steel_outer(f_h, t2, d, M_y).value
     thick = en_thick_steel_outer(f_h, t2, d, M_y).value
+    if loose_holes(d, hole) and t_steel > 0.5 * d:
+        return thin, f"thin plates (8.12): {LOOSE_HOLES}"
     if t_steel <= 0.5 * d:
         return thin, "thin plates (8.12)"
     if t_steel >= d:
@@ -171,8 +173,21 @@ def en_steel_outer(f_h: float, t2: float, d: float, M_y: float,
                                        f"{t_steel / d:.3g}")
 
 
+#: Why a plate at least 0.5 d thick is still taken as thin.
+LOOSE_HOLES = ("the holes' tolerance is not under 0.1 d, so the plate does not count as thick "
+               "(EN 1995-1-1 8.2.3(1), from memory)")
+
+
+def loose_holes(d: float, hole: float | None) -> bool:
+    """True where holes of diameter ``hole`` leave a bolt of diameter d a tolerance of
+    0.1 d or more: such a plate is not thick, whatever its thickness (EN 1995-1-1
+    8.2.3(1), from memory); None: the hole is not known (taken as tight).
+    """
+    return hole is not None and hole - d >= 0.1 * d * (1 - 1e-12)
+
+
 def en_steel_single(f_h: float, t1: float, d: float, M_y: float,
-                    t_steel: float) -> tuple[float, str]:
+                    t_steel: float, hole: float | None = None) -> tuple[float, str]:
     """EN 1995-1-1 8.2.3 steel-to-timber, single shear, by the plate thickness t (from
     memory): thin (t <= 0.5 d) by (8.9), thick (t >= d) by (8.10), linear interpolation
     between; t1 is the timber member's thickness. Returns (F_v,Rk per shear plane, N;
@@ -180,6 +195,8 @@ def en_steel_single(f_h: float, t1: float, d: float, M_y: float,
     """
     thin = en_thin_steel_single(f_h, t1, d, M_y).value
     thick = en_thick_steel_single(f_h, t1, d, M_y).value
+    if loose_holes(d, hole) and t_steel > 0.5 * d:
+        return thin, f"thin plate (8.9): {LOOSE_HOLES}"
     if t_steel <= 0.5 * d:
         return thin, "thin plate (8.9)"
     if t_steel >= d:

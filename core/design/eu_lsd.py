@@ -52,6 +52,7 @@ from .common import (
 from .demands import eu_uls_section, ply_demands
 from .eu_timber import bending_check as eu_bending
 from .eu_timber import interaction_check as eu_interaction
+from .net_section import hole_diameter
 from .plates import eu_plate_chi, plate_bracing
 from .transfer import support_shear_checks
 
@@ -311,7 +312,7 @@ def bolt_value(section: Section, design: DesignSpec, jt: Joint, system: str,
     t1 = min(section.plies[j].width / (2 if plated(j) else 1) for j in jt.timbers)
     if not jt.steel_is_main and plated(jt.timbers[0]):
         t2 = section.plies[jt.timbers[0]].width
-        value, rule = en_steel_outer(fh, t2, d, My, steel.width)
+        value, rule = en_steel_outer(fh, t2, d, My, steel.width, hole_diameter(design))
         kind = f"steel plates on both faces of the timber, per plane, {rule}"
         Fv_Rk = value
         thin_o = en_thin_steel_outer(fh, t2, d, My)
@@ -331,7 +332,7 @@ def bolt_value(section: Section, design: DesignSpec, jt: Joint, system: str,
                      + f"; governing ({modes.governing}).")
     else:
         # t1 is the timber member's thickness; the plate's thickness sets the rule
-        value, rule = en_steel_single(fh, t1, d, My, steel.width)
+        value, rule = en_steel_single(fh, t1, d, My, steel.width, hole_diameter(design))
         kind = f"steel plate on one face, single shear, {rule}"
         Fv_Rk = value
         thin_m = en_thin_steel_single(fh, t1, d, My)

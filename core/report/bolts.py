@@ -26,11 +26,13 @@ from ..codes.dowels import (
     en_thick_steel_single,
     en_thin_steel_outer,
     en_thin_steel_single,
+    loose_holes,
     nds_double_shear,
     nds_single_shear,
 )
 from ..design.check import Check
 from ..design.common import Joint, plate_share, side_by_side_joints
+from ..design.net_section import hole_diameter
 from ..model.constants import INCH
 from ..pipeline import Analysis
 from ..section.transformed import Section
@@ -182,12 +184,12 @@ def _en(a: Analysis, c: Check, jt: Joint, u: str) -> tuple[list[str], YieldModes
         t = s.plies[jt.steel].width
         thin = en_thin_steel_outer(fh, t2, d, My)
         thick = en_thick_steel_outer(fh, t2, d, My)
-        value, rule = en_steel_outer(fh, t2, d, My, t)
+        value, rule = en_steel_outer(fh, t2, d, My, t, hole_diameter(a.design))
         where.append(f"Steel plates on both faces of the timber (steel-timber-steel, the "
                      f"timber the central member), per shear plane, rope effect left out; "
                      f"t\u2082 = {q(t2, 'length', u, IN)} (timber thickness), plate t = "
                      f"{q(t, 'length', u, IN)}, d = {q(d, 'length', u, IN)}: {rule}")
-        if 0.5 * d < t < d:
+        if 0.5 * d < t < d and not loose_holes(d, hole_diameter(a.design)):
             w = (t - 0.5 * d) / (0.5 * d)
             where.append(f"F_v,Rk = thin + (t \u2212 0.5 d) / (0.5 d) {TIMES} (thick \u2212 thin) "
                          f"= {q(thin.value, 'force', u, IN)} + {num(w, IN)} {TIMES} "
@@ -211,11 +213,11 @@ def _en(a: Analysis, c: Check, jt: Joint, u: str) -> tuple[list[str], YieldModes
         t = s.plies[jt.steel].width
         thin = en_thin_steel_single(fh, t1, d, My)
         thick = en_thick_steel_single(fh, t1, d, My)
-        value, rule = en_steel_single(fh, t1, d, My, t)
+        value, rule = en_steel_single(fh, t1, d, My, t, hole_diameter(a.design))
         where.append(f"Steel plate on one face, single shear, rope effect left out; t\u2081 = "
                      f"{q(t1, 'length', u, IN)} (timber thickness), plate t = "
                      f"{q(t, 'length', u, IN)}, d = {q(d, 'length', u, IN)}: {rule}")
-        if 0.5 * d < t < d:
+        if 0.5 * d < t < d and not loose_holes(d, hole_diameter(a.design)):
             w = (t - 0.5 * d) / (0.5 * d)
             where.append(f"F_v,Rk = thin + (t \u2212 0.5 d) / (0.5 d) {TIMES} (thick \u2212 thin) "
                          f"= {q(thin.value, 'force', u, IN)} + {num(w, IN)} {TIMES} "

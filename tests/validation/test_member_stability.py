@@ -336,3 +336,31 @@ def test_eu_plates_on_both_faces_of_a_timber_are_a_steel_timber_steel_joint(t, r
     for c in found:
         assert c.reference[1] == pytest.approx(expected, rel=1e-12)
     assert 0.5 * fh * t2 * d == pytest.approx(7277.8867924528, rel=1e-12)  # the trial's
+
+
+def test_eu_a_plate_with_loose_holes_is_thin_whatever_its_thickness():
+    """EN 1995-1-1 8.2.3(1) (from memory): a plate counts as thick only where t >= d and
+    the holes' tolerance is under 0.1 d. M8 bolts in holes d + 1 mm (the program's, as
+    drawn on the plates): 1 mm = 0.125 d, so a 10 mm plate on one face of a 45 mm C24
+    joist takes the thin rule (8.9), not (8.10)."""
+    import math as m
+
+    d, t1, fu, rho = 8.0, 45.0, 400.0, 350.0
+    fh = 0.082 * (1 - 0.01 * d) * rho / (1.35 + 0.015 * d)
+    My = 0.3 * fu * d**2.6
+    thin = min(0.4 * fh * t1 * d, 1.15 * m.sqrt(2 * My * fh * d))
+    p = from_dict({
+        "format": "plystack", "version": 1, "title": "side plate", "display_units": "SI",
+        "plies": [{"name": "joist", "material": "C24", "x": "0 mm", "y": "0 mm",
+                   "width": "45 mm", "height": "220 mm"},
+                  {"name": "plate", "material": "S275", "x": "45 mm", "y": "10 mm",
+                   "width": "10 mm", "height": "200 mm"}],
+        "beam": {"spans": ["3.6 m"], "supports": "simple", "self_weight": False,
+                 "bearing_length": "90 mm",
+                 "loads": [{"case": "D", "type": "line", "value": "0.5 kN/m"},
+                           {"case": "L", "type": "line", "value": "1.0 kN/m"}]},
+        "design": {"basis": "EU-LSD", "service_class": 1,
+                   "bolt": {"diameter": "8 mm", "fu": "400 MPa"}}})
+    c = next(c for c in run(p).checks if c.id == "bolts")
+    assert c.reference[1] == pytest.approx(thin, rel=1e-12)
+    assert "does not count as thick" in c.sources["F_v,Rk"]
