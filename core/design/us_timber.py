@@ -17,6 +17,7 @@ import math
 
 from ..actions.analysis import BeamResult, CombinationResult
 from ..codes import nds
+from ..model.constants import INCH
 from ..model.design import DesignSpec
 from ..model.errors import MissingCheck, Problem
 from ..model.materials import Material
@@ -52,6 +53,15 @@ def _size(ply: Ply, mat: Material, beam: BeamResult) -> tuple[str, float, float,
     else:
         src = S_CF
     return "C_F", cf, cfu, src
+
+
+def _flat_timber(ply: Ply, mat: Material) -> bool:
+    """A sawn ply thicker than 4 in nominal (3.5 in dressed) used flatwise: a beam and
+    stringer or post and timber on its wide face, whose flat-use factor (NDS Supplement
+    Table 4D) depends on its grade.
+    """
+    return (mat.product == "sawn" and ply.width > ply.height
+            and ply.height > 3.5 * INCH * (1 + 1e-9))
 
 
 def _thickness(ply: Ply) -> float:
@@ -118,7 +128,16 @@ def _bending_for(i: int, section: Section, beam: BeamResult, combo: CombinationR
          "C_r": nds.C_r(design.repetitive_member, mat.product, _thickness(ply))}
     s = {ref_sym: mat.source_of(ref_sym), "C_D": S_TABLE, "C_M": S_CM, "C_t": S_CT,
          "C_i": S_CI, "C_r": _cr_source(ply, mat, design), sym: size_src}
-    if cfu != 1.0:
+    if _flat_timber(ply, mat):
+        if "C_fu" not in design.overrides.get(ply.name, {}):
+            warnings.append(MissingCheck(
+                f'design.overrides["{ply.name}"].C_fu', "is not given: the sawn ply "
+                f'"{ply.name}" is thicker than 4 in nominal and used flatwise, where the '
+                "flat-use factor is that of NDS Supplement Table 4D for its grade (below 1 "
+                "for some grades, from memory), not Table 4A's; its bending is not checked"))
+            return None
+        f["C_fu"], s["C_fu"] = 1.0, "NDS Supplement Table 4D flat use (the user's value)"
+    elif cfu != 1.0:
         f["C_fu"] = cfu
         s["C_fu"] = "NDS Supplement Table 4A flat use (from memory)"
     found = None

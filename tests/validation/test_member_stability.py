@@ -364,3 +364,21 @@ def test_eu_a_plate_with_loose_holes_is_thin_whatever_its_thickness():
     c = next(c for c in run(p).checks if c.id == "bolts")
     assert c.reference[1] == pytest.approx(thin, rel=1e-12)
     assert "does not count as thick" in c.sources["F_v,Rk"]
+
+
+def test_a_flat_timber_thicker_than_4_in_needs_its_table_4d_flat_use_factor():
+    """NDS Supplement: Table 4A's flat-use factors are for dimension lumber 2 in to 4 in
+    thick; a beam and stringer used flatwise takes Table 4D's by grade (below 1 for some,
+    from memory), which the program cannot know: the bending check is a named missing
+    check until the user gives C_fu, which it then takes."""
+    plies = [{"name": "flat 6x10", "material": "DFL-No2", "x": "0 in", "y": "0 in",
+              "width": "9.5 in", "height": "5.5 in"}]
+    a = run(us_joist(True, [{"case": "L", "type": "line", "value": "5 plf"}], plies=plies))
+    assert not any(c.id == "bending" for c in a.checks)
+    assert a.verdict == "INCOMPLETE"
+    assert any(str(p.path) == 'design.overrides["flat 6x10"].C_fu'
+               for p in a.incomplete_reasons)
+    a = run(us_joist(True, [{"case": "L", "type": "line", "value": "5 plf"}], plies=plies,
+                     extra={"overrides": {"flat 6x10": {"C_fu": 0.74}}}))
+    c = next(c for c in a.checks if c.id == "bending" and c.combination == "D + L")
+    assert c.factors["C_fu"] == 0.74 and c.sources["C_fu"] == "user override"
