@@ -232,6 +232,18 @@ def interaction_check(i: int, section: Section, beam: BeamResult, combo: Combina
             eq = "(sigma_c,0,d / f_c,0,d)^2 + sigma_m,d / f_m,d <= 1 (EN 1995-1-1 6.2.4)"
         cid = "compression-bending"
         detail = f"sigma_c = {sc:.4g} Pa, f_c,0,d = {fcd:.4g} Pa, k_c = {kc:.4g}"
+        member_width = (max(p.x + p.width for p in section.plies)
+                        - min(p.x for p in section.plies))
+        crit = _k_crit(i, section, beam, design, member_width, d, warnings)
+        if crit is None:
+            return None
+        if crit[0] < 1.0:  # lateral torsional buckling with the compression, (6.35)
+            lt = (sm / (crit[0] * fmd)) ** 2 + sc / (kc * fcd)
+            detail += f", k_crit = {crit[0]:.4g}: (6.35) {lt:.3f}"
+            if lt > ratio:
+                ratio = lt
+                eq = ("(sigma_m,d / (k_crit f_m,d))^2 + sigma_c,d / (k_c f_c,0,d) <= 1 "
+                      "(EN 1995-1-1 6.3.3, expression 6.35)")
     return Check(
         id=cid, ply=ply.name, combination=combo.name, demand=ratio, capacity=1.0,
         quantity="ratio", reference=("interaction", 1.0), factors={}, partial_factors={},

@@ -243,18 +243,29 @@ def interaction_check(i: int, section: Section, beam: BeamResult, combo: Combina
         size * cfu * nds.C_r(design.repetitive_member, mat.product, _thickness(ply)))
     flat = ply.width > ply.height
     face = ply.width if flat else ply.height
+    # C_L of the ply's compression edge, as its bending check takes it (the lower of two
+    # sides over a support): F**b of 3.9.1 and F'b1 of 3.9.2 include it, F*b does not
+    c_l = 1.0
+    member_width = (max(p.x + p.width for p in section.plies)
+                    - min(p.x for p in section.plies))
+    for edge in edge_stabilities(beam, design, "top" if d.sign > 0 else "bottom", d.x):
+        stable = _stability(i, section, design, member_width, d, edge, fb_no_cl, warnings)
+        if stable is None:
+            return None
+        c_l = min(c_l, stable[0])
     if key == "Ft":
         Ft = F_axial * nds.C_D(combo.duration) * nds.C_M("Ft", mat.product, wet) * nds.C_t(
             "Ft", temp, wet) * nds.C_i("Ft", design.incised) * (
             nds.C_F(face, mat.product, mat.size_adjusted) if mat.product == "sawn" else 1.0)
         ft, fb = d.axial, d.bending
         r1 = ft / Ft + fb / fb_no_cl
-        r2 = max(fb - ft, 0.0) / fb_no_cl
+        r2 = max(fb - ft, 0.0) / (fb_no_cl * c_l)
         ratio = max(r1, r2)
         eq = "f_t / F't + f_b / F*b <= 1 and (f_b - f_t) / F**b <= 1 (NDS 2018 3.9.1)"
         cid: CheckId = "tension-bending"
         detail = (f"f_t = {ft:.4g} Pa, F't = {Ft:.4g} Pa, f_b = {fb:.4g} Pa, F*b = "
-                  f"{fb_no_cl:.4g} Pa: {r1:.3f} and {r2:.3f}")
+                  f"{fb_no_cl:.4g} Pa, F**b = F*b C_L = {fb_no_cl * c_l:.4g} Pa (C_L = "
+                  f"{c_l:.4g}): {r1:.3f} and {r2:.3f}")
     else:
         fc, fb = -d.axial, d.bending
         Fc = F_axial * nds.C_D(combo.duration) * nds.C_M("Fc", mat.product, wet) * nds.C_t(
@@ -275,11 +286,11 @@ def interaction_check(i: int, section: Section, beam: BeamResult, combo: Combina
         if fc >= fce:
             ratio = math.inf
         else:
-            ratio = (fc / Fc) ** 2 + fb / (fb_no_cl * (1 - fc / fce))
+            ratio = (fc / Fc) ** 2 + fb / (fb_no_cl * c_l * (1 - fc / fce))
         eq = "(f_c / F'c)^2 + f_b / (F'b (1 - f_c / F_cE)) <= 1 (NDS 2018 3.9.2)"
         cid = "compression-bending"
         detail = (f"f_c = {fc:.4g} Pa, F'c = {Fc:.4g} Pa, f_b = {fb:.4g} Pa, F'b = "
-                  f"{fb_no_cl:.4g} Pa, F_cE = {fce:.4g} Pa")
+                  f"{fb_no_cl * c_l:.4g} Pa (C_L = {c_l:.4g}), F_cE = {fce:.4g} Pa")
     del sym
     return Check(
         id=cid, ply=ply.name, combination=combo.name, demand=ratio, capacity=1.0,

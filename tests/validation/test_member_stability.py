@@ -157,6 +157,81 @@ def test_stacked_plies_get_the_tension_bending_interaction():
     assert c.demand == pytest.approx(ft / Ft + fb / Fb_star, rel=1e-9)
 
 
+def test_stacked_compression_ply_takes_C_L_in_its_interaction():
+    """Two stacked 2x8s, the top edge unbraced over 4 ft: the top ply carries axial
+    compression f_c at its centroid and bending f_b about it. NDS 2018 3.9.2 (from
+    memory): (f_c / F'c)^2 + f_b / (F'b1 (1 - f_c / F_cE1)) <= 1 with F'b1 including C_L
+    (3.3.3: l_u / d = 48 / 7.25 < 7, l_e = 2.06 l_u, R_B^2 = l_e d / b^2, F_bE = 1.20
+    E'min / R_B^2) and F'c including C_P (3.7.1, c = 0.8 sawn, F_cE = 0.822 E'min /
+    (l_e / d)^2 about the 1.5 in face); DF-L No.2 Fc 1350 psi, C_F for Fc of a 2x8 1.05
+    (Supplement Table 4A)."""
+    import math as m
+
+    plies = [{"name": "bottom", "material": "DFL-No2", "x": "0 in", "y": "0 in",
+              "width": "1.5 in", "height": "7.25 in"},
+             {"name": "top", "material": "DFL-No2", "x": "0 in", "y": "7.25 in",
+              "width": "1.5 in", "height": "7.25 in"}]
+    a = run(us_joist(False, [{"case": "L", "type": "line", "value": "100 plf"}],
+                     unbraced="4 ft", plies=plies))
+    c = next(c for c in a.checks if c.id == "compression-bending" and c.ply == "top"
+             and c.combination == "D + L")
+    M = 100 * 144**2 / 8 / 12  # lbf in (100 plf over 12 ft)
+    I_t = 1.5 * 14.5**3 / 12
+    fc = fb = M * (7.25 / 2) / I_t
+    Emin, lu, d, b = 580000.0, 48.0, 7.25, 1.5
+    fb_star = 900 * 1.0 * 1.2  # C_D 1.0, C_F 1.2 for a 2x8
+    fbe = 1.20 * Emin / (2.06 * lu * d / b**2)
+    r = fbe / fb_star
+    C_L = (1 + r) / 1.9 - m.sqrt(((1 + r) / 1.9) ** 2 - r / 0.95)
+    fc_star = 1350 * 1.0 * 1.05
+    fce = 0.822 * Emin / (lu / b) ** 2
+    q = fce / fc_star
+    C_P = (1 + q) / 1.6 - m.sqrt(((1 + q) / 1.6) ** 2 - q / 0.8)
+    expected = (fc / (fc_star * C_P)) ** 2 + fb / (fb_star * C_L * (1 - fc / fce))
+    assert C_L < 0.96
+    assert c.demand == pytest.approx(expected, rel=1e-9)
+
+
+def test_eu_stacked_compression_ply_takes_k_crit_with_its_compression():
+    """Two stacked C24 45 x 200 mm plies, 3 m simple span, the top edge unbraced over
+    1.5 m, loads on the top: the top ply carries sigma_c at its centroid and sigma_m about
+    it. EN 1995-1-1 (from memory): 6.3.2 sigma_c / (k_c f_c,0,d) + sigma_m / f_m,d and
+    6.3.3(6) (6.35) (sigma_m / (k_crit f_m,d))^2 + sigma_c / (k_c f_c,0,d), the larger;
+    k_h = 1.0 (3.2(3), h >= 150 mm); k_c (6.25)-(6.29) beta_c 0.2 about the 45 mm face
+    over 1.5 m; k_crit (6.34) with l_ef = 0.9 l + 2 h (Table 6.1, load on the compression
+    edge); C24 f_m,k 24, f_c,0,k 21, E_0,05 7,400 MPa (EN 338); k_mod 0.8, gamma_M 1.3."""
+    import math as m
+
+    a = run(from_dict({
+        "format": "plystack", "version": 1, "title": "stacked", "display_units": "SI",
+        "plies": [{"name": "bottom", "material": "C24", "x": "0 mm", "y": "0 mm",
+                   "width": "45 mm", "height": "200 mm"},
+                  {"name": "top", "material": "C24", "x": "0 mm", "y": "200 mm",
+                   "width": "45 mm", "height": "200 mm"}],
+        "beam": {"spans": ["3 m"], "supports": "simple", "self_weight": False,
+                 "bearing_length": "90 mm",
+                 "loads": [{"case": "D", "type": "line", "value": "0.3 kN/m"},
+                           {"case": "L", "type": "line", "value": "0.6 kN/m"}]},
+        "design": {"basis": "EU-LSD", "service_class": 1, "compression_edge_braced": False,
+                   "unbraced_length": "1.5 m", "load_level": "top"}}))
+    c = next(c for c in a.checks if c.id == "compression-bending" and c.ply == "top"
+             and c.combination == "ULS 1.35G + 1.5Q[L]")
+    M = (1.35 * 300 + 1.5 * 600) * 3.0**2 / 8  # N m
+    I_t = 0.045 * 0.400**3 / 12
+    sc = sm = M * 0.100 / I_t / 1e6  # MPa
+    fmd = 0.8 * 1.0 * 24 / 1.3
+    fcd = 0.8 * 21 / 1.3
+    lam = 1500 / (45 / m.sqrt(12)) / m.pi * m.sqrt(21 / 7400)
+    k = 0.5 * (1 + 0.2 * (lam - 0.3) + lam**2)
+    kc = 1 / (k + m.sqrt(k**2 - lam**2))
+    crit = 0.78 * 45**2 * 7400 / (200 * (0.9 * 1500 + 2 * 200))
+    lm = m.sqrt(24 / crit)
+    k_crit = 1.56 - 0.75 * lm if lm <= 1.4 else 1 / lm**2
+    assert k_crit < 1.0 and kc < 1.0
+    expected = max(sc / (kc * fcd) + sm / fmd, (sm / (k_crit * fmd)) ** 2 + sc / (kc * fcd))
+    assert c.demand == pytest.approx(expected, rel=1e-9)
+
+
 def test_steel_side_plate_lateral_torsional_buckling_aisc_f11():
     """The issue's case: a 3/8 x 8 3/4 in side plate unbraced over 6 ft under the AISC-F11
     rule: F_cr = 1.9 E C_b / (L_b d / t^2), allowable F_cr / 1.67 = 7,365 psi."""
