@@ -21,7 +21,7 @@ from ..codes import en1995 as ec5
 from ..model.combination import EN1990_PSI, EU_CASE_DURATION, eu_duration
 from ..model.design import DesignSpec
 from ..section.transformed import Section, with_moduli
-from .memo import once
+from .memo import once, with_partner
 
 
 @dataclass(frozen=True)
@@ -115,10 +115,21 @@ def eu_uls_section(section: Section, beam: BeamResult, combo: CombinationResult,
 
 
 def ply_demands(section: Section, beam: BeamResult, combo: CombinationResult, i: int,
-                design: DesignSpec, eu_final: Section | None = None) -> list[PlyDemand]:
+                design: DesignSpec, eu_final: Section | None = None
+                ) -> tuple[PlyDemand, ...]:
     """The demands of ply i at the sagging and hogging extremes of the combination (only
-    those that are nonzero), each the worse of the instantaneous and the final state.
+    those that are nonzero), each the worse of the instantaneous and the final state;
+    found once per section, combination, ply and final section (the checks of a ply and
+    its net section at the holes ask for them again).
     """
+    key = ("ply_demands", i, None if eu_final is None else id(eu_final),
+           id(beam.creep_section))
+    return with_partner(combo, key, section,
+                        lambda: tuple(_ply_demands(section, beam, combo, i, eu_final)))
+
+
+def _ply_demands(section: Section, beam: BeamResult, combo: CombinationResult, i: int,
+                 eu_final: Section | None) -> list[PlyDemand]:
     e = combo.extremes
     out = []
     for sign, M, x, M_sus in ((1, e.M_max, e.x_M_max, combo.M_sustained_at_max),

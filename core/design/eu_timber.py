@@ -179,7 +179,7 @@ def interaction_check(i: int, section: Section, beam: BeamResult, combo: Combina
             or carries_axial(section, i)):
         return None
     if demand is not None:
-        demands = [demand]
+        demands: tuple[PlyDemand, ...] = (demand,)
     else:
         final = eu_uls_section(section, beam, combo, design)
         demands = ply_demands(section, beam, combo, i, design, eu_final=final)

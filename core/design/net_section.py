@@ -41,7 +41,7 @@ from .bolt_layout import BoltLayout
 from .check import Check, evolve
 from .common import Joint, own_checks
 from .demands import eu_uls_section, ply_demands
-from .memo import once
+from .memo import once, with_partner
 
 
 def hole_diameter(design: DesignSpec) -> float:
@@ -205,19 +205,34 @@ def largest_loss(section: Section, crept: Section, joint: Joint, layout: BoltLay
                  ) -> tuple[float, NetSection, bool]:
     """The largest loss of section modulus of ply i at the holes of any station, on the
     section at once and (or) with creep (``states``, :func:`states_of`): (loss, the net
-    section, True where with creep).
+    section, True where with creep; at once where the two are equal).
     """
     best: tuple[float, NetSection, bool] | None = None
     for sec, creep in ((section, False), (crept, True)):
         if creep not in states:
             continue
-        for k in range(len(layout.stations)):
-            net = net_section(sec, joint, layout, k, d_hole)
-            loss = modulus_loss(sec, i, net)
-            if best is None or loss > best[0]:
-                best = (loss, net, creep)
+        loss, net = _station_loss(sec, joint, layout, i, d_hole)
+        if best is None or loss > best[0]:
+            best = (loss, net, creep)
     assert best is not None
     return best
+
+
+def _station_loss(section: Section, joint: Joint, layout: BoltLayout, i: int, d_hole: float
+                  ) -> tuple[float, NetSection]:
+    """The largest loss of ply i over the stations of ``layout`` and its net section (the
+    first station of the largest), found once per section, layout and ply.
+    """
+    def make() -> tuple[float, NetSection]:
+        best: tuple[float, NetSection] | None = None
+        for k in range(len(layout.stations)):
+            net = net_section(section, joint, layout, k, d_hole)
+            loss = modulus_loss(section, i, net)
+            if best is None or loss > best[0]:
+                best = (loss, net)
+        assert best is not None
+        return best
+    return with_partner(section, ("station_loss", i, d_hole, joint), layout, make)
 
 
 def net_checks(section: Section, joint: Joint, layout: BoltLayout, design: DesignSpec,

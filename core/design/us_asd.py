@@ -9,6 +9,7 @@ E'min = Emin C_M C_t C_i. Bolts: Z' = Z C_D C_M C_t C_g C_Delta (NDS Table 11.3.
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence
 
 import numpy as np
 
@@ -211,7 +212,7 @@ def _steel_checks(i: int, section: Section, beam: BeamResult, design: DesignSpec
 
 
 def _plate_interaction(i: int, section: Section, design: DesignSpec,
-                       ds: list[PlyDemand], F_cb: float, bracing: PlateBracing,
+                       ds: Sequence[PlyDemand], F_cb: float, bracing: PlateBracing,
                        combination: str, system: str) -> Check | None:
     """AISC 360-16 H2-1 (from memory) for a plate whose centroid is off the neutral
     axis, so that it carries axial force with its own bending (a cover plate, a flitch

@@ -219,7 +219,7 @@ def interaction_check(i: int, section: Section, beam: BeamResult, combo: Combina
         return None
     wet, temp = design.wet_service, design.temperature
     if demand is not None:
-        demands = [demand]
+        demands: tuple[PlyDemand, ...] = (demand,)
     else:
         demands = ply_demands(section, beam, combo, i, design)
     if not demands:
