@@ -225,14 +225,20 @@ def _station_loss(section: Section, joint: Joint, layout: BoltLayout, i: int, d_
     """
     def make() -> tuple[float, NetSection]:
         best: tuple[float, NetSection] | None = None
-        for k in range(len(layout.stations)):
-            net = net_section(section, joint, layout, k, d_hole)
+        for net in _nets(section, joint, layout, d_hole):
             loss = modulus_loss(section, i, net)
             if best is None or loss > best[0]:
                 best = (loss, net)
         assert best is not None
         return best
     return with_partner(section, ("station_loss", i, d_hole, joint), layout, make)
+
+
+def _nets(section: Section, joint: Joint, layout: BoltLayout, d_hole: float
+          ) -> tuple[NetSection, ...]:
+    """:func:`net_section` of every station of ``layout``, found once per section."""
+    return with_partner(section, ("nets", d_hole, joint), layout, lambda: tuple(
+        net_section(section, joint, layout, k, d_hole) for k in range(len(layout.stations))))
 
 
 def net_checks(section: Section, joint: Joint, layout: BoltLayout, design: DesignSpec,
