@@ -160,16 +160,25 @@ def en_steel_outer(f_h: float, t2: float, d: float, M_y: float,
     thick (8.13), linear between; thin where the holes are not tight enough for a thick
     plate); t2 is the timber's thickness. Returns (F_v,Rk per shear plane, N; which rule).
     """
-    thin = en_thin_steel_outer(f_h, t2, d, M_y).value
-    thick = en_thick_steel_outer(f_h, t2, d, M_y).value
+    return _by_thickness(en_thin_steel_outer(f_h, t2, d, M_y).value,
+                         en_thick_steel_outer(f_h, t2, d, M_y).value, d, t_steel, hole,
+                         ("thin plates (8.12)", "thick plates (8.13)", "(8.12) and (8.13)"))
+
+
+def _by_thickness(thin: float, thick: float, d: float, t_steel: float, hole: float | None,
+                  names: tuple[str, str, str]) -> tuple[float, str]:
+    """EN 1995-1-1 8.2.3 (from memory): the thin plate's value for t <= 0.5 d (or holes
+    too loose for a thick plate), the thick plate's for t >= d, linear between; with the
+    rule's words (``names``: thin, thick, the pair).
+    """
     if loose_holes(d, hole) and t_steel > 0.5 * d:
-        return thin, f"thin plates (8.12): {LOOSE_HOLES}"
+        return thin, f"{names[0]}: {LOOSE_HOLES}"
     if t_steel <= 0.5 * d:
-        return thin, "thin plates (8.12)"
+        return thin, names[0]
     if t_steel >= d:
-        return thick, "thick plates (8.13)"
+        return thick, names[1]
     w = (t_steel - 0.5 * d) / (0.5 * d)
-    return thin + w * (thick - thin), (f"interpolated between (8.12) and (8.13), t/d = "
+    return thin + w * (thick - thin), (f"interpolated between {names[2]}, t/d = "
                                        f"{t_steel / d:.3g}")
 
 
@@ -193,14 +202,6 @@ def en_steel_single(f_h: float, t1: float, d: float, M_y: float,
     between; t1 is the timber member's thickness. Returns (F_v,Rk per shear plane, N;
     which rule).
     """
-    thin = en_thin_steel_single(f_h, t1, d, M_y).value
-    thick = en_thick_steel_single(f_h, t1, d, M_y).value
-    if loose_holes(d, hole) and t_steel > 0.5 * d:
-        return thin, f"thin plate (8.9): {LOOSE_HOLES}"
-    if t_steel <= 0.5 * d:
-        return thin, "thin plate (8.9)"
-    if t_steel >= d:
-        return thick, "thick plate (8.10)"
-    w = (t_steel - 0.5 * d) / (0.5 * d)
-    rule = f"interpolated between (8.9) and (8.10), t/d = {t_steel / d:.3g}"
-    return thin + w * (thick - thin), rule
+    return _by_thickness(en_thin_steel_single(f_h, t1, d, M_y).value,
+                         en_thick_steel_single(f_h, t1, d, M_y).value, d, t_steel, hole,
+                         ("thin plate (8.9)", "thick plate (8.10)", "(8.9) and (8.10)"))

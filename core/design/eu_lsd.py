@@ -16,6 +16,7 @@ from ..actions.analysis import BeamResult
 from ..codes import en1993
 from ..codes import en1995 as ec5
 from ..codes.dowels import (
+    YieldModes,
     en_f_h_k,
     en_M_y,
     en_steel_centre,
@@ -282,6 +283,16 @@ def _layouts_without_checks(section: Section, beam: BeamResult, design: DesignSp
     return out
 
 
+def _plate_modes(thin: tuple[str, YieldModes], thick: tuple[str, YieldModes], value: float,
+                 rule: str, system: str, thickness: str) -> str:
+    """The note on a plate's yield modes, thin and thick, and the value taken."""
+    def modes(name: str, found: YieldModes) -> str:
+        return f"{name}: " + ", ".join(f"({m}) {fmt(v, 'force', system)}"
+                                       for m, v in found.modes.items())
+    return (f"{modes(*thin)}; {modes(*thick)}; F_v,Rk {fmt(value, 'force', system)} "
+            f"({rule}), {thickness}.")
+
+
 def bolt_value(section: Section, design: DesignSpec, jt: Joint, system: str,
                 warnings: list[Problem], joints: list[Joint] | None = None
                 ) -> BoltValue | None:
@@ -306,6 +317,7 @@ def bolt_value(section: Section, design: DesignSpec, jt: Joint, system: str,
     My = en_M_y(bolt.fu, d)
     rho = min(r for r in rhos if r is not None)
     fh = en_f_h_k(rho, d, 90.0)
+
     def plated(j: int) -> bool:  # plates on both faces of timber j
         return sum(1 for other in joints if j in other.timbers) >= 2
 
@@ -315,14 +327,11 @@ def bolt_value(section: Section, design: DesignSpec, jt: Joint, system: str,
         value, rule = en_steel_outer(fh, t2, d, My, steel.width, hole_diameter(design))
         kind = f"steel plates on both faces of the timber, per plane, {rule}"
         Fv_Rk = value
-        thin_o = en_thin_steel_outer(fh, t2, d, My)
-        thick_o = en_thick_steel_outer(fh, t2, d, My)
-        mode_text = ("thin plates (8.12): " + ", ".join(
-            f"({m}) {fmt(v, 'force', system)}" for m, v in thin_o.modes.items())
-            + "; thick plates (8.13): " + ", ".join(
-            f"({m}) {fmt(v, 'force', system)}" for m, v in thick_o.modes.items())
-            + f"; F_v,Rk {fmt(value, 'force', system)} ({rule}), t2 = timber thickness "
-            "(a plate on each face: the timber is the central member).")
+        mode_text = _plate_modes(
+            ("thin plates (8.12)", en_thin_steel_outer(fh, t2, d, My)),
+            ("thick plates (8.13)", en_thick_steel_outer(fh, t2, d, My)), value, rule,
+            system, "t2 = timber thickness (a plate on each face: the timber is the central "
+            "member)")
     elif jt.steel_is_main:
         modes = en_steel_centre(fh, t1, d, My)
         kind = "steel plate as central member, (8.11)"
@@ -335,13 +344,10 @@ def bolt_value(section: Section, design: DesignSpec, jt: Joint, system: str,
         value, rule = en_steel_single(fh, t1, d, My, steel.width, hole_diameter(design))
         kind = f"steel plate on one face, single shear, {rule}"
         Fv_Rk = value
-        thin_m = en_thin_steel_single(fh, t1, d, My)
-        thick_m = en_thick_steel_single(fh, t1, d, My)
-        mode_text = ("thin plate (8.9): " + ", ".join(
-            f"({m}) {fmt(v, 'force', system)}" for m, v in thin_m.modes.items())
-            + "; thick plate (8.10): " + ", ".join(
-            f"({m}) {fmt(v, 'force', system)}" for m, v in thick_m.modes.items())
-            + f"; F_v,Rk {fmt(value, 'force', system)} ({rule}), t1 = timber thickness.")
+        mode_text = _plate_modes(
+            ("thin plate (8.9)", en_thin_steel_single(fh, t1, d, My)),
+            ("thick plate (8.10)", en_thick_steel_single(fh, t1, d, My)), value, rule,
+            system, "t1 = timber thickness")
     sc = design.service_class
     return BoltValue(
         reference=("F_v,Rk", Fv_Rk),

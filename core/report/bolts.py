@@ -189,15 +189,8 @@ def _en(a: Analysis, c: Check, jt: Joint, u: str) -> tuple[list[str], YieldModes
                      f"timber the central member), per shear plane, rope effect left out; "
                      f"t\u2082 = {q(t2, 'length', u, IN)} (timber thickness), plate t = "
                      f"{q(t, 'length', u, IN)}, d = {q(d, 'length', u, IN)}: {rule}")
-        if 0.5 * d < t < d and not loose_holes(d, hole_diameter(a.design)):
-            w = (t - 0.5 * d) / (0.5 * d)
-            where.append(f"F_v,Rk = thin + (t \u2212 0.5 d) / (0.5 d) {TIMES} (thick \u2212 thin) "
-                         f"= {q(thin.value, 'force', u, IN)} + {num(w, IN)} {TIMES} "
-                         f"({q(thick.value, 'force', u, IN)} \u2212 "
-                         f"{q(thin.value, 'force', u, IN)}) = {q(value, 'force', u, IN)}")
-        rows = (_mode_table(thin, EN_THIN_OUTER, u, " per plane", False)
-                + _mode_table(thick, EN_THICK_OUTER, u, " per plane", False)[1:])
-        return where, YieldModes({rule: value}), rows
+        return _thin_or_thick(a, where, (thin, EN_THIN_OUTER), (thick, EN_THICK_OUTER), t,
+                              value, rule, u)
     if jt.steel_is_main:
         t1 = min(s.plies[j].width / (2 if plated(j) else 1) for j in jt.timbers)
         modes = en_steel_centre(fh, t1, d, My)
@@ -217,17 +210,27 @@ def _en(a: Analysis, c: Check, jt: Joint, u: str) -> tuple[list[str], YieldModes
         where.append(f"Steel plate on one face, single shear, rope effect left out; t\u2081 = "
                      f"{q(t1, 'length', u, IN)} (timber thickness), plate t = "
                      f"{q(t, 'length', u, IN)}, d = {q(d, 'length', u, IN)}: {rule}")
-        if 0.5 * d < t < d and not loose_holes(d, hole_diameter(a.design)):
-            w = (t - 0.5 * d) / (0.5 * d)
-            where.append(f"F_v,Rk = thin + (t \u2212 0.5 d) / (0.5 d) {TIMES} (thick \u2212 thin) "
-                         f"= {q(thin.value, 'force', u, IN)} + {num(w, IN)} {TIMES} "
-                         f"({q(thick.value, 'force', u, IN)} \u2212 "
-                         f"{q(thin.value, 'force', u, IN)}) = {q(value, 'force', u, IN)}")
-        rows = (_mode_table(thin, EN_THIN, u, " per plane", False)
-                + _mode_table(thick, EN_THICK, u, " per plane", False)[1:])
-        return where, YieldModes({rule: value}), rows
+        return _thin_or_thick(a, where, (thin, EN_THIN), (thick, EN_THICK), t, value, rule, u)
     table = _mode_table(modes, eqs, u, " per plane", False)
     return where, modes, table
+
+
+def _thin_or_thick(a: Analysis, where: list[str], thin: tuple[YieldModes, dict[str, str]],
+                   thick: tuple[YieldModes, dict[str, str]], t: float, value: float, rule: str,
+                   u: str) -> tuple[list[str], YieldModes, tuple]:  # type: ignore[type-arg]
+    """The thin and thick plate's modes of an EU steel-to-timber bolt, and the value
+    between them where the plate's thickness lies between 0.5 d and d (8.2.3).
+    """
+    d = a.design.bolt.diameter
+    if 0.5 * d < t < d and not loose_holes(d, hole_diameter(a.design)):
+        w = (t - 0.5 * d) / (0.5 * d)
+        where.append(f"F_v,Rk = thin + (t \u2212 0.5 d) / (0.5 d) {TIMES} (thick \u2212 thin) "
+                     f"= {q(thin[0].value, 'force', u, IN)} + {num(w, IN)} {TIMES} "
+                     f"({q(thick[0].value, 'force', u, IN)} \u2212 "
+                     f"{q(thin[0].value, 'force', u, IN)}) = {q(value, 'force', u, IN)}")
+    rows = (_mode_table(thin[0], thin[1], u, " per plane", False)
+            + _mode_table(thick[0], thick[1], u, " per plane", False)[1:])
+    return where, YieldModes({rule: value}), rows
 
 
 def bolt_derivation(a: Analysis, c: Check, u: str) -> BoltText:

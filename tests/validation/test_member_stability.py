@@ -345,6 +345,25 @@ def test_hyphenated_feet_inch_fraction_and_pounds():
     assert parse("300 lb", "force", "x") == pytest.approx(300 * 4.4482216152605, rel=1e-15)
 
 
+def _eu_bolted(plies: list[dict], bolt: dict):
+    """A 3.6 m simple span of C24 and S275 plies on the EU basis, bolted as ``bolt``."""
+    return from_dict({
+        "format": "plystack", "version": 1, "title": "bolted plates", "display_units": "SI",
+        "plies": plies,
+        "beam": {"spans": ["3.6 m"], "supports": "simple", "self_weight": False,
+                 "bearing_length": "90 mm",
+                 "loads": [{"case": "D", "type": "line", "value": "0.5 kN/m"},
+                           {"case": "L", "type": "line", "value": "1.0 kN/m"}]},
+        "design": {"basis": "EU-LSD", "service_class": 1, "bolt": bolt}})
+
+
+#: A 10 mm plate on one face of a C24 45 x 220 mm joist.
+SIDE_PLATE = [{"name": "joist", "material": "C24", "x": "0 mm", "y": "0 mm",
+               "width": "45 mm", "height": "220 mm"},
+              {"name": "plate", "material": "S275", "x": "45 mm", "y": "10 mm",
+               "width": "10 mm", "height": "200 mm"}]
+
+
 def test_eu_bolts_with_a_plate_on_one_face_use_the_timber_thickness():
     """EN 1995-1-1 8.2.3 (from memory): t1 is the timber's thickness; a 10 mm plate with
     12 mm bolts (0.5 d < t < d) interpolates between (8.9) thin and (8.10) thick. f_h,0,k
@@ -360,18 +379,7 @@ def test_eu_bolts_with_a_plate_on_one_face_use_the_timber_thickness():
     thick = min(fh * t1 * d, fh * t1 * d * (m.sqrt(2 + 4 * My / (fh * d * t1**2)) - 1),
                 2.3 * m.sqrt(My * fh * d))
     expected = thin + (t - 0.5 * d) / (0.5 * d) * (thick - thin)
-    p = from_dict({
-        "format": "plystack", "version": 1, "title": "side plate", "display_units": "SI",
-        "plies": [{"name": "joist", "material": "C24", "x": "0 mm", "y": "0 mm",
-                   "width": "45 mm", "height": "220 mm"},
-                  {"name": "plate", "material": "S275", "x": "45 mm", "y": "10 mm",
-                   "width": "10 mm", "height": "200 mm"}],
-        "beam": {"spans": ["3.6 m"], "supports": "simple", "self_weight": False,
-                 "bearing_length": "90 mm",
-                 "loads": [{"case": "D", "type": "line", "value": "0.5 kN/m"},
-                           {"case": "L", "type": "line", "value": "1.0 kN/m"}]},
-        "design": {"basis": "EU-LSD", "service_class": 1,
-                   "bolt": {"diameter": "12 mm", "fu": "400 MPa"}}})
+    p = _eu_bolted(SIDE_PLATE, {"diameter": "12 mm", "fu": "400 MPa"})
     c = next(c for c in run(p).checks if c.id == "bolts")
     assert c.reference[1] == pytest.approx(expected, rel=1e-9)
 
@@ -392,20 +400,13 @@ def test_eu_plates_on_both_faces_of_a_timber_are_a_steel_timber_steel_joint(t, r
     thick = min(0.5 * fh * t2 * d, 2.3 * m.sqrt(My * fh * d))
     expected = {"thick": thick, "thin": thin,
                 "between": thin + (t - 0.5 * d) / (0.5 * d) * (thick - thin)}[rule]
-    p = from_dict({
-        "format": "plystack", "version": 1, "title": "two side plates", "display_units": "SI",
-        "plies": [{"name": "plate L", "material": "S275", "x": "0 mm", "y": "10 mm",
-                   "width": f"{t} mm", "height": "200 mm"},
-                  {"name": "joist", "material": "C24", "x": f"{t} mm", "y": "0 mm",
-                   "width": "60 mm", "height": "220 mm"},
-                  {"name": "plate R", "material": "S275", "x": f"{t + 60} mm", "y": "10 mm",
-                   "width": f"{t} mm", "height": "200 mm"}],
-        "beam": {"spans": ["3.6 m"], "supports": "simple", "self_weight": False,
-                 "bearing_length": "90 mm",
-                 "loads": [{"case": "D", "type": "line", "value": "0.5 kN/m"},
-                           {"case": "L", "type": "line", "value": "1.0 kN/m"}]},
-        "design": {"basis": "EU-LSD", "service_class": 1,
-                   "bolt": {"diameter": "16 mm", "fu": "400 MPa", "rows": 1}}})
+    p = _eu_bolted([{"name": "plate L", "material": "S275", "x": "0 mm", "y": "10 mm",
+                     "width": f"{t} mm", "height": "200 mm"},
+                    {"name": "joist", "material": "C24", "x": f"{t} mm", "y": "0 mm",
+                     "width": "60 mm", "height": "220 mm"},
+                    {"name": "plate R", "material": "S275", "x": f"{t + 60} mm", "y": "10 mm",
+                     "width": f"{t} mm", "height": "200 mm"}],
+                   {"diameter": "16 mm", "fu": "400 MPa", "rows": 1})
     found = [c for c in run(p).checks if c.id == "bolts"]
     assert {c.ply for c in found} == {"plate L", "plate R"}
     for c in found:
@@ -424,18 +425,7 @@ def test_eu_a_plate_with_loose_holes_is_thin_whatever_its_thickness():
     fh = 0.082 * (1 - 0.01 * d) * rho / (1.35 + 0.015 * d)
     My = 0.3 * fu * d**2.6
     thin = min(0.4 * fh * t1 * d, 1.15 * m.sqrt(2 * My * fh * d))
-    p = from_dict({
-        "format": "plystack", "version": 1, "title": "side plate", "display_units": "SI",
-        "plies": [{"name": "joist", "material": "C24", "x": "0 mm", "y": "0 mm",
-                   "width": "45 mm", "height": "220 mm"},
-                  {"name": "plate", "material": "S275", "x": "45 mm", "y": "10 mm",
-                   "width": "10 mm", "height": "200 mm"}],
-        "beam": {"spans": ["3.6 m"], "supports": "simple", "self_weight": False,
-                 "bearing_length": "90 mm",
-                 "loads": [{"case": "D", "type": "line", "value": "0.5 kN/m"},
-                           {"case": "L", "type": "line", "value": "1.0 kN/m"}]},
-        "design": {"basis": "EU-LSD", "service_class": 1,
-                   "bolt": {"diameter": "8 mm", "fu": "400 MPa"}}})
+    p = _eu_bolted(SIDE_PLATE, {"diameter": "8 mm", "fu": "400 MPa"})
     c = next(c for c in run(p).checks if c.id == "bolts")
     assert c.reference[1] == pytest.approx(thin, rel=1e-12)
     assert "does not count as thick" in c.sources["F_v,Rk"]
