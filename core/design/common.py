@@ -245,6 +245,19 @@ def own_checks(section: Section, gross: list[Check]) -> OwnChecks:
     return of_list(section, "own_checks", gross, make)  # type: ignore[arg-type]
 
 
+def plated_both_faces(joints: Sequence[Joint], j: int) -> bool:
+    """Whether timber j has a steel plate on each of its faces (it is in two joints of
+    ``joints``): each plate then has half of it (NDS 2018 12.3.7; EN 1995-1-1 8.1.3(1)),
+    or, for plates on one face, it is the central member of a steel-timber-steel joint.
+    """
+    return sum(1 for jt in joints if j in jt.timbers) >= 2
+
+
+def member_width(section: Section) -> float:
+    """The section's overall width, from its leftmost to its rightmost ply edge, m."""
+    return max(p.x + p.width for p in section.plies) - min(p.x for p in section.plies)
+
+
 def plate_share(section: Section, i: int) -> float:
     """Share of the load carried by ply i in proportion to its bending stiffness about the
     common neutral axis, E_i I_i,na / EI (common practice for flitch beams).

@@ -91,12 +91,13 @@ def governing_action(beam: BeamResult, combo: CombinationResult, design: DesignS
 
 def eu_psi2(beam: BeamResult, combo: CombinationResult, design: DesignSpec) -> float:
     """psi2 of the final moduli of a ULS combination (EN 1995-1-1 2.3.2.2(2)): that of
-    :func:`governing_action`, 1.0 where it is permanent (D).
+    :func:`governing_action`, 1.0 where it is permanent (D); found once per combination
+    and design.
     """
-    case = governing_action(beam, combo, design)
-    if case == "D":
-        return 1.0
-    return {**EN1990_PSI, **design.psi}[case][2]
+    def make() -> float:
+        case = governing_action(beam, combo, design)
+        return 1.0 if case == "D" else {**EN1990_PSI, **design.psi}[case][2]
+    return with_partner(combo, "eu_psi2", design, make)
 
 
 def eu_uls_section(section: Section, beam: BeamResult, combo: CombinationResult,

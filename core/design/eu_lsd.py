@@ -42,8 +42,10 @@ from .common import (
     apply_overrides,
     connector_checks,
     deflection_checks,
+    member_width,
     no_yield_strength,
     pattern_notes,
+    plated_both_faces,
     side_by_side_joints,
     uncombined_cases,
     unit_shear_stress,
@@ -97,7 +99,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
     warnings += uncombined_cases(beam)
     sc = design.service_class
     tau_unit = unit_shear_stress(section)
-    member_width = max(p.x + p.width for p in section.plies) - min(p.x for p in section.plies)
+    width = member_width(section)
     joints: list[Joint] | None = None  # found at the first steel ply
     for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):
         if section.area[i] <= 0 or not section.is_connected(i):
@@ -113,7 +115,7 @@ def eu_checks(project: Project, section: Section, beam: BeamResult,
             g = {"gamma_M": gm}
             for combo in uls:
                 km = ec5.k_mod(_eu_duration(combo.duration), sc)
-                bend = eu_bending(i, section, beam, combo, design, member_width, warnings)
+                bend = eu_bending(i, section, beam, combo, design, width, warnings)
                 if bend is not None:
                     checks.append(bend)
                 inter = eu_interaction(i, section, beam, combo, design, warnings)
@@ -317,12 +319,9 @@ def bolt_value(section: Section, design: DesignSpec, jt: Joint, system: str,
     My = en_M_y(bolt.fu, d)
     rho = min(r for r in rhos if r is not None)
     fh = en_f_h_k(rho, d, 90.0)
-
-    def plated(j: int) -> bool:  # plates on both faces of timber j
-        return sum(1 for other in joints if j in other.timbers) >= 2
-
-    t1 = min(section.plies[j].width / (2 if plated(j) else 1) for j in jt.timbers)
-    if not jt.steel_is_main and plated(jt.timbers[0]):
+    t1 = min(section.plies[j].width / (2 if plated_both_faces(joints, j) else 1)
+             for j in jt.timbers)
+    if not jt.steel_is_main and plated_both_faces(joints, jt.timbers[0]):
         t2 = section.plies[jt.timbers[0]].width
         value, rule = en_steel_outer(fh, t2, d, My, steel.width, hole_diameter(design))
         kind = f"steel plates on both faces of the timber, per plane, {rule}"

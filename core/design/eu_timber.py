@@ -21,7 +21,7 @@ from ..model.design import DesignSpec
 from ..model.errors import MissingCheck, Problem
 from ..section.transformed import Section
 from .check import Check, CheckId, capacity_from
-from .common import apply_overrides
+from .common import apply_overrides, member_width
 from .demands import PlyDemand, eu_uls_section, ply_demands
 from .slip import carries_axial
 from .stability import EdgeStability, edge_stabilities, edge_stability
@@ -232,9 +232,7 @@ def interaction_check(i: int, section: Section, beam: BeamResult, combo: Combina
             eq = "(sigma_c,0,d / f_c,0,d)^2 + sigma_m,d / f_m,d <= 1 (EN 1995-1-1 6.2.4)"
         cid = "compression-bending"
         detail = f"sigma_c = {sc:.4g} Pa, f_c,0,d = {fcd:.4g} Pa, k_c = {kc:.4g}"
-        member_width = (max(p.x + p.width for p in section.plies)
-                        - min(p.x for p in section.plies))
-        crit = _k_crit(i, section, beam, design, member_width, d, warnings)
+        crit = _k_crit(i, section, beam, design, member_width(section), d, warnings)
         if crit is None:
             return None
         if crit[0] < 1.0:  # lateral torsional buckling with the compression, (6.35)

@@ -32,8 +32,10 @@ from .common import (
     apply_overrides,
     connector_checks,
     deflection_checks,
+    member_width,
     no_yield_strength,
     pattern_notes,
+    plated_both_faces,
     side_by_side_joints,
     uncombined_cases,
     unit_shear_stress,
@@ -62,7 +64,7 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
                                 "own list) with the US basis; timber strength checks are "
                                 "skipped"))
     warnings += uncombined_cases(beam)
-    member_width = max(p.x + p.width for p in section.plies) - min(p.x for p in section.plies)
+    width = member_width(section)
     joints: list[Joint] | None = None  # found at the first steel ply
     for i, (ply, mat) in enumerate(zip(section.plies, section.materials, strict=True)):
         if section.area[i] <= 0 or not section.is_connected(i):
@@ -75,7 +77,7 @@ def us_checks(project: Project, section: Section, beam: BeamResult,
                                         "skipped on the US basis"))
                 continue
             for combo in combos:
-                bend = bending_check(i, section, beam, combo, design, member_width, warnings)
+                bend = bending_check(i, section, beam, combo, design, width, warnings)
                 if bend is not None:
                     checks.append(bend)
                 inter = interaction_check(i, section, beam, combo, design, warnings)
@@ -364,6 +366,5 @@ def _available_thickness(section: Section, j: int, joints: list[Joint]) -> float
     faces (NDS 12.3.7 multiple shear, each plane taking half the member, from memory).
     ``joints``: the section's side-by-side joints.
     """
-    count = sum(1 for jt in joints if j in jt.timbers)
     width = section.plies[j].width
-    return width / 2 if count >= 2 else width
+    return width / 2 if plated_both_faces(joints, j) else width

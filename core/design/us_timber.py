@@ -24,7 +24,7 @@ from ..model.materials import Material
 from ..model.plies import Ply
 from ..section.transformed import Section
 from .check import Check, CheckId, capacity_from
-from .common import apply_overrides
+from .common import apply_overrides, member_width
 from .demands import PlyDemand, ply_demands
 from .slip import carries_axial
 from .stability import EdgeStability, edge_stabilities, edge_stability
@@ -246,10 +246,9 @@ def interaction_check(i: int, section: Section, beam: BeamResult, combo: Combina
     # C_L of the ply's compression edge, as its bending check takes it (the lower of two
     # sides over a support): F**b of 3.9.1 and F'b1 of 3.9.2 include it, F*b does not
     c_l = 1.0
-    member_width = (max(p.x + p.width for p in section.plies)
-                    - min(p.x for p in section.plies))
+    width = member_width(section)
     for edge in edge_stabilities(beam, design, "top" if d.sign > 0 else "bottom", d.x):
-        stable = _stability(i, section, design, member_width, d, edge, fb_no_cl, warnings)
+        stable = _stability(i, section, design, width, d, edge, fb_no_cl, warnings)
         if stable is None:
             return None
         c_l = min(c_l, stable[0])

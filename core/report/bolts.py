@@ -31,7 +31,7 @@ from ..codes.dowels import (
     nds_single_shear,
 )
 from ..design.check import Check
-from ..design.common import Joint, plate_share, side_by_side_joints
+from ..design.common import Joint, plate_share, plated_both_faces, side_by_side_joints
 from ..design.net_section import hole_diameter
 from ..model.constants import INCH
 from ..pipeline import Analysis
@@ -87,9 +87,8 @@ def _joint(section: Section, c: Check) -> Joint:
 
 def _available_thickness(section: Section, j: int) -> float:
     """As the design check: half the timber where plates lie on both of its faces."""
-    count = sum(1 for jt in side_by_side_joints(section) if j in jt.timbers)
     width = section.plies[j].width
-    return width / 2 if count >= 2 else width
+    return width / 2 if plated_both_faces(side_by_side_joints(section), j) else width
 
 
 def _mode_table(modes: YieldModes, equations: dict[str, str], u: str, per: str,
@@ -176,8 +175,8 @@ def _en(a: Analysis, c: Check, jt: Joint, u: str) -> tuple[list[str], YieldModes
              f"{num(dm, IN)}^2.6 = {num(My * 1000.0, IN)}{NBSP}N\u00b7mm"]
     joints = side_by_side_joints(s)
 
-    def plated(j: int) -> bool:  # plates on both faces of timber j (as eu_lsd.bolt_value)
-        return sum(1 for other in joints if j in other.timbers) >= 2
+    def plated(j: int) -> bool:
+        return plated_both_faces(joints, j)
 
     if not jt.steel_is_main and plated(jt.timbers[0]):
         t2 = s.plies[jt.timbers[0]].width

@@ -18,27 +18,20 @@ import pytest
 
 from plystack.core.io.project_file import from_dict
 from plystack.core.pipeline import run
+from tests.validation.test_splitting import _eu
 
 E_T, E_S = 11_000e6, 210_000e6
 
 
 def flitch(g: str, q: str) -> dict:
-    return {
-        "format": "plystack", "version": 1, "title": "EU flitch", "display_units": "SI",
-        "plies": [
-            {"name": "L", "material": "C24", "x": "0 mm", "y": "0 mm", "width": "45 mm",
-             "height": "220 mm"},
-            {"name": "P", "material": "S275", "x": "45 mm", "y": "10 mm", "width": "10 mm",
-             "height": "200 mm"},
-            {"name": "R", "material": "C24", "x": "55 mm", "y": "0 mm", "width": "45 mm",
-             "height": "220 mm"}],
-        "beam": {"spans": ["4 m"], "supports": "simple", "self_weight": False,
-                 "bearing_length": "100 mm",
-                 "loads": [{"case": "D", "type": "line", "value": g},
-                           {"case": "L", "type": "line", "value": q}],
-                 "combinations": "EN1990"},
-        "design": {"basis": "EU-LSD", "service_class": 1, "en1990_expression": "6.10",
-                   "bolt": {"diameter": "12 mm", "rows": ["60 mm", "160 mm"]}}}
+    """The EU flitch of test_splitting.py with line loads g (G) and q (Q), its bolt
+    stations left to the program, EN 1990 (6.10)."""
+    data = _eu(None)
+    data["beam"]["loads"] = [{"case": "D", "type": "line", "value": g},
+                             {"case": "L", "type": "line", "value": q}]
+    del data["design"]["bolt"]["stations"]
+    data["design"]["en1990_expression"] = "6.10"
+    return data
 
 
 def plate_stress(g: float, q: float, psi2: float) -> float:
