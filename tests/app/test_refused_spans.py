@@ -118,3 +118,20 @@ def test_a_refused_limit_loses_its_mark_when_the_model_shows_again(window, qtbot
     assert panel.live_limit.text() == "360"
     assert panel.live_limit.styleSheet() == ""
     assert not panel.error.text().startswith("deflection limit live:")
+
+
+def test_an_overhang_too_short_for_the_bearing_is_refused_as_the_file_does(window, qtbot):
+    """The demo's 3 in bearings: an overhang of 1 in would leave the bearing centred on
+    support 2 standing half an inch past the member's end."""
+    panel = window.beam_panel
+    _show_beam_tab(window, qtbot)
+    before = window.document.project
+    _enter(panel.over_right, qtbot, "1 in")
+    assert panel.over_right.styleSheet() == BAD_STYLE
+    assert "beam.bearing_length: 3.000 in centred on support 2 would run past the " \
+        "member's end" in panel.error.text()
+    assert window.document.project == before
+    _enter(panel.over_right, qtbot, "2 in")  # half the bearing and more: taken
+    assert panel.over_right.styleSheet() == ""
+    assert window.document.project.beam.layout.overhang_right == units.parse(
+        "2 in", "length", "x")
