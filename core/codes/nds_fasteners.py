@@ -60,7 +60,9 @@ def edge_distance_perpendicular(D: float, loaded: bool) -> DistanceRule:
 def row_spacing_perpendicular(D: float, l_over_D: float) -> DistanceRule:
     """NDS 2018 Table 12.5.1D, spacing between rows for loading perpendicular to grain
     (from memory): l/D <= 2: 2.5 D; 2 < l/D < 6: (5 l + 10 D) / 8; l/D >= 6: 5 D, where
-    l/D is the lesser of l_m/D and 2 l_s/D (12.5.1.3).
+    l/D is the lesser of l_m/D and l_s/D of the wood members: the bolt's length in the
+    wood main member and its total length in the wood side members (the table's
+    footnote; a steel member does not count).
     """
     if l_over_D <= 2:
         need = 2.5 * D

@@ -98,11 +98,12 @@ def us_rules(section: Section, joint: Joint, layout: BoltLayout, D: float,
                         "one steel plate at most 5 in apart (shrinkage across the grain; NDS "
                         "2018 12.5.1.3, from memory; common practice)"))
     if along is not None:
-        thick_steel = section.plies[joint.steel].width
+        # the footnote counts the bolt's length in wood only: a steel side plate leaves
+        # the wood main member (l_m / D), a steel main plate the wood side members
+        # (their total, 2 l_s / D with the thinner side member)
         thick_wood = min(section.plies[j].width for j in joint.timbers)
-        l_m, l_s = (thick_steel, thick_wood) if joint.steel_is_main else (thick_wood,
-                                                                          thick_steel)
-        r_rows = nf.row_spacing_perpendicular(D, min(l_m / D, 2 * l_s / D))
+        r_rows = nf.row_spacing_perpendicular(
+            D, 2 * thick_wood / D if joint.steel_is_main else thick_wood / D)
         out.append(Rule("bolt-spacing", "spacing between rows (stations)", r_rows.full, along,
                         r_rows.full / D, layout.stations[0], r_rows.rule))
     return out

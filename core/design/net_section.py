@@ -2,7 +2,7 @@
 
 Timber: NDS 2018 3.1.2 (net section at holes, from memory) or EN 1995-1-1 5.1(2) (the
 reduction of the cross-section by holes); the holes of one station are taken out of the
-plies the bolts pass through (the plate and its timbers), with the hole diameter D + 1/16
+plies the bolts pass through (every ply at the holes' heights: a through-bolt), with the hole diameter D + 1/16
 in (US, NDS 2018 12.1.3.2, from memory) or d + 1 mm (EU, EN 1995-1-1 10.4.3, from memory).
 Steel plate: AISC 360-16 B4.3 (net area) and F13.1 (from memory): where
 F_u A_fn < Y_t F_y A_fg for the plate's tension half, the capacity is multiplied by
@@ -71,10 +71,12 @@ class NetSection:
 def net_section(section: Section, joint: Joint, layout: BoltLayout, k: int,
                 d_hole: float) -> NetSection:
     """Exact moments of the transformed section less a d_hole high rectangle, as wide as
-    each ply the bolt passes through, at every hole of station k.
+    each ply the bolt passes through, at every hole of station k: a through-bolt crosses
+    every ply at its height, not only the plate's and its joint's timbers (plies side by
+    side, such as a doubled joist with a plate on each face, lose their holes too).
     """
     heights = tuple(layout.rows[r] for r in layout.station_rows[k])
-    plies = (joint.steel, *joint.timbers)
+    plies = tuple(range(len(section.plies)))
     found = once(section, ("holes_removed", plies, heights, d_hole),
                  lambda: holes_removed(section, plies, heights, d_hole, k))
     return found if found.station == k else evolve(found, station=k)
@@ -409,7 +411,7 @@ def net_shear_checks(section: Section, joint: Joint, layout: BoltLayout, design:
                     else "EN 1995-1-1 5.1(2) (from memory)")},
                 notes=(f"Holes of {plate} at station {gov.station + 1} (x = {where}): "
                        f"diameter {fmt(d_hole, 'length', system)} at y = {holes}, taken out "
-                       f"of the plate and its timbers; the cut at y = "
+                       f"of every ply at those heights (a through-bolt); the cut at y = "
                        f"{fmt(gov.y, 'length', system)} governs (net neutral axis and each "
                        "hole's edge tried).",
                        f"|V| = {fmt(V, 'force', system)}: the combination's largest shear "

@@ -31,7 +31,7 @@ from ..actions.beam import CaseSolution
 from ..actions.extremes import extremes
 from ..actions.stages import StageSolutions, StageStiffness
 from ..model.design import DesignSpec
-from ..model.errors import Problem
+from ..model.errors import MissingCheck, Problem
 from ..section.transformed import Section, with_moduli
 from .check import Check
 from .common import unit_shear_stress
@@ -306,7 +306,39 @@ def staged_checks(checks: tuple[Check, ...], existing: Section, built: Section,
         else:
             out.append(c)
     out, gaps = upper_bound_notes(out, beam, existing, stages)
-    return tuple(out), warnings + gaps, _result(existing, built, beam, stages)
+    return (tuple(out), warnings + gaps + _unpatterned(checks, combos, beam.patterned_cases),
+            _result(existing, built, beam, stages))
+
+
+#: The checks whose demands the stages replace (or bound) above.
+STAGED_IDS = ("bending", "shear", "tension-bending", "compression-bending", "bending-net")
+
+
+def _unpatterned(checks: Sequence[Check], combos: Mapping[str, CombinationResult],
+                 patterned: Sequence[str]) -> list[Problem]:
+    """A named missing check for each combination with a patterned case whose staged
+    checks were made: the stages are solved with every variable case on every span and
+    overhang at once, and the pattern arrangements (ASCE 7-16 4.3.3; EN 1991-1-1 6.2.1)
+    are enveloped for the finished member only, which does not bound the stages (the
+    before-stage acts on the existing section alone). ``beam.pattern_live_load`` false
+    takes the loads as given.
+    """
+    out: list[Problem] = []
+    said: set[str] = set()
+    for c in checks:
+        combo = combos.get(c.combination or "")
+        if combo is None or combo.name in said or not (
+                c.id in STAGED_IDS or c.id.startswith("deflection")):
+            continue
+        cases = [k for k in patterned if combo.combination.factors.get(k, 0.0)]
+        if cases:
+            said.add(combo.name)
+            out.append(MissingCheck("beam.pattern_live_load", (
+                f"staged loading under {combo.name}: the stresses and deflections of the "
+                f"two stages take {', '.join(cases)} on every span and overhang at once; "
+                "the pattern arrangements are enveloped for the finished member only, "
+                "which does not bound the stages (not made)")))
+    return out
 
 
 def _actions(which: str, sec: Section, combo: CombinationResult,

@@ -195,9 +195,8 @@ def staged_net(c: Check, combo: CombinationResult, existing: Section, built: Sec
     _value, layout = got
     d_hole = hole_diameter(design)
     i1 = _index(existing, c.ply or "")
-    with_holes = tuple(j for j in (joint.steel, *joint.timbers))
-    old_holes = tuple(k for k in (_index(existing, built.plies[j].name) for j in with_holes)
-                      if k is not None)
+    with_holes = tuple(range(len(built.plies)))  # a through-bolt crosses every ply
+    old_holes = tuple(range(len(existing.plies)))
     f = combo.combination.factors
     s1, s2 = stages.stage("before", f), stages.stage("after", f)
     best = (c.demand, c.x)

@@ -76,15 +76,34 @@ def test_nds_loaded_edge_4D(D):
 
 
 @pytest.mark.parametrize("D", [0.5, 0.625, 0.75])
-def test_nds_spacing_in_a_row_3D_and_between_rows_2_5D(D):
-    """l/D = min(l_m / D, 2 l_s / D) = 0.375 / D < 2: spacing between rows 2.5D."""
+def test_nds_spacing_in_a_row_3D_and_between_rows_by_the_wood_side_members(D):
+    """Table 12.5.1D's footnote counts the bolt's length in wood only: the steel plate is
+    the main member, so l/D = l_s / D with l_s = 1.5 + 1.5 = 3 in, the total in the two
+    wood side members (not the plate's 0.375 in): D = 1/2 in, l/D = 6: 5D = 2.5 in;
+    D = 5/8 in, l/D = 4.8: (5 x 3 + 10 x 0.625) / 8 = 2.65625 in; D = 3/4 in, l/D = 4:
+    (15 + 7.5) / 8 = 2.8125 in.
+    """
+    need = {0.5: 2.5, 0.625: 2.65625, 0.75: 2.8125}[D]
     for f, ok in ((1 + EPS, True), (1 - EPS, False)):
         c = geometry(us_flitch(D, [6.0, 24.0, 42.0], [5.0, 5.0 + 3 * D * f]), "bolt-spacing",
                      "spacing in a row")
         assert c.ok is ok and c.demand / IN == pytest.approx(3 * D, rel=1e-12)
-        c = geometry(us_flitch(D, [6.0, 6.0 + 2.5 * D * f, 42.0], [5.0, 7.0]), "bolt-spacing",
+        c = geometry(us_flitch(D, [6.0, 6.0 + need * f, 42.0], [5.0, 7.0]), "bolt-spacing",
                      "spacing between rows")
-        assert c.ok is ok and c.demand / IN == pytest.approx(2.5 * D, rel=1e-12)
+        assert c.ok is ok and c.demand / IN == pytest.approx(need, rel=1e-12)
+
+
+def test_nds_spacing_between_rows_of_a_steel_side_plate_counts_the_wood_main_member():
+    """Steel side plates on a 1.5 in joist (invented test member): l/D = l_m / D =
+    1.5 / 0.625 = 2.4 (the plates' steel does not count): (5 x 1.5 + 10 x 0.625) / 8 =
+    1.71875 in, where the steel's l/D = 0.8 would have allowed 2.5D = 1.5625 in.
+    """
+    for f, ok in ((1 + EPS, True), (1 - EPS, False)):
+        p = us_flitch(0.625, [6.0, 6.0 + 1.71875 * f, 42.0], [5.0, 7.0])
+        plies = p.plies
+        side = (replace(plies[0], x=0.0), replace(plies[1], x=1.5 * IN))
+        c = geometry(p.with_plies(side), "bolt-spacing", "spacing between rows")
+        assert c.ok is ok and c.demand / IN == pytest.approx(1.71875, rel=1e-12)
 
 
 def test_nds_outer_rows_at_most_5_in_apart():
