@@ -2,8 +2,9 @@
 
 Timber: NDS 2018 3.1.2 (net section at holes, from memory) or EN 1995-1-1 5.1(2) (the
 reduction of the cross-section by holes); the holes of one station are taken out of the
-plies the bolts pass through (every ply at the holes' heights: a through-bolt), with the hole diameter D + 1/16
-in (US, NDS 2018 12.1.3.2, from memory) or d + 1 mm (EU, EN 1995-1-1 10.4.3, from memory).
+plies the bolts pass through (every ply at the holes' heights: a through-bolt), with the
+hole diameter D + 1/16 in (US, NDS 2018 12.1.3.2, from memory) or d + 1 mm (EU,
+EN 1995-1-1 10.4.3, from memory).
 Steel plate: AISC 360-16 B4.3 (net area) and F13.1 (from memory): where
 F_u A_fn < Y_t F_y A_fg for the plate's tension half, the capacity is multiplied by
 F_u A_fn / (Y_t F_y A_fg), Y_t = 1.0 for F_y / F_u <= 0.8; EN 1993-1-1 6.2.5(4) likewise

@@ -229,7 +229,8 @@ def net_text(a: Analysis, c: Check, u: str, sym: str) -> tuple[list[str], str]:
     holes = ", ".join(q(y, "length", u) for y in net.holes)
     where = [f"Holes of {plate} at station {k + 1} (x = {q(layout.stations[k], 'span', u)}): "
              f"diameter {q(hole_diameter(a.design), 'length', u, IN)} at y = {holes}, through "
-             "every ply at those heights (a through-bolt); taken at the largest moment (conservative)",
+             "every ply at those heights (a through-bolt); taken at the largest moment "
+             "(conservative)",
              f"Net section{' with creep (timber moduli crept)' if creep else ''}: I_t,net = "
              f"{q(net.I_t, 'second_moment', u, IN)}, neutral axis y = "
              f"{q(net.y_na, 'length', u, IN)}; (c\u2032 / I_t,net) / (c / I_t) = "

@@ -11,6 +11,7 @@ from __future__ import annotations
 from plystack.core.io.project_file import from_dict
 from plystack.core.pipeline import run
 
+
 def _project(spans, pattern=True, staged=True):
     joist = {"material": "DFL-No2", "y": "0 in", "width": "1.5 in", "height": "9.25 in"}
     plate = {"material": "A36", "y": "0.125 in", "width": "0.25 in", "height": "9 in",
