@@ -17,10 +17,12 @@ from dataclasses import dataclass, replace
 from ..actions.analysis import BeamResult, CombinationResult
 from ..model.caution import CAUTION
 from ..model.design import DesignSpec
+from ..model.errors import Problem
 from ..model.units import fmt
 from ..section.transformed import Section
 from .bolt_geometry import geometry_checks, layout_factors
 from .bolt_layout import BoltLayout, layout_of
+from .bolt_steel import screened
 from .check import Check, Fasteners, capacity_from, evolve
 from .common import STOCK_SPACINGS_SI, STOCK_SPACINGS_US, Joint, own_checks, plate_share
 from .net_section import net_checks, net_shear_checks
@@ -235,16 +237,19 @@ def net_shear_at_holes(section: Section, beam: BeamResult, design: DesignSpec, j
 
 def valued_plate_checks(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,
                         value: BoltValue, system: str, gross: list[Check],
-                        layouts: list[PlateLayout] | None, segment: bool) -> list[Check]:
+                        layouts: list[PlateLayout] | None, segment: bool,
+                        warnings: list[Problem] | None = None) -> list[Check]:
     """The bolt checks of a plate whose bolts could be valued, its layout appended to
     ``layouts``; for a segment's run (``segment``) only the timbers' net-section shear.
+    The steel side of the bolts is screened (``bolt_steel``; a missing check in
+    ``warnings`` where the screen does not pass).
     """
     if segment:
         return net_shear_at_holes(section, beam, design, joint, value, system, gross)
     made = bolted_plate(section, beam, design, joint, value, system, gross)
     if layouts is not None:
         layouts.append(made.layout)
-    return list(made.checks)
+    return screened(made.checks, section, joint, made.layout.layout, design, warnings)
 
 
 def bolted_plate(section: Section, beam: BeamResult, design: DesignSpec, joint: Joint,

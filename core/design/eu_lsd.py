@@ -266,7 +266,7 @@ def _bolts(section: Section, beam: BeamResult, design: DesignSpec, uls: list,  #
         value = bolt_value(section, design, jt, system, warnings)
         if value is not None:
             out += valued_plate_checks(section, beam, design, jt, value, system, gross,
-                                       layouts, segment)
+                                       layouts, segment, warnings)
     return out
 
 

@@ -304,7 +304,7 @@ def _bolts(section: Section, beam: BeamResult, design: DesignSpec, system: str,
         value = bolt_value(section, design, jt, system, warnings, joints)
         if value is not None:
             out += valued_plate_checks(section, beam, design, jt, value, system, gross,
-                                       layouts, segment)
+                                       layouts, segment, warnings)
     return out
 
 

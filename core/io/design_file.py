@@ -186,9 +186,9 @@ def _read_lengths(raw: Any, longest: int, path: str, problems: list[Problem]) ->
 
 
 def _write_bolt(bolt: Bolt, system: str, us: bool = True) -> dict[str, Any]:
-    """The "bolt" object: the strength the other basis reads (``fu`` on US-ASD, ``Fyb`` on
-    EU-LSD) only where it is not the default, so that saving adds nothing the file did not
-    say.
+    """The "bolt" object: ``fu`` on US-ASD (read there only by the steel side of the
+    bolts) and ``Fyb`` on EU-LSD (not read) only where it is not the default, so that
+    saving adds nothing the file did not say.
     """
     out = write_fields(bolt, Bolt(), BOLT_FIELDS, system)
     unread = "fu" if us else "Fyb"

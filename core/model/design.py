@@ -67,8 +67,9 @@ class Bolt:
         Fyb: bolt bending yield strength, Pa (45,000 psi typical, from memory of NDS
             Table 12.3.3 footnote).
         rows: bolts across the depth at each bolt location.
-        fu: bolt tensile strength for EN 1995-1-1 (8.30), Pa (grade 4.6: 400 MPa,
-            EN 1993-1-8 Table 3.1, from memory).
+        fu: bolt tensile strength for EN 1995-1-1 (8.30) and the steel side of the bolt
+            (AISC 360-16 J3.6, EN 1993-1-8 Table 3.4), Pa (grade 4.6: 400 MPa, EN
+            1993-1-8 Table 3.1, from memory).
         spacing: spacing of bolt locations along the member, m; None: the tool picks the
             largest stock spacing that works.
         row_heights: heights y of the bolt rows (the section's y, m), given in the file
