@@ -135,7 +135,10 @@ def deflection_checks(check_id: CheckId, label: str, solution: CaseSolution | Ex
             partial_factors={"limit": limit}, sources={**sources, "L": "span length; twice "
                                                        "the length for an overhang "
                                                        "(common practice)"},
-            equation=f"delta <= L / {limit:g}", location=name, x=x, notes=notes))
+            equation=f"delta <= L / {limit:g}", location=name, x=x,
+            notes=notes + ((f"Upward: {name} lifts (its largest deflection, downward "
+                            "positive, is negative); its size is checked.",) if w < 0
+                           else ())))
     return out
 
 

@@ -355,6 +355,7 @@ def bolt_value(section: Section, design: DesignSpec, jt: Joint, system: str,
         sources={"F_v,Rk": f"EN 1995-1-1 8.2.3 {kind}, f_h,90,k (8.32)-(8.33), M_y,Rk (8.30), "
                  "rope effect left out (from memory)", "k_mod": S_KMOD,
                  "gamma_M": "EN 1995-1-1 Table 2.3, connections (from memory)"},
-        notes=(mode_text, "Spacing and distances per EN 1995-1-1 Table 8.4 (a1 >= 4d, "
-               "a3 >= 4d, loaded edge a4,t >= 4d).", EDGE_END_REMINDERS[1]),
+        notes=(mode_text, "Spacing and distances per EN 1995-1-1 Table 8.4 at 90 degrees "
+               "(a1 >= 4d, a2 >= 4d, a3,t >= max(7d, 80 mm), loaded edge a4,t >= 4d: the "
+               "bolt-spacing, bolt-end and bolt-edge checks).", EDGE_END_REMINDERS[1]),
         capacity_symbol="F_v,Rd")

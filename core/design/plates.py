@@ -3,7 +3,8 @@
 Unbraced length L_b (the project's rule, stated on every check): the user's
 ``plate_unbraced_length``; else a vertical plate between two timbers is braced by them
 (a flitch plate); a vertical plate on one face is braced at its fasteners, so L_b is the
-bolt spacing (the user's, else the largest stock spacing, 24 in or 600 mm); a plate lying
+largest gap between the given bolt stations, else the bolt spacing (the user's, else the
+largest stock spacing, 24 in or 600 mm); a plate lying
 flat (a cover plate) bends about its minor axis, where lateral torsional buckling does
 not occur.
 US: AISC 360-16 F11 (rectangular bars, major axis), C_b = 1.0 (conservative), Omega_b
@@ -49,6 +50,11 @@ def plate_bracing(section: Section, i: int, design: DesignSpec,
     joint = next((j for j in found if j.steel == i), None)
     if joint is not None and joint.steel_is_main:
         return PlateBracing(None, "plate between two timbers: braced by them")
+    stations = sorted(design.bolt.stations)
+    if len(stations) >= 2:
+        gap = max(b - a for a, b in zip(stations, stations[1:], strict=False))
+        return PlateBracing(gap, "plate on a face: braced at its bolts, L_b = the largest "
+                                 "gap between the given bolt stations")
     stock = 24 * INCH if section.materials[i].id and design.us else 0.6
     s = design.bolt.spacing or stock
     return PlateBracing(s, "plate on a face: braced at its bolts, L_b = the bolt spacing"

@@ -126,7 +126,9 @@ def station_text(a: Analysis, c: Check, u: str) -> tuple[list[str], str]:
     rows = ", ".join(q(y, "length", u) for y in layout.rows)
     where = [f"Layout: {len(layout.stations)} stations from x = {q(layout.stations[0], 'span', u)}"
              f" to {q(layout.stations[-1], 'span', u)}, nominal spacing "
-             f"{q(layout.spacing, 'length', u)}; rows at y = {rows}; {layout.count} bolts",
+             f"{q(layout.spacing, 'length', u)}"
+             f"{'' if layout.placed else ' (the least gap of the given stations)'}; rows at "
+             f"y = {rows}; {layout.count} bolts",
              f"Most loaded: station {gov.station + 1} at x = {q(gov.x, 'span', u)}, "
              f"n = {gov.bolts} bolts; tributary x = {q(gov.a, 'span', u)} to "
              f"{q(gov.b, 'span', u)}, distributed load on it w_trib = "

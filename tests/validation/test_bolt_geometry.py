@@ -208,3 +208,11 @@ def test_n_ef_by_hand():
     assert en.n_ef(4, 7 * 0.012, 0.012, alpha=90.0) == 4.0
     assert en.n_ef(4, 23 * 0.012, 0.012) == 4.0  # a1 >= 13 d n^0.4 = 22.6 d: n_ef = n
     assert math.isclose(en.a1(0.012, 0.0), 0.060, rel_tol=1e-12)
+
+
+def test_given_stations_at_unequal_gaps_are_described_as_such():
+    """Stations at 6, 10 and 42 in are 4 and 32 in apart: not "one location every 4 in"."""
+    b = next(c for c in run(us_flitch(0.5, [6.0, 10.0, 42.0], [3.0, 7.0])).checks
+             if c.id == "bolts")
+    assert b.location.startswith("bolt locations at the given stations, 4.00 in to 32.0 in "
+                                 "apart (3 locations, 2 per location")

@@ -73,3 +73,4 @@ def test_eu_demo_screen_by_hand():
     a = run(load(EU_DEMO))
     b = next(c for c in a.checks if c.id == "bolts")
     assert "2 x 13.03 kN" in _note(b) and "F_b,Rd = 96.00 kN" in _note(b)
+
