@@ -206,7 +206,7 @@ def layout_text(layout: BoltLayout, system: str) -> str:
     """The layout in words (the check's location)."""
     n, rows = len(layout.stations), len(layout.rows)
     stagger = ", staggered" if any(len(r) != rows for r in layout.station_rows) else ""
-    gaps = [b - a for a, b in zip(layout.stations, layout.stations[1:], strict=False)]
+    gaps = layout.station_gaps
     if gaps and max(gaps) - min(gaps) > 1e-9 * max(gaps):
         return (f"bolt locations at the given stations, {fmt(min(gaps), 'length', system, 3)}"
                 f" to {fmt(max(gaps), 'length', system, 3)} apart "

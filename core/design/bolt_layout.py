@@ -26,6 +26,11 @@ from .common import Joint
 US_ROW_SPREAD = 5 * INCH
 
 
+
+def gaps(values: tuple[float, ...] | list[float]) -> list[float]:
+    """The gaps between neighbouring ``values`` (ascending), m."""
+    return [b - a for a, b in zip(values, values[1:], strict=False)]
+
 @dataclass(frozen=True)
 class BoltLayout:
     """Every bolt of one plate.
@@ -55,6 +60,11 @@ class BoltLayout:
         """(x, y) of every bolt, station by station."""
         return tuple((x, self.rows[r]) for x, rs in zip(self.stations, self.station_rows,
                                                          strict=True) for r in rs)
+
+    @property
+    def station_gaps(self) -> list[float]:
+        """The gaps between neighbouring stations, m (empty with one station)."""
+        return gaps(self.stations)
 
     @property
     def count(self) -> int:

@@ -21,7 +21,7 @@ from ..model.design import DesignSpec
 from ..model.errors import MissingCheck, Problem
 from ..model.units import fmt
 from ..section.transformed import Section
-from .bolt_layout import BoltLayout
+from .bolt_layout import BoltLayout, gaps
 from .check import Check
 from .common import Joint
 from .net_section import hole_diameter
@@ -40,9 +40,7 @@ def least_distances(section: Section, layout: BoltLayout) -> tuple[float, float]
     lo, hi = layout.extent
     xs, ys = layout.stations, layout.rows
     edge = min(min(ys) - plate.y, plate.top - max(ys), xs[0] - lo, hi - xs[-1])
-    gaps = [b - a for a, b in zip(xs, xs[1:], strict=False)]
-    gaps += [b - a for a, b in zip(ys, ys[1:], strict=False)]
-    return edge, min(gaps, default=math.inf)
+    return edge, min(layout.station_gaps + gaps(ys), default=math.inf)
 
 
 def steel_capacity(section: Section, joint: Joint, layout: BoltLayout,

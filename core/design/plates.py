@@ -23,6 +23,7 @@ from ..codes import aisc, en1993
 from ..model.constants import INCH
 from ..model.design import DesignSpec
 from ..section.transformed import Section
+from .bolt_layout import gaps
 from .common import Joint, side_by_side_joints
 
 
@@ -50,10 +51,9 @@ def plate_bracing(section: Section, i: int, design: DesignSpec,
     joint = next((j for j in found if j.steel == i), None)
     if joint is not None and joint.steel_is_main:
         return PlateBracing(None, "plate between two timbers: braced by them")
-    stations = sorted(design.bolt.stations)
-    if len(stations) >= 2:
-        gap = max(b - a for a, b in zip(stations, stations[1:], strict=False))
-        return PlateBracing(gap, "plate on a face: braced at its bolts, L_b = the largest "
+    between = gaps(sorted(design.bolt.stations))
+    if between:
+        return PlateBracing(max(between), "plate on a face: braced at its bolts, L_b = the largest "
                                  "gap between the given bolt stations")
     stock = 24 * INCH if section.materials[i].id and design.us else 0.6
     s = design.bolt.spacing or stock

@@ -20,15 +20,21 @@ E_W = 1.6e6  # DFL No.2, psi (NDS Supplement Table 4A, from memory)
 E_S = 29e6  # A36, psi (AISC 360-16, from memory)
 
 
+def doubled_joist_plies(plate_stage: str = "existing") -> list[dict[str, str]]:
+    """Two 2x10 DFL No.2 joists side by side with a 1/4 x 9 in A36 plate on each face."""
+    joist = {"y": "0 in", "height": "9.25 in", "material": "DFL-No2", "width": "1.5 in"}
+    plate = {"y": "0.125 in", "height": "9 in", "material": "A36", "width": "0.25 in",
+             "stage": plate_stage}
+    return [{**plate, "name": "plate A", "x": "0 in"},
+            {**joist, "name": "joist A", "x": "0.25 in"},
+            {**joist, "name": "joist B", "x": "1.75 in"},
+            {**plate, "name": "plate B", "x": "3.25 in"}]
+
+
 def _project():
-    ply = {"y": "0 in", "height": "9.25 in", "material": "DFL-No2", "width": "1.5 in"}
-    plate = {"y": "0.125 in", "height": "9 in", "material": "A36", "width": "0.25 in"}
     return from_dict({
         "format": "plystack", "version": 1, "title": "through bolts", "display_units": "US",
-        "plies": [{**plate, "name": "plate A", "x": "0 in"},
-                  {**ply, "name": "joist A", "x": "0.25 in"},
-                  {**ply, "name": "joist B", "x": "1.75 in"},
-                  {**plate, "name": "plate B", "x": "3.25 in"}],
+        "plies": doubled_joist_plies(),
         "beam": {"spans": ["10 ft"], "supports": "simple", "self_weight": False,
                  "loads": [{"case": "D", "type": "line", "value": "100 plf"},
                            {"case": "L", "type": "line", "value": "200 plf"}],

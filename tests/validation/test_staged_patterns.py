@@ -10,18 +10,13 @@ from __future__ import annotations
 
 from plystack.core.io.project_file import from_dict
 from plystack.core.pipeline import run
+from tests.validation.test_net_section_through_bolts import doubled_joist_plies
 
 
 def _project(spans, pattern=True, staged=True):
-    joist = {"material": "DFL-No2", "y": "0 in", "width": "1.5 in", "height": "9.25 in"}
-    plate = {"material": "A36", "y": "0.125 in", "width": "0.25 in", "height": "9 in",
-             "stage": "added" if staged else "existing"}
     return from_dict({
         "format": "plystack", "version": 1, "title": "staged patterns", "display_units": "US",
-        "plies": [{**plate, "name": "plate A", "x": "0 in"},
-                  {**joist, "name": "joist A", "x": "0.25 in"},
-                  {**joist, "name": "joist B", "x": "1.75 in"},
-                  {**plate, "name": "plate B", "x": "3.25 in"}],
+        "plies": doubled_joist_plies("added" if staged else "existing"),
         "beam": {"spans": spans, "supports": "simple", "self_weight": False,
                  "pattern_live_load": pattern,
                  "loads": [{"case": "D", "type": "line", "value": "20 plf", "stage": "before"},
